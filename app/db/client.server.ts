@@ -1,0 +1,38 @@
+import Database from "better-sqlite3";
+import { drizzle, type BetterSQLite3Database } from "drizzle-orm/better-sqlite3";
+import { migrate } from "drizzle-orm/better-sqlite3/migrator";
+import { mkdirSync } from "node:fs";
+import path from "node:path";
+import { env } from "~/lib/env.server";
+import * as schema from "./schema";
+
+export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+
+export const MIGRATIONS_DIR = path.resolve(process.env.MIGRATIONS_DIR ?? "drizzle");
+
+/** Opens a SQLite file with the pragmas Nearnote relies on and applies pending migrations. */
+export function openDatabase(file: string): Db {
+  mkdirSync(path.dirname(file), { recursive: true });
+  const sqlite = new Database(file);
+  sqlite.pragma("journal_mode = WAL");
+  sqlite.pragma("foreign_keys = ON");
+  sqlite.pragma("busy_timeout = 5000");
+  sqlite.pragma("synchronous = NORMAL");
+  const db = drizzle(sqlite, { schema }) as Db;
+  migrate(db, { migrationsFolder: MIGRATIONS_DIR });
+  return db;
+}
+
+let instance: Db | undefined;
+
+/** The one database connection of the process, opened on first use. */
+export function db(): Db {
+  instance ??= openDatabase(env().databasePath);
+  return instance;
+}
+
+/** Tests swap in a freshly migrated file. */
+export function closeDatabaseForTests() {
+  instance?.$client.close();
+  instance = undefined;
+}

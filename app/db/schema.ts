@@ -1,0 +1,235 @@
+import { sql } from "drizzle-orm";
+import {
+  index,
+  integer,
+  primaryKey,
+  real,
+  sqliteTable,
+  text,
+  uniqueIndex,
+} from "drizzle-orm/sqlite-core";
+
+// Ids are random text (crypto.randomUUID) so that URLs never reveal how many
+// students or takes a studio has.
+const id = () => text("id").primaryKey().$defaultFn(() => crypto.randomUUID());
+const createdAt = () =>
+  integer("created_at", { mode: "timestamp_ms" })
+    .notNull()
+    .$defaultFn(() => new Date());
+
+export const users = sqliteTable("users", {
+  id: id(),
+  email: text("email").notNull().unique(),
+  name: text("name").notNull(),
+  passwordHash: text("password_hash").notNull(),
+  emailVerifiedAt: integer("email_verified_at", { mode: "timestamp_ms" }),
+  mailOnFeedback: integer("mail_on_feedback", { mode: "boolean" }).notNull().default(true),
+  mailDigest: integer("mail_digest", { mode: "boolean" }).notNull().default(true),
+  createdAt: createdAt(),
+});
+
+export const studios = sqliteTable("studios", {
+  id: id(),
+  name: text("name").notNull(),
+  timeZone: text("time_zone").notNull().default("UTC"),
+  createdAt: createdAt(),
+});
+
+export const MEMBERSHIP_ROLES = ["owner", "teacher", "student"] as const;
+export type MembershipRole = (typeof MEMBERSHIP_ROLES)[number];
+
+export const memberships = sqliteTable(
+  "memberships",
+  {
+    id: id(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    role: text("role", { enum: MEMBERSHIP_ROLES }).notNull(),
+    status: text("status", { enum: ["active", "removed"] }).notNull().default("active"),
+    createdAt: createdAt(),
+    removedAt: integer("removed_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [
+    uniqueIndex("memberships_user_studio_unique").on(t.userId, t.studioId),
+    index("memberships_studio_role_idx").on(t.studioId, t.role, t.status),
+  ],
+);
+
+export const sessions = sqliteTable(
+  "sessions",
+  {
+    id: id(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    // The studio the person is working in; a student of several studios switches it.
+    activeStudioId: text("active_studio_id").references(() => studios.id, {
+      onDelete: "set null",
+    }),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("sessions_user_idx").on(t.userId)],
+);
+
+export const exercises = sqliteTable(
+  "exercises",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    title: text("title").notNull(),
+    // JSON array of key names as teachers write them ("D", "Gm", …).
+    keys: text("keys", { mode: "json" }).$type<string[]>().notNull(),
+    progression: text("progression").notNull(),
+    // JSON array of technique names from the analysis engine.
+    focusTechniques: text("focus_techniques", { mode: "json" })
+      .$type<string[]>()
+      .notNull()
+      .default(sql`'[]'`),
+    tempo: integer("tempo"),
+    dueDate: text("due_date"), // YYYY-MM-DD in the studio's time zone
+    instructions: text("instructions").notNull().default(""),
+    assignedTo: text("assigned_to", { enum: ["studio", "students"] }).notNull().default("studio"),
+    archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("exercises_studio_idx").on(t.studioId, t.archivedAt, t.dueDate)],
+);
+
+// Students an exercise is assigned to when it is not for the whole studio.
+export const exerciseAssignees = sqliteTable(
+  "exercise_assignees",
+  {
+    exerciseId: text("exercise_id")
+      .notNull()
+      .references(() => exercises.id, { onDelete: "cascade" }),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+  },
+  (t) => [
+    primaryKey({ columns: [t.exerciseId, t.userId] }),
+    index("exercise_assignees_user_idx").on(t.userId),
+  ],
+);
+
+export const TAKE_STATUSES = ["pending", "analysed", "failed"] as const;
+
+export const takes = sqliteTable(
+  "takes",
+  {
+    id: id(),
+    studentId: text("student_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    exerciseId: text("exercise_id").references(() => exercises.id, { onDelete: "set null" }),
+    key: text("key"),
+    note: text("note").notNull().default(""),
+    fileKey: text("file_key").notNull(),
+    originalName: text("original_name").notNull(),
+    size: integer("size").notNull(),
+    contentHash: text("content_hash").notNull(),
+    status: text("status", { enum: TAKE_STATUSES }).notNull().default("pending"),
+    error: text("error"),
+    recordedAt: integer("recorded_at", { mode: "timestamp_ms" }).notNull(),
+    // ISO week in the studio's time zone, e.g. "2026-W48"; recomputed when the zone changes.
+    weekKey: text("week_key").notNull(),
+    durationSec: real("duration_sec").notNull().default(0),
+    analysisVersion: integer("analysis_version"),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    uniqueIndex("takes_student_hash_unique").on(t.studentId, t.contentHash),
+    index("takes_student_recorded_idx").on(t.studentId, t.recordedAt),
+    index("takes_studio_week_idx").on(t.studioId, t.weekKey, t.studentId),
+    index("takes_studio_created_idx").on(t.studioId, t.createdAt),
+    index("takes_exercise_idx").on(t.exerciseId),
+    index("takes_version_idx").on(t.analysisVersion),
+  ],
+);
+
+// One row per analysed take: the figures the progress board aggregates.
+export const takeMetrics = sqliteTable("take_metrics", {
+  takeId: text("take_id")
+    .primaryKey()
+    .references(() => takes.id, { onDelete: "cascade" }),
+  chordCount: integer("chord_count").notNull(),
+  changeCount: integer("change_count").notNull(),
+  melodyNoteCount: integer("melody_note_count").notNull().default(0),
+  totalMotion: integer("total_motion").notNull(),
+  bestTotalMotion: integer("best_total_motion").notNull(),
+  smoothness: real("smoothness").notNull(),
+  rootPositionLeaps: integer("root_position_leaps").notNull(),
+  score: real("score").notNull(),
+  accuracy: real("accuracy"),
+  estimatedKey: text("estimated_key"),
+  tempoSteadiness: real("tempo_steadiness"),
+  flags: text("flags", { mode: "json" }).$type<Record<string, number>>().notNull(),
+  techniques: text("techniques", { mode: "json" }).$type<Record<string, number>>().notNull(),
+  topLine: text("top_line", { mode: "json" }).$type<number[]>().notNull(),
+  mismatches: text("mismatches", { mode: "json" }).$type<unknown[]>(),
+});
+
+export const chordEvents = sqliteTable(
+  "chord_events",
+  {
+    takeId: text("take_id")
+      .notNull()
+      .references(() => takes.id, { onDelete: "cascade" }),
+    idx: integer("idx").notNull(),
+    startSec: real("start_sec").notNull(),
+    endSec: real("end_sec").notNull(),
+    notes: text("notes", { mode: "json" }).$type<number[]>().notNull(),
+    graceNotes: text("grace_notes", { mode: "json" }).$type<number[]>().notNull(),
+    root: text("root"),
+    bass: text("bass").notNull(),
+    symbol: text("symbol"),
+    roman: text("roman"),
+    quality: text("quality"),
+    inversion: integer("inversion"),
+    upperInversion: integer("upper_inversion"),
+    voicing: text("voicing", { enum: ["close", "open"] }).notNull(),
+    topNote: integer("top_note").notNull(),
+    flags: text("flags", { mode: "json" }).$type<string[]>().notNull(),
+    techniques: text("techniques", { mode: "json" }).$type<string[]>().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.takeId, t.idx] })],
+);
+
+export const changeResults = sqliteTable(
+  "change_results",
+  {
+    takeId: text("take_id")
+      .notNull()
+      .references(() => takes.id, { onDelete: "cascade" }),
+    idx: integer("idx").notNull(),
+    fromIdx: integer("from_idx").notNull(),
+    toIdx: integer("to_idx").notNull(),
+    motion: integer("motion"),
+    bestMotion: integer("best_motion"),
+    bestVoicing: text("best_voicing", { mode: "json" }).$type<number[]>(),
+    suggestions: text("suggestions", { mode: "json" }).$type<unknown[]>().notNull(),
+    flags: text("flags", { mode: "json" }).$type<string[]>().notNull(),
+    bassMotion: integer("bass_motion"),
+    topInterval: integer("top_interval"),
+    commonTones: integer("common_tones"),
+    largestMove: integer("largest_move"),
+  },
+  (t) => [primaryKey({ columns: [t.takeId, t.idx] })],
+);
+
+export type User = typeof users.$inferSelect;
+export type Studio = typeof studios.$inferSelect;
+export type Membership = typeof memberships.$inferSelect;
+export type Exercise = typeof exercises.$inferSelect;
+export type Take = typeof takes.$inferSelect;

@@ -1,0 +1,97 @@
+import {
+  data,
+  isRouteErrorResponse,
+  Link,
+  Links,
+  Meta,
+  Outlet,
+  Scripts,
+  ScrollRestoration,
+  useRouteLoaderData,
+} from "react-router";
+import type { Route } from "./+types/root";
+import { getSessionUser } from "~/auth/session.server";
+import { FlashMessage } from "~/components/FlashMessage";
+import { SiteNav, type NavUser } from "~/components/SiteNav";
+import { readFlash } from "~/lib/flash.server";
+import "./app.css";
+
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await getSessionUser(request);
+  const { flash, header } = await readFlash(request);
+  const navUser: NavUser = user
+    ? { name: user.name, role: user.active?.role ?? null, studioName: user.active?.studioName ?? null }
+    : null;
+  return data({ user: navUser, flash }, header ? { headers: { "Set-Cookie": header } } : undefined);
+}
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const root = useRouteLoaderData<typeof loader>("root");
+  return (
+    <html lang="en">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="min-h-screen bg-paper text-ink antialiased">
+        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2">
+          Skip to content
+        </a>
+        <SiteNav user={root?.user ?? null} />
+        <main id="main" className="mx-auto max-w-6xl px-4 py-8">
+          {root?.flash ? (
+            <div className="mb-6">
+              <FlashMessage tone={root.flash.tone}>{root.flash.message}</FlashMessage>
+            </div>
+          ) : null}
+          {children}
+        </main>
+        <footer className="no-print mx-auto max-w-6xl px-4 pb-8 text-xs text-ink-soft">
+          Nearnote · practice feedback for keyboard harmony · <Link to="/privacy" className="underline">Privacy</Link>
+        </footer>
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  let title = "Something went wrong";
+  let message = "Nearnote hit an unexpected problem. Your work is saved; try again in a moment.";
+  let stack: string | undefined;
+  if (isRouteErrorResponse(error)) {
+    if (error.status === 404) {
+      title = "Page not found";
+      message = "There is nothing at this address. It may have moved, or the link may be mistyped.";
+    } else if (error.status === 403) {
+      title = "Not yours to see";
+      message = typeof error.data === "string" && error.data ? error.data : "This page belongs to someone else.";
+    } else {
+      title = `${error.status} ${error.statusText}`;
+      message = typeof error.data === "string" && error.data ? error.data : message;
+    }
+  } else if (import.meta.env.DEV && error instanceof Error) {
+    stack = error.stack;
+  }
+  return (
+    <section className="mx-auto max-w-xl py-10 text-center">
+      <h1 className="text-3xl font-semibold">{title}</h1>
+      <p className="mt-3 text-ink-soft">{message}</p>
+      <p className="mt-6">
+        <Link to="/" className="text-tide-dark underline">
+          Back to the start
+        </Link>
+      </p>
+      {stack ? <pre className="mt-6 overflow-x-auto rounded bg-card p-4 text-left text-xs">{stack}</pre> : null}
+    </section>
+  );
+}
