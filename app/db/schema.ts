@@ -233,3 +233,83 @@ export type Studio = typeof studios.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;
 export type Exercise = typeof exercises.$inferSelect;
 export type Take = typeof takes.$inferSelect;
+
+// --- Accounts: invitations, one-time tokens, sign-in throttling ---------------
+
+export const INVITATION_ROLES = ["student", "teacher"] as const;
+export type InvitationRole = (typeof INVITATION_ROLES)[number];
+
+// Only a SHA-256 of each link's token is stored, so a copy of the database
+// cannot be turned into working invitation links.
+export const invitations = sqliteTable(
+  "invitations",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    email: text("email").notNull(),
+    role: text("role", { enum: INVITATION_ROLES }).notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    invitedById: text("invited_by_id").references(() => users.id, { onDelete: "set null" }),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    acceptedAt: integer("accepted_at", { mode: "timestamp_ms" }),
+    acceptedById: text("accepted_by_id").references(() => users.id, { onDelete: "set null" }),
+    revokedAt: integer("revoked_at", { mode: "timestamp_ms" }),
+    sentCount: integer("sent_count").notNull().default(1),
+    lastSentAt: integer("last_sent_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+    createdAt: createdAt(),
+  },
+  (t) => [index("invitations_studio_idx").on(t.studioId, t.createdAt)],
+);
+
+// Every invitation mail sent (first send or resend), for the per-studio daily limit.
+export const invitationSends = sqliteTable(
+  "invitation_sends",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    invitationId: text("invitation_id").references(() => invitations.id, { onDelete: "set null" }),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" })
+      .notNull()
+      .$defaultFn(() => new Date()),
+  },
+  (t) => [index("invitation_sends_studio_idx").on(t.studioId, t.sentAt)],
+);
+
+export const USER_TOKEN_PURPOSES = ["verify-email", "reset-password"] as const;
+export type UserTokenPurpose = (typeof USER_TOKEN_PURPOSES)[number];
+
+export const userTokens = sqliteTable(
+  "user_tokens",
+  {
+    id: id(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    purpose: text("purpose", { enum: USER_TOKEN_PURPOSES }).notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    usedAt: integer("used_at", { mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("user_tokens_user_idx").on(t.userId, t.purpose)],
+);
+
+// Failed sign-ins, keyed by the e-mail typed and the client address.
+export const signInFailures = sqliteTable(
+  "sign_in_failures",
+  {
+    id: id(),
+    email: text("email").notNull(),
+    address: text("address").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("sign_in_failures_key_idx").on(t.email, t.address, t.createdAt)],
+);
+
+export type Invitation = typeof invitations.$inferSelect;
