@@ -1,0 +1,191 @@
+// DOMAIN rules 4–6: root, quality and lead-sheet symbol from tonal's chord detection with
+// our tie-break; inversion by the chord tone in the bass; close or open voicing.
+import { Chord, Interval } from "tonal";
+import type { Key } from "./pitch";
+import { pc, spellPc } from "./pitch";
+import type { ChordName, Triad } from "./types";
+
+const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#", "B"];
+
+/** Lead-sheet suffixes we prefer among tonal's aliases (tonal writes `M`, `Madd9`, ...). */
+const PREFERRED_SUFFIXES = [
+  "", "m", "dim", "aug", "7", "maj7", "m7", "m7b5", "dim7", "sus4", "sus2", "7sus4", "6", "m6",
+  "add9", "madd9", "9", "maj9", "m9", "69", "m69", "11", "m11", "13", "maj13", "m13", "mMaj7", "5",
+];
+
+const DIMINISHED_TYPES = new Set(["diminished", "half-diminished", "diminished seventh"]);
+/** Interval names that are chord tones rather than added tones (sus notes handled apart). */
+const CORE_INTERVALS = new Set(["1P", "3m", "3M", "5P", "5d", "5A", "7m", "7M", "7d"]);
+
+type Reading = {
+  rootPc: number;
+  suffix: string;
+  quality: string;
+  intervals: string[];
+  alteredFifth: boolean;
+  rootIsBass: boolean;
+  addedCount: number;
+  order: number;
+};
+
+function suffixOf(aliases: string[]): string {
+  for (const s of PREFERRED_SUFFIXES) if (aliases.includes(s)) return s;
+  return aliases[0] ?? "";
+}
+
+function reading(name: string, bassPc: number, order: number): Reading | null {
+  const slashed = Chord.get(name);
+  if (slashed.empty || !slashed.tonic) return null;
+  const rootPc = pc(noteChroma(slashed.tonic));
+  const alias = slashed.aliases[0] ?? "";
+  // Re-read without the slash: tonal rotates the intervals of a slash chord around its bass.
+  const plain = Chord.get(slashed.tonic + alias);
+  const intervals = plain.empty ? slashed.intervals : plain.intervals;
+  const dimFamily = DIMINISHED_TYPES.has(slashed.type);
+  const hasThird = intervals.includes("3m") || intervals.includes("3M");
+  const alteredFifth =
+    intervals.includes("5A") || (intervals.includes("5d") && !dimFamily) || /#5|b5/.test(alias) && !dimFamily;
+  const addedCount = intervals.filter(
+    (i) => !CORE_INTERVALS.has(i) && !(!hasThird && (i === "2M" || i === "4P")),
+  ).length;
+  return {
+    rootPc,
+    suffix: suffixOf(slashed.aliases),
+    quality: slashed.type || alias,
+    intervals,
+    alteredFifth,
+    rootIsBass: rootPc === bassPc,
+    addedCount,
+    order,
+  };
+}
+
+function noteChroma(name: string): number {
+  const letter = "C D EF G A B".indexOf(name[0].toUpperCase());
+  let value = letter;
+  for (const ch of name.slice(1)) value += ch === "#" ? 1 : ch === "b" ? -1 : 0;
+  return ((value % 12) + 12) % 12;
+}
+
+/** Rule 4's tie-break: (a) no altered fifth, (b) root in the bass, (c) fewer added tones. */
+function better(a: Reading, b: Reading): number {
+  if (a.alteredFifth !== b.alteredFifth) return a.alteredFifth ? 1 : -1;
+  if (a.rootIsBass !== b.rootIsBass) return a.rootIsBass ? -1 : 1;
+  if (a.addedCount !== b.addedCount) return a.addedCount - b.addedCount;
+  return a.order - b.order;
+}
+
+export function triadOf(intervals: string[]): Triad | null {
+  const has = (i: string) => intervals.includes(i);
+  if (has("3M")) return has("5A") && !has("5P") ? "augmented" : "major";
+  if (has("3m")) return has("5d") && !has("5P") ? "diminished" : "minor";
+  if (has("4P")) return "sus4";
+  if (has("2M")) return "sus2";
+  return null;
+}
+
+const cache = new Map<string, ChordName>();
+
+/** Names a chord from its pitch classes and bass pitch class; cached, since takes repeat chords. */
+export function nameChord(pcs: Iterable<number>, bassPc: number): ChordName {
+  const set = new Set<number>();
+  for (const p of pcs) set.add(pc(p));
+  set.add(pc(bassPc));
+  let mask = 0;
+  for (const p of set) mask |= 1 << p;
+  const cacheKey = `${pc(bassPc)}:${mask}`;
+  const hit = cache.get(cacheKey);
+  if (hit) return hit;
+  const ordered = [pc(bassPc), ...[...set].filter((p) => p !== pc(bassPc)).sort((a, b) => a - b)];
+  const names = set.size >= 2 ? Chord.detect(ordered.map((p) => SHARP_NAMES[p])) : [];
+  const readings = names
+    .map((n, i) => reading(n, pc(bassPc), i))
+    .filter((r): r is Reading => r !== null)
+    .sort(better);
+  const best = readings[0];
+  const result: ChordName = best
+    ? {
+        rootPc: best.rootPc,
+        triad: triadOf(best.intervals),
+        quality: best.quality,
+        suffix: best.suffix,
+        intervals: [...new Set(best.intervals.map((i) => (Interval.semitones(i) ?? 0) % 12))].sort((a, b) => a - b),
+        intervalNames: Object.fromEntries(best.intervals.map((i) => [(Interval.semitones(i) ?? 0) % 12, i])),
+      }
+    : { rootPc: null, triad: null, quality: null, suffix: null, intervals: [], intervalNames: {} };
+  cache.set(cacheKey, result);
+  return result;
+}
+
+/** Rule 5: 0 root, 1 third, 2 fifth, 3 seventh; null for any other tone in the bass. */
+export function inversionOf(name: ChordName, bassMidi: number): number | null {
+  if (name.rootPc === null) return null;
+  const interval = name.intervalNames[(pc(bassMidi) - name.rootPc + 12) % 12];
+  if (!interval) return null;
+  const degree = interval.replace(/[^0-9]/g, "");
+  return degree === "1" ? 0 : degree === "3" ? 1 : degree === "5" ? 2 : degree === "7" ? 3 : null;
+}
+
+/** Rule 6: open when some pitch class of the chord fits between adjacent upper-structure notes. */
+export function voicingOf(upper: number[], chordPcs: Set<number>): "close" | "open" {
+  for (let i = 0; i + 1 < upper.length; i++) {
+    for (let m = upper[i] + 1; m < upper[i + 1]; m++) if (chordPcs.has(pc(m))) return "open";
+  }
+  return "close";
+}
+
+/** Added tones by their usual names ("9", "6", "11", ...), the triad and seventh left out. */
+export function addedTones(name: ChordName): string[] {
+  const hasThird = Object.values(name.intervalNames).some((i) => i === "3m" || i === "3M");
+  return Object.values(name.intervalNames)
+    .filter((i) => !CORE_INTERVALS.has(i) && !(!hasThird && (i === "2M" || i === "4P")))
+    .map((i) => {
+      const n = Number(i.replace(/[^0-9]/g, ""));
+      const shown = n === 2 ? 9 : n === 4 ? 11 : n;
+      const q = i.replace(/[0-9]/g, "");
+      const accidental = q === "m" || q === "d" ? "b" : q === "A" ? "#" : "";
+      return `${accidental}${shown}`;
+    });
+}
+
+export function spelledSymbol(name: ChordName, bassPc: number, key: Key | null): string | null {
+  if (name.rootPc === null || name.suffix === null) return null;
+  const root = spellPc(name.rootPc, key);
+  const slash = pc(bassPc) === name.rootPc ? "" : `/${spellPc(pc(bassPc), key)}`;
+  return `${root}${name.suffix}${slash}`;
+}
+
+const MAJOR_STEPS = [0, 2, 4, 5, 7, 9, 11];
+const MINOR_STEPS = [0, 2, 3, 5, 7, 8, 10];
+const NUMERALS = ["I", "II", "III", "IV", "V", "VI", "VII"];
+
+/** Roman numeral of the chord in the key: case by quality, b/# against the key's scale. */
+export function romanOf(name: ChordName, key: Key): string | null {
+  if (name.rootPc === null || name.triad === null) return null;
+  const steps = key.mode === "minor" ? MINOR_STEPS : MAJOR_STEPS;
+  const rel = (name.rootPc - key.tonic + 12) % 12;
+  let degree = steps.indexOf(rel);
+  let accidental = "";
+  if (degree < 0) {
+    // Between two scale degrees: prefer a flat on the upper one (bVII, bIII), as teachers write.
+    degree = steps.indexOf((rel + 1) % 12);
+    accidental = "b";
+    if (degree < 0) {
+      degree = steps.indexOf((rel + 11) % 12);
+      accidental = "#";
+    }
+  }
+  const lower = name.triad === "minor" || name.triad === "diminished";
+  let numeral = lower ? NUMERALS[degree].toLowerCase() : NUMERALS[degree];
+  const suffix = name.suffix ?? "";
+  if (name.quality === "half-diminished") numeral += "ø7";
+  else if (name.quality === "diminished seventh") numeral += "o7";
+  else if (name.triad === "diminished") numeral += "o";
+  else if (name.triad === "augmented") numeral += "+";
+  else {
+    // Drop the quality letter already carried by the numeral's case: "m7" → "7", "madd9" → "add9".
+    const rest = lower && suffix.startsWith("m") && !suffix.startsWith("maj") ? suffix.slice(1) : suffix;
+    numeral += rest;
+  }
+  return accidental + numeral;
+}

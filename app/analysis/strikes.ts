@@ -1,0 +1,181 @@
+// DOMAIN rules 1–3: notes begun together form strikes; quick grace notes travel with the
+// note they resolve to; keys still held join later strikes; a lone bass played a little
+// early or late joins the chord above it.
+import type { NoteEvent, TempoPoint } from "./types";
+
+export const STRIKE_GAP = 0.08; // rule 1: within 80 ms of the previous onset
+export const STRIKE_SPAN = 0.3; // rule 1: within 300 ms of the strike's first onset
+export const GRACE_MAX = 0.15; // rule 2: lasting at most 150 ms (or a sixteenth, if longer)
+export const GRACE_RELEASE = 0.03; // rule 2: release within 30 ms of the resolution's onset
+export const HELD_FOR = 0.15; // rule 3: still held 150 ms after the strike begins
+export const BASS_MERGE = 0.15; // rule 3: a lone bass within 150 ms of the chord
+const EPS = 1e-9;
+
+export type Grace = { note: NoteEvent; target: NoteEvent };
+
+export type Strike = {
+  start: number;
+  /** struck notes, grace notes excluded, onset order */
+  notes: NoteEvent[];
+  graces: Grace[];
+  /** notes struck earlier and still held by the key (rule 3) */
+  held: NoteEvent[];
+};
+
+function bpmAt(tempos: TempoPoint[], time: number): number {
+  let bpm = 120; // Standard MIDI File 1.0: 120 bpm until a tempo event says otherwise
+  for (const t of tempos) {
+    if (t.time <= time + EPS) bpm = t.bpm;
+    else break;
+  }
+  return bpm;
+}
+
+function firstAtOrAfter(list: NoteEvent[], time: number): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (list[mid].start < time) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Rule 2: finds each grace note and the longer note one or two semitones above it. */
+export function findGraces(notes: NoteEvent[], tempos: TempoPoint[] = []): Map<NoteEvent, NoteEvent> {
+  const byPitch = new Map<number, NoteEvent[]>();
+  for (const n of notes) {
+    const list = byPitch.get(n.midi);
+    if (list) list.push(n);
+    else byPitch.set(n.midi, [n]);
+  }
+  const graces = new Map<NoteEvent, NoteEvent>();
+  const targets = new Set<NoteEvent>();
+  for (const g of notes) {
+    const length = g.end - g.start;
+    const sixteenth = 60 / bpmAt(tempos, g.start) / 4;
+    if (length > Math.max(GRACE_MAX, sixteenth) + EPS) continue;
+    let best: NoteEvent | null = null;
+    for (const step of [1, 2]) {
+      const list = byPitch.get(g.midi + step);
+      if (!list) continue;
+      // Lists are in onset order: jump to the first onset inside the release window and stop
+      // after a handful, so a crafted file of same-instant notes cannot make this quadratic.
+      let i = firstAtOrAfter(list, g.end - GRACE_RELEASE - EPS);
+      for (let seen = 0; i < list.length && seen < 16; i++, seen++) {
+        const t = list[i];
+        if (t.start > g.end + GRACE_RELEASE + EPS) break;
+        if (t === g || t.end - t.start <= length || graces.has(t)) continue;
+        if (!best || Math.abs(t.start - g.end) < Math.abs(best.start - g.end)) best = t;
+      }
+    }
+    if (best && !targets.has(g)) {
+      graces.set(g, best);
+      targets.add(best);
+    }
+  }
+  return graces;
+}
+
+/** Rules 1 and 2: groups notes (sorted by onset) into strikes. */
+export function groupStrikes(sorted: NoteEvent[], graces: Map<NoteEvent, NoteEvent>): Strike[] {
+  const owner = new Map<NoteEvent, Strike>();
+  const graceOf = new Map<NoteEvent, NoteEvent>();
+  for (const [g, t] of graces) graceOf.set(t, g);
+  const strikes: Strike[] = [];
+  let current: Strike | null = null;
+  let lastOnset = -Infinity;
+  const place = (n: NoteEvent, s: Strike) => {
+    if (owner.has(n)) return;
+    owner.set(n, s);
+    const target = graces.get(n);
+    if (target) {
+      // The resolution belongs to the grace note's strike even when it begins later; in the
+      // rare case it was struck first, the grace note goes to the resolution's strike.
+      const placed = owner.get(target);
+      if (placed) placed.graces.push({ note: n, target });
+      else {
+        s.graces.push({ note: n, target });
+        owner.set(target, s);
+        s.notes.push(target);
+        lastOnset = Math.max(lastOnset, target.start);
+      }
+    } else s.notes.push(n);
+    lastOnset = Math.max(lastOnset, n.start);
+  };
+  for (const n of sorted) {
+    if (owner.has(n)) continue;
+    const joins = current && n.start - lastOnset <= STRIKE_GAP + EPS && n.start - current.start <= STRIKE_SPAN + EPS;
+    if (!joins) {
+      current = { start: n.start, notes: [], graces: [], held: [] };
+      strikes.push(current);
+      lastOnset = n.start;
+    }
+    place(n, current!);
+  }
+  return strikes.filter((s) => s.notes.length > 0);
+}
+
+function distinctPitches(notes: NoteEvent[]): number[] {
+  return [...new Set(notes.map((n) => n.midi))].sort((a, b) => a - b);
+}
+
+/** Rule 3, second half: a lone bass just before or just after a chord joins it. */
+export function mergeSeparateBass(strikes: Strike[]): Strike[] {
+  const out: Strike[] = [];
+  const merged = new Set<Strike>();
+  for (let i = 0; i < strikes.length; i++) {
+    const s = strikes[i];
+    if (merged.has(s)) continue;
+    const pitches = distinctPitches(s.notes);
+    if (pitches.length === 1 && s.graces.length === 0) {
+      const next = strikes[i + 1];
+      // We merge only into a strike of two or more pitches: a bass under a chord, not a run of
+      // single melody notes pairing up.
+      if (next && next.start - s.start <= BASS_MERGE + EPS && isBelow(pitches[0], next)) {
+        next.notes.unshift(...s.notes);
+        next.start = s.start;
+        continue;
+      }
+      const prev = out[out.length - 1];
+      if (prev && s.start - prev.start <= BASS_MERGE + EPS && isBelow(pitches[0], prev)) {
+        prev.notes.push(...s.notes);
+        continue;
+      }
+    }
+    out.push(s);
+  }
+  return out;
+}
+
+function isBelow(pitch: number, s: Strike): boolean {
+  const others = distinctPitches(s.notes);
+  return others.length >= 2 && pitch < others[0];
+}
+
+/** Rule 3, first half: notes held by the key at least 150 ms into a later strike join it. */
+export function addHeldNotes(strikes: Strike[]): void {
+  // Per pitch only the note released last matters, so each strike scans at most 128 keys.
+  const down = new Map<number, NoteEvent>();
+  for (const s of strikes) {
+    const own = new Set(s.notes.map((n) => n.midi));
+    for (const [pitch, n] of down) {
+      if (n.end < s.start + HELD_FOR - EPS) down.delete(pitch);
+      else if (!own.has(pitch) && n.start < s.start - EPS) s.held.push(n);
+    }
+    for (const n of s.notes) {
+      const prev = down.get(n.midi);
+      if (!prev || n.end > prev.end) down.set(n.midi, n);
+    }
+  }
+}
+
+/** All of rules 1–3 over a note list. */
+export function findStrikes(notes: NoteEvent[], tempos: TempoPoint[] = []): Strike[] {
+  const sorted = [...notes].sort((a, b) => a.start - b.start || a.midi - b.midi);
+  const graces = findGraces(sorted, tempos);
+  const strikes = mergeSeparateBass(groupStrikes(sorted, graces));
+  addHeldNotes(strikes);
+  return strikes;
+}
