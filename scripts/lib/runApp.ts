@@ -1,0 +1,53 @@
+import { spawn, spawnSync } from "node:child_process";
+import { existsSync, readdirSync, statSync } from "node:fs";
+import path from "node:path";
+import { ConfigError, env } from "~/lib/env.server";
+
+/** Newest modification time under a folder (to tell whether the build is stale). */
+function newestMtime(dir: string): number {
+  let newest = 0;
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : statSync(p).mtimeMs);
+  }
+  return newest;
+}
+
+export function buildIfNeeded() {
+  const server = path.resolve("build/server/index.js");
+  const stale = !existsSync(server) || newestMtime(path.resolve("app")) > statSync(server).mtimeMs;
+  if (!stale) return;
+  console.log("Building Nearnote (first run or changed sources)…");
+  const r = spawnSync(path.resolve("node_modules/.bin/react-router"), ["build"], { stdio: "inherit" });
+  if (r.status !== 0) throw new Error("The build failed; see the messages above.");
+}
+
+/** Parses the environment once; on a malformed value prints the reason and exits. */
+export function loadEnvOrExit() {
+  try {
+    return env();
+  } catch (e) {
+    if (e instanceof ConfigError) {
+      console.error(e.message);
+      process.exit(1);
+    }
+    throw e;
+  }
+}
+
+/**
+ * Serves the built app with react-router-serve as a child process (started
+ * from node_modules/.bin so that stopping this script stops the server).
+ */
+export function serveBuiltApp(extraEnv: Record<string, string>) {
+  const child = spawn(
+    path.resolve("node_modules/.bin/react-router-serve"),
+    [path.resolve("build/server/index.js")],
+    { stdio: "inherit", env: { ...process.env, ...extraEnv } },
+  );
+  const stop = () => child.kill("SIGTERM");
+  process.on("SIGINT", stop);
+  process.on("SIGTERM", stop);
+  child.on("exit", (code) => process.exit(code ?? 0));
+  return child;
+}

@@ -1,0 +1,20 @@
+// npm run seed: creates the invented demo studio (idempotent).
+import { db } from "~/db/client.server";
+import { DEMO_PASSWORD, DEMO_STUDENTS, DEMO_TEACHER, seedDemoStudio } from "~/models/demoStudio.server";
+
+export async function seed() {
+  const result = await seedDemoStudio(db());
+  console.log(result.created ? "Seeded the demo studio Tidewater Keys." : "The demo studio is already there; nothing changed.");
+  return result;
+}
+
+export function printDemoSignIns() {
+  console.log(`Demo sign-ins (password for all: ${DEMO_PASSWORD}):`);
+  console.log(`  teacher  ${DEMO_TEACHER.email}`);
+  for (const s of DEMO_STUDENTS) console.log(`  student  ${s.email}`);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  await seed();
+  printDemoSignIns();
+}

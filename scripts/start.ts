@@ -1,0 +1,9 @@
+// npm start: serves the built app for real use. Migrates, never seeds, binds HOST (default 127.0.0.1).
+import { db, closeDatabaseForTests } from "~/db/client.server";
+import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
+
+const config = loadEnvOrExit();
+db(); // applies pending migrations before the first request
+closeDatabaseForTests();
+console.log(`Nearnote on http://${config.host}:${config.port}`);
+serveBuiltApp({ HOST: config.host, PORT: String(config.port) });

@@ -1,0 +1,48 @@
+import { mkdtempSync, readFileSync, statSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { describe, expect, it, vi } from "vitest";
+import { ConfigError, loadOrCreateSecret, parseEnv } from "~/lib/env.server";
+
+describe("configuration", () => {
+  it("has local defaults under storage/", () => {
+    const e = parseEnv({});
+    expect(e.storageDir).toBe(path.resolve("storage"));
+    expect(e.databasePath).toBe(path.resolve("storage/nearnote.db"));
+    expect(e.host).toBe("127.0.0.1");
+    expect(e.port).toBe(3000);
+    expect(e.secureCookies).toBe(false);
+    expect(e.sessionSecret).toBeUndefined();
+  });
+
+  it("makes cookies Secure exactly when APP_URL is https", () => {
+    expect(parseEnv({ APP_URL: "https://keys.example" }).secureCookies).toBe(true);
+    expect(parseEnv({ APP_URL: "http://keys.example" }).secureCookies).toBe(false);
+  });
+
+  it("stops with a clear message naming each malformed value", () => {
+    expect(() => parseEnv({ PORT: "eighty", APP_URL: "ftp://x", SESSION_SECRET: "short" })).toThrow(ConfigError);
+    const error = (() => {
+      try {
+        parseEnv({ PORT: "eighty", SESSION_SECRET: "short", SMTP_URL: "mail.example" });
+      } catch (e) {
+        return e as Error;
+      }
+    })();
+    expect(error?.message).toMatch(/PORT/);
+    expect(error?.message).toMatch(/SESSION_SECRET must be at least 32/);
+    expect(error?.message).toMatch(/SMTP_URL must start with smtp/);
+  });
+
+  it("generates a secret once, keeps it owner-only and says so", () => {
+    const dir = mkdtempSync(path.join(tmpdir(), "nearnote-env-"));
+    const log = vi.fn();
+    const first = loadOrCreateSecret(dir, log);
+    expect(first).toMatch(/^[0-9a-f]{64}$/);
+    expect(log).toHaveBeenCalledOnce();
+    expect(statSync(path.join(dir, "session-secret")).mode & 0o777).toBe(0o600);
+    expect(loadOrCreateSecret(dir, log)).toBe(first);
+    expect(log).toHaveBeenCalledOnce();
+    expect(readFileSync(path.join(dir, "session-secret"), "utf8").trim()).toBe(first);
+  });
+});
