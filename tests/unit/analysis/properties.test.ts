@@ -1,0 +1,75 @@
+// Property tests (fast-check) for motion and best motion, DOMAIN rules 7 and 8.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { bestMotion } from "../../../app/analysis/bestMotion";
+import { motion } from "../../../app/analysis/voiceLeading";
+
+const RUNS = { numRuns: 200 };
+const sortedUnique = (min: number, max: number, minLength: number, maxLength: number) =>
+  fc.uniqueArray(fc.integer({ min, max }), { minLength, maxLength }).map((v) => v.sort((x, y) => x - y));
+// close chords, wide chords and left-hand bass under a right-hand voicing
+const chord = fc.oneof(
+  sortedUnique(48, 84, 2, 5),
+  fc.tuple(fc.integer({ min: 36, max: 50 }), sortedUnique(58, 80, 2, 4)).map(([bass, upper]) => [bass, ...upper]),
+);
+
+describe("motion and best motion properties", () => {
+  it("best motion never exceeds motion (B itself is a candidate), with any option", () => {
+    fc.assert(
+      fc.property(chord, chord, fc.constantFrom({}, { keepTop: true }, { keepBass: true }), (a, b, opts) => {
+        const r = bestMotion(a, b, opts);
+        expect(r).not.toBeNull();
+        expect(r!.motion).toBeLessThanOrEqual(motion(a, b));
+        expect(motion(a, r!.voicing)).toBe(r!.motion);
+      }),
+      RUNS,
+    );
+  });
+
+  it("motion is symmetric", () => {
+    fc.assert(fc.property(chord, chord, (a, b) => motion(a, b) === motion(b, a)), RUNS);
+  });
+
+  it("transposing both chords leaves motion and best motion unchanged", () => {
+    fc.assert(
+      fc.property(chord, chord, fc.integer({ min: -12, max: 12 }), (a, b, t) => {
+        const up = (v: number[]) => v.map((x) => x + t);
+        expect(motion(up(a), up(b))).toBe(motion(a, b));
+        const r = bestMotion(a, b)!;
+        const rt = bestMotion(up(a), up(b))!;
+        expect(rt.motion).toBe(r.motion);
+        expect(rt.voicing).toEqual(up(r.voicing));
+      }),
+      RUNS,
+    );
+  });
+
+  it("the order of the notes in the input changes nothing", () => {
+    fc.assert(
+      fc.property(chord, chord, fc.infiniteStream(fc.double()), (a, b, noise) => {
+        const shuffle = (v: number[]) =>
+          v
+            .map((x) => [noise.next().value as number, x] as const)
+            .sort((p, q) => p[0] - q[0])
+            .map((p) => p[1]);
+        expect(motion(shuffle(a), shuffle(b))).toBe(motion(a, b));
+        expect(bestMotion(shuffle(a), shuffle(b))).toEqual(bestMotion(a, b));
+      }),
+      RUNS,
+    );
+  });
+
+  it("best voicing keeps B's pitch classes (and B's bass when both chords have a left-hand bass)", () => {
+    fc.assert(
+      fc.property(chord, chord, (a, b) => {
+        const r = bestMotion(a, b)!;
+        const pcs = (v: number[]) => v.map((x) => x % 12).sort((x, y) => x - y);
+        expect(pcs(r.voicing)).toEqual(pcs(b));
+        expect(new Set(r.voicing).size).toBe(r.voicing.length);
+        const detached = (v: number[]) => v.length >= 3 && v[1] - v[0] >= 7;
+        if (detached(a) && detached(b)) expect(r.voicing[0]).toBe(b[0]);
+      }),
+      RUNS,
+    );
+  });
+});
