@@ -1,4 +1,5 @@
 import { sql } from "drizzle-orm";
+import type { TakeAnalysis } from "~/analysis/types";
 import {
   index,
   integer,
@@ -178,6 +179,9 @@ export const takeMetrics = sqliteTable("take_metrics", {
   techniques: text("techniques", { mode: "json" }).$type<Record<string, number>>().notNull(),
   topLine: text("top_line", { mode: "json" }).$type<number[]>().notNull(),
   mismatches: text("mismatches", { mode: "json" }).$type<unknown[]>(),
+  // The engine's whole result as `npm run analyse -- --json` prints it, so the take page
+  // and the API return exactly what the engine said; the rows above and below are for queries.
+  analysis: text("analysis", { mode: "json" }).$type<TakeAnalysis>().notNull(),
 });
 
 export const chordEvents = sqliteTable(

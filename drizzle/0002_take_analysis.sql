@@ -1,0 +1,1 @@
+ALTER TABLE `take_metrics` ADD `analysis` text NOT NULL;
