@@ -1,12 +1,151 @@
-import { redirect } from "react-router";
-import { getSessionUser, type SessionUser } from "./session.server";
+import { and, eq, inArray } from "drizzle-orm";
+import { data, redirect } from "react-router";
+import { db } from "~/db/client.server";
+import { exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
+import { env } from "~/lib/env.server";
+import { getSessionUser, type SessionUser, type StudioRole } from "./session.server";
 
-/** Pages: a signed-out visitor is sent to sign in and brought back afterwards. */
-export async function requireUser(request: Request): Promise<SessionUser> {
+/**
+ * Every access rule of Nearnote lives here. Pages get a redirect to /login or a
+ * 403 page; API routes (mode "api") get 401 / 403 JSON. Call one of these at
+ * the top of every loader and action.
+ */
+export type AccessMode = "page" | "api";
+
+export function deny(mode: AccessMode, message = "This page belongs to someone else."): never {
+  if (mode === "api") throw Response.json({ error: message }, { status: 403 });
+  throw data(message, { status: 403 });
+}
+
+export function notFound(mode: AccessMode, message = "Not found"): never {
+  if (mode === "api") throw Response.json({ error: message }, { status: 404 });
+  throw data(message, { status: 404 });
+}
+
+export async function requireUser(request: Request, mode: AccessMode = "page"): Promise<SessionUser> {
   const user = await getSessionUser(request);
   if (!user) {
+    if (mode === "api") throw Response.json({ error: "Sign in first." }, { status: 401 });
     const url = new URL(request.url);
     throw redirect(`/login?redirectTo=${encodeURIComponent(url.pathname + url.search)}`);
   }
   return user;
+}
+
+/** Signed-in pages like /login send people who already have a session on to /home. */
+export async function requireAnonymous(request: Request) {
+  if (await getSessionUser(request)) throw redirect("/home");
+}
+
+export type TeacherContext = SessionUser & { active: StudioRole & { role: "owner" | "teacher" } };
+export type StudentContext = SessionUser & { active: StudioRole & { role: "student" } };
+
+export function isTeacherRole(role: string | undefined | null) {
+  return role === "owner" || role === "teacher";
+}
+
+/** A teacher (owner or co-teacher) working in their active studio. */
+export async function requireTeacher(request: Request, mode: AccessMode = "page"): Promise<TeacherContext> {
+  const user = await requireUser(request, mode);
+  if (!user.active || !isTeacherRole(user.active.role)) deny(mode, "Only the studio's teachers can open this.");
+  return user as TeacherContext;
+}
+
+/** The owner of the active studio (for inviting co-teachers). */
+export async function requireOwner(request: Request, mode: AccessMode = "page"): Promise<TeacherContext> {
+  const user = await requireTeacher(request, mode);
+  if (user.active.role !== "owner") deny(mode, "Only the studio's owner can do this.");
+  return user;
+}
+
+export async function requireStudent(request: Request, mode: AccessMode = "page"): Promise<StudentContext> {
+  const user = await requireUser(request, mode);
+  if (!user.active || user.active.role !== "student") deny(mode, "This page is for students.");
+  return user as StudentContext;
+}
+
+/** Studios where this person teaches right now. */
+export function teacherStudioIds(user: SessionUser): string[] {
+  return user.studios.filter((s) => isTeacherRole(s.role)).map((s) => s.studioId);
+}
+
+/** Rule for one take: the student who played it, or a teacher of its studio. */
+export function canSeeTake(user: SessionUser, take: Pick<Take, "studentId" | "studioId">): boolean {
+  return take.studentId === user.id || teacherStudioIds(user).includes(take.studioId);
+}
+
+export async function requireTakeAccess(
+  request: Request,
+  takeId: string | undefined,
+  mode: AccessMode = "page",
+): Promise<{ user: SessionUser; take: Take }> {
+  const user = await requireUser(request, mode);
+  const take = takeId ? db().select().from(takes).where(eq(takes.id, takeId)).get() : undefined;
+  if (!take) notFound(mode, "There is no such take.");
+  if (!canSeeTake(user, take)) deny(mode, "This take belongs to someone else.");
+  return { user, take };
+}
+
+/** Rule for one exercise: anyone active in its studio (students read, teachers edit: see `requireExerciseEdit`). */
+export function canSeeExercise(user: SessionUser, exercise: Pick<Exercise, "studioId">): boolean {
+  return user.studios.some((s) => s.studioId === exercise.studioId);
+}
+
+export async function requireExerciseAccess(
+  request: Request,
+  exerciseId: string | undefined,
+  mode: AccessMode = "page",
+): Promise<{ user: SessionUser; exercise: Exercise; asTeacher: boolean }> {
+  const user = await requireUser(request, mode);
+  const exercise = exerciseId ? db().select().from(exercises).where(eq(exercises.id, exerciseId)).get() : undefined;
+  if (!exercise) notFound(mode, "There is no such exercise.");
+  if (!canSeeExercise(user, exercise)) deny(mode, "This exercise belongs to another studio.");
+  return { user, exercise, asTeacher: teacherStudioIds(user).includes(exercise.studioId) };
+}
+
+export async function requireExerciseEdit(request: Request, exerciseId: string | undefined, mode: AccessMode = "page") {
+  const result = await requireExerciseAccess(request, exerciseId, mode);
+  if (!result.asTeacher) deny(mode, "Only the studio's teachers can change exercises.");
+  return result;
+}
+
+/** A student of one of this teacher's studios (active or removed: removed students' takes stay reviewable). */
+export async function requireStudentOfTeacher(
+  request: Request,
+  studentId: string | undefined,
+  mode: AccessMode = "page",
+) {
+  const user = await requireTeacher(request, mode);
+  const row = studentId
+    ? db()
+        .select()
+        .from(memberships)
+        .where(
+          and(
+            eq(memberships.userId, studentId),
+            eq(memberships.role, "student"),
+            inArray(memberships.studioId, [user.active.studioId]),
+          ),
+        )
+        .get()
+    : undefined;
+  if (!row) deny(mode, "This student is not in your studio.");
+  return { user, membership: row };
+}
+
+/**
+ * React Router checks the origin of form posts to pages only. Resource and API
+ * routes that change data call this: a browser's cross-site request carries
+ * `Sec-Fetch-Site: cross-site` or a foreign `Origin`, and is refused with 403.
+ */
+export function requireSameOrigin(request: Request) {
+  const site = request.headers.get("sec-fetch-site");
+  if (site && site !== "same-origin" && site !== "none") {
+    throw Response.json({ error: "Cross-site requests are refused." }, { status: 403 });
+  }
+  const origin = request.headers.get("origin");
+  // Behind a proxy the request URL may be internal; the public APP_URL counts as ours too.
+  if (origin && origin !== new URL(request.url).origin && origin !== new URL(env().appUrl).origin) {
+    throw Response.json({ error: "Cross-origin requests are refused." }, { status: 403 });
+  }
 }

@@ -76,10 +76,15 @@ export async function getSessionUser(request: Request): Promise<SessionUser | nu
 }
 
 /** Starts a new session row (a fresh id on every sign-in) and redirects with its cookie. */
-export async function createUserSession(userId: string, redirectTo: string, extraHeaders?: HeadersInit) {
+export async function createUserSession(
+  userId: string,
+  redirectTo: string,
+  extraHeaders?: HeadersInit,
+  activeStudioId?: string,
+) {
   const session = db()
     .insert(sessions)
-    .values({ userId, expiresAt: new Date(Date.now() + SESSION_MS) })
+    .values({ userId, activeStudioId, expiresAt: new Date(Date.now() + SESSION_MS) })
     .returning()
     .get();
   const headers = new Headers(extraHeaders);

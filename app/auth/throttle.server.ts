@@ -1,0 +1,57 @@
+import { and, count, eq, gt, lt, min } from "drizzle-orm";
+import { db } from "~/db/client.server";
+import { signInFailures } from "~/db/schema";
+
+export const MAX_FAILURES = 5;
+export const FAILURE_WINDOW_MS = 15 * 60 * 1000;
+
+/**
+ * The client address for throttling. Behind a proxy the first X-Forwarded-For
+ * entry is the visitor; a direct connection carries none, so all direct
+ * visitors share one bucket per e-mail (stricter, never looser).
+ */
+export function clientAddress(request: Request): string {
+  const forwarded = request.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
+  return forwarded || request.headers.get("x-real-ip")?.trim() || "direct";
+}
+
+export type ThrottleState = { blocked: false } | { blocked: true; retryAt: Date };
+
+/** Blocked once MAX_FAILURES failures for this e-mail and address fall within the window. */
+export function signInThrottle(email: string, address: string, now = new Date()): ThrottleState {
+  const since = new Date(now.getTime() - FAILURE_WINDOW_MS);
+  const row = db()
+    .select({ n: count(), oldest: min(signInFailures.createdAt) })
+    .from(signInFailures)
+    .where(
+      and(eq(signInFailures.email, email), eq(signInFailures.address, address), gt(signInFailures.createdAt, since)),
+    )
+    .get();
+  if (!row || row.n < MAX_FAILURES || !row.oldest) return { blocked: false };
+  // Counting the oldest failure still in the window: when it ages out, a try is allowed again.
+  const oldest = row.oldest instanceof Date ? row.oldest : new Date(Number(row.oldest));
+  return { blocked: true, retryAt: new Date(oldest.getTime() + FAILURE_WINDOW_MS) };
+}
+
+export function recordSignInFailure(email: string, address: string, now = new Date()) {
+  db().insert(signInFailures).values({ email, address, createdAt: now }).run();
+  // Old rows are worthless; trim them as we go rather than with a scheduled job.
+  db()
+    .delete(signInFailures)
+    .where(lt(signInFailures.createdAt, new Date(now.getTime() - 2 * FAILURE_WINDOW_MS)))
+    .run();
+}
+
+export function clearSignInFailures(email: string, address: string) {
+  db()
+    .delete(signInFailures)
+    .where(and(eq(signInFailures.email, email), eq(signInFailures.address, address)))
+    .run();
+}
+
+/** "Try again at 14:05 (in 12 minutes)." */
+export function retryMessage(retryAt: Date, now = new Date()): string {
+  const minutes = Math.max(1, Math.ceil((retryAt.getTime() - now.getTime()) / 60000));
+  const clock = retryAt.toISOString().slice(11, 16);
+  return `Too many failed sign-ins for this e-mail. Try again in ${minutes} minute${minutes === 1 ? "" : "s"} (after ${clock} UTC), or reset your password.`;
+}

@@ -1,0 +1,122 @@
+import path from "node:path";
+import { LocalFileStorage } from "@mjackson/file-storage/local";
+import { and, eq, inArray, type SQL } from "drizzle-orm";
+import { strToU8, zipSync, type Zippable } from "fflate";
+import { db } from "~/db/client.server";
+import { invitations, memberships, sessions, studios, takeMetrics, takes, users } from "~/db/schema";
+import { env } from "~/lib/env.server";
+
+/**
+ * Take files live in one LocalFileStorage under <STORAGE_DIR>/takes, keyed by
+ * `takes.fileKey`. Export and deletion go through the same store as uploads.
+ */
+export function takeFileStorage() {
+  return new LocalFileStorage(path.join(env().storageDir, "takes"));
+}
+
+/** Deletes the matching take rows (analysis rows cascade) and their files. */
+export async function removeTakesWithFiles(where: SQL) {
+  const rows = db().select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
+  if (rows.length === 0) return 0;
+  const files = takeFileStorage();
+  for (const row of rows) await files.remove(row.fileKey);
+  db()
+    .delete(takes)
+    .where(inArray(takes.id, rows.map((r) => r.id)))
+    .run();
+  return rows.length;
+}
+
+/** A file name safe inside a ZIP on every system. */
+function safeName(name: string) {
+  return name.replace(/[^\w.\- ]+/g, "_").slice(0, 80) || "take.mid";
+}
+
+/**
+ * Everything Nearnote holds about a person, as ZIP bytes: `takes/` with each
+ * MIDI file as uploaded, and `nearnote-data.json` with the rest. With
+ * `studioId`, only what belongs to that studio (a teacher's export of a student).
+ */
+export async function buildPersonalExport(userId: string, options: { studioId?: string } = {}): Promise<Uint8Array> {
+  const user = db().select().from(users).where(eq(users.id, userId)).get();
+  if (!user) throw new Error("No such person");
+  const takeWhere = options.studioId
+    ? and(eq(takes.studentId, userId), eq(takes.studioId, options.studioId))
+    : eq(takes.studentId, userId);
+  const takeRows = db()
+    .select({ take: takes, metrics: takeMetrics, studioName: studios.name })
+    .from(takes)
+    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .innerJoin(studios, eq(studios.id, takes.studioId))
+    .where(takeWhere)
+    .orderBy(takes.recordedAt)
+    .all();
+  const membershipRows = db()
+    .select({ studio: studios.name, role: memberships.role, status: memberships.status, joinedAt: memberships.createdAt, removedAt: memberships.removedAt })
+    .from(memberships)
+    .innerJoin(studios, eq(studios.id, memberships.studioId))
+    .where(
+      options.studioId
+        ? and(eq(memberships.userId, userId), eq(memberships.studioId, options.studioId))
+        : eq(memberships.userId, userId),
+    )
+    .all();
+
+  const zip: Zippable = { takes: {} };
+  const takeFolder = zip.takes as Zippable;
+  const files = takeFileStorage();
+  const takeJson = [];
+  for (const [i, row] of takeRows.entries()) {
+    const file = await files.get(row.take.fileKey);
+    const zipName = `${String(i + 1).padStart(3, "0")}-${safeName(row.take.originalName)}`;
+    if (file) takeFolder[zipName] = new Uint8Array(await file.arrayBuffer());
+    const { fileKey: _fileKey, ...take } = row.take;
+    takeJson.push({ ...take, studio: row.studioName, file: file ? `takes/${zipName}` : null, metrics: row.metrics });
+  }
+  const document = {
+    exportedAt: new Date().toISOString(),
+    about: "Everything Nearnote stores about this person. MIDI files are in the takes/ folder.",
+    person: {
+      name: user.name,
+      email: user.email,
+      emailVerifiedAt: user.emailVerifiedAt,
+      mailOnFeedback: user.mailOnFeedback,
+      mailDigest: user.mailDigest,
+      createdAt: user.createdAt,
+    },
+    studios: membershipRows,
+    takes: takeJson,
+    ...(options.studioId
+      ? {}
+      : {
+          sessions: db()
+            .select({ createdAt: sessions.createdAt, expiresAt: sessions.expiresAt })
+            .from(sessions)
+            .where(eq(sessions.userId, userId))
+            .all(),
+          invitationsReceived: db()
+            .select({ studio: studios.name, role: invitations.role, createdAt: invitations.createdAt, acceptedAt: invitations.acceptedAt })
+            .from(invitations)
+            .innerJoin(studios, eq(studios.id, invitations.studioId))
+            .where(eq(invitations.email, user.email))
+            .all(),
+        }),
+  };
+  zip["nearnote-data.json"] = strToU8(JSON.stringify(document, null, 2));
+  return zipSync(zip, { level: 6 });
+}
+
+/**
+ * Removes a person: their takes and files first, then the user row (sessions,
+ * memberships, tokens and analysis rows cascade). Invitations sent to their
+ * address are deleted too, since they hold the address.
+ */
+export async function deletePersonData(userId: string) {
+  const user = db().select().from(users).where(eq(users.id, userId)).get();
+  if (!user) return;
+  await removeTakesWithFiles(eq(takes.studentId, userId));
+  db().transaction((tx) => {
+    tx.delete(invitations).where(eq(invitations.email, user.email)).run();
+    tx.delete(users).where(eq(users.id, userId)).run();
+  });
+}

@@ -1,0 +1,214 @@
+import { data, Form, useActionData, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/students";
+import { requireStudentOfTeacher, requireTeacher } from "~/auth/access.server";
+import { formFailure, parseForm } from "~/auth/validate.server";
+import { Button } from "~/components/Button";
+import { Card } from "~/components/Card";
+import { DataTable } from "~/components/DataTable";
+import { EmptyState } from "~/components/EmptyState";
+import { FlashMessage } from "~/components/FlashMessage";
+import { PageHeader } from "~/components/PageHeader";
+import { flashHeader } from "~/lib/flash.server";
+import {
+  DAILY_INVITATION_LIMIT,
+  invitationsSentToday,
+  inviteToStudio,
+  pendingInvitations,
+  resendInvitation,
+  revokeInvitation,
+} from "~/models/invitations.server";
+import { deleteStudentData, removeStudent, studioRoster } from "~/models/studios.server";
+import { emailSchema } from "~/models/users.server";
+import { InviteForm, RosterRow, PendingRow } from "./students.parts";
+
+export const meta: Route.MetaFunction = () => [{ title: "Students · Nearnote" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireTeacher(request);
+  const studioId = user.active.studioId;
+  const roster = studioRoster(studioId);
+  return {
+    studioName: user.active.studioName,
+    isOwner: user.active.role === "owner",
+    emailVerified: user.emailVerified,
+    students: roster.filter((p) => p.role === "student"),
+    teachers: roster.filter((p) => p.role !== "student"),
+    pending: pendingInvitations(studioId).map((i) => ({
+      id: i.id,
+      email: i.email,
+      role: i.role,
+      expired: i.expired,
+      expiresAt: i.expiresAt.toISOString(),
+      sentCount: i.sentCount,
+    })),
+    invitesLeftToday: Math.max(0, DAILY_INVITATION_LIMIT - invitationsSentToday(studioId)),
+  };
+}
+
+/** Addresses may be separated by commas, semicolons, spaces or new lines. */
+function splitAddresses(raw: string) {
+  return raw.split(/[\s,;]+/).map((s) => s.trim()).filter(Boolean);
+}
+
+const inviteSchema = z.object({
+  intent: z.literal("invite"),
+  emails: z.string().trim().min(1, "Enter at least one e-mail address").max(20_000, "That is too much text"),
+  role: z.enum(["student", "teacher"]).default("student"),
+});
+const idSchema = z.object({ intent: z.enum(["resend", "revoke"]), invitationId: z.string().min(1) });
+const studentSchema = z.object({
+  intent: z.enum(["remove", "delete-data"]),
+  studentId: z.string().min(1),
+  confirm: z.string().optional(),
+});
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireTeacher(request);
+  const studioId = user.active.studioId;
+  const form = await request.formData();
+  const intent = String(form.get("intent") ?? "");
+  const inviter = { id: user.id, name: user.name };
+  const done = async (message: string) =>
+    data({ ok: true as const, intent, message }, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+
+  if (intent === "invite") {
+    const parsed = parseForm(inviteSchema, form, intent);
+    if (!parsed.ok) return parsed.response;
+    if (!user.emailVerified) {
+      return formFailure(form, {}, "Confirm your e-mail address first: open the link we mailed you, or ask for a new one in Settings.", intent, 403);
+    }
+    if (parsed.data.role === "teacher" && user.active.role !== "owner") {
+      return formFailure(form, { role: ["Only the studio's owner can invite co-teachers"] }, undefined, intent, 403);
+    }
+    const addresses = splitAddresses(parsed.data.emails);
+    const bad = addresses.filter((a) => !emailSchema.safeParse(a).success);
+    if (bad.length) return formFailure(form, { emails: [`Not valid e-mail addresses: ${bad.join(", ")}`] }, undefined, intent);
+    if (addresses.length > DAILY_INVITATION_LIMIT) {
+      return formFailure(form, { emails: [`At most ${DAILY_INVITATION_LIMIT} addresses at once`] }, undefined, intent);
+    }
+    const outcome = await inviteToStudio(studioId, inviter, addresses, parsed.data.role);
+    if (outcome.kind === "over-limit") {
+      return formFailure(
+        form,
+        { emails: [`A studio can send ${DAILY_INVITATION_LIMIT} invitations a day; ${outcome.remaining} left for now. Try fewer addresses or wait until tomorrow.`] },
+        undefined,
+        intent,
+        429,
+      );
+    }
+    const skipped = outcome.skipped.map((s) => `${s.email} (${s.reason})`).join(", ");
+    const sent = outcome.emails.length;
+    return done(`${sent} invitation${sent === 1 ? "" : "s"} sent.${skipped ? ` Skipped: ${skipped}.` : ""}`);
+  }
+
+  if (intent === "resend" || intent === "revoke") {
+    const parsed = parseForm(idSchema, form, intent);
+    if (!parsed.ok) return parsed.response;
+    if (intent === "revoke") {
+      if (!revokeInvitation(studioId, parsed.data.invitationId)) throw data("There is no such pending invitation.", { status: 404 });
+      return done("Invitation withdrawn: its link no longer works.");
+    }
+    const result = await resendInvitation(studioId, parsed.data.invitationId, inviter);
+    if (result === "not-found") throw data("There is no such pending invitation.", { status: 404 });
+    if (result === "over-limit") return formFailure(form, {}, `The studio has sent ${DAILY_INVITATION_LIMIT} invitations today. Try again tomorrow.`, intent, 429);
+    return done("Invitation sent again with a new link, valid for 7 days.");
+  }
+
+  if (intent === "remove" || intent === "delete-data") {
+    const parsed = parseForm(studentSchema, form, intent);
+    if (!parsed.ok) return parsed.response;
+    await requireStudentOfTeacher(request, parsed.data.studentId);
+    if (intent === "remove") {
+      removeStudent(studioId, parsed.data.studentId);
+      return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
+    }
+    if (parsed.data.confirm !== "yes") {
+      return formFailure(form, { confirm: ["Tick the box to confirm that this cannot be undone"] }, undefined, intent);
+    }
+    const { accountDeleted } = await deleteStudentData(studioId, parsed.data.studentId);
+    return done(accountDeleted ? "The student's takes and account are deleted for good." : "The student's takes in this studio are deleted for good.");
+  }
+
+  return formFailure(form, {}, "Unknown action.", intent);
+}
+
+export default function Students({ loaderData }: Route.ComponentProps) {
+  const actionData = useActionData<typeof action>();
+  const navigation = useNavigation();
+  const busy = (intent: string, id?: string) =>
+    navigation.state === "submitting" &&
+    navigation.formData?.get("intent") === intent &&
+    (!id || navigation.formData?.get("studentId") === id || navigation.formData?.get("invitationId") === id);
+  const failure = actionData && !actionData.ok ? actionData : null;
+  const { students, teachers, pending } = loaderData;
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader title="Students" lead={`Everyone in ${loaderData.studioName}, and the invitations on their way.`} />
+      {failure?.formError && failure.intent !== "invite" ? <FlashMessage tone="error">{failure.formError}</FlashMessage> : null}
+      <InviteForm
+        isOwner={loaderData.isOwner}
+        emailVerified={loaderData.emailVerified}
+        invitesLeftToday={loaderData.invitesLeftToday}
+        failure={failure?.intent === "invite" ? failure : null}
+        pending={busy("invite")}
+      />
+      <section aria-labelledby="roster-heading" className="flex flex-col gap-3">
+        <h2 id="roster-heading" className="text-lg font-semibold">Students</h2>
+        <DataTable
+          caption="Students of the studio"
+          isEmpty={students.length === 0}
+          empty={<EmptyState title="No students yet">Invite them above: each gets a link to set a password.</EmptyState>}
+          head={
+            <tr>
+              <th className="px-4 py-2">Name</th>
+              <th className="px-4 py-2">E-mail</th>
+              <th className="px-4 py-2">Status</th>
+              <th className="px-4 py-2 text-right">Takes</th>
+              <th className="px-4 py-2">Actions</th>
+            </tr>
+          }
+        >
+          {students.map((s) => (
+            <RosterRow
+              key={s.userId}
+              person={{ ...s, joinedAt: String(s.joinedAt) }}
+              busy={busy}
+              confirmError={failure?.intent === "delete-data" && failure.values.studentId === s.userId ? failure.errors.confirm?.[0] : undefined}
+            />
+          ))}
+        </DataTable>
+      </section>
+      <Card title="Teachers">
+        <ul className="flex flex-col gap-1 text-sm">
+          {teachers.map((t) => (
+            <li key={t.userId}>
+              <strong>{t.name}</strong> · {t.email} · {t.role === "owner" ? "owner" : "co-teacher"}
+              {t.status === "removed" ? " (removed)" : ""}
+            </li>
+          ))}
+        </ul>
+      </Card>
+      <section aria-labelledby="pending-heading" className="flex flex-col gap-3">
+        <h2 id="pending-heading" className="text-lg font-semibold">Pending invitations</h2>
+        <DataTable
+          caption="Invitations not yet accepted"
+          isEmpty={pending.length === 0}
+          empty={<p className="text-sm text-ink-soft">No invitations waiting.</p>}
+          head={
+            <tr>
+              <th className="px-4 py-2">E-mail</th>
+              <th className="px-4 py-2">As</th>
+              <th className="px-4 py-2">Link</th>
+              <th className="px-4 py-2">Actions</th>
+            </tr>
+          }
+        >
+          {pending.map((p) => (
+            <PendingRow key={p.id} invitation={p} busy={busy} />
+          ))}
+        </DataTable>
+      </section>
+    </div>
+  );
+}
