@@ -1,0 +1,139 @@
+// Grading of changes (rules 7–10 as the engine applies them, suggestions), the whole-take
+// summary, the score and the key estimate.
+import { describe, expect, it } from "vitest";
+import { chordReport } from "../../../app/analysis/chords";
+import { chordFlags } from "../../../app/analysis/chordFlags";
+import { gradeChange } from "../../../app/analysis/grade";
+import { estimateKey } from "../../../app/analysis/key";
+import { parseKey } from "../../../app/analysis/pitch";
+import { score, scoreParts } from "../../../app/analysis/score";
+import type { Strike } from "../../../app/analysis/strikes";
+import { smoothnessOf, summarise, tempoSteadiness } from "../../../app/analysis/summary";
+import { ANALYSIS_VERSION } from "../../../app/analysis/version";
+
+const key = parseKey("C");
+function chord(pitches: number[], start = 0) {
+  const s: Strike = { start, notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })), graces: [], held: [] };
+  return chordReport(s, key, []);
+}
+const change = (a: number[], b: number[]) => gradeChange(0, 1, chord(a), chord(b), key);
+
+describe("grading a change (DOMAIN worked examples)", () => {
+  it("F3 A3 C4 → Bb3 D4 F4: motion 15, best 3 (F3 Bb3 D4), root-position leap", () => {
+    const c = change([53, 57, 60], [58, 62, 65]);
+    expect([c.motion, c.bestMotion, c.bestVoicing, c.flags]).toEqual([15, 3, [53, 58, 62], ["root-position-leap"]]);
+    expect(c.bassMotion).toBe(5);
+    expect(c.topVoiceInterval).toBe(5);
+    expect(c.largestVoiceMove).toBe(5);
+    expect(c.commonTones).toBe(0);
+  });
+
+  it("transposed down a fourth, and in reverse direction, the same numbers hold", () => {
+    const t = change([48, 52, 55], [53, 57, 60]); // C → F, root position
+    expect([t.motion, t.bestMotion, t.flags]).toEqual([15, 3, ["root-position-leap"]]);
+    const back = change([58, 62, 65], [53, 57, 60]);
+    expect([back.motion, back.flags]).toEqual([15, ["root-position-leap"]]);
+  });
+
+  it("C4 E4 G4 → C4 F4 A4: motion 3, a common tone, no flags", () => {
+    const c = change([60, 64, 67], [60, 65, 69]);
+    expect([c.motion, c.bestMotion, c.commonTones, c.flags]).toEqual([3, 3, 1, []]);
+  });
+
+  it("G4 B4 D5 → C5 E5 G5: 15 and 3 with a leap; a top line of more than 7 semitones is flagged", () => {
+    expect(change([67, 71, 74], [72, 76, 79]).flags).toEqual(["root-position-leap"]);
+    expect(change([62, 66, 69], [71, 74, 79]).flags).toEqual(["top-line-leap"]);
+    expect(change([62, 66, 69], [69, 73, 76]).flags).toContain("root-position-leap");
+  });
+
+  it("suggestions: smoothest, keeping the top, keeping the bass — none raising a chord flag", () => {
+    const c = change([53, 57, 60], [58, 62, 65]);
+    expect(c.suggestions.map((s) => s.kind)).toContain("smoothest");
+    expect(c.suggestions[0]).toMatchObject({ kind: "smoothest", voicing: [53, 58, 62], motion: 3 });
+    for (const s of c.suggestions) {
+      expect(chordFlags(s.voicing)).toEqual([]);
+      expect(s.motion).toBeLessThanOrEqual(c.motion!);
+    }
+    const keepTop = c.suggestions.find((s) => s.kind === "keep-top");
+    if (keepTop) expect(Math.max(...keepTop.voicing)).toBe(65);
+    const keepBass = c.suggestions.find((s) => s.kind === "keep-bass");
+    if (keepBass) expect(Math.min(...keepBass.voicing)).toBe(58);
+    expect(c.suggestions.some((s) => s.kind !== "smoothest")).toBe(true);
+  });
+
+  it("a suggestion never doubles the bass third even when that would move less", () => {
+    // C4 E4 G4 → Bb/D played D2 Bb3 F4: the smoothest unflagged choice must avoid D above D2 except as top/octave.
+    const c = change([38, 60, 64, 67], [38, 58, 62, 65]);
+    for (const s of c.suggestions) expect(chordFlags(s.voicing)).toEqual([]);
+  });
+
+  it("a chord of more than 8 distinct pitches is not graded", () => {
+    const c = change([60, 64, 67], [48, 50, 52, 53, 55, 57, 59, 60, 62]);
+    expect([c.graded, c.motion, c.bestMotion, c.suggestions]).toEqual([false, null, null, []]);
+  });
+});
+
+describe("summary", () => {
+  it("smoothness is a ratio of sums, 1.0 when nothing moved", () => {
+    expect(smoothnessOf(0, 0)).toBe(1);
+    expect(smoothnessOf(30, 6)).toBeCloseTo(0.2);
+  });
+
+  it("tempo steadiness is the spread of the time between changes", () => {
+    expect(tempoSteadiness([0, 1, 2, 3])).toEqual({ medianGapSec: 1, spread: 0, steadiness: 1 });
+    const uneven = tempoSteadiness([0, 0.5, 2, 2.5]);
+    // gaps 0.5, 1.5, 0.5: mean 5/6, population SD √2/3 ≈ 0.471, spread ≈ 0.566
+    expect(uneven.spread).toBeCloseTo(0.566, 3);
+    expect(uneven.steadiness).toBeCloseTo(0.434, 3);
+    expect(tempoSteadiness([0]).medianGapSec).toBeNull();
+  });
+
+  it("totals, flags and techniques by name, top line and score", () => {
+    const chords = [chord([53, 57, 60], 0), chord([58, 62, 65], 1), chord([53, 57, 60], 2)];
+    const changes = [gradeChange(0, 1, chords[0], chords[1], key), gradeChange(1, 2, chords[1], chords[2], key)];
+    const s = summarise({ chords, melodyNotes: [], changes, key, keySource: "given", durationSec: 3, pedal: [], analysisVersion: ANALYSIS_VERSION });
+    expect(s.totalMotion).toBe(30);
+    expect(s.bestTotalMotion).toBe(6);
+    expect(s.smoothness).toBe(0.2);
+    expect(s.rootPositionLeaps).toBe(2);
+    expect(s.flags["root-position-leap"]).toBe(2);
+    expect(s.techniques["smooth-top-line"]).toBe(0);
+    expect(s.topLine).toEqual(["C4", "F4", "C4"]);
+    // 0.45·0.2 + 0.30·(1 − 2/5) + 0.15·0 + 0.10·1 = 0.37
+    expect(s.score).toBe(37);
+    expect(s.analysisVersion).toBe(ANALYSIS_VERSION);
+  });
+});
+
+describe("score", () => {
+  it("weights without a target: smoothness 45, clean chords and changes 30, variety 15, steadiness 10", () => {
+    const parts = scoreParts({ chordCount: 4, smoothness: 1, flaggedItems: 0, items: 7, distinctTechniques: 3, steadiness: 1, accuracy: null });
+    expect(score(4, parts)).toBe(100);
+    expect(score(4, { ...parts, smoothness: 0 })).toBe(55);
+    expect(score(4, { ...parts, techniqueVariety: 0 })).toBe(85);
+  });
+
+  it("with a target, accuracy weighs 20", () => {
+    const parts = scoreParts({ chordCount: 4, smoothness: 1, flaggedItems: 0, items: 7, distinctTechniques: 3, steadiness: 1, accuracy: 0.5 });
+    expect(score(4, parts)).toBe(90);
+  });
+
+  it("no chords, no score", () => {
+    expect(score(0, scoreParts({ chordCount: 0, smoothness: 1, flaggedItems: 0, items: 0, distinctTechniques: 0, steadiness: 1, accuracy: null }))).toBe(0);
+  });
+});
+
+describe("key estimate (Krumhansl–Schmuckler)", () => {
+  const notesOf = (pcsWithOctave: number[]) => pcsWithOctave.map((midi, i) => ({ midi, start: i, end: i + 1 }));
+
+  it("finds D major from its scale and tonic triads, and Gm from its own", () => {
+    expect(estimateKey(notesOf([62, 66, 69, 62, 64, 66, 67, 69, 71, 73, 74, 62, 66, 69])).key.name).toBe("D");
+    expect(estimateKey(notesOf([55, 58, 62, 55, 57, 58, 60, 62, 63, 66, 67, 55, 58, 62])).key.name).toBe("Gm");
+  });
+
+  it("transposing the notes transposes the key", () => {
+    const c = [60, 64, 67, 60, 62, 64, 65, 67, 69, 71, 72, 60, 64, 67];
+    expect(estimateKey(notesOf(c)).key.name).toBe("C");
+    expect(estimateKey(notesOf(c.map((n) => n + 8))).key.name).toBe("Ab");
+  });
+});
