@@ -1,0 +1,280 @@
+// Target progressions as teachers write them (DOMAIN "Progressions as teachers write them"):
+// space-separated lead-sheet symbols ("Eb Bb/D Cm Cm/Bb Ab") or Roman numerals ("iiø7 V7 i").
+// Both parsers are ours: tonal's Progression makes lower-case "vi" major and reads "V/7" as a
+// slash chord, and its chord symbols need normalising anyway.
+
+import {
+  type Key,
+  LETTER_PC,
+  LETTERS,
+  MAJOR_SCALE,
+  NATURAL_MINOR_SCALE,
+  parseNoteName,
+  pc,
+  ProgressionError,
+  spellDegree,
+  spellPc,
+} from "./pitch";
+
+export { ProgressionError } from "./pitch";
+
+export type Triad = "major" | "minor" | "diminished" | "augmented" | "sus2" | "sus4";
+
+export type TargetChord = {
+  root: number;
+  triad: Triad;
+  /** Pitch class of the bass, only when the target names one with a slash. */
+  bass: number | null;
+  /** Intervals above the root the target names beyond the triad (10 for 7, 11 for maj7, 2 for add9). */
+  required: number[];
+  symbol: string;
+  roman: string | null;
+};
+
+export const TRIAD_INTERVALS: Record<Triad, number[]> = {
+  major: [0, 4, 7],
+  minor: [0, 3, 7],
+  diminished: [0, 3, 6],
+  augmented: [0, 4, 8],
+  sus2: [0, 2, 7],
+  sus4: [0, 5, 7],
+};
+
+/** Longest progression accepted, so a pasted novel cannot stall matching. */
+export const MAX_PROGRESSION_CHORDS = 128;
+
+type Suffix = { names: string[]; triad: Triad; required: number[] };
+// Lead-sheet suffixes (common practice); the first name is the one we print.
+const SUFFIXES: Suffix[] = [
+  { names: ["", "M", "maj", "Maj", "major"], triad: "major", required: [] },
+  { names: ["m", "min", "mi", "-", "minor"], triad: "minor", required: [] },
+  { names: ["dim", "°", "o"], triad: "diminished", required: [] },
+  { names: ["aug", "+"], triad: "augmented", required: [] },
+  { names: ["sus2"], triad: "sus2", required: [] },
+  { names: ["sus4", "sus"], triad: "sus4", required: [] },
+  { names: ["6", "M6", "maj6"], triad: "major", required: [9] },
+  { names: ["m6", "min6", "-6"], triad: "minor", required: [9] },
+  { names: ["6/9", "69"], triad: "major", required: [9, 2] },
+  { names: ["m6/9", "m69"], triad: "minor", required: [9, 2] },
+  { names: ["7", "dom7"], triad: "major", required: [10] },
+  { names: ["maj7", "M7", "Maj7", "ma7", "Δ", "Δ7", "j7"], triad: "major", required: [11] },
+  { names: ["m7", "min7", "mi7", "-7"], triad: "minor", required: [10] },
+  { names: ["mMaj7", "mM7", "mmaj7", "m(maj7)", "minmaj7", "-Δ7"], triad: "minor", required: [11] },
+  { names: ["dim7", "°7", "o7"], triad: "diminished", required: [9] },
+  { names: ["m7b5", "ø", "ø7", "min7b5", "-7b5", "m7(b5)"], triad: "diminished", required: [10] },
+  { names: ["aug7", "+7", "7#5", "7+5"], triad: "augmented", required: [10] },
+  { names: ["maj7#5", "augmaj7", "+maj7", "M7#5"], triad: "augmented", required: [11] },
+  { names: ["7sus4", "7sus"], triad: "sus4", required: [10] },
+  { names: ["7sus2"], triad: "sus2", required: [10] },
+  { names: ["9"], triad: "major", required: [10, 2] },
+  { names: ["maj9", "M9", "Δ9"], triad: "major", required: [11, 2] },
+  { names: ["m9", "min9", "-9"], triad: "minor", required: [10, 2] },
+  { names: ["9sus4", "9sus"], triad: "sus4", required: [10, 2] },
+  { names: ["add9", "add2", "(add9)", "2"], triad: "major", required: [2] },
+  { names: ["madd9", "m(add9)", "madd2", "-add9", "minadd9"], triad: "minor", required: [2] },
+  { names: ["add11", "add4"], triad: "major", required: [5] },
+  { names: ["madd11", "madd4"], triad: "minor", required: [5] },
+  { names: ["m11", "min11", "-11"], triad: "minor", required: [10, 2, 5] },
+  { names: ["13"], triad: "major", required: [10, 2, 9] },
+  { names: ["7b9"], triad: "major", required: [10, 1] },
+  { names: ["7#9"], triad: "major", required: [10, 3] },
+  { names: ["7#11"], triad: "major", required: [10, 6] },
+  { names: ["7b13"], triad: "major", required: [10, 8] },
+];
+const SUFFIX_BY_NAME = new Map<string, Suffix>(SUFFIXES.flatMap((s) => s.names.map((n) => [n, s] as [string, Suffix])));
+
+const sameSet = (x: number[], y: number[]) => x.length === y.length && x.every((v) => y.includes(v));
+
+/** The printed lead-sheet suffix for a triad with named extra intervals ("m7", "add9", "7sus4"). */
+export function suffixFor(triad: Triad, required: number[]): string {
+  const found = SUFFIXES.find((s) => s.triad === triad && sameSet(s.required, required));
+  if (found) return found.names[0];
+  const base = SUFFIXES.find((s) => s.triad === triad && s.required.length === 0)!.names[0];
+  return `${base}(${required.map((r) => `+${r}`).join(",")})`;
+}
+
+/** Pitch classes the target names: triad, extra intervals and slash bass, ascending. */
+export function targetPcs(t: TargetChord): number[] {
+  const set = new Set([...TRIAD_INTERVALS[t.triad], ...t.required].map((i) => pc(t.root + i)));
+  if (t.bass !== null) set.add(t.bass);
+  return [...set].sort((x, y) => x - y);
+}
+
+function badToken(position: number, token: string, why?: string): ProgressionError {
+  const detail = why ? ` (${why})` : "";
+  return new ProgressionError(`Token ${position} "${token}" is not a chord symbol or Roman numeral${detail}`, position, token);
+}
+
+function parseChordSymbol(token: string, position: number, key: Key): TargetChord {
+  const m = /^([A-G][#b♯♭]?)(.*)$/.exec(token)!;
+  const root = parseNoteName(m[1]);
+  let rest = m[2];
+  let bass: number | null = null;
+  const slash = /^(.*)\/([A-G][#b♯♭]?)$/.exec(rest);
+  if (slash) {
+    const bassNote = parseNoteName(slash[2]);
+    if (!bassNote) throw badToken(position, token);
+    bass = bassNote.pc;
+    rest = slash[1];
+  }
+  const suffix = SUFFIX_BY_NAME.get(rest);
+  if (!root || !suffix) throw badToken(position, token);
+  const chord: TargetChord = { root: root.pc, triad: suffix.triad, bass, required: suffix.required.slice(), symbol: "", roman: null };
+  chord.symbol = symbolFor(chord, key, spellPc(chord.root, key));
+  chord.roman = romanFor(chord, key);
+  return chord;
+}
+
+function symbolFor(chord: TargetChord, key: Key, rootName: string): string {
+  const bass = chord.bass === null || chord.bass === chord.root ? "" : `/${spellPc(chord.bass, key)}`;
+  return rootName + suffixFor(chord.triad, chord.required) + bass;
+}
+
+const NUMERALS = ["I", "II", "III", "IV", "V", "VI", "VII"];
+
+function parseRoman(token: string, position: number, key: Key): TargetChord {
+  const m = /^([b#♭♯]?)(VII|VI|V|IV|III|II|I|vii|vi|v|iv|iii|ii|i)(°|o|ø|\+)?(.*)$/.exec(token);
+  if (!m) throw badToken(position, token);
+  const [, accidental, numeral, mark, suffix] = m;
+  const degree = NUMERALS.indexOf(numeral.toUpperCase());
+  const upper = numeral === numeral.toUpperCase();
+  let triad: Triad = upper ? "major" : "minor";
+  let required: number[] = [];
+  if (mark === "°" || mark === "o") triad = "diminished";
+  if (mark === "ø") {
+    triad = "diminished";
+    required = [10];
+  }
+  if (mark === "+") triad = "augmented";
+
+  if (mark === "ø") {
+    if (suffix !== "" && suffix !== "7") throw badToken(position, token, "a half-diminished chord takes only 7");
+  } else if (mark === "°" || mark === "o") {
+    if (suffix === "7") required = [9]; // fully diminished seventh
+    else if (suffix !== "") throw badToken(position, token, "a diminished chord takes only 7");
+  } else {
+    const ext = ROMAN_SUFFIXES[suffix];
+    if (!ext) throw badToken(position, token);
+    if (ext.triad) triad = ext.triad;
+    required = ext.required.slice();
+  }
+
+  let alter = accidental === "b" || accidental === "♭" ? -1 : accidental === "#" || accidental === "♯" ? 1 : 0;
+  // Common practice: in minor, vii° and viiø sit on the raised seventh (the leading tone).
+  if (key.mode === "minor" && degree === 6 && triad === "diminished" && alter === 0) alter = 1;
+  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
+  const root = pc(key.tonic + scale[degree] + alter);
+  const chord: TargetChord = { root, triad, bass: null, required, symbol: "", roman: null };
+  chord.symbol = symbolFor(chord, key, spellDegree(key, degree, alter));
+  const normalisedMark = mark === "o" ? "°" : (mark ?? "");
+  chord.roman = accidental.replace("♭", "b").replace("♯", "#") + numeral + normalisedMark + suffix;
+  return chord;
+}
+
+// Suffixes after a Roman numeral (DOMAIN: 7, maj7, add9, sus4; a few common others).
+const ROMAN_SUFFIXES: Record<string, { triad?: Triad; required: number[] }> = {
+  "": { required: [] },
+  "7": { required: [10] },
+  maj7: { required: [11] },
+  M7: { required: [11] },
+  "Δ7": { required: [11] },
+  "6": { required: [9] },
+  "9": { required: [10, 2] },
+  maj9: { required: [11, 2] },
+  add9: { required: [2] },
+  add2: { required: [2] },
+  sus4: { triad: "sus4", required: [] },
+  sus: { triad: "sus4", required: [] },
+  sus2: { triad: "sus2", required: [] },
+  "7sus4": { triad: "sus4", required: [10] },
+  "7sus": { triad: "sus4", required: [10] },
+};
+
+// Chromatic roots as degree index and accidental, common practice: bII bIII #IV bVI bVII in
+// major; in minor bII, and the raised 3rd, 4th, 6th and 7th.
+const MAJOR_CHROMATIC: Record<number, [number, string]> = { 1: [1, "b"], 3: [2, "b"], 6: [3, "#"], 8: [5, "b"], 10: [6, "b"] };
+const MINOR_CHROMATIC: Record<number, [number, string]> = { 1: [1, "b"], 4: [2, "#"], 6: [3, "#"], 9: [5, "#"], 11: [6, "#"] };
+
+/** The Roman numeral of a chord in the key, e.g. "V7", "bVII", "iiø7" (slash bass not shown). */
+export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">, key: Key): string {
+  const interval = pc(chord.root - key.tonic);
+  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
+  let degree = scale.indexOf(interval as never);
+  let accidental = "";
+  if (key.mode === "minor" && interval === 11 && chord.triad === "diminished") degree = 6; // leading-tone vii°
+  else if (degree < 0) [degree, accidental] = (key.mode === "major" ? MAJOR_CHROMATIC : MINOR_CHROMATIC)[interval];
+  const numeral = NUMERALS[degree];
+  const r = chord.required;
+  const has = (x: number[]) => sameSet(r, x);
+  switch (chord.triad) {
+    case "diminished":
+      if (has([10])) return `${accidental}${numeral.toLowerCase()}ø7`;
+      return `${accidental}${numeral.toLowerCase()}°${has([9]) ? "7" : ""}`;
+    case "augmented":
+      return `${accidental}${numeral}+${has([10]) ? "7" : ""}`;
+    case "sus4":
+    case "sus2": {
+      const seventh = r.includes(10) ? "7" : "";
+      return `${accidental}${numeral}${seventh}${chord.triad}`;
+    }
+    default: {
+      const name = chord.triad === "minor" ? numeral.toLowerCase() : numeral;
+      const ext = Object.entries(ROMAN_SUFFIXES).find(([, v]) => !v.triad && sameSet(v.required, r));
+      return `${accidental}${name}${ext ? ext[0] : suffixFor(chord.triad, r).replace(/^m/, "")}`;
+    }
+  }
+}
+
+/** Parses a target progression of chord symbols or Roman numerals; throws ProgressionError naming the bad token. */
+export function parseProgression(text: string, key: Key): TargetChord[] {
+  const tokens = text.trim().split(/[\s,|]+/).filter((t) => t.length > 0);
+  if (tokens.length === 0) throw new ProgressionError("The progression is empty: write chords like I IV V I or C F G C");
+  if (tokens.length > MAX_PROGRESSION_CHORDS) {
+    throw new ProgressionError(`The progression has ${tokens.length} chords; at most ${MAX_PROGRESSION_CHORDS} are allowed`);
+  }
+  return tokens.map((token, i) => {
+    if (/^[A-G]/.test(token)) return parseChordSymbol(token, i + 1, key);
+    if (/^[b#♭♯]?[IViv]/.test(token)) return parseRoman(token, i + 1, key);
+    throw badToken(i + 1, token);
+  });
+}
+
+/** The chord symbols of a progression, spelled in the key (for display). */
+export function expandProgression(text: string, key: Key): string[] {
+  return parseProgression(text, key).map((c) => c.symbol);
+}
+
+/** Moves a spelled note name by the interval between two keys, letters included (Bb in C -> C in D). */
+function transposeName(name: string, from: Key, to: Key): string {
+  const note = parseNoteName(name);
+  const fromTonic = parseNoteName(from.name.replace(/m$/, ""));
+  const toTonic = parseNoteName(to.name.replace(/m$/, ""));
+  if (!note || !fromTonic || !toTonic) return spellPc(pc((note?.pc ?? 0) + to.tonic - from.tonic), to);
+  const letter = (note.letter - fromTonic.letter + toTonic.letter + 7) % 7;
+  const target = pc(note.pc + to.tonic - from.tonic);
+  let acc = target - LETTER_PC[letter];
+  if (acc > 6) acc -= 12;
+  if (acc < -6) acc += 12;
+  if (Math.abs(acc) > 1) return spellPc(target, to); // avoid double sharps and flats
+  return LETTERS[letter] + (acc > 0 ? "#" : acc < 0 ? "b" : "");
+}
+
+/** The same progression in another key: roots and bass moved, symbols respelled, Roman numerals kept. */
+export function transposeProgression(chords: TargetChord[], from: Key, to: Key): TargetChord[] {
+  const shift = to.tonic - from.tonic;
+  return chords.map((c) => {
+    const m = /^([A-G][#b]*)(.*?)(?:\/([A-G][#b]*))?$/.exec(c.symbol);
+    const rootName = m ? transposeName(m[1], from, to) : spellPc(c.root + shift, to);
+    const moved: TargetChord = {
+      root: pc(c.root + shift),
+      triad: c.triad,
+      bass: c.bass === null ? null : pc(c.bass + shift),
+      required: c.required.slice(),
+      symbol: "",
+      roman: c.roman,
+    };
+    const bassName = m?.[3] ? transposeName(m[3], from, to) : null;
+    moved.symbol = rootName + suffixFor(moved.triad, moved.required) + (bassName && moved.bass !== moved.root ? `/${bassName}` : "");
+    return moved;
+  });
+}
