@@ -20,5 +20,8 @@ export default [
   route("dev/mail/:id", "routes/dev.mail.$id.tsx"),
   route("api/me/export", "routes/api.me.export.ts"),
   route("api/students/:studentId/export", "routes/api.students.$studentId.export.ts"),
+  route("api/takes", "routes/api.takes.ts"),
+  route("api/takes/:takeId", "routes/api.takes.$takeId.ts"),
+  route("api/takes/:takeId/file", "routes/api.takes.$takeId.file.ts"),
   route("*", "routes/$.tsx"),
 ] satisfies RouteConfig;

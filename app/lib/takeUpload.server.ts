@@ -1,0 +1,266 @@
+import {
+  FormDataParseError,
+  MaxFileSizeExceededError,
+  MaxFilesExceededError,
+  MaxTotalSizeExceededError,
+  MultipartParseError,
+  parseFormData,
+  type FileUpload,
+} from "@remix-run/form-data-parser";
+import { createHash } from "node:crypto";
+import { and, eq } from "drizzle-orm";
+import { z } from "zod";
+import { ANALYSIS_VERSION, ProgressionError, type TakeAnalysis } from "~/analysis";
+import { parseKey } from "~/analysis/pitch";
+import type { SessionUser } from "~/auth/session.server";
+import { db } from "~/db/client.server";
+import { takes } from "~/db/schema";
+import { newFileKey, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
+import { analyseTakeBytes, writeAnalysisRows } from "~/models/takeAnalysis.server";
+import { deleteTake, exerciseForStudent, takeWeekKey } from "~/models/takes.server";
+
+// One module for every way a take arrives: the API route, the upload page's
+// no-JavaScript form, and "replace this take".
+export const MAX_TAKE_BYTES = 2 * 1024 * 1024; // 2,097,152 bytes
+export const MAX_FILES = 10;
+const MIDI_SIGNATURE = [0x4d, 0x54, 0x68, 0x64]; // "MThd", Standard MIDI File 1.0 header chunk
+
+export type UploadBody = {
+  id?: string;
+  status?: "analysed" | "failed";
+  error?: string;
+  analysis?: TakeAnalysis;
+};
+export type UploadResult = { status: number; body: UploadBody; fileName: string };
+
+type Stored = { fieldName: string; fileKey: string; originalName: string; size: number; lastModified: number };
+
+class UploadRefused extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+const fieldsSchema = z.object({
+  exerciseId: z.string().trim().max(64).optional().transform((v) => v || undefined),
+  key: z.string().trim().max(8).optional().transform((v) => v || undefined),
+  recordedAt: z.string().trim().max(40).optional().transform((v) => v || undefined),
+  note: z.string().max(2000, "Keep the note under 2,000 characters.").optional().default(""),
+});
+type UploadFields = z.infer<typeof fieldsSchema>;
+
+/**
+ * Parses the multipart body, storing each file under storage/takes/ by a random key.
+ * On any refusal every file already stored from this request is removed.
+ */
+async function parseUpload(request: Request): Promise<{ form: FormData; files: Stored[] }> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!type.startsWith("multipart/form-data")) {
+    throw new UploadRefused(400, "Send the take as a multipart/form-data upload with a file field.");
+  }
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (declared > MAX_FILES * MAX_TAKE_BYTES + 1024 * 1024) {
+    throw new UploadRefused(413, tooBig());
+  }
+  const files: Stored[] = [];
+  try {
+    const form = await parseFormData(request, { maxFileSize: MAX_TAKE_BYTES, maxFiles: MAX_FILES }, async (file: FileUpload) => {
+      if (!file.name && file.size === 0) return null; // an empty file input
+      const fileKey = newFileKey();
+      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name), size: 0, lastModified: file.lastModified });
+      const stored = await takeStorage().put(fileKey, file);
+      files[files.length - 1].size = stored.size;
+      return fileKey;
+    });
+    return { form, files };
+  } catch (e) {
+    await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
+    if (e instanceof MaxFileSizeExceededError || e instanceof MaxTotalSizeExceededError) throw new UploadRefused(413, tooBig());
+    if (e instanceof MaxFilesExceededError) throw new UploadRefused(413, `Send at most ${MAX_FILES} files at once.`);
+    if (e instanceof FormDataParseError || e instanceof MultipartParseError) {
+      throw new UploadRefused(400, "The upload could not be read; try sending the file again.");
+    }
+    throw e;
+  }
+}
+
+function tooBig() {
+  return "This file is over 2 MiB; a take that large is more than Nearnote grades. Split it into shorter takes.";
+}
+
+/** Keeps the client's name for display only: no path, no control characters. */
+export function cleanName(name: string): string {
+  const base = name.split(/[\\/]/).pop() ?? "";
+  const clean = base.replace(/[\u0000-\u001f\u007f]/g, "").trim().slice(0, 200);
+  return clean || "take.mid";
+}
+
+function parseRecordedAt(value: string | undefined, fallback: number | undefined): Date {
+  const now = Date.now();
+  const candidates = [value ? (/^\d+$/.test(value) ? Number(value) : Date.parse(value)) : NaN, fallback ?? NaN];
+  for (const t of candidates) {
+    // A date from before MIDI existed or from the future is a broken clock: use the upload time.
+    if (Number.isFinite(t) && t > Date.UTC(1983, 0, 1) && t <= now + 86_400_000) return new Date(t);
+  }
+  return new Date(now);
+}
+
+/** Checks, analyses and saves one stored file for the student. */
+async function ingest(user: SessionUser, file: Stored, fields: UploadFields): Promise<UploadResult> {
+  const fileName = file.originalName;
+  const studioId = user.active!.studioId;
+  const fail = async (status: number, error: string, extra: UploadBody = {}): Promise<UploadResult> => {
+    await removeTakeFile(file.fileKey);
+    return { status, body: { error, ...extra }, fileName };
+  };
+  const stored = await takeStorage().get(file.fileKey);
+  const bytes = stored ? new Uint8Array(await stored.arrayBuffer()) : new Uint8Array();
+  if (bytes.length < 4 || MIDI_SIGNATURE.some((b, i) => bytes[i] !== b)) {
+    return fail(415, "This is not a MIDI file: save or export the take as a Standard MIDI File (.mid).");
+  }
+  const contentHash = createHash("sha256").update(bytes).digest("hex");
+  const existing = db()
+    .select({ id: takes.id })
+    .from(takes)
+    .where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash)))
+    .get();
+  if (existing) return fail(409, "You have uploaded this take already.", { id: existing.id });
+
+  let key = fields.key ?? null;
+  let target: string | undefined;
+  if (fields.exerciseId) {
+    const exercise = exerciseForStudent(user.id, studioId, fields.exerciseId);
+    if (!exercise) return fail(400, "That exercise is not one of yours.");
+    key ??= exercise.keys[0] ?? null;
+    if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
+    target = exercise.progression;
+  }
+  if (key) {
+    try {
+      parseKey(key);
+    } catch (e) {
+      if (e instanceof ProgressionError) return fail(400, `"${key}" is not a key Nearnote knows (try D, Ab, F# or Gm).`);
+      throw e;
+    }
+  }
+
+  const outcome = analyseTakeBytes(bytes, { key, target });
+  const recordedAt = parseRecordedAt(fields.recordedAt, file.lastModified);
+  try {
+    const id = db().transaction((tx) => {
+      const take = tx
+        .insert(takes)
+        .values({
+          studentId: user.id,
+          studioId,
+          exerciseId: fields.exerciseId ?? null,
+          key,
+          note: fields.note,
+          fileKey: file.fileKey,
+          originalName: fileName,
+          size: bytes.length,
+          contentHash,
+          status: outcome.ok ? "analysed" : "failed",
+          error: outcome.ok ? null : outcome.error,
+          recordedAt,
+          weekKey: takeWeekKey(studioId, recordedAt),
+          durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
+          analysisVersion: ANALYSIS_VERSION,
+        })
+        .returning({ id: takes.id })
+        .get();
+      if (outcome.ok) writeAnalysisRows(tx, take.id, outcome.analysis);
+      return take.id;
+    });
+    return outcome.ok
+      ? { status: 201, body: { id, status: "analysed", analysis: outcome.analysis }, fileName }
+      : { status: 422, body: { id, status: "failed", error: outcome.error }, fileName };
+  } catch (e) {
+    // The same content arriving twice at once: the unique index decides.
+    if (e instanceof Error && /UNIQUE constraint failed: takes\.student_id/.test(e.message)) {
+      const twin = db().select({ id: takes.id }).from(takes).where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash))).get();
+      return fail(409, "You have uploaded this take already.", { id: twin?.id });
+    }
+    await removeTakeFile(file.fileKey);
+    throw e;
+  }
+}
+
+async function readFields(form: FormData, files: Stored[]) {
+  const parsed = fieldsSchema.safeParse({
+    exerciseId: form.get("exerciseId") ?? undefined,
+    key: form.get("key") ?? undefined,
+    recordedAt: form.get("recordedAt") ?? undefined,
+    note: form.get("note") ?? undefined,
+  });
+  if (!parsed.success) {
+    await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
+    throw new UploadRefused(400, parsed.error.issues[0].message);
+  }
+  return parsed.data;
+}
+
+function refusal(e: unknown, fileName = ""): UploadResult {
+  if (e instanceof UploadRefused) return { status: e.status, body: { error: e.message }, fileName };
+  throw e;
+}
+
+/** POST /api/takes: exactly one file in the field `file`. */
+export async function uploadOneTake(request: Request, user: SessionUser): Promise<UploadResult> {
+  try {
+    const { form, files } = await parseUpload(request);
+    const fields = await readFields(form, files);
+    const mine = files.filter((f) => f.fieldName === "file");
+    if (mine.length !== 1 || files.length !== 1) {
+      await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
+      throw new UploadRefused(400, mine.length === 0 ? "Choose a MIDI file to upload." : "Send one file per request.");
+    }
+    return await ingest(user, mine[0], fields);
+  } catch (e) {
+    return refusal(e);
+  }
+}
+
+/** The upload page without JavaScript: up to ten files in the field `files`, one result each. */
+export async function uploadTakesFromForm(request: Request, user: SessionUser): Promise<UploadResult[]> {
+  try {
+    const { form, files } = await parseUpload(request);
+    const fields = await readFields(form, files);
+    if (files.length === 0) throw new UploadRefused(400, "Choose one or more MIDI files to upload.");
+    const results: UploadResult[] = [];
+    for (const f of files) results.push(await ingest(user, f, fields));
+    return results;
+  } catch (e) {
+    return [refusal(e)];
+  }
+}
+
+/**
+ * Replaces a take with a new recording: the new file keeps the old take's
+ * exercise, key and note unless the form gives others; the old take goes once
+ * the new one is safely saved.
+ */
+export async function replaceTakeFromForm(request: Request, user: SessionUser, takeId: string): Promise<UploadResult> {
+  const old = db().select().from(takes).where(eq(takes.id, takeId)).get();
+  try {
+    const { form, files } = await parseUpload(request);
+    const fields = await readFields(form, files);
+    if (files.length !== 1) {
+      await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
+      throw new UploadRefused(400, "Choose one MIDI file to replace this take with.");
+    }
+    const result = await ingest(user, files[0], {
+      exerciseId: fields.exerciseId ?? old?.exerciseId ?? undefined,
+      key: fields.key ?? old?.key ?? undefined,
+      recordedAt: fields.recordedAt,
+      note: fields.note || old?.note || "",
+    });
+    if ((result.status === 201 || result.status === 422) && old) await deleteTake(old.id);
+    return result;
+  } catch (e) {
+    return refusal(e);
+  }
+}

@@ -1,0 +1,102 @@
+import { eq } from "drizzle-orm";
+import { AnalysisError, analyseMidi, ProgressionError, type TakeAnalysis } from "~/analysis";
+import type { Db } from "~/db/client.server";
+import { changeResults, chordEvents, exercises, takeMetrics } from "~/db/schema";
+
+type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
+
+export type AnalysisOutcome = { ok: true; analysis: TakeAnalysis } | { ok: false; error: string };
+
+/** What the engine needs to know about the exercise a take belongs to. */
+export function exerciseTarget(database: Db | Tx, exerciseId: string | null): string | undefined {
+  if (!exerciseId) return undefined;
+  return database.select({ p: exercises.progression }).from(exercises).where(eq(exercises.id, exerciseId)).get()?.p;
+}
+
+/**
+ * Runs the engine on a take's bytes. A file the engine refuses (truncated, no
+ * notes, too long…) becomes a failed outcome with the engine's one-line reason;
+ * anything else is a bug and is rethrown.
+ */
+export function analyseTakeBytes(bytes: Uint8Array, options: { key?: string | null; target?: string }): AnalysisOutcome {
+  try {
+    return { ok: true, analysis: analyseMidi(bytes, { key: options.key ?? undefined, target: options.target }) };
+  } catch (e) {
+    if (e instanceof AnalysisError) return { ok: false, error: e.message };
+    if (e instanceof ProgressionError) {
+      // The exercise's target no longer parses: grade without it rather than lose the take.
+      return analyseTakeBytes(bytes, { key: options.key });
+    }
+    throw e;
+  }
+}
+
+/** Replaces a take's metric, chord and change rows with those of `analysis` (inside the caller's transaction). */
+export function writeAnalysisRows(tx: Tx, takeId: string, analysis: TakeAnalysis) {
+  clearAnalysisRows(tx, takeId);
+  const s = analysis.summary;
+  tx.insert(takeMetrics)
+    .values({
+      takeId,
+      chordCount: s.chordCount,
+      changeCount: s.gradedChangeCount,
+      melodyNoteCount: s.melodyNoteCount,
+      totalMotion: s.totalMotion,
+      bestTotalMotion: s.bestTotalMotion,
+      smoothness: s.smoothness,
+      rootPositionLeaps: s.rootPositionLeaps,
+      score: s.score,
+      accuracy: s.accuracy ?? null,
+      estimatedKey: s.key,
+      tempoSteadiness: s.tempo.steadiness,
+      flags: s.flags,
+      techniques: s.techniques,
+      topLine: analysis.chords.map((c) => c.topNote),
+      mismatches: s.mismatches ?? null,
+      analysis,
+    })
+    .run();
+  // SQLite allows at most 32,766 bound values per statement: insert in slices.
+  const chordRows = analysis.chords.map((c, idx) => ({
+    takeId,
+    idx,
+    startSec: c.startSec,
+    endSec: c.endSec,
+    notes: c.notes,
+    graceNotes: c.graceNotes.map((g) => g.note),
+    root: c.root,
+    bass: c.bass,
+    symbol: c.symbol,
+    roman: c.roman,
+    quality: c.quality,
+    inversion: c.inversion,
+    upperInversion: c.upperInversion,
+    voicing: c.voicing,
+    topNote: c.topNote,
+    flags: c.flags,
+    techniques: c.techniques,
+  }));
+  for (let i = 0; i < chordRows.length; i += 500) tx.insert(chordEvents).values(chordRows.slice(i, i + 500)).run();
+  const changeRows = analysis.changes.map((c, idx) => ({
+    takeId,
+    idx,
+    fromIdx: c.from,
+    toIdx: c.to,
+    motion: c.motion,
+    bestMotion: c.bestMotion,
+    bestVoicing: c.bestVoicing,
+    suggestions: c.suggestions,
+    flags: c.flags,
+    bassMotion: c.bassMotion,
+    topInterval: c.topVoiceInterval,
+    commonTones: c.commonTones,
+    largestMove: c.largestVoiceMove,
+  }));
+  for (let i = 0; i < changeRows.length; i += 500) tx.insert(changeResults).values(changeRows.slice(i, i + 500)).run();
+}
+
+export function clearAnalysisRows(tx: Tx, takeId: string) {
+  tx.delete(takeMetrics).where(eq(takeMetrics.takeId, takeId)).run();
+  tx.delete(chordEvents).where(eq(chordEvents.takeId, takeId)).run();
+  tx.delete(changeResults).where(eq(changeResults.takeId, takeId)).run();
+}

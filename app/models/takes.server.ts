@@ -1,0 +1,256 @@
+import { and, desc, eq, inArray, isNull, lt, or, sql } from "drizzle-orm";
+import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
+import { db } from "~/db/client.server";
+import { exerciseAssignees, exercises, studios, takeMetrics, takes, users, type Take } from "~/db/schema";
+import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
+import { weekKey } from "~/lib/weeks";
+import { analyseTakeBytes, clearAnalysisRows, exerciseTarget, writeAnalysisRows } from "./takeAnalysis.server";
+
+export type TakeView = {
+  take: {
+    id: string;
+    studentId: string;
+    studentName: string;
+    studioId: string;
+    exerciseId: string | null;
+    exerciseTitle: string | null;
+    key: string | null;
+    note: string;
+    originalName: string;
+    size: number;
+    status: Take["status"];
+    error: string | null;
+    recordedAt: string;
+    createdAt: string;
+    durationSec: number;
+    analysisVersion: number | null;
+  };
+  analysis: TakeAnalysis | null;
+  notes: NoteEvent[];
+  pedal: PedalSpan[];
+};
+
+export function takeWeekKey(studioId: string, recordedAt: Date): string {
+  const tz = db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()?.tz ?? "UTC";
+  return weekKey(recordedAt, tz);
+}
+
+export async function getTakeView(takeId: string): Promise<TakeView | null> {
+  const row = db()
+    .select({ take: takes, studentName: users.name, exerciseTitle: exercises.title, analysis: takeMetrics.analysis })
+    .from(takes)
+    .innerJoin(users, eq(users.id, takes.studentId))
+    .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
+    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .where(eq(takes.id, takeId))
+    .get();
+  if (!row) return null;
+  const t = row.take;
+  let notes: NoteEvent[] = [];
+  let pedal: PedalSpan[] = [];
+  if (t.status === "analysed") {
+    const bytes = await readTakeFile(t.fileKey);
+    if (bytes) ({ notes, pedal = [] } = readMidi(bytes));
+  }
+  return {
+    take: {
+      id: t.id,
+      studentId: t.studentId,
+      studentName: row.studentName,
+      studioId: t.studioId,
+      exerciseId: t.exerciseId,
+      exerciseTitle: row.exerciseTitle,
+      key: t.key,
+      note: t.note,
+      originalName: t.originalName,
+      size: t.size,
+      status: t.status,
+      error: t.error,
+      recordedAt: t.recordedAt.toISOString(),
+      createdAt: t.createdAt.toISOString(),
+      durationSec: t.durationSec,
+      analysisVersion: t.analysisVersion,
+    },
+    analysis: row.analysis ?? null,
+    notes,
+    pedal,
+  };
+}
+
+export type TakeListRow = {
+  id: string;
+  recordedAt: string;
+  exerciseId: string | null;
+  exerciseTitle: string | null;
+  key: string | null;
+  status: string;
+  error: string | null;
+  originalName: string;
+  chordCount: number | null;
+  smoothness: number | null;
+  rootPositionLeaps: number | null;
+  score: number | null;
+  accuracy: number | null;
+};
+
+export function listTakesForStudent(studentId: string, opts: { studioId?: string; limit?: number } = {}): TakeListRow[] {
+  const rows = db()
+    .select({
+      id: takes.id,
+      recordedAt: takes.recordedAt,
+      exerciseId: takes.exerciseId,
+      exerciseTitle: exercises.title,
+      key: takes.key,
+      status: takes.status,
+      error: takes.error,
+      originalName: takes.originalName,
+      chordCount: takeMetrics.chordCount,
+      smoothness: takeMetrics.smoothness,
+      rootPositionLeaps: takeMetrics.rootPositionLeaps,
+      score: takeMetrics.score,
+      accuracy: takeMetrics.accuracy,
+    })
+    .from(takes)
+    .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
+    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .where(and(eq(takes.studentId, studentId), opts.studioId ? eq(takes.studioId, opts.studioId) : undefined))
+    .orderBy(desc(takes.recordedAt))
+    .limit(opts.limit ?? 200)
+    .all();
+  return rows.map((r) => ({ ...r, recordedAt: r.recordedAt.toISOString() }));
+}
+
+/** Smoothness (a ratio of sums) and mean score per ISO week, from metric rows only. */
+export function weeklyFiguresForStudent(studentId: string, studioId: string) {
+  return db()
+    .select({
+      week: takes.weekKey,
+      takes: sql<number>`count(*)`,
+      totalMotion: sql<number>`coalesce(sum(${takeMetrics.totalMotion}), 0)`,
+      bestTotalMotion: sql<number>`coalesce(sum(${takeMetrics.bestTotalMotion}), 0)`,
+      score: sql<number | null>`avg(${takeMetrics.score})`,
+    })
+    .from(takes)
+    .innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .where(and(eq(takes.studentId, studentId), eq(takes.studioId, studioId)))
+    .groupBy(takes.weekKey)
+    .orderBy(takes.weekKey)
+    .all()
+    .map((w) => ({
+      week: w.week,
+      takes: w.takes,
+      smoothness: w.totalMotion === 0 ? 1 : w.bestTotalMotion / w.totalMotion,
+      score: w.score === null ? null : Math.round(w.score * 10) / 10,
+    }));
+}
+
+export type ExerciseOption = {
+  id: string;
+  title: string;
+  keys: string[];
+  dueDate: string | null;
+  progression: string;
+  tempo: number | null;
+  focusTechniques: string[];
+};
+
+/** Exercises of the studio that are set for the whole studio or for this student, not archived. */
+export function listExercisesForStudent(studentId: string, studioId: string): ExerciseOption[] {
+  const assigned = db()
+    .select({ id: exerciseAssignees.exerciseId })
+    .from(exerciseAssignees)
+    .where(eq(exerciseAssignees.userId, studentId));
+  return db()
+    .select({
+      id: exercises.id,
+      title: exercises.title,
+      keys: exercises.keys,
+      dueDate: exercises.dueDate,
+      progression: exercises.progression,
+      tempo: exercises.tempo,
+      focusTechniques: exercises.focusTechniques,
+    })
+    .from(exercises)
+    .where(
+      and(
+        eq(exercises.studioId, studioId),
+        isNull(exercises.archivedAt),
+        or(eq(exercises.assignedTo, "studio"), inArray(exercises.id, assigned)),
+      ),
+    )
+    .orderBy(exercises.dueDate)
+    .all();
+}
+
+export function exerciseForStudent(studentId: string, studioId: string, exerciseId: string) {
+  return listExercisesForStudent(studentId, studioId).find((e) => e.id === exerciseId) ?? null;
+}
+
+/** Removes the take, its rows (by cascade) and its file. */
+export async function deleteTake(takeId: string) {
+  const take = db().select().from(takes).where(eq(takes.id, takeId)).get();
+  if (!take) return;
+  db().delete(takes).where(eq(takes.id, takeId)).run();
+  await removeTakeFile(take.fileKey);
+}
+
+/** Re-runs the engine on a stored take from its file (after a move, or a newer engine). */
+export async function reanalyseTake(takeId: string): Promise<"analysed" | "failed" | null> {
+  const take = db().select().from(takes).where(eq(takes.id, takeId)).get();
+  if (!take) return null;
+  const bytes = await readTakeFile(take.fileKey);
+  if (!bytes) return null;
+  const outcome = analyseTakeBytes(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId) });
+  db().transaction((tx) => {
+    if (outcome.ok) {
+      writeAnalysisRows(tx, take.id, outcome.analysis);
+      tx.update(takes)
+        .set({
+          status: "analysed",
+          error: null,
+          durationSec: outcome.analysis.summary.durationSec,
+          analysisVersion: ANALYSIS_VERSION,
+        })
+        .where(eq(takes.id, take.id))
+        .run();
+    } else {
+      clearAnalysisRows(tx, take.id);
+      tx.update(takes)
+        .set({ status: "failed", error: outcome.error, analysisVersion: ANALYSIS_VERSION })
+        .where(eq(takes.id, take.id))
+        .run();
+    }
+  });
+  return outcome.ok ? "analysed" : "failed";
+}
+
+/** Attaches a take to another exercise (or none) and grades it again against that target. */
+export async function moveTake(takeId: string, exerciseId: string | null, key: string | null) {
+  db().update(takes).set({ exerciseId, key }).where(eq(takes.id, takeId)).run();
+  await reanalyseTake(takeId);
+}
+
+/** Takes analysed by an older engine (or never): what `npm run reanalyse` and the start-up pass work through. */
+export function outdatedTakeIds(limit = 1000): string[] {
+  return db()
+    .select({ id: takes.id })
+    .from(takes)
+    .where(or(isNull(takes.analysisVersion), lt(takes.analysisVersion, ANALYSIS_VERSION)))
+    .limit(limit)
+    .all()
+    .map((r) => r.id);
+}
+
+export async function reanalyseOutdated(onProgress?: (done: number, total: number) => void) {
+  const ids = outdatedTakeIds(1_000_000);
+  let done = 0;
+  const counts = { analysed: 0, failed: 0, missing: 0 };
+  for (const id of ids) {
+    const status = await reanalyseTake(id);
+    counts[status ?? "missing"]++;
+    onProgress?.(++done, ids.length);
+    // Yield between takes so a background pass never blocks requests for long.
+    await new Promise((r) => setImmediate(r));
+  }
+  return { total: ids.length, ...counts };
+}
