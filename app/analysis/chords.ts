@@ -11,8 +11,17 @@ import { detachedBass, upperStructure } from "./voiceLeading";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
+/** Spans are sorted and disjoint (the reader merges them): binary search. */
 function pedalDownAt(pedal: PedalSpan[], time: number): boolean {
-  return pedal.some((p) => p.start <= time + 1e-9 && time < p.end);
+  let lo = 0;
+  let hi = pedal.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (pedal[mid].start > time + 1e-9) hi = mid - 1;
+    else if (time >= pedal[mid].end) lo = mid + 1;
+    else return true;
+  }
+  return false;
 }
 
 /** Distinct pitches a strike sounds as a chord: struck and held notes, grace notes excluded. */
@@ -25,33 +34,22 @@ export function isChordStrike(s: Strike): boolean {
   return new Set(s.notes.map((n) => n.midi)).size >= 2;
 }
 
-export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[]): ChordReport {
-  const notes = strikeVoicing(s);
+/** The parts of a chord report that depend only on its voicing (and the key). */
+type VoicingFacts = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "pedal" | "techniques"> & {
+  name: ReturnType<typeof nameChord>;
+};
+
+function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
   const bassMidi = notes[0];
   const name = nameChord(notes, bassMidi);
   const detached = detachedBass(notes);
   const upper = upperStructure(notes);
-  const chordPcs = new Set(notes.map(pc));
   const inversion = inversionOf(name, bassMidi);
-  const upperInversion = detached === null ? null : inversionOf(name, upper[0]);
-  const voicing = voicingOf(upper, chordPcs);
-  const graces = s.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
-  const struckEnd = Math.max(...s.notes.map((n) => n.end));
   const top = notes[notes.length - 1];
-  const heldPitches = new Set(s.held.map((n) => n.midi));
-  const struckPitches = new Set(s.notes.map((n) => n.midi));
   return {
-    startSec: round3(Math.min(s.start, ...s.graces.map((g) => g.note.start))),
-    endSec: round3(struckEnd),
+    name,
     notes,
     noteNames: notes.map((n) => noteName(n, key)),
-    heldNotes: notes.filter((n) => heldPitches.has(n) && !struckPitches.has(n)),
-    graceNotes: s.graces.map((g) => ({
-      startSec: round3(g.note.start),
-      endSec: round3(g.note.end),
-      note: g.note.midi,
-      resolvesTo: g.target.midi,
-    })),
     root: name.rootPc === null ? null : spellPc(name.rootPc, key),
     bass: spellPc(pc(bassMidi), key),
     symbol: spelledSymbol(name, pc(bassMidi), key),
@@ -59,17 +57,60 @@ export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[]): Cho
     triad: name.triad,
     quality: name.quality,
     inversion,
-    upperInversion,
+    upperInversion: detached === null ? null : inversionOf(name, upper[0]),
     detachedBass: detached,
-    voicing,
+    voicing: voicingOf(upper, new Set(notes.map(pc))),
     addedTones: addedTones(name),
     topNote: top,
     topNoteName: noteName(top, key),
-    pedal: pedalDownAt(pedal, s.start),
     flags: chordFlags(notes, name),
-    techniques: chordTechniques({ name, inversion, upperInversion, detachedBass: detached, voicing, graces }),
   };
 }
+
+/**
+ * The report of one chord strike. `cache` (one per take, since spelling depends on the key)
+ * lets repeated voicings skip naming and spelling.
+ */
+export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
+  const notes = strikeVoicing(s);
+  const id = notes.join(",");
+  let facts = cache?.get(id);
+  if (!facts) {
+    facts = voicingFacts(notes, key);
+    cache?.set(id, facts);
+  }
+  const { name, ...shown } = facts;
+  const graces = s.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
+  let struckEnd = 0;
+  for (const n of s.notes) if (n.end > struckEnd) struckEnd = n.end;
+  let start = s.start;
+  for (const g of s.graces) if (g.note.start < start) start = g.note.start;
+  const struckPitches = new Set(s.notes.map((n) => n.midi));
+  const held = new Set(s.held.map((n) => n.midi));
+  return {
+    startSec: round3(start),
+    endSec: round3(struckEnd),
+    ...shown,
+    heldNotes: notes.filter((n) => held.has(n) && !struckPitches.has(n)),
+    graceNotes: s.graces.map((g) => ({
+      startSec: round3(g.note.start),
+      endSec: round3(g.note.end),
+      note: g.note.midi,
+      resolvesTo: g.target.midi,
+    })),
+    pedal: pedalDownAt(pedal, s.start),
+    techniques: chordTechniques({
+      name,
+      inversion: shown.inversion,
+      upperInversion: shown.upperInversion,
+      detachedBass: shown.detachedBass,
+      voicing: shown.voicing,
+      graces,
+    }),
+  };
+}
+
+export type { VoicingFacts };
 
 export function melodyNote(s: Strike, key: Key | null): MelodyNote {
   const n: NoteEvent = s.notes[0];

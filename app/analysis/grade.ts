@@ -72,7 +72,20 @@ export function gradeChange(from: number, to: number, a: ChordReport, b: ChordRe
 }
 
 export function gradeChanges(chords: ChordReport[], key: Key | null): ChangeReport[] {
+  // Takes loop their progressions, so the same change recurs: grade each distinct one once.
+  // Everything but the indices depends only on the two voicings (and the take's key).
+  const seen = new Map<string, ChangeReport>();
   const out: ChangeReport[] = [];
-  for (let i = 1; i < chords.length; i++) out.push(gradeChange(i - 1, i, chords[i - 1], chords[i], key));
+  for (let i = 1; i < chords.length; i++) {
+    const id = `${chords[i - 1].notes.join(",")}>${chords[i].notes.join(",")}`;
+    const known = seen.get(id);
+    if (known) {
+      out.push({ ...known, from: i - 1, to: i });
+      continue;
+    }
+    const graded = gradeChange(i - 1, i, chords[i - 1], chords[i], key);
+    seen.set(id, graded);
+    out.push(graded);
+  }
   return out;
 }

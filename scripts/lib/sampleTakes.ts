@@ -8,7 +8,14 @@ export type SampleTake = {
   about: string;
   key: string;
   target?: string;
-  shows: { techniques?: TechniqueName[]; flags?: FlagName[]; heldNotes?: boolean; graceNotes?: boolean };
+  shows: {
+    techniques?: TechniqueName[];
+    flags?: FlagName[];
+    heldNotes?: boolean;
+    graceNotes?: boolean;
+    /** accuracy against `target` */
+    accuracy?: number;
+  };
   build: () => Uint8Array;
 };
 
@@ -25,19 +32,19 @@ export const SAMPLE_TAKES: SampleTake[] = [
     about: "Dara's I IV V I in D: inversions in the right hand, rolled chords, uneven velocity, two tracks",
     key: "D",
     target: "I IV V I",
-    shows: { techniques: ["inversion", "smooth-top-line"] },
+    shows: { techniques: ["inversion", "smooth-top-line"], accuracy: 1 },
     build: () =>
       render(twice(exercise("three-chord-smoothing-d").smooth), { bpm: 80, roll: 0.025, velocitySpread: 0.15, jitter: 0.01, twoTracks: true, seed: 11 }, "Three-chord smoothing in D"),
   },
   {
     file: "sunday-ballad-ab.mid",
-    about: "Felix's vi IV I V in Ab with open voicings, sustain pedal and a left hand 100 ms late",
+    about: "Felix's vi IV I V in Ab one and a half times, open voicings, sustain pedal, the left hand 100 ms late",
     key: "Ab",
     target: "vi IV I V",
-    shows: { techniques: ["open-voicing"] },
+    shows: { techniques: ["open-voicing"], accuracy: 0.75 },
     build: () =>
       render(
-        [...twice(exercise("sunday-ballad-ab").smooth), ...exercise("sunday-ballad-ab").smooth.slice(0, 2)],
+        [...exercise("sunday-ballad-ab").smooth, ...exercise("sunday-ballad-ab").smooth.slice(0, 2)],
         { bpm: 66, pedal: true, bassOffset: 0.1, velocitySpread: 0.1, jitter: 0.008, twoTracks: true, seed: 12 },
         "Sunday ballad in Ab",
       ),
@@ -47,7 +54,7 @@ export const SAMPLE_TAKES: SampleTake[] = [
     about: "Yuki's iiø7 V7 i in G minor: an added 9th on i as a grace note rising to the 3rd, the bass a little early",
     key: "Gm",
     target: "iiø7 V7 i",
-    shows: { techniques: ["added-second", "grace-to-third", "slash-bass"], graceNotes: true },
+    shows: { techniques: ["added-second", "grace-to-third", "open-voicing"], graceNotes: true, accuracy: 1 },
     build: () =>
       render(twice(exercise("minor-colour-g").smooth), { bpm: 72, bassOffset: -0.12, jitter: 0.01, twoTracks: true, seed: 13 }, "Minor colour in G minor"),
   },
@@ -56,7 +63,7 @@ export const SAMPLE_TAKES: SampleTake[] = [
     about: "Samir's falling bass in Eb: slash chords over a left-hand line, one track",
     key: "Eb",
     target: "Eb Bb/D Cm Cm/Bb Ab",
-    shows: { techniques: ["slash-bass", "inversion"] },
+    shows: { techniques: ["slash-bass", "inversion"], accuracy: 1 },
     build: () => render(exercise("falling-bass-eb").smooth, { bpm: 76, jitter: 0.01, velocitySpread: 0.12, seed: 14 }, "Falling bass in Eb"),
   },
   {

@@ -1,0 +1,91 @@
+// Entry of the analysis engine: pure TypeScript, no React, database or Node-only imports,
+// so the server, the browser, the command line, the seed script and the tests share it.
+import { chordReport, isChordStrike, melodyNote, type VoicingFacts } from "./chords";
+import { AnalysisError } from "./errors";
+import { gradeChanges } from "./grade";
+import { estimateKey } from "./key";
+import { matchProgression, type PlayedIdentity } from "./matching";
+import { nameChord } from "./naming";
+import type { Key } from "./pitch";
+import { parseKey, pc } from "./pitch";
+import { parseProgression } from "./progression";
+import { readMidi } from "./readMidi";
+import { findStrikes } from "./strikes";
+import { summarise } from "./summary";
+import type { AnalyseOptions, ChordReport, NoteEvent, NoteList, TakeAnalysis } from "./types";
+
+import { ANALYSIS_VERSION } from "./version";
+
+export { ANALYSIS_VERSION };
+
+export { AnalysisError, MAX_TAKE_NOTES, MAX_TAKE_SECONDS } from "./errors";
+export type { AnalysisErrorCode } from "./errors";
+export { ProgressionError } from "./pitch";
+export { readMidi } from "./readMidi";
+export type * from "./types";
+
+function validNotes(notes: NoteEvent[]): NoteEvent[] {
+  return notes.filter(
+    (n) =>
+      Number.isInteger(n.midi) &&
+      n.midi >= 0 &&
+      n.midi <= 127 &&
+      Number.isFinite(n.start) &&
+      Number.isFinite(n.end) &&
+      n.end >= n.start,
+  );
+}
+
+function identity(c: ChordReport): PlayedIdentity {
+  const name = nameChord(c.notes, c.notes[0]);
+  return { root: name.rootPc, triad: name.triad, bass: pc(c.notes[0]), pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b) };
+}
+
+/**
+ * Analyses an already-read note list (times in seconds), e.g. live notes from the browser.
+ * Throws AnalysisError("no-notes") when there is nothing to analyse and ProgressionError for a
+ * key or target the teacher mistyped.
+ */
+export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOptions = {}): TakeAnalysis {
+  const list: NoteList = Array.isArray(input) ? { notes: input } : input;
+  const notes = validNotes(list.notes);
+  if (notes.length === 0) throw new AnalysisError("no-notes");
+  const tempos = list.tempos ?? [];
+  const pedal = list.pedal ?? [];
+  const givenKey: Key | null = options.key ? parseKey(options.key) : null;
+  const key = givenKey ?? estimateKey(notes).key;
+  const target = options.target?.trim() ? parseProgression(options.target, key) : null;
+
+  const chords: ChordReport[] = [];
+  const melodyNotes = [];
+  const voicings = new Map<string, VoicingFacts>();
+  for (const s of findStrikes(notes, tempos)) {
+    if (isChordStrike(s)) chords.push(chordReport(s, key, pedal, voicings));
+    else melodyNotes.push(melodyNote(s, key));
+  }
+  const changes = gradeChanges(chords, key);
+  let durationSec = 0;
+  for (const n of notes) durationSec = Math.max(durationSec, n.end);
+  const match = target
+    ? { target: options.target!.trim(), ...matchProgression(chords.map(identity), target) }
+    : undefined;
+  const summary = summarise({
+    chords,
+    melodyNotes,
+    changes,
+    key,
+    keySource: givenKey ? "given" : "estimated",
+    durationSec,
+    pedal,
+    analysisVersion: ANALYSIS_VERSION,
+    match: match && { target: match.target, accuracy: match.accuracy, loops: match.loops, mismatches: match.mismatches },
+  });
+  return { chords, melodyNotes, changes, summary };
+}
+
+/** Reads a Standard MIDI File and analyses it; throws AnalysisError on a bad file. */
+export function analyseMidi(bytes: Uint8Array, options: AnalyseOptions = {}): TakeAnalysis {
+  // Check the options first, so a mistyped key is reported before a long read.
+  if (options.key) parseKey(options.key);
+  return analyseNotes(readMidi(bytes), options);
+}
