@@ -35,6 +35,7 @@ export function issueUserToken(userId: string, purpose: UserTokenPurpose, now = 
         purpose,
         tokenHash: hashToken(token),
         expiresAt: new Date(now.getTime() + TOKEN_TTL_MS[purpose]),
+        createdAt: now,
       })
       .run();
   });

@@ -5,7 +5,7 @@ import { invitationSends, invitations, studios, users, type Invitation, type Inv
 import { sendMail } from "~/lib/mail.server";
 import { invitationMail } from "~/lib/mailTemplates.server";
 import { hashPassword } from "~/auth/password.server";
-import { addMember } from "./studios.server";
+import { addMember, getMembership } from "./studios.server";
 import { findUserByEmail, normaliseEmail } from "./users.server";
 
 export const INVITATION_TTL_MS = 7 * DAY_MS;
@@ -52,12 +52,8 @@ export async function inviteToStudio(
   const toSend: string[] = [];
   for (const email of unique) {
     const existing = findUserByEmail(email);
-    const member = existing
-      ? db().query.memberships.findFirst({
-          where: (m, { and: all, eq: is }) => all(is(m.studioId, studioId), is(m.userId, existing.id), is(m.status, "active")),
-        })
-      : undefined;
-    if (member) skipped.push({ email, reason: "already in this studio" });
+    const member = existing ? getMembership(studioId, existing.id) : undefined;
+    if (member?.status === "active") skipped.push({ email, reason: "already in this studio" });
     else toSend.push(email);
   }
   const remaining = DAILY_INVITATION_LIMIT - invitationsSentToday(studioId, now);

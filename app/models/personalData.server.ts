@@ -62,14 +62,14 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
     )
     .all();
 
-  const zip: Zippable = { takes: {} };
-  const takeFolder = zip.takes as Zippable;
+  // Flat paths: no separate directory entries in the archive.
+  const zip: Zippable = {};
   const files = takeFileStorage();
   const takeJson = [];
   for (const [i, row] of takeRows.entries()) {
     const file = await files.get(row.take.fileKey);
     const zipName = `${String(i + 1).padStart(3, "0")}-${safeName(row.take.originalName)}`;
-    if (file) takeFolder[zipName] = new Uint8Array(await file.arrayBuffer());
+    if (file) zip[`takes/${zipName}`] = new Uint8Array(await file.arrayBuffer());
     const { fileKey: _fileKey, ...take } = row.take;
     takeJson.push({ ...take, studio: row.studioName, file: file ? `takes/${zipName}` : null, metrics: row.metrics });
   }
