@@ -39,7 +39,7 @@ function distinctSorted(v: readonly number[]): number[] {
   return s;
 }
 
-/** Lowest note of a sorted voicing when it is a detached bass (same test as voiceLeading's). */
+/** Whether a sorted voicing has a detached bass (the test of voiceLeading.detachedBass, without copying). */
 function hasDetachedBass(sortedV: readonly number[]): boolean {
   return sortedV.length >= 3 && sortedV[1] - sortedV[0] >= DETACHED_BASS_GAP;
 }
