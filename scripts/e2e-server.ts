@@ -8,6 +8,7 @@ import { pathToFileURL } from "node:url";
 import { closeDatabaseForTests, db } from "~/db/client.server";
 import { seedDemoStudio } from "~/models/demoStudio.server";
 import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
+import { seedDemoTakes } from "./lib/seedTakes";
 
 const storageDir = process.env.E2E_STORAGE_DIR ?? mkdtempSync(path.join(tmpdir(), "nearnote-e2e-"));
 process.env.STORAGE_DIR = storageDir;
@@ -17,7 +18,8 @@ process.env.PORT ??= "3210";
 process.env.APP_URL = `http://127.0.0.1:${process.env.PORT}`;
 const config = loadEnvOrExit();
 
-await seedDemoStudio(db());
+const { studioId } = await seedDemoStudio(db());
+await seedDemoTakes(db(), studioId);
 closeDatabaseForTests();
 
 const extraEnv: Record<string, string> = { HOST: config.host, PORT: String(config.port), NODE_ENV: "production" };

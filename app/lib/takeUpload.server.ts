@@ -10,14 +10,14 @@ import {
 import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { z } from "zod";
-import { ANALYSIS_VERSION, ProgressionError, type TakeAnalysis } from "~/analysis";
+import { ProgressionError, type TakeAnalysis } from "~/analysis";
 import { parseKey } from "~/analysis/pitch";
 import type { SessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { takes } from "~/db/schema";
 import { newFileKey, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
-import { analyseTakeBytes, writeAnalysisRows } from "~/models/takeAnalysis.server";
-import { deleteTake, exerciseForStudent, takeWeekKey } from "~/models/takes.server";
+import { analyseTakeBytes } from "~/models/takeAnalysis.server";
+import { createTakeRecord, deleteTake, exerciseForStudent } from "~/models/takes.server";
 
 // One module for every way a take arrives: the API route, the upload page's
 // no-JavaScript form, and "replace this take".
@@ -150,30 +150,18 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields): Pr
   const outcome = analyseTakeBytes(bytes, { key, target });
   const recordedAt = parseRecordedAt(fields.recordedAt, file.lastModified);
   try {
-    const id = db().transaction((tx) => {
-      const take = tx
-        .insert(takes)
-        .values({
-          studentId: user.id,
-          studioId,
-          exerciseId: fields.exerciseId ?? null,
-          key,
-          note: fields.note,
-          fileKey: file.fileKey,
-          originalName: fileName,
-          size: bytes.length,
-          contentHash,
-          status: outcome.ok ? "analysed" : "failed",
-          error: outcome.ok ? null : outcome.error,
-          recordedAt,
-          weekKey: takeWeekKey(studioId, recordedAt),
-          durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
-          analysisVersion: ANALYSIS_VERSION,
-        })
-        .returning({ id: takes.id })
-        .get();
-      if (outcome.ok) writeAnalysisRows(tx, take.id, outcome.analysis);
-      return take.id;
+    const id = createTakeRecord({
+      studentId: user.id,
+      studioId,
+      exerciseId: fields.exerciseId ?? null,
+      key,
+      note: fields.note,
+      fileKey: file.fileKey,
+      originalName: fileName,
+      size: bytes.length,
+      contentHash,
+      recordedAt,
+      outcome,
     });
     return outcome.ok
       ? { status: 201, body: { id, status: "analysed", analysis: outcome.analysis }, fileName }

@@ -4,7 +4,13 @@ import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, studios, takeMetrics, takes, users, type Take } from "~/db/schema";
 import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
 import { weekKey } from "~/lib/weeks";
-import { analyseTakeBytes, clearAnalysisRows, exerciseTarget, writeAnalysisRows } from "./takeAnalysis.server";
+import {
+  analyseTakeBytes,
+  clearAnalysisRows,
+  exerciseTarget,
+  writeAnalysisRows,
+  type AnalysisOutcome,
+} from "./takeAnalysis.server";
 
 export type TakeView = {
   take: {
@@ -33,6 +39,41 @@ export type TakeView = {
 export function takeWeekKey(studioId: string, recordedAt: Date): string {
   const tz = db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()?.tz ?? "UTC";
   return weekKey(recordedAt, tz);
+}
+
+export type NewTake = {
+  studentId: string;
+  studioId: string;
+  exerciseId: string | null;
+  key: string | null;
+  note: string;
+  fileKey: string;
+  originalName: string;
+  size: number;
+  contentHash: string;
+  recordedAt: Date;
+  outcome: AnalysisOutcome;
+};
+
+/** Writes a take with its metric, chord and change rows in one transaction; returns its id. */
+export function createTakeRecord(t: NewTake): string {
+  const { outcome, ...fields } = t;
+  return db().transaction((tx) => {
+    const take = tx
+      .insert(takes)
+      .values({
+        ...fields,
+        status: outcome.ok ? "analysed" : "failed",
+        error: outcome.ok ? null : outcome.error,
+        weekKey: takeWeekKey(t.studioId, t.recordedAt),
+        durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
+        analysisVersion: ANALYSIS_VERSION,
+      })
+      .returning({ id: takes.id })
+      .get();
+    if (outcome.ok) writeAnalysisRows(tx, take.id, outcome.analysis);
+    return take.id;
+  });
 }
 
 export async function getTakeView(takeId: string): Promise<TakeView | null> {

@@ -1,9 +1,10 @@
 import bcrypt from "bcryptjs";
-import { count, eq } from "drizzle-orm";
+import { count, eq, sql } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
-import { exercises, memberships, studios, users } from "~/db/schema";
+import { exercises, memberships, studios, takeMetrics, takes, users } from "~/db/schema";
 import { DEMO_PASSWORD, DEMO_STUDENTS, DEMO_TEACHER, seedDemoStudio } from "~/models/demoStudio.server";
+import { seedDemoTakes } from "../../scripts/lib/seedTakes";
 import { useFreshApp } from "../support/setup";
 
 useFreshApp();
@@ -33,4 +34,36 @@ describe("the demo studio seed", () => {
     expect(db().select({ n: count() }).from(studios).get()!.n).toBe(1);
     expect(db().select({ n: count() }).from(exercises).get()!.n).toBe(4);
   });
+});
+
+describe("the demo takes", () => {
+  it("adds twelve weeks of analysed takes with an improving student, a stuck one and one who stopped, once", async () => {
+    const { studioId } = await seedDemoStudio(db());
+    const made = await seedDemoTakes(db(), studioId, new Date("2026-12-01T12:00:00Z"));
+    expect(made).toBeGreaterThan(100);
+    expect(await seedDemoTakes(db(), studioId)).toBe(0);
+    const weekly = (email: string) =>
+      db()
+        .select({
+          week: takes.weekKey,
+          best: sql<number>`sum(${takeMetrics.bestTotalMotion})`,
+          total: sql<number>`sum(${takeMetrics.totalMotion})`,
+        })
+        .from(takes)
+        .innerJoin(users, eq(users.id, takes.studentId))
+        .innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+        .where(eq(users.email, email))
+        .groupBy(takes.weekKey)
+        .orderBy(takes.weekKey)
+        .all();
+    const smoothness = (rows: { best: number; total: number }[]) =>
+      rows.reduce((a, r) => a + r.best, 0) / rows.reduce((a, r) => a + r.total, 0);
+    const dara = weekly("dara@tidewater.example");
+    expect(dara.length).toBeGreaterThanOrEqual(12);
+    expect(smoothness(dara.slice(-4))).toBeGreaterThan(smoothness(dara.slice(0, 4)) + 0.15);
+    // Samir stopped three weeks ago: nothing in the last weeks.
+    const samir = weekly("samir@tidewater.example");
+    expect(samir.at(-1)!.week < dara.at(-1)!.week).toBe(true);
+    expect(db().select({ n: count() }).from(takes).where(eq(takes.status, "failed")).get()!.n).toBe(0);
+  }, 60_000);
 });
