@@ -7,6 +7,7 @@ import { db } from "~/db/client.server";
 import { changeResults, chordEvents, takeMetrics, takes } from "~/db/schema";
 import { getSessionUser } from "~/auth/session.server";
 import { replaceTakeFromForm, uploadTakesFromForm } from "~/lib/takeUpload.server";
+import { startBackgroundWork } from "~/lib/startup.server";
 import { moveTake, reanalyseOutdated } from "~/models/takes.server";
 import * as login from "~/routes/login";
 import * as apiTakes from "~/routes/api.takes";
@@ -201,6 +202,15 @@ describe("reading and managing takes", () => {
     expect(db().select().from(takes).where(eq(takes.id, s.takeId)).get()!.analysisVersion).toBe(ANALYSIS_VERSION);
     expect(rows(chordEvents)).toBeGreaterThan(0);
     expect((await reanalyseOutdated()).total).toBe(0);
+  });
+
+  it("re-analyses outdated takes in the background when the server starts", async () => {
+    const s = await uploaded();
+    db().update(takes).set({ analysisVersion: 0 }).where(eq(takes.id, s.takeId)).run();
+    startBackgroundWork();
+    await expect
+      .poll(() => db().select().from(takes).where(eq(takes.id, s.takeId)).get()!.analysisVersion, { timeout: 5000 })
+      .toBe(ANALYSIS_VERSION);
   });
 
   it("moves a take to an exercise and grades it against that target", async () => {

@@ -1,0 +1,28 @@
+import { db } from "~/db/client.server";
+import { reanalyseOutdated } from "~/models/takes.server";
+
+let started = false;
+
+/**
+ * Work the server process does on its own once it is up: stored takes analysed
+ * by an older engine are analysed again in the background, one at a time, so
+ * weekly figures stay comparable.
+ */
+export function startBackgroundWork() {
+  if (started || process.env.NEARNOTE_BACKGROUND === "off") return;
+  started = true;
+  db(); // migrate before the first request
+  const timer = setTimeout(async () => {
+    try {
+      const result = await reanalyseOutdated();
+      if (result.total > 0) {
+        console.log(
+          `[nearnote] re-analysed ${result.total} stored takes with the current engine (${result.analysed} analysed, ${result.failed} failed, ${result.missing} missing files)`,
+        );
+      }
+    } catch (e) {
+      console.error("[nearnote] background re-analysis stopped:", e);
+    }
+  }, 500);
+  timer.unref();
+}
