@@ -4,6 +4,7 @@ const PORT = Number(process.env.E2E_PORT ?? 3210);
 
 export default defineConfig({
   testDir: "tests/e2e",
+  outputDir: `test-results/${PORT}`,
   fullyParallel: false,
   workers: 1,
   retries: 0,

@@ -2,6 +2,8 @@ import type { Config } from "@react-router/dev/config";
 
 export default {
   ssr: true,
+  // Several builds can live side by side (e.g. parallel end-to-end runs): NEARNOTE_BUILD_DIR picks the folder.
+  buildDirectory: process.env.NEARNOTE_BUILD_DIR ?? "build",
   future: {
     v8_middleware: true,
     v8_splitRouteModules: true,

@@ -13,8 +13,10 @@ function newestMtime(dir: string): number {
   return newest;
 }
 
+export const BUILD_DIR = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
+
 export function buildIfNeeded() {
-  const server = path.resolve("build/server/index.js");
+  const server = path.join(BUILD_DIR, "server/index.js");
   const stale = !existsSync(server) || newestMtime(path.resolve("app")) > statSync(server).mtimeMs;
   if (!stale) return;
   console.log("Building Nearnote (first run or changed sources)…");
@@ -42,7 +44,7 @@ export function loadEnvOrExit() {
 export function serveBuiltApp(extraEnv: Record<string, string>) {
   const child = spawn(
     path.resolve("node_modules/.bin/react-router-serve"),
-    [path.resolve("build/server/index.js")],
+    [path.join(BUILD_DIR, "server/index.js")],
     { stdio: "inherit", env: { ...process.env, ...extraEnv } },
   );
   const stop = () => child.kill("SIGTERM");
