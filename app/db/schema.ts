@@ -317,3 +317,45 @@ export const signInFailures = sqliteTable(
 );
 
 export type Invitation = typeof invitations.$inferSelect;
+
+// --- Progress board: saved reports and practice reminders (issue 7) -----------
+
+// A printable report the teacher wrote for one student and period, so it can be reopened.
+export const progressReports = sqliteTable(
+  "progress_reports",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    studentId: text("student_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    fromDate: text("from_date").notNull(), // YYYY-MM-DD, studio's calendar
+    toDate: text("to_date").notNull(),
+    summary: text("summary").notNull(),
+    createdById: text("created_by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("progress_reports_student_idx").on(t.studioId, t.studentId, t.createdAt)],
+);
+
+// One practice reminder per student per studio week, so a second click cannot flood anyone's inbox.
+export const practiceReminders = sqliteTable(
+  "practice_reminders",
+  {
+    id: id(),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    studentId: text("student_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    weekKey: text("week_key").notNull(),
+    sentById: text("sent_by_id").references(() => users.id, { onDelete: "set null" }),
+    sentAt: createdAt(),
+  },
+  (t) => [uniqueIndex("practice_reminders_week_unique").on(t.studioId, t.studentId, t.weekKey)],
+);
+
+export type ProgressReport = typeof progressReports.$inferSelect;
