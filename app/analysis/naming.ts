@@ -67,11 +67,18 @@ function noteChroma(name: string): number {
   return ((value % 12) + 12) % 12;
 }
 
-/** Rule 4's tie-break: (a) no altered fifth, (b) root in the bass, (c) fewer added tones. */
-function better(a: Reading, b: Reading): number {
+/**
+ * Rule 4's tie-break: (a) no altered fifth, (b) root in the bass, (c) fewer added tones. Our
+ * own last step (d), the root nearest above the bass, keeps the choice independent of how
+ * tonal orders its readings, which varies with spelling (G C F gives Csus4/G first, F# B E
+ * gives Esus2/F# first), so transposing a take never renames its chords.
+ */
+function better(a: Reading, b: Reading, bassPc: number): number {
   if (a.alteredFifth !== b.alteredFifth) return a.alteredFifth ? 1 : -1;
   if (a.rootIsBass !== b.rootIsBass) return a.rootIsBass ? -1 : 1;
   if (a.addedCount !== b.addedCount) return a.addedCount - b.addedCount;
+  const above = (r: Reading) => (r.rootPc - bassPc + 12) % 12;
+  if (above(a) !== above(b)) return above(a) - above(b);
   return a.order - b.order;
 }
 
@@ -101,7 +108,7 @@ export function nameChord(pcs: Iterable<number>, bassPc: number): ChordName {
   const readings = names
     .map((n, i) => reading(n, pc(bassPc), i))
     .filter((r): r is Reading => r !== null)
-    .sort(better);
+    .sort((x, y) => better(x, y, pc(bassPc)));
   const best = readings[0];
   const result: ChordName = best
     ? {

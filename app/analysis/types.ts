@@ -1,7 +1,9 @@
 // Public shapes of the analysis engine. The JSON printed by `npm run analyse -- --json`
 // is exactly `TakeAnalysis`, so these names are part of the product's contract.
-/** Same union as progression.ts's `Triad` (VL's), repeated so the engine's types stand alone. */
-export type Triad = "major" | "minor" | "diminished" | "augmented" | "sus2" | "sus4";
+import type { Mismatch } from "./matching";
+import type { Triad } from "./progression";
+
+export type { Triad };
 
 /** One key press as read from a take (times in seconds, key release as `end`). */
 export type NoteEvent = {
@@ -115,12 +117,8 @@ export type ChangeReport = {
   flags: ChangeFlag[];
 };
 
-export type Mismatch = {
-  kind: "missing" | "extra" | "wrong-chord" | "wrong-bass";
-  targetIndex: number | null;
-  playedIndex: number | null;
-  expected: string | null;
-};
+/** One difference between a take and its target progression (VL's matching.ts owns the shape). */
+export type { Mismatch };
 
 export type TempoSteadiness = {
   /** median time between chord changes, seconds (null with fewer than two chords) */

@@ -91,6 +91,25 @@ describe("properties (fast-check)", () => {
     );
   });
 
+  it("transposing a take moves names with it and leaves every measurement unchanged", () => {
+    // Mid-keyboard chords, so no candidate voicing of either take runs off the 88 keys.
+    const midChords = fc.array(fc.uniqueArray(fc.integer({ min: 55, max: 79 }), { minLength: 2, maxLength: 5 }), { minLength: 2, maxLength: 6 });
+    fc.assert(
+      fc.property(midChords, fc.integer({ min: -5, max: 5 }), (chords, by) => {
+        const a = analyseNotes(toNotes(chords), { key: "C" });
+        const b = analyseNotes(toNotes(chords.map((c) => c.map((n) => n + by))), { key: "C" });
+        expect(b.changes.map((c) => [c.motion, c.bestMotion, c.bassMotion, c.topVoiceInterval, c.commonTones])).toEqual(
+          a.changes.map((c) => [c.motion, c.bestMotion, c.bassMotion, c.topVoiceInterval, c.commonTones]),
+        );
+        expect(b.chords.map((c) => [c.inversion, c.upperInversion, c.voicing, c.triad, c.quality])).toEqual(
+          a.chords.map((c) => [c.inversion, c.upperInversion, c.voicing, c.triad, c.quality]),
+        );
+        expect(b.changes.map((c) => c.bestVoicing)).toEqual(a.changes.map((c) => c.bestVoicing!.map((n) => n + by)));
+      }),
+      { numRuns: 40 },
+    );
+  });
+
   it("motion ≥ best motion for every graded change; smoothness stays within 0..1", () => {
     fc.assert(
       fc.property(chordNotes, (chords) => {
