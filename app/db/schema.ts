@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import type { TakeAnalysis } from "~/analysis/types";
 import {
+  type AnySQLiteColumn,
   index,
   integer,
   primaryKey,
@@ -99,6 +100,11 @@ export const exercises = sqliteTable(
     instructions: text("instructions").notNull().default(""),
     assignedTo: text("assigned_to", { enum: ["studio", "students"] }).notNull().default("studio"),
     archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
+    // Model answer: the starting voicing the teacher picked (MIDI numbers) for the smoothest
+    // path, and optionally the teacher's own recorded model take (stored like takes).
+    modelStart: text("model_start", { mode: "json" }).$type<number[]>(),
+    modelFileKey: text("model_file_key"),
+    modelOriginalName: text("model_original_name"),
     createdAt: createdAt(),
   },
   (t) => [index("exercises_studio_idx").on(t.studioId, t.archivedAt, t.dueDate)],
@@ -359,3 +365,85 @@ export const practiceReminders = sqliteTable(
 );
 
 export type ProgressReport = typeof progressReports.$inferSelect;
+
+// --- Exercises and feedback: comments, reads, intended flags, reviews, sent mail (issue 6) ---
+
+// A teacher's or student's comment on a take: on the whole take (changeIdx null) or pinned to one
+// chord change; a reply names its parent (replies are one level deep).
+export const comments = sqliteTable(
+  "comments",
+  {
+    id: id(),
+    takeId: text("take_id")
+      .notNull()
+      .references(() => takes.id, { onDelete: "cascade" }),
+    authorId: text("author_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    changeIdx: integer("change_idx"),
+    parentId: text("parent_id").references((): AnySQLiteColumn => comments.id, { onDelete: "cascade" }),
+    body: text("body").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("comments_take_idx").on(t.takeId, t.createdAt)],
+);
+
+// When a person last read the comments of a take: anything newer by someone else is unread.
+export const commentReads = sqliteTable(
+  "comment_reads",
+  {
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    takeId: text("take_id")
+      .notNull()
+      .references(() => takes.id, { onDelete: "cascade" }),
+    readAt: integer("read_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.takeId] })],
+);
+
+// A flag the teacher asked for ("I asked for this"): left out of the take's score, reason shown.
+export const intendedFlags = sqliteTable(
+  "intended_flags",
+  {
+    id: id(),
+    takeId: text("take_id")
+      .notNull()
+      .references(() => takes.id, { onDelete: "cascade" }),
+    on: text("on", { enum: ["chord", "change"] }).notNull(),
+    idx: integer("idx").notNull(),
+    flag: text("flag").notNull(),
+    reason: text("reason").notNull(),
+    byId: text("by_id").references(() => users.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("intended_flags_unique").on(t.takeId, t.on, t.idx, t.flag)],
+);
+
+// A take the teacher has marked reviewed; deleting the row is the undo.
+export const takeReviews = sqliteTable("take_reviews", {
+  takeId: text("take_id")
+    .primaryKey()
+    .references(() => takes.id, { onDelete: "cascade" }),
+  reviewedById: text("reviewed_by_id").references(() => users.id, { onDelete: "set null" }),
+  reviewedAt: integer("reviewed_at", { mode: "timestamp_ms" }).notNull(),
+});
+
+// Every automatic mail sent (digest, due-date reminder, feedback notice). The unique key is
+// claimed before sending, so a restarted scheduler never sends the same mail twice.
+export const sentMails = sqliteTable(
+  "sent_mails",
+  {
+    id: id(),
+    kind: text("kind", { enum: ["digest", "due-reminder", "feedback"] }).notNull(),
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    key: text("key").notNull(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [uniqueIndex("sent_mails_user_key_unique").on(t.userId, t.key), index("sent_mails_kind_idx").on(t.kind, t.sentAt)],
+);
+
+export type Comment = typeof comments.$inferSelect;
