@@ -19,6 +19,26 @@ function chord(pitches: number[], start = 0) {
 const change = (a: number[], b: number[]) => gradeChange(0, 1, chord(a), chord(b), key);
 
 describe("grading a change (DOMAIN worked examples)", () => {
+  // Every row of DOMAIN.md's worked-example table, through the engine's naming (inversions
+  // decide rule 9) and grading; each also transposed up a minor third.
+  it.each([
+    [[53, 57, 60], [58, 62, 65], 15, 3, ["root-position-leap"]],
+    [[53, 57, 60], [53, 58, 62], 3, 3, []],
+    [[60, 64, 67], [60, 65, 69], 3, 3, []],
+    [[60, 65, 69], [59, 62, 67], 6, 6, []],
+    [[67, 71, 74], [72, 76, 79], 15, 3, ["root-position-leap"]],
+    [[45, 60, 64, 69], [41, 60, 65, 69], 5, 5, []],
+    [[50, 60, 65, 69], [43, 59, 62, 65], 15, 11, []],
+    [[48, 60, 64, 67], [41, 53, 57, 60], 28, 10, ["root-position-leap"]],
+    [[60, 64, 67], [60, 64, 67, 70], 3, 2, []],
+  ])("%j → %j: motion %i, best %i, flags %j", (a, b, motionValue, best, flags) => {
+    for (const t of [0, 3]) {
+      const c = change(a.map((n) => n + t), b.map((n) => n + t));
+      expect([c.motion, c.bestMotion, c.flags]).toEqual([motionValue, best, flags]);
+    }
+  });
+
+
   it("F3 A3 C4 → Bb3 D4 F4: motion 15, best 3 (F3 Bb3 D4), root-position leap", () => {
     const c = change([53, 57, 60], [58, 62, 65]);
     expect([c.motion, c.bestMotion, c.bestVoicing, c.flags]).toEqual([15, 3, [53, 58, 62], ["root-position-leap"]]);
