@@ -134,6 +134,30 @@ export async function requireStudentOfTeacher(
 }
 
 /**
+ * Students named in a progress query (board chart, CSV export): each must be a
+ * student of the teacher's active studio (removed ones too, like the rule above).
+ */
+export async function requireStudentsOfTeacher(request: Request, studentIds: string[], mode: AccessMode = "page") {
+  const user = await requireTeacher(request, mode);
+  const wanted = [...new Set(studentIds)];
+  if (wanted.length) {
+    const found = db()
+      .select({ id: memberships.userId })
+      .from(memberships)
+      .where(
+        and(
+          eq(memberships.studioId, user.active.studioId),
+          eq(memberships.role, "student"),
+          inArray(memberships.userId, wanted),
+        ),
+      )
+      .all();
+    if (found.length !== wanted.length) deny(mode, "These students are not all in your studio.");
+  }
+  return user;
+}
+
+/**
  * React Router checks the origin of form posts to pages only. Resource and API
  * routes that change data call this: a browser's cross-site request carries
  * `Sec-Fetch-Site: cross-site` or a foreign `Origin`, and is refused with 403.
