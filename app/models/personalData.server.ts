@@ -1,25 +1,15 @@
-import path from "node:path";
-import { LocalFileStorage } from "@mjackson/file-storage/local";
 import { and, eq, inArray, type SQL } from "drizzle-orm";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { db } from "~/db/client.server";
 import { invitations, memberships, sessions, studios, takeMetrics, takes, users } from "~/db/schema";
-import { env } from "~/lib/env.server";
-
-/**
- * Take files live in one LocalFileStorage under <STORAGE_DIR>/takes, keyed by
- * `takes.fileKey`. Export and deletion go through the same store as uploads.
- */
-export function takeFileStorage() {
-  return new LocalFileStorage(path.join(env().storageDir, "takes"));
-}
+import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
 
 /** Deletes the matching take rows (analysis rows cascade) and their files. */
 export async function removeTakesWithFiles(where: SQL) {
   const rows = db().select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
   if (rows.length === 0) return 0;
-  const files = takeFileStorage();
-  for (const row of rows) await files.remove(row.fileKey);
+  // Export and deletion go through the same file store as uploads.
+  for (const row of rows) await removeTakeFile(row.fileKey);
   db()
     .delete(takes)
     .where(inArray(takes.id, rows.map((r) => r.id)))
@@ -64,12 +54,11 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
 
   // Flat paths: no separate directory entries in the archive.
   const zip: Zippable = {};
-  const files = takeFileStorage();
   const takeJson = [];
   for (const [i, row] of takeRows.entries()) {
-    const file = await files.get(row.take.fileKey);
+    const file = await readTakeFile(row.take.fileKey);
     const zipName = `${String(i + 1).padStart(3, "0")}-${safeName(row.take.originalName)}`;
-    if (file) zip[`takes/${zipName}`] = new Uint8Array(await file.arrayBuffer());
+    if (file) zip[`takes/${zipName}`] = file;
     const { fileKey: _fileKey, ...take } = row.take;
     takeJson.push({ ...take, studio: row.studioName, file: file ? `takes/${zipName}` : null, metrics: row.metrics });
   }

@@ -33,11 +33,12 @@ const signedIn = (status = 200) => row("login", status, status, status, status, 
 /** Teachers of any studio (each sees their own); students get 403. */
 const teachers = (status = 200) => row("login", 403, 403, status, status, status);
 /** Student A's own things: A and the teachers of A's studio; B and the other studio's teacher get 403. */
-export const ownedByA = (anon: Expect = "login", status = 200) => row(anon, status, 403, status, status, 403);
+const ownedByA = (anon: Expect = "login", status = 200) => row(anon, status, 403, status, status, 403);
 /** Pages for signed-out visitors only: signed-in people are sent on to /home. */
 const anonymousOnly = (status = 200) => row(status, 302, 302, 302, 302, 302);
 
 /** GET runs the loader; POST runs the action (sent with `actionMethod`, POST unless said otherwise). */
+/** `query` is added to the GET url; `:name` in it is replaced by a fixture param. */
 type Expectation = { GET: Row; POST?: Row; query?: string; actionMethod?: "POST" | "PUT" | "PATCH" | "DELETE" };
 
 /**
@@ -66,6 +67,11 @@ const EXPECTED: Record<string, Expectation> = {
   "dev/mail/:id": { GET: everyone(200) },
   "api/me/export": { GET: row(401, 200, 200, 200, 200, 200) },
   "api/students/:studentId/export": { GET: row(401, 403, 403, 200, 200, 403) },
+  // Takes API (issue: takes): `?student=:studentId` names student A.
+  "api/takes": { GET: ownedByA(401), query: "?student=:studentId", POST: row(401, 400, 400, 403, 403, 403) },
+  "api/takes/:takeId": { GET: ownedByA(401), POST: row(401, 204, 403, 403, 403, 403), actionMethod: "DELETE" },
+  // The fixture take has no file on disk: whoever may see it is told the file is missing.
+  "api/takes/:takeId/file": { GET: ownedByA(401, 404) },
   "*": { GET: everyone(404) },
 };
 
@@ -99,7 +105,8 @@ function urlFor(leaf: Leaf, query = "") {
       return encodeURIComponent(value);
     })
     .join("/");
-  return { url: `${ORIGIN}/${filled}${query}`, params: paramsOf(leaf) };
+  const filledQuery = query.replace(/:(\w+)/g, (_m, name: string) => encodeURIComponent(FIXTURE_PARAMS[name] ?? ""));
+  return { url: `${ORIGIN}/${filled}${filledQuery}`, params: paramsOf(leaf) };
 }
 
 function paramsOf(leaf: Leaf): Record<string, string> {
@@ -136,7 +143,19 @@ async function statusOf(leaf: Leaf, method: "GET" | "POST", persona: Persona, qu
 
 const app = useFreshApp();
 
-beforeEach(async () => {
+/** Empties every table (between personas of a data-changing action) so each persona meets the same world. */
+function wipeDatabase() {
+  const client = db().$client;
+  const tables = client
+    .prepare("select name from sqlite_master where type='table' and name not like 'sqlite_%' and name not like '__drizzle%'")
+    .all() as { name: string }[];
+  client.pragma("foreign_keys = OFF");
+  for (const t of tables) client.prepare(`delete from "${t.name}"`).run();
+  client.pragma("foreign_keys = ON");
+}
+
+/** Two studios: A and B study with the teacher and co-teacher; the other teacher runs another studio. */
+async function seedFixtures() {
   const studio = makeStudio("Tidewater Keys");
   const other = makeStudio("Harbour Lights");
   const people = {
@@ -157,8 +176,7 @@ beforeEach(async () => {
     .insert(invitations)
     .values({ studioId: studio.id, email: "new@tidewater.example", role: "student", tokenHash: hashToken("matrix-invite"), expiresAt: new Date(Date.now() + 86_400_000) })
     .run();
-  process.env.MAIL_CATCHER_DIR = path.join(app.storageDir, "mail");
-  const message = storeMessage(process.env.MAIL_CATCHER_DIR, Buffer.from("Subject: Hello\r\n\r\nBody"), { from: "a@x", to: ["b@x"] });
+  const message = storeMessage(process.env.MAIL_CATCHER_DIR!, Buffer.from("Subject: Hello\r\n\r\nBody"), { from: "a@x", to: ["b@x"] });
 
   FIXTURE_PARAMS = {
     token: "matrix-invite",
@@ -171,6 +189,11 @@ beforeEach(async () => {
   for (const [persona, user] of Object.entries(people)) {
     jars[persona as Persona] = new CookieJar().take((await createUserSession(user.id, "/home")).headers);
   }
+}
+
+beforeEach(async () => {
+  process.env.MAIL_CATCHER_DIR = path.join(app.storageDir, "mail");
+  await seedFixtures();
   return () => {
     delete process.env.MAIL_CATCHER_DIR;
   };
@@ -196,6 +219,11 @@ describe("access matrix", () => {
         }
         const seen: Partial<Record<Persona, Expect>> = {};
         for (const persona of PERSONAS) {
+          // An action may change data (delete a take…): every persona starts from the same fixtures.
+          if (method === "POST") {
+            wipeDatabase();
+            await seedFixtures();
+          }
           const result = await statusOf(leaf, method, persona, expectation.query, expectation.actionMethod);
           const isLogin = result.status === 302 && (result.location ?? "").startsWith("/login?redirectTo=");
           seen[persona] = isLogin ? "login" : result.status;

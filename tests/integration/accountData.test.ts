@@ -7,7 +7,7 @@ import { getSessionUser, resetSessionCookieForTests } from "~/auth/session.serve
 import { db } from "~/db/client.server";
 import { invitations, memberships, sessions, studios, takes, userTokens, users } from "~/db/schema";
 import { resetEnvForTests } from "~/lib/env.server";
-import { takeFileStorage } from "~/models/personalData.server";
+import { takeStorage as takeFileStorage } from "~/lib/takeFiles.server";
 import * as exportMine from "~/routes/api.me.export";
 import * as exportStudent from "~/routes/api.students.$studentId.export";
 import * as forgot from "~/routes/forgot-password";
