@@ -5,6 +5,8 @@ import { ServerRouter } from "react-router";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
+import { NonceContext } from "~/lib/nonce";
+import { nonceContext } from "~/lib/securityHeaders.server";
 import { startBackgroundWork } from "~/lib/startup.server";
 
 export const streamTimeout = 5_000;
@@ -16,8 +18,9 @@ export default function handleRequest(
   responseStatusCode: number,
   responseHeaders: Headers,
   routerContext: EntryContext,
-  _loadContext: RouterContextProvider,
+  loadContext: RouterContextProvider,
 ) {
+  const nonce = loadContext.get(nonceContext) || undefined;
   if (request.method.toUpperCase() === "HEAD") {
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }
@@ -31,7 +34,12 @@ export default function handleRequest(
 
     let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
 
-    const { pipe, abort } = renderToPipeableStream(<ServerRouter context={routerContext} url={request.url} />, {
+    const { pipe, abort } = renderToPipeableStream(
+      <NonceContext.Provider value={nonce}>
+        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+      </NonceContext.Provider>,
+      {
+      nonce,
       [readyOption]() {
         shellRendered = true;
         const body = new PassThrough({

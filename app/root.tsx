@@ -14,7 +14,11 @@ import { getSessionUser } from "~/auth/session.server";
 import { FlashMessage } from "~/components/FlashMessage";
 import { SiteNav, type NavUser } from "~/components/SiteNav";
 import { readFlash } from "~/lib/flash.server";
+import { useNonce } from "~/lib/nonce";
+import { securityHeadersMiddleware } from "~/lib/securityHeaders.server";
 import "./app.css";
+
+export const middleware: Route.MiddlewareFunction[] = [securityHeadersMiddleware];
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
@@ -29,6 +33,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const root = useRouteLoaderData<typeof loader>("root");
+  const nonce = useNonce();
   return (
     <html lang="en">
       <head>
@@ -53,8 +58,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <footer className="no-print mx-auto max-w-6xl px-4 pb-8 text-xs text-ink-soft">
           Nearnote · practice feedback for keyboard harmony · <Link to="/privacy" className="underline">Privacy</Link>
         </footer>
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   );

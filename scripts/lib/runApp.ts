@@ -38,15 +38,14 @@ export function loadEnvOrExit() {
 }
 
 /**
- * Serves the built app with react-router-serve as a child process (started
- * from node_modules/.bin so that stopping this script stops the server).
+ * Serves the built app (scripts/serve.ts) as a child process started from
+ * node_modules/.bin, so that stopping this script stops the server.
  */
 export function serveBuiltApp(extraEnv: Record<string, string>) {
-  const child = spawn(
-    path.resolve("node_modules/.bin/react-router-serve"),
-    [path.join(BUILD_DIR, "server/index.js")],
-    { stdio: "inherit", env: { ...process.env, ...extraEnv } },
-  );
+  const child = spawn(path.resolve("node_modules/.bin/tsx"), [path.resolve("scripts/serve.ts")], {
+    stdio: "inherit",
+    env: { NODE_ENV: "production", ...process.env, ...extraEnv, NEARNOTE_BUILD_DIR: BUILD_DIR },
+  });
   const stop = () => child.kill("SIGTERM");
   process.on("SIGINT", stop);
   process.on("SIGTERM", stop);

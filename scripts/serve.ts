@@ -1,0 +1,39 @@
+// The production server: Express serving the build's static files (with the same
+// security headers as every page) and handing everything else to React Router.
+// `npm start`, `npm run demo` and the end-to-end suite all run this file.
+import "./lib/production";
+import { createRequestHandler } from "@react-router/express";
+import compression from "compression";
+import express from "express";
+import morgan from "morgan";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+import type { ServerBuild } from "react-router";
+import { BASE_HEADERS, contentSecurityPolicy } from "~/lib/securityHeaders.server";
+
+export async function createApp(buildDir: string) {
+  const build = (await import(pathToFileURL(path.join(buildDir, "server/index.js")).href)) as ServerBuild;
+  const app = express();
+  app.disable("x-powered-by");
+  app.use(compression());
+  const staticHeaders = (res: express.Response) => {
+    for (const [k, v] of Object.entries(BASE_HEADERS)) res.setHeader(k, v);
+    res.setHeader("Content-Security-Policy", contentSecurityPolicy(null));
+  };
+  app.use("/assets", express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }));
+  app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }));
+  if (process.env.NEARNOTE_ACCESS_LOG !== "off") app.use(morgan("tiny"));
+  app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+  return app;
+}
+
+if (import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const buildDir = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
+  const host = process.env.HOST ?? "127.0.0.1";
+  const port = Number(process.env.PORT ?? 3000);
+  const app = await createApp(buildDir);
+  const server = app.listen(port, host, () => console.log(`[nearnote] listening on http://${host}:${port}`));
+  const stop = () => server.close(() => process.exit(0));
+  process.on("SIGTERM", stop);
+  process.on("SIGINT", stop);
+}
