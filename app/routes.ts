@@ -23,5 +23,8 @@ export default [
   route("api/takes", "routes/api.takes.ts"),
   route("api/takes/:takeId", "routes/api.takes.$takeId.ts"),
   route("api/takes/:takeId/file", "routes/api.takes.$takeId.file.ts"),
+  // Takes: upload and the take page (issue 5)
+  route("takes/new", "routes/takes.new.tsx"),
+  route("takes/:takeId", "routes/takes.$takeId.tsx"),
   route("*", "routes/$.tsx"),
 ] satisfies RouteConfig;

@@ -8,7 +8,13 @@ type Item = { to: string; label: string };
 /** Navigation differs for visitors, students and teachers (owners are teachers here). */
 export function navItems(user: NavUser): Item[] {
   if (!user) return [{ to: "/", label: "About" }];
-  if (user.role === "student") return [{ to: "/home", label: "Practice" }, { to: "/settings", label: "Settings" }];
+  if (user.role === "student") {
+    return [
+      { to: "/home", label: "Practice" },
+      { to: "/takes/new", label: "Upload" },
+      { to: "/settings", label: "Settings" },
+    ];
+  }
   if (user.role === null) return [{ to: "/home", label: "Home" }, { to: "/settings", label: "Settings" }];
   return [
     { to: "/home", label: "Studio" },

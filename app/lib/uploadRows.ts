@@ -48,6 +48,11 @@ export function newRow(key: string, file: { name: string; size: number }): Uploa
   };
 }
 
+/** A row for a file the no-JavaScript form posted (its size is not known to the page). */
+export function postedRow(key: string, fileName: string): UploadRow {
+  return { ...newRow(key, { name: fileName || "Upload", size: 1 }), size: 0, stage: "analysing", error: null };
+}
+
 /** What an answer from POST /api/takes (or one result of the page action) means for its row. */
 export function rowFromAnswer(row: UploadRow, status: number, body: UploadAnswer | null): UploadRow {
   const base = { ...row, progress: 1, takeId: body?.id ?? null };

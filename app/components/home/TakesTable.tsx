@@ -1,0 +1,125 @@
+import {
+  createColumnHelper,
+  createSortedRowModel,
+  rowSortingFeature,
+  sortFn_alphanumeric,
+  sortFn_basic,
+  tableFeatures,
+  useTable,
+} from "@tanstack/react-table";
+import { Link } from "react-router";
+import { DataTable } from "~/components/DataTable";
+import { dayLabel, percent, pretty } from "~/lib/noteText";
+
+export type TakeRow = {
+  id: string;
+  recordedAt: string;
+  exerciseTitle: string | null;
+  key: string | null;
+  status: string;
+  chordCount: number | null;
+  smoothness: number | null;
+  rootPositionLeaps: number | null;
+  score: number | null;
+};
+
+const features = tableFeatures({
+  rowSortingFeature,
+  sortedRowModel: createSortedRowModel(),
+  sortFns: { alphanumeric: sortFn_alphanumeric, basic: sortFn_basic },
+});
+const column = createColumnHelper<typeof features, TakeRow>();
+
+// Failed takes have no figures; they sort after every analysed take either way.
+const figure = { sortFn: "basic" as const, sortUndefined: "last" as const };
+
+const columns = column.columns([
+  column.accessor("recordedAt", {
+    header: "Date",
+    sortFn: "basic",
+    cell: (info) => (
+      <Link to={`/takes/${info.row.original.id}`} className="font-semibold text-tide-dark underline-offset-4 hover:underline">
+        {dayLabel(info.getValue())}
+      </Link>
+    ),
+  }),
+  column.accessor((r) => r.exerciseTitle ?? "", {
+    id: "exercise",
+    header: "Exercise",
+    sortFn: "alphanumeric",
+    cell: (info) => (
+      <>
+        {info.row.original.exerciseTitle ?? <span className="text-ink-soft">Free practice</span>}
+        {info.row.original.key ? <span className="text-ink-soft"> · {pretty(info.row.original.key)}</span> : null}
+      </>
+    ),
+  }),
+  column.accessor((r) => r.chordCount ?? undefined, { id: "chords", header: "Chords", ...figure, cell: (info) => info.getValue() ?? "–" }),
+  column.accessor((r) => r.smoothness ?? undefined, { id: "smoothness", header: "Smoothness", ...figure, cell: (info) => percent(info.getValue()) }),
+  column.accessor((r) => r.rootPositionLeaps ?? undefined, { id: "leaps", header: "Leaps", ...figure, cell: (info) => info.getValue() ?? "–" }),
+  column.accessor((r) => r.score ?? undefined, {
+    id: "score",
+    header: "Score",
+    ...figure,
+    cell: (info) =>
+      info.row.original.status === "failed" ? (
+        <span className="rounded bg-ochre-pale px-1.5 py-0.5 text-xs font-semibold text-ochre">not analysed</span>
+      ) : (
+        (info.getValue() ?? "–")
+      ),
+  }),
+]);
+
+const ARROWS = { asc: "▲", desc: "▼" } as const;
+
+/** The student's latest takes; every column header sorts (click, or Enter/Space on its button). */
+export function TakesTable({ takes }: { takes: TakeRow[] }) {
+  const table = useTable({
+    features,
+    columns,
+    data: takes,
+    initialState: { sorting: [{ id: "recordedAt", desc: true }] },
+  });
+  return (
+    <DataTable
+      caption="Your latest takes; column headers sort the table"
+      head={table.getHeaderGroups().map((group) => (
+        <tr key={group.id}>
+          {group.headers.map((header) => {
+            const sorted = header.column.getIsSorted();
+            const numeric = header.column.id !== "exercise" && header.column.id !== "recordedAt";
+            return (
+              <th
+                key={header.id}
+                scope="col"
+                aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+                className={`px-4 py-2 font-semibold ${numeric ? "text-right" : ""}`}
+              >
+                <button
+                  type="button"
+                  onClick={header.column.getToggleSortingHandler()}
+                  className={`inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink ${sorted ? "text-ink" : ""}`}
+                >
+                  <table.FlexRender header={header} />
+                  <span aria-hidden="true" className="w-3 text-[10px]">
+                    {sorted ? ARROWS[sorted] : ""}
+                  </span>
+                </button>
+              </th>
+            );
+          })}
+        </tr>
+      ))}
+    >
+      {table.getRowModel().rows.map((row) => (
+        <tr key={row.id} className="hover:bg-paper/60" data-testid="take-row">
+          {row.getAllCells().map((cell) => (
+            <td key={cell.id} className={`px-4 py-2 ${cell.column.id !== "exercise" && cell.column.id !== "recordedAt" ? "text-right tabular-nums" : ""}`}>
+              <table.FlexRender cell={cell} />
+            </td>
+          ))}
+        </tr>
+      ))}
+    </DataTable>
+  );
+}

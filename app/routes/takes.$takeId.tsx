@@ -1,0 +1,147 @@
+import { data, Link, redirect, useActionData } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/takes.$takeId";
+import { deny, requireTakeAccess } from "~/auth/access.server";
+import { buttonClass } from "~/components/Button";
+import { Card } from "~/components/Card";
+import { FlashMessage } from "~/components/FlashMessage";
+import { PageHeader } from "~/components/PageHeader";
+import { PracticeCare } from "~/components/PracticeCare";
+import { TakeAnalysisView } from "~/components/take/TakeAnalysisView";
+import { TakeManage } from "~/components/take/TakeManage";
+import { flashHeader } from "~/lib/flash.server";
+import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
+import { replaceTakeFromForm } from "~/lib/takeUpload.server";
+import { formatBytes } from "~/lib/uploadRows";
+import { deleteTake, getTakeView, listExercisesForStudent, moveTake } from "~/models/takes.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
+];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { user, take } = await requireTakeAccess(request, params.takeId);
+  const view = await getTakeView(take.id);
+  if (!view) throw data("There is no such take.", { status: 404 });
+  const isOwner = user.id === take.studentId;
+  const exercises = isOwner
+    ? listExercisesForStudent(user.id, take.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys }))
+    : [];
+  return { view, isOwner, exercises };
+}
+
+const moveSchema = z.object({
+  intent: z.literal("move"),
+  exerciseId: z.string().trim().max(64).transform((v) => v || null),
+  key: z.string().trim().max(8).transform((v) => v || null),
+});
+
+type ActionError = { intent: string; message: string };
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user, take } = await requireTakeAccess(request, params.takeId);
+  if (user.id !== take.studentId) deny("page", "Only the student who played this take can change it.");
+  const fail = (intent: string, message: string, status = 400) => data<{ error: ActionError }>({ error: { intent, message } }, { status });
+  const done = async (to: string, message: string) =>
+    redirect(to, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+
+  // A replacement arrives as multipart; the parser must read the body first, so its intent is in the URL.
+  if (new URL(request.url).searchParams.get("intent") === "replace") {
+    const result = await replaceTakeFromForm(request, user, take.id);
+    if ((result.status === 201 || result.status === 422) && result.body.id) {
+      return done(`/takes/${result.body.id}`, result.status === 201 ? "Take replaced and analysed." : "Take replaced, but the new file could not be analysed.");
+    }
+    return fail("replace", result.body.error ?? "The new file could not be saved.", result.status);
+  }
+
+  const form = await request.formData();
+  const intent = String(form.get("intent") ?? "");
+  if (intent === "delete") {
+    if (form.get("confirm") !== "yes") return fail("delete", "Tick the box to confirm: a deleted take cannot be brought back.");
+    await deleteTake(take.id);
+    return done("/home", "Take deleted, with its file.");
+  }
+  if (intent === "move") {
+    const parsed = moveSchema.safeParse(Object.fromEntries(form));
+    if (!parsed.success) return fail("move", "Choose an exercise and a key.");
+    let { exerciseId, key } = parsed.data;
+    if (exerciseId) {
+      const exercise = listExercisesForStudent(user.id, take.studioId).find((e) => e.id === exerciseId);
+      if (!exercise) return fail("move", "That exercise is not one of yours.");
+      key ??= exercise.keys[0] ?? null;
+      if (key && !exercise.keys.includes(key)) return fail("move", `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.`);
+    }
+    await moveTake(take.id, exerciseId, key);
+    return done(`/takes/${take.id}`, exerciseId ? "Take moved and graded against the exercise again." : "Take moved to free practice.");
+  }
+  return fail(intent, "Unknown action.");
+}
+
+export default function TakePage({ loaderData }: Route.ComponentProps) {
+  const { view, isOwner, exercises } = loaderData;
+  const { take, analysis } = view;
+  const actionData = useActionData<typeof action>();
+  const error = actionData && "error" in actionData ? actionData.error : null;
+  const lead = [
+    isOwner ? null : take.studentName,
+    `recorded ${dayLabel(take.recordedAt)}`,
+    take.durationSec ? clock(take.durationSec) : null,
+    take.key ? `in ${pretty(take.key)}` : null,
+  ]
+    .filter(Boolean)
+    .join(" · ");
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        title={take.exerciseTitle ?? "Free practice take"}
+        lead={lead}
+        actions={
+          <>
+            <a href={`/api/takes/${take.id}/file`} className={buttonClass("secondary")} download>
+              Download MIDI
+            </a>
+            {isOwner ? (
+              <Link to="/takes/new" className={buttonClass("primary")}>
+                Upload another
+              </Link>
+            ) : null}
+          </>
+        }
+      />
+      {take.note ? (
+        <blockquote className="rounded-md border-l-4 border-tide bg-card px-4 py-2 text-sm">
+          <span className="font-semibold">{isOwner ? "Your note" : `${take.studentName.split(" ")[0]}'s note`}:</span> {take.note}
+        </blockquote>
+      ) : null}
+
+      {take.status === "analysed" && analysis ? (
+        <TakeAnalysisView analysis={analysis} notes={view.notes} durationSec={take.durationSec} />
+      ) : (
+        <Card title={take.status === "failed" ? "This take could not be analysed" : "Waiting for analysis"}>
+          <FlashMessage tone={take.status === "failed" ? "error" : "info"}>
+            {take.error ?? "The analysis has not run yet. It runs again when Nearnote restarts; reload in a minute."}
+          </FlashMessage>
+          <dl className="mt-4 grid grid-cols-[max-content_1fr] gap-x-6 gap-y-1 text-sm">
+            <dt className="text-ink-soft">File</dt>
+            <dd>{take.originalName}</dd>
+            <dt className="text-ink-soft">Size</dt>
+            <dd>{formatBytes(take.size)}</dd>
+            <dt className="text-ink-soft">Uploaded</dt>
+            <dd>{timeLabel(take.createdAt)}</dd>
+          </dl>
+          <p className="mt-3 text-sm text-ink-soft">
+            The file is kept, so nothing is lost: it is analysed again when the engine improves. You can also replace it with a
+            new recording below.
+          </p>
+        </Card>
+      )}
+
+      {isOwner ? (
+        <Card title="Manage this take">
+          <TakeManage exercises={exercises} exerciseId={take.exerciseId} takeKey={take.key} error={error} />
+        </Card>
+      ) : null}
+      <PracticeCare />
+    </div>
+  );
+}
