@@ -10,7 +10,7 @@ const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#",
 /** Lead-sheet suffixes we prefer among tonal's aliases (tonal writes `M`, `Madd9`, ...). */
 const PREFERRED_SUFFIXES = [
   "", "m", "dim", "aug", "7", "maj7", "m7", "m7b5", "dim7", "sus4", "sus2", "7sus4", "6", "m6",
-  "add9", "madd9", "9", "maj9", "m9", "69", "m69", "11", "m11", "13", "maj13", "m13", "mMaj7", "5",
+  "add9", "madd9", "9", "maj9", "m9", "69", "m69", "11", "m11", "13", "maj13", "m13", "mMaj7", "5", "7b9sus4",
 ];
 
 const DIMINISHED_TYPES = new Set(["diminished", "half-diminished", "diminished seventh"]);
@@ -30,17 +30,37 @@ type Reading = {
 
 function suffixOf(aliases: string[]): string {
   for (const s of PREFERRED_SUFFIXES) if (aliases.includes(s)) return s;
-  return aliases[0] ?? "";
+  // A suffix starting with an accidental would merge with the root ("A" + "b9sus" reads as Ab).
+  return aliases.find((a) => !/^[b#]/.test(a)) ?? aliases[0] ?? "";
 }
 
-function reading(name: string, bassPc: number, order: number): Reading | null {
-  const slashed = Chord.get(name);
+function reading(name: string, bassPc: number, order: number, mask: number): Reading | null {
+  return readingOf(Chord.get(name), bassPc, order, mask) ?? misjoined(name, bassPc, order, mask);
+}
+
+/**
+ * tonal writes a reading as tonic + alias, so root A with the alias "b9sus" comes out as
+ * "Ab9sus"; when the plain parse does not fit the notes, read the first letter as the root.
+ */
+function misjoined(name: string, bassPc: number, order: number, mask: number): Reading | null {
+  const m = /^([A-G])([b#].*?)(?:\/([A-G][b#]*))?$/.exec(name);
+  if (!m) return null;
+  const chord = Chord.getChord(m[2], m[1], m[3]);
+  return chord.empty ? null : readingOf(chord, bassPc, order, mask);
+}
+
+function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order: number, mask: number): Reading | null {
   if (slashed.empty || !slashed.tonic) return null;
   const rootPc = pc(noteChroma(slashed.tonic));
   const alias = slashed.aliases[0] ?? "";
   // Re-read without the slash: tonal rotates the intervals of a slash chord around its bass.
-  const plain = Chord.get(slashed.tonic + alias);
+  const plain = Chord.getChord(alias, slashed.tonic);
   const intervals = plain.empty ? slashed.intervals : plain.intervals;
+  // Keep only readings whose tones are exactly the chord's pitch classes: with some sharp
+  // spellings tonal returns a reading on a misspelled root (D E G A A# gives "Ab9sus/D").
+  let readingMask = 1 << bassPc;
+  for (const i of intervals) readingMask |= 1 << pc(rootPc + (Interval.semitones(i) ?? 0));
+  if (readingMask !== mask) return null;
   const dimFamily = DIMINISHED_TYPES.has(slashed.type);
   const hasThird = intervals.includes("3m") || intervals.includes("3M");
   const alteredFifth =
@@ -106,7 +126,7 @@ export function nameChord(pcs: Iterable<number>, bassPc: number): ChordName {
   const ordered = [pc(bassPc), ...[...set].filter((p) => p !== pc(bassPc)).sort((a, b) => a - b)];
   const names = set.size >= 2 ? Chord.detect(ordered.map((p) => SHARP_NAMES[p])) : [];
   const readings = names
-    .map((n, i) => reading(n, pc(bassPc), i))
+    .map((n, i) => reading(n, pc(bassPc), i, mask))
     .filter((r): r is Reading => r !== null)
     .sort((x, y) => better(x, y, pc(bassPc)));
   const best = readings[0];

@@ -72,6 +72,17 @@ describe("rule 4: naming", () => {
     expect(c.bass).toBe("C");
   });
 
+  it("reads past tonal joining root and alias ('A' + 'b9sus' printed as 'Ab9sus'), in any key", () => {
+    // D E G A Bb over D: tonal's detect lists "Ab9sus/D", which is A with the alias b9sus.
+    for (const t of [0, -1, 5]) {
+      const pitches = [62, 64, 67, 69, 70].map((n) => n + t);
+      const c = chord(pitches, null);
+      expect(c.quality).toBe("suspended fourth flat ninth");
+      expect(tonalPcs(c.symbol!)).toEqual(ourPcs(pitches));
+    }
+    expect(chord([62, 64, 67, 69, 70], null).symbol).toBe("A7b9sus4/D");
+  });
+
   it("caches by pitch-class set and bass: octave placement does not change the name", () => {
     expect(nameChord([48, 64, 79], 48)).toBe(nameChord([60, 67, 76], 60));
     expect(nameChord([52, 60, 67], 52)).not.toBe(nameChord([60, 64, 67], 60));
