@@ -17,20 +17,33 @@ export function clientAddress(request: Request): string {
 
 export type ThrottleState = { blocked: false } | { blocked: true; retryAt: Date };
 
-/** Blocked once MAX_FAILURES failures for this e-mail and address fall within the window. */
+/**
+ * Spread over many addresses (or a forged X-Forwarded-For), guessing at one
+ * account is still capped: this many failures for one e-mail from anywhere.
+ */
+export const MAX_FAILURES_PER_EMAIL = 20;
+
+function failuresSince(email: string, address: string | null, since: Date) {
+  const where = address
+    ? and(eq(signInFailures.email, email), eq(signInFailures.address, address), gt(signInFailures.createdAt, since))
+    : and(eq(signInFailures.email, email), gt(signInFailures.createdAt, since));
+  const row = db().select({ n: count(), oldest: min(signInFailures.createdAt) }).from(signInFailures).where(where).get();
+  const oldest = row?.oldest ? (row.oldest instanceof Date ? row.oldest : new Date(Number(row.oldest))) : null;
+  return { n: row?.n ?? 0, oldest };
+}
+
+/** Blocked once MAX_FAILURES failures for this e-mail and address (or the per-e-mail cap) fall within the window. */
 export function signInThrottle(email: string, address: string, now = new Date()): ThrottleState {
   const since = new Date(now.getTime() - FAILURE_WINDOW_MS);
-  const row = db()
-    .select({ n: count(), oldest: min(signInFailures.createdAt) })
-    .from(signInFailures)
-    .where(
-      and(eq(signInFailures.email, email), eq(signInFailures.address, address), gt(signInFailures.createdAt, since)),
-    )
-    .get();
-  if (!row || row.n < MAX_FAILURES || !row.oldest) return { blocked: false };
-  // Counting the oldest failure still in the window: when it ages out, a try is allowed again.
-  const oldest = row.oldest instanceof Date ? row.oldest : new Date(Number(row.oldest));
-  return { blocked: true, retryAt: new Date(oldest.getTime() + FAILURE_WINDOW_MS) };
+  for (const [key, limit] of [
+    [address, MAX_FAILURES],
+    [null, MAX_FAILURES_PER_EMAIL],
+  ] as const) {
+    const { n, oldest } = failuresSince(email, key, since);
+    // When the oldest failure in the window ages out, a try is allowed again.
+    if (n >= limit && oldest) return { blocked: true, retryAt: new Date(oldest.getTime() + FAILURE_WINDOW_MS) };
+  }
+  return { blocked: false };
 }
 
 export function recordSignInFailure(email: string, address: string, now = new Date()) {

@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { z } from "zod";
 
@@ -58,6 +58,16 @@ export function readCaughtMail(dir: string): CaughtMail[] {
 export function readCaughtMessage(dir: string, id: string): CaughtMail | null {
   if (!/^\d+-[0-9a-f]+$/.test(id)) return null;
   return readCaughtMail(dir).find((m) => m.id === id) ?? null;
+}
+
+/** Deletes stored messages addressed to this person (they hold names and addresses). */
+export function deleteStoredMailTo(dir: string, email: string): number {
+  const doomed = readCaughtMail(dir).filter((m) => m.to.some((t) => t.toLowerCase() === email.toLowerCase()));
+  for (const m of doomed) {
+    rmSync(path.join(dir, `${m.id}.eml`), { force: true });
+    rmSync(path.join(dir, `${m.id}.json`), { force: true });
+  }
+  return doomed.length;
 }
 
 // --- A small MIME reader: enough for the plain-text mail Nearnote sends. ---

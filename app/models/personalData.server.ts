@@ -1,7 +1,22 @@
 import { and, eq, inArray, type SQL } from "drizzle-orm";
 import { strToU8, zipSync, type Zippable } from "fflate";
 import { db } from "~/db/client.server";
-import { invitations, memberships, sessions, studios, takeMetrics, takes, users } from "~/db/schema";
+import {
+  comments,
+  invitations,
+  memberships,
+  practiceReminders,
+  progressReports,
+  sentMails,
+  sessions,
+  studios,
+  takeMetrics,
+  takeReviews,
+  takes,
+  users,
+} from "~/db/schema";
+import { mailDir } from "~/lib/mail.server";
+import { deleteStoredMailTo } from "~/lib/mailStore.server";
 import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
 
 /** Deletes the matching take rows (analysis rows cascade) and their files. */
@@ -15,6 +30,16 @@ export async function removeTakesWithFiles(where: SQL) {
     .where(inArray(takes.id, rows.map((r) => r.id)))
     .run();
   return rows.length;
+}
+
+function commentsOnTake(takeId: string) {
+  return db()
+    .select({ author: users.name, changeIdx: comments.changeIdx, body: comments.body, createdAt: comments.createdAt })
+    .from(comments)
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .where(eq(comments.takeId, takeId))
+    .orderBy(comments.createdAt)
+    .all();
 }
 
 /** A file name safe inside a ZIP on every system. */
@@ -60,7 +85,14 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
     const zipName = `${String(i + 1).padStart(3, "0")}-${safeName(row.take.originalName)}`;
     if (file) zip[`takes/${zipName}`] = file;
     const { fileKey: _fileKey, ...take } = row.take;
-    takeJson.push({ ...take, studio: row.studioName, file: file ? `takes/${zipName}` : null, metrics: row.metrics });
+    takeJson.push({
+      ...take,
+      studio: row.studioName,
+      file: file ? `takes/${zipName}` : null,
+      metrics: row.metrics,
+      reviewedAt: db().select().from(takeReviews).where(eq(takeReviews.takeId, take.id)).get()?.reviewedAt ?? null,
+      comments: commentsOnTake(take.id),
+    });
   }
   const document = {
     exportedAt: new Date().toISOString(),
@@ -75,9 +107,34 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
     },
     studios: membershipRows,
     takes: takeJson,
+    progressReports: db()
+      .select({ studio: studios.name, fromDate: progressReports.fromDate, toDate: progressReports.toDate, summary: progressReports.summary, createdAt: progressReports.createdAt })
+      .from(progressReports)
+      .innerJoin(studios, eq(studios.id, progressReports.studioId))
+      .where(
+        options.studioId
+          ? and(eq(progressReports.studentId, userId), eq(progressReports.studioId, options.studioId))
+          : eq(progressReports.studentId, userId),
+      )
+      .all(),
     ...(options.studioId
       ? {}
       : {
+          commentsWritten: db()
+            .select({ takeId: comments.takeId, changeIdx: comments.changeIdx, body: comments.body, createdAt: comments.createdAt })
+            .from(comments)
+            .where(eq(comments.authorId, userId))
+            .all(),
+          practiceReminders: db()
+            .select({ weekKey: practiceReminders.weekKey, sentAt: practiceReminders.sentAt })
+            .from(practiceReminders)
+            .where(eq(practiceReminders.studentId, userId))
+            .all(),
+          automaticMails: db()
+            .select({ kind: sentMails.kind, sentAt: sentMails.sentAt })
+            .from(sentMails)
+            .where(eq(sentMails.userId, userId))
+            .all(),
           sessions: db()
             .select({ createdAt: sessions.createdAt, expiresAt: sessions.expiresAt })
             .from(sessions)
@@ -97,8 +154,8 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
 
 /**
  * Removes a person: their takes and files first, then the user row (sessions,
- * memberships, tokens and analysis rows cascade). Invitations sent to their
- * address are deleted too, since they hold the address.
+ * memberships, tokens, comments, reports and analysis rows cascade). Invitations
+ * and stored mail to their address go too, since they hold the address.
  */
 export async function deletePersonData(userId: string) {
   const user = db().select().from(users).where(eq(users.id, userId)).get();
@@ -108,4 +165,8 @@ export async function deletePersonData(userId: string) {
     tx.delete(invitations).where(eq(invitations.email, user.email)).run();
     tx.delete(users).where(eq(users.id, userId)).run();
   });
+  // Mail kept on disk (no SMTP configured, or the demo's catcher) names them too.
+  for (const dir of new Set([mailDir(), process.env.MAIL_CATCHER_DIR].filter((d): d is string => !!d))) {
+    deleteStoredMailTo(dir, user.email);
+  }
 }

@@ -1,7 +1,7 @@
 import { and, count, eq, inArray, ne, sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { memberships, sessions, studios, takes, users, type MembershipRole } from "~/db/schema";
-import { removeTakesWithFiles } from "./personalData.server";
+import { deletePersonData, removeTakesWithFiles } from "./personalData.server";
 
 export type RosterPerson = {
   userId: string;
@@ -96,8 +96,7 @@ export async function deleteStudentData(studioId: string, studentId: string): Pr
   db().delete(memberships).where(eq(memberships.id, membership.id)).run();
   const others = db().select({ n: count() }).from(memberships).where(eq(memberships.userId, studentId)).get();
   if ((others?.n ?? 0) === 0) {
-    await removeTakesWithFiles(eq(takes.studentId, studentId));
-    db().delete(users).where(eq(users.id, studentId)).run();
+    await deletePersonData(studentId);
     return { accountDeleted: true };
   }
   return { accountDeleted: false };

@@ -101,6 +101,11 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
       <Card>
         <Form method="post" className="flex flex-col gap-4" noValidate>
           {actionData?.formError ? <FlashMessage tone="error">{actionData.formError}</FlashMessage> : null}
+          {loaderData.signedInAs && loaderData.signedInAs !== loaderData.email ? (
+            <FlashMessage tone="info">
+              You are signed in as {loaderData.signedInAs}. This invitation is for {loaderData.email}: sign out first to accept it.
+            </FlashMessage>
+          ) : null}
           {loaderData.hasAccount ? (
             <>
               <input type="hidden" name="intent" value="join" />

@@ -5,7 +5,7 @@ import { strFromU8, unzipSync } from "fflate";
 import { describe, expect, it } from "vitest";
 import { getSessionUser, resetSessionCookieForTests } from "~/auth/session.server";
 import { db } from "~/db/client.server";
-import { invitations, memberships, sessions, studios, takes, userTokens, users } from "~/db/schema";
+import { comments, invitations, memberships, progressReports, sessions, studios, takes, userTokens, users } from "~/db/schema";
 import { resetEnvForTests } from "~/lib/env.server";
 import { takeStorage as takeFileStorage } from "~/lib/takeFiles.server";
 import * as exportMine from "~/routes/api.me.export";
@@ -127,9 +127,12 @@ describe("download my data", () => {
     const felix = makeUser("felix@tidewater.example", "Felix Brandt");
     join(studio.id, dara.id, "student");
     join(studio.id, felix.id, "student");
-    await storeTake(dara.id, studio.id, "monday.mid");
+    const monday = await storeTake(dara.id, studio.id, "monday.mid");
     await storeTake(dara.id, studio.id, "tuesday.mid");
     await storeTake(felix.id, studio.id, "felix.mid");
+    const ines = makeUser("ines@tidewater.example", "Ines Marlowe");
+    db().insert(comments).values({ takeId: monday.id, authorId: ines.id, changeIdx: 2, body: "Keep the top note on A here." }).run();
+    db().insert(progressReports).values({ studioId: studio.id, studentId: dara.id, fromDate: "2026-11-01", toDate: "2026-11-30", summary: "Smoother changes this month." }).run();
     const jar = await signIn(login, dara.email);
     const response = await call(exportMine.loader, get("/api/me/export", jar));
     expect(response.status).toBe(200);
@@ -143,6 +146,9 @@ describe("download my data", () => {
     expect(doc.person).toMatchObject({ name: "Dara Okafor", email: "dara@tidewater.example" });
     expect(doc.studios).toEqual([expect.objectContaining({ studio: "Tidewater Keys", role: "student", status: "active" })]);
     expect(doc.takes.map((t: { originalName: string }) => t.originalName)).toEqual(["monday.mid", "tuesday.mid"]);
+    expect(doc.takes[0].file).toBe("takes/001-monday.mid");
+    expect(doc.takes[0].comments).toEqual([expect.objectContaining({ author: "Ines Marlowe", changeIdx: 2, body: "Keep the top note on A here." })]);
+    expect(doc.progressReports).toEqual([expect.objectContaining({ studio: "Tidewater Keys", summary: "Smoother changes this month." })]);
     expect(json).not.toContain("$2");
     expect(json).not.toContain("felix");
   });
@@ -216,6 +222,11 @@ describe("deleting one's own account", () => {
     db().insert(invitations).values({ studioId: studio.id, email: dara.email, role: "student", tokenHash: "h", expiresAt: new Date() }).run();
     const jar = await signIn(login, dara.email);
     expect(takeFilesOnDisk().length).toBeGreaterThan(0);
+    await call(forgot.action, post("/forgot-password", { email: dara.email }));
+    await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
+    makeUser("ines@tidewater.example");
+    await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
+    expect(mail.all().map((m) => m.to[0]).sort()).toEqual(["dara@tidewater.example", "ines@tidewater.example"]);
     const wrong = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: "nope", confirm: "yes" }, jar));
     expect(wrong.status).toBe(400);
     const done = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar));
@@ -229,6 +240,8 @@ describe("deleting one's own account", () => {
     expect(db().select().from(invitations).all()).toHaveLength(0);
     expect(await takeFileStorage().has(`${dara.id}-monday.mid`)).toBe(false);
     expect(takeFilesOnDisk()).toEqual([]);
+    // Caught mail to the deleted person is gone; other people's stays.
+    expect(mail.all().map((m) => m.to[0])).toEqual(["ines@tidewater.example"]);
   });
 
   it("hands a studio to the co-teacher, deletes an empty studio, and refuses when students would be orphaned", async () => {

@@ -2,6 +2,7 @@ import bcrypt from "bcryptjs";
 import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { getSessionUser } from "~/auth/session.server";
+import { MAX_FAILURES_PER_EMAIL } from "~/auth/throttle.server";
 import { db } from "~/db/client.server";
 import { memberships, sessions, signInFailures, users } from "~/db/schema";
 import * as login from "~/routes/login";
@@ -144,6 +145,12 @@ describe("throttling failed sign-ins", () => {
     expect((blocked.data as { formError: string }).formError).toMatch(/Try again in 15 minutes \(after \d\d:\d\d UTC\)/);
     // Another address is not blocked by these failures.
     expect((await attempt(PASSWORD, "198.51.100.4")).status).toBe(302);
+  });
+
+  it("caps failures for one e-mail across addresses, so a forged X-Forwarded-For does not help", async () => {
+    makeUser("dara@tidewater.example");
+    for (let i = 0; i < MAX_FAILURES_PER_EMAIL; i++) expect((await attempt("wrong-password", `192.0.2.${i}`)).status).toBe(401);
+    expect((await attempt(PASSWORD, "192.0.2.200")).status).toBe(429);
   });
 
   it("lets people try again once the failures are older than 15 minutes, and a success clears them", async () => {
