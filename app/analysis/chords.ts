@@ -1,7 +1,7 @@
 // Turns strikes into the chords and melody notes a take reports (names, shape, flags,
 // techniques). Spelling depends on the key, so it is applied here, after the key is known.
 import { chordFlags } from "./chordFlags";
-import { addedTones, inversionOf, nameChord, romanOf, spelledSymbol, voicingOf } from "./naming";
+import { addedTones, inversionOf, nameChord, romanOf, rootName, spelledSymbol, voicingOf } from "./naming";
 import type { Key } from "./pitch";
 import { noteName, pc, spellPc } from "./pitch";
 import type { Strike } from "./strikes";
@@ -50,7 +50,7 @@ function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
     name,
     notes,
     noteNames: notes.map((n) => noteName(n, key)),
-    root: name.rootPc === null ? null : spellPc(name.rootPc, key),
+    root: rootName(name, key),
     bass: spellPc(pc(bassMidi), key),
     symbol: spelledSymbol(name, pc(bassMidi), key),
     roman: key ? romanOf(name, key) : null,

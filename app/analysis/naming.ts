@@ -2,7 +2,8 @@
 // our tie-break; inversion by the chord tone in the bass; close or open voicing.
 import { Chord, Interval } from "tonal";
 import type { Key } from "./pitch";
-import { pc, spellPc } from "./pitch";
+import { MAJOR_SCALE, NATURAL_MINOR_SCALE, pc, spellDegree, spellPc } from "./pitch";
+import { romanFor, TRIAD_INTERVALS } from "./progression";
 import type { ChordName, Triad } from "./types";
 
 const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#", "B"];
@@ -177,42 +178,40 @@ export function addedTones(name: ChordName): string[] {
 
 export function spelledSymbol(name: ChordName, bassPc: number, key: Key | null): string | null {
   if (name.rootPc === null || name.suffix === null) return null;
-  const root = spellPc(name.rootPc, key);
+  const root = rootName(name, key)!;
   const slash = pc(bassPc) === name.rootPc ? "" : `/${spellPc(pc(bassPc), key)}`;
   return `${root}${name.suffix}${slash}`;
 }
 
-const MAJOR_STEPS = [0, 2, 4, 5, 7, 9, 11];
-const MINOR_STEPS = [0, 2, 3, 5, 7, 8, 10];
-const NUMERALS = ["I", "II", "III", "IV", "V", "VI", "VII"];
+/** Semitones above the root that the chord names beyond its triad (7ths, 9ths, 6ths, ...). */
+export function requiredIntervals(name: ChordName): number[] {
+  if (name.triad === null) return [];
+  const triad = new Set(TRIAD_INTERVALS[name.triad]);
+  return name.intervals.filter((i) => !triad.has(i));
+}
 
-/** Roman numeral of the chord in the key: case by quality, b/# against the key's scale. */
+/**
+ * Roman numeral of the chord in the key, written by progression.ts's `romanFor` so that what
+ * we print reads back through the exercise parser as the same chord.
+ */
 export function romanOf(name: ChordName, key: Key): string | null {
   if (name.rootPc === null || name.triad === null) return null;
-  const steps = key.mode === "minor" ? MINOR_STEPS : MAJOR_STEPS;
-  const rel = (name.rootPc - key.tonic + 12) % 12;
-  let degree = steps.indexOf(rel);
-  let accidental = "";
-  if (degree < 0) {
-    // Between two scale degrees: prefer a flat on the upper one (bVII, bIII), as teachers write.
-    degree = steps.indexOf((rel + 1) % 12);
-    accidental = "b";
-    if (degree < 0) {
-      degree = steps.indexOf((rel + 11) % 12);
-      accidental = "#";
-    }
-  }
-  const lower = name.triad === "minor" || name.triad === "diminished";
-  let numeral = lower ? NUMERALS[degree].toLowerCase() : NUMERALS[degree];
-  const suffix = name.suffix ?? "";
-  if (name.quality === "half-diminished") numeral += "ø7";
-  else if (name.quality === "diminished seventh") numeral += "o7";
-  else if (name.triad === "diminished") numeral += "o";
-  else if (name.triad === "augmented") numeral += "+";
-  else {
-    // Drop the quality letter already carried by the numeral's case: "m7" → "7", "madd9" → "add9".
-    const rest = lower && suffix.startsWith("m") && !suffix.startsWith("maj") ? suffix.slice(1) : suffix;
-    numeral += rest;
-  }
-  return accidental + numeral;
+  return romanFor({ root: name.rootPc, triad: name.triad, required: requiredIntervals(name) }, key);
+}
+
+const NUMERALS = ["I", "II", "III", "IV", "V", "VI", "VII"];
+
+/**
+ * The root's name in the key: a chromatic root takes the letter of its Roman numeral's degree,
+ * so bVI in D is Bb (not A#) and the leading tone in G minor is F#.
+ */
+export function rootName(name: ChordName, key: Key | null): string | null {
+  if (name.rootPc === null) return null;
+  const roman = key ? romanOf(name, key) : null;
+  const m = roman ? /^([b#]?)(VII|VI|V|IV|III|II|I)/i.exec(roman) : null;
+  if (!key || !m) return spellPc(name.rootPc, key);
+  const degree = NUMERALS.indexOf(m[2].toUpperCase());
+  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
+  const alter = pc(name.rootPc - key.tonic - scale[degree] + 6) - 6;
+  return spellDegree(key, degree, alter);
 }

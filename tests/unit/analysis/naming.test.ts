@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { chordReport } from "../../../app/analysis/chords";
 import { inversionOf, nameChord, romanOf } from "../../../app/analysis/naming";
 import { parseKey, pc } from "../../../app/analysis/pitch";
+import { parseProgression } from "../../../app/analysis/progression";
 import type { Strike } from "../../../app/analysis/strikes";
 
 function chord(pitches: number[], keyName: string | null = "C") {
@@ -99,11 +100,40 @@ describe("Roman numerals in the key", () => {
     ["Gm", [62, 66, 69, 72], "V7"],
     ["Gm", [55, 58, 62, 69], "iadd9"],
     ["D", [60, 64, 67], "bVII"],
-    ["C", [59, 62, 65], "viio"],
+    ["C", [59, 62, 65], "vii°"],
+    ["Gm", [54, 57, 60], "vii°"],
+    ["D", [58, 62, 65], "bVI"],
+    ["Ab", [60, 64, 67], "III"],
+    ["Ab", [55, 59, 62], "VII"],
     ["C", [60, 64, 67, 71], "Imaj7"],
     ["C", [62, 65, 69, 72], "ii7"],
   ])("in %s, %j is %s", (key, pitches, roman) => {
     expect(chord(pitches, key).roman).toBe(roman);
+  });
+
+  it("a chromatic root is spelled by its numeral's degree: bVI in D is Bb, vii° in G minor is F#", () => {
+    expect(chord([58, 62, 65], "D").symbol).toBe("Bb");
+    expect(chord([54, 57, 60], "Gm").symbol).toBe("F#dim");
+    expect(chord([60, 63, 67], "E").symbol).toBe("Cm");
+  });
+
+  it("every numeral we print reads back through the exercise parser as the same chord", () => {
+    const cases: Array<[string, number[]]> = [
+      ["D", [62, 67, 71]],
+      ["Gm", [57, 60, 63, 67]],
+      ["Gm", [62, 66, 69, 72]],
+      ["Gm", [55, 58, 62, 69]],
+      ["D", [60, 64, 67]],
+      ["C", [59, 62, 65]],
+      ["Eb", [55, 60, 63, 70]],
+      ["F", [48, 53, 55, 58]],
+    ];
+    for (const [k, pitches] of cases) {
+      const c = chord(pitches, k);
+      const [target] = parseProgression(c.roman!, parseKey(k));
+      expect(target.root, `${c.roman} in ${k}`).toBe(nameChord(pitches, pitches[0]).rootPc);
+      expect(target.triad, `${c.roman} in ${k}`).toBe(c.triad);
+    }
   });
 
   it("no key, no numeral", () => {
