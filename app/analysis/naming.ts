@@ -1,6 +1,6 @@
 // DOMAIN rules 4–6: root, quality and lead-sheet symbol from tonal's chord detection with
 // our tie-break; inversion by the chord tone in the bass; close or open voicing.
-import { Chord, Interval } from "tonal";
+import { Chord, Interval, Note } from "tonal";
 import type { Key } from "./pitch";
 import { MAJOR_SCALE, NATURAL_MINOR_SCALE, pc, spellDegree, spellPc } from "./pitch";
 import { romanFor, TRIAD_INTERVALS } from "./progression";
@@ -52,7 +52,8 @@ function misjoined(name: string, bassPc: number, order: number, mask: number): R
 
 function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order: number, mask: number): Reading | null {
   if (slashed.empty || !slashed.tonic) return null;
-  const rootPc = pc(noteChroma(slashed.tonic));
+  const rootPc = Note.chroma(slashed.tonic);
+  if (rootPc === undefined || Number.isNaN(rootPc)) return null;
   const alias = slashed.aliases[0] ?? "";
   // Re-read without the slash: tonal rotates the intervals of a slash chord around its bass.
   const plain = Chord.getChord(alias, slashed.tonic);
@@ -79,13 +80,6 @@ function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order:
     addedCount,
     order,
   };
-}
-
-function noteChroma(name: string): number {
-  const letter = "C D EF G A B".indexOf(name[0].toUpperCase());
-  let value = letter;
-  for (const ch of name.slice(1)) value += ch === "#" ? 1 : ch === "b" ? -1 : 0;
-  return ((value % 12) + 12) % 12;
 }
 
 /**
