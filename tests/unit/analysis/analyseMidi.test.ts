@@ -153,6 +153,21 @@ describe("typed errors and hang guards", () => {
     expect(r.changes.every((c) => !c.graded)).toBe(true);
   });
 
+  it("hostile note lists stay fast: 20,000 notes at one instant, a storm of grace-like notes", () => {
+    const same = Array.from({ length: 20_000 }, (_, i) => ({ midi: 21 + (i % 88), start: 0, end: 0.1 + (i % 7) * 0.01, velocity: 0.5 }));
+    const storm = Array.from({ length: 20_000 }, (_, i) => ({ midi: 60 + (i % 3), start: (i >> 1) * 0.03, end: (i >> 1) * 0.03 + (i % 2 ? 0.5 : 0.03), velocity: 0.5 }));
+    const t = performance.now();
+    expect(analyseNotes(same).chords[0].flags).toContain("too-many-notes");
+    expect(analyseNotes(storm).chords.length).toBeGreaterThan(0);
+    expect(performance.now() - t).toBeLessThan(5000);
+  });
+
+  it("a take of single notes only has no chords, no changes and a score of 0", () => {
+    const melody = [60, 62, 64, 65, 67].map((midi, i) => ({ midi, start: i * 0.5, end: i * 0.5 + 0.4, velocity: 0.6 }));
+    const r = analyseNotes(melody, { key: "C" });
+    expect([r.chords.length, r.changes.length, r.melodyNotes.length, r.summary.score, r.summary.smoothness]).toEqual([0, 0, 5, 0, 1]);
+  });
+
   it("a file with 16 busy channels finishes quickly (drums on channel 10 ignored)", () => {
     const tracks = Array.from({ length: 16 }, (_, ch) => {
       const events: number[] = [];
