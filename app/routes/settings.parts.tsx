@@ -68,7 +68,7 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
       <Card title="Mail">
         <IntentForm intent="prefs">
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" name="mailOnFeedback" defaultChecked={account.mailOnFeedback} /> Mail me when a teacher comments on a take
+            <input type="checkbox" name="mailOnFeedback" defaultChecked={account.mailOnFeedback} /> Mail me about new comments on takes
           </label>
           <label className="flex items-center gap-2 text-sm">
             <input type="checkbox" name="mailDigest" defaultChecked={account.mailDigest} /> A weekly summary of practice

@@ -100,7 +100,7 @@ export function RosterRow({
       <td className="px-4 py-2">{person.email}</td>
       <td className="px-4 py-2">{person.status === "active" ? "Active" : "Removed (inactive)"}</td>
       <td className="px-4 py-2 text-right tabular-nums">{person.takeCount}</td>
-      <td className="flex flex-wrap items-start gap-2 px-4 py-2">
+      <td className="flex flex-wrap items-center gap-2 px-4 py-2">
         <Link reloadDocument to={`/api/students/${person.userId}/export`} className="text-sm text-tide-dark underline">
           Export
         </Link>

@@ -80,4 +80,10 @@ test("a signed-out visitor is sent to sign in and brought back", async ({ page }
   await page.getByRole("button", { name: "Sign in" }).click();
   await page.waitForURL(/\/students$/);
   await expect(page.getByRole("heading", { name: "Students", level: 1 })).toBeVisible();
+
+  // Signing out ends the session: the roster is closed again.
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await expect(page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Sign in" })).toBeVisible();
+  await page.goto("/students");
+  await page.waitForURL(/\/login\?redirectTo=%2Fstudents/);
 });
