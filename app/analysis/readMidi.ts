@@ -79,7 +79,8 @@ function readTrack(bytes: Uint8Array, start: number, end: number, counter: { not
         if (mpq > 0) track.tempos.push({ tick, microsecondsPerBeat: mpq });
       }
       pos += length;
-      status = 0; // meta events cancel running status
+      // The spec says meta events cancel running status, so a conforming file never relies on
+      // it afterwards; some sequencers do anyway, and we read such files as other readers do.
       if (type === 0x2f) break; // end of track
       continue;
     }
@@ -87,8 +88,7 @@ function readTrack(bytes: Uint8Array, start: number, end: number, counter: { not
       const length = vlq();
       if (pos + length > end) corrupt();
       pos += length;
-      status = 0; // sysex events cancel running status
-      continue;
+      continue; // (sysex: as for meta events above)
     }
     if (first >= 0xf1) corrupt(); // system common/real-time messages do not belong in a file
     let data1: number;
