@@ -15,6 +15,7 @@ import { parseKey } from "~/analysis/pitch";
 import type { SessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { takes } from "~/db/schema";
+import { targetTextForKey } from "~/lib/exerciseProgression";
 import { newFileKey, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
 import { analyseTakeBytes } from "~/models/takeAnalysis.server";
 import { createTakeRecord, deleteTake, exerciseForStudent } from "~/models/takes.server";
@@ -136,7 +137,7 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields): Pr
     if (!exercise) return fail(400, "That exercise is not one of yours.");
     key ??= exercise.keys[0] ?? null;
     if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
-    target = exercise.progression;
+    target = targetTextForKey(exercise.progression, exercise.keys, key);
   }
   if (key) {
     try {

@@ -2,15 +2,18 @@ import { eq } from "drizzle-orm";
 import { AnalysisError, analyseMidi, ProgressionError, type TakeAnalysis } from "~/analysis";
 import type { Db } from "~/db/client.server";
 import { changeResults, chordEvents, exercises, takeMetrics } from "~/db/schema";
+import { targetTextForKey } from "~/lib/exerciseProgression";
+import { applyIntendedFlags } from "./intendedFlags.server";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 export type AnalysisOutcome = { ok: true; analysis: TakeAnalysis } | { ok: false; error: string };
 
-/** What the engine needs to know about the exercise a take belongs to. */
-export function exerciseTarget(database: Db | Tx, exerciseId: string | null): string | undefined {
+/** What the engine needs to know about the exercise a take belongs to: its target in the take's key. */
+export function exerciseTarget(database: Db | Tx, exerciseId: string | null, key: string | null = null): string | undefined {
   if (!exerciseId) return undefined;
-  return database.select({ p: exercises.progression }).from(exercises).where(eq(exercises.id, exerciseId)).get()?.p;
+  const row = database.select({ p: exercises.progression, keys: exercises.keys }).from(exercises).where(eq(exercises.id, exerciseId)).get();
+  return row && targetTextForKey(row.p, row.keys, key);
 }
 
 /**
@@ -93,6 +96,8 @@ export function writeAnalysisRows(tx: Tx, takeId: string, analysis: TakeAnalysis
     largestMove: c.largestVoiceMove,
   }));
   for (let i = 0; i < changeRows.length; i += 500) tx.insert(changeResults).values(changeRows.slice(i, i + 500)).run();
+  // Flags the teacher marked as intended stay out of the score after every re-analysis.
+  applyIntendedFlags(tx, takeId, analysis);
 }
 
 export function clearAnalysisRows(tx: Tx, takeId: string) {

@@ -241,7 +241,7 @@ export async function reanalyseTake(takeId: string): Promise<"analysed" | "faile
   if (!take) return null;
   const bytes = await readTakeFile(take.fileKey);
   if (!bytes) return null;
-  const outcome = analyseTakeBytes(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId) });
+  const outcome = analyseTakeBytes(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId, take.key) });
   db().transaction((tx) => {
     if (outcome.ok) {
       writeAnalysisRows(tx, take.id, outcome.analysis);
