@@ -1,0 +1,3 @@
+export default function Hello() {
+  return <p>Hello</p>;
+}
