@@ -1,46 +1,26 @@
 import { existsSync, readdirSync, readFileSync } from "node:fs";
-import type { AddressInfo } from "node:net";
 import http from "node:http";
 import path from "node:path";
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { takes } from "~/db/schema";
-import { createApp } from "../../scripts/serve";
+import { useHttpApp } from "../support/httpApp";
 import { useFreshApp } from "../support/setup";
 import { join, makeStudio, makeUser, PASSWORD } from "./accountsKit";
 
 // These run against the real HTTP server (the built app behind Express), so a
 // refused upload is refused on the wire and the server is seen to stay up.
 const app = useFreshApp();
-const BUILD = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
-let server: http.Server;
+const http_ = useHttpApp();
 let base = "";
 let cookie = "";
 
 beforeEach(async () => {
-  if (!existsSync(path.join(BUILD, "server/index.js"))) throw new Error(`Build the app first (npm run build): ${BUILD}`);
-  process.env.NEARNOTE_ACCESS_LOG = "off";
-  process.env.NEARNOTE_BACKGROUND = "off";
-  const express = await createApp(BUILD);
-  server = await new Promise((resolve) => {
-    const s = express.listen(0, "127.0.0.1", () => resolve(s));
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  base = http_.base;
   const studio = makeStudio("Harbour Lane");
   const student = makeUser("dara@harbour.example");
   join(studio.id, student.id, "student");
-  const login = await fetch(`${base}/login`, {
-    method: "POST",
-    body: new URLSearchParams({ email: student.email, password: PASSWORD }),
-    headers: { Origin: base },
-    redirect: "manual",
-  });
-  expect(login.status).toBe(302);
-  cookie = login.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
-});
-
-afterEach(async () => {
-  await new Promise((r) => server.close(r));
+  cookie = await http_.signIn(student.email, PASSWORD);
 });
 
 const sample = () => new Uint8Array(readFileSync("samples/held-bass-d.mid"));
