@@ -26,5 +26,12 @@ export default [
   // Takes: upload and the take page (issue 5)
   route("takes/new", "routes/takes.new.tsx"),
   route("takes/:takeId", "routes/takes.$takeId.tsx"),
+  // Progress board: compare students, reports, CSV export (issue 7)
+  route("board", "routes/board.tsx"),
+  route("students/:studentId", "routes/students.$studentId.tsx"),
+  route("reports/:studentId", "routes/reports.$studentId.tsx"),
+  route("studio/settings", "routes/studio.settings.tsx"),
+  route("api/progress", "routes/api.progress.ts"),
+  route("api/export/progress.csv", "routes/api.export.progress[.]csv.ts"),
   route("*", "routes/$.tsx"),
 ] satisfies RouteConfig;

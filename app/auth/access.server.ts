@@ -1,7 +1,7 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { data, redirect } from "react-router";
 import { db } from "~/db/client.server";
-import { exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
+import { exerciseAssignees, exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
 import { env } from "~/lib/env.server";
 import { getSessionUser, type SessionUser, type StudioRole } from "./session.server";
 
@@ -86,9 +86,23 @@ export async function requireTakeAccess(
   return { user, take };
 }
 
+/** A teacher of the take's studio: comments on it, marks flags intended, reviews it. */
+export function isTeacherOfTake(user: SessionUser, take: Pick<Take, "studioId">): boolean {
+  return teacherStudioIds(user).includes(take.studioId);
+}
+
 /** Rule for one exercise: anyone active in its studio (students read, teachers edit: see `requireExerciseEdit`). */
 export function canSeeExercise(user: SessionUser, exercise: Pick<Exercise, "studioId">): boolean {
   return user.studios.some((s) => s.studioId === exercise.studioId);
+}
+
+export function isExerciseSetFor(exercise: Pick<Exercise, "id" | "assignedTo">, userId: string): boolean {
+  if (exercise.assignedTo === "studio") return true;
+  return !!db()
+    .select({ id: exerciseAssignees.userId })
+    .from(exerciseAssignees)
+    .where(and(eq(exerciseAssignees.exerciseId, exercise.id), eq(exerciseAssignees.userId, userId)))
+    .get();
 }
 
 export async function requireExerciseAccess(
@@ -100,7 +114,10 @@ export async function requireExerciseAccess(
   const exercise = exerciseId ? db().select().from(exercises).where(eq(exercises.id, exerciseId)).get() : undefined;
   if (!exercise) notFound(mode, "There is no such exercise.");
   if (!canSeeExercise(user, exercise)) deny(mode, "This exercise belongs to another studio.");
-  return { user, exercise, asTeacher: teacherStudioIds(user).includes(exercise.studioId) };
+  const asTeacher = teacherStudioIds(user).includes(exercise.studioId);
+  // A student sees an exercise set for the whole studio, or one they are named on.
+  if (!asTeacher && !isExerciseSetFor(exercise, user.id)) deny(mode, "This exercise is set for other students.");
+  return { user, exercise, asTeacher };
 }
 
 export async function requireExerciseEdit(request: Request, exerciseId: string | undefined, mode: AccessMode = "page") {

@@ -18,6 +18,7 @@ export function navItems(user: NavUser): Item[] {
   if (user.role === null) return [{ to: "/home", label: "Home" }, { to: "/settings", label: "Settings" }];
   return [
     { to: "/home", label: "Studio" },
+    { to: "/board", label: "Board" },
     { to: "/students", label: "Students" },
     { to: "/settings", label: "Settings" },
   ];

@@ -96,7 +96,11 @@ export function RosterRow({
 }) {
   return (
     <tr className={person.status === "removed" ? "text-ink-soft" : undefined}>
-      <td className="px-4 py-2 font-semibold">{person.name}</td>
+      <td className="px-4 py-2 font-semibold">
+        <Link to={`/students/${person.userId}`} className="text-tide-dark hover:underline">
+          {person.name}
+        </Link>
+      </td>
       <td className="px-4 py-2">{person.email}</td>
       <td className="px-4 py-2">{person.status === "active" ? "Active" : "Removed (inactive)"}</td>
       <td className="px-4 py-2 text-right tabular-nums">{person.takeCount}</td>

@@ -72,6 +72,24 @@ const EXPECTED: Record<string, Expectation> = {
   "api/takes/:takeId": { GET: ownedByA(401), POST: row(401, 204, 403, 403, 403, 403), actionMethod: "DELETE" },
   // The fixture take has no file on disk: whoever may see it is told the file is missing.
   "api/takes/:takeId/file": { GET: ownedByA(401, 404) },
+  // Progress board (issue 7): teachers of the studio only; :studentId is student A (a student does not open the teacher pages about themself).
+  board: { GET: teachers(), POST: teachers(400) },
+  "students/:studentId": { GET: row("login", 403, 403, 200, 200, 403) },
+  "reports/:studentId": { GET: row("login", 403, 403, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
+  // Every teacher sees the time zone; only the owner changes it (the other teacher owns their own studio).
+  "studio/settings": { GET: teachers(), POST: row("login", 403, 403, 400, 403, 400) },
+  "api/progress": { GET: row(401, 403, 403, 200, 200, 200) },
+  "api/export/progress.csv": { GET: row(401, 403, 403, 200, 200, 200), query: "?from=2026-01-05&to=2026-03-29" },
+  // Exercises, review queue, feedback, unsubscribe (issue 6). :exerciseId is set for the whole studio.
+  exercises: { GET: signedIn() },
+  "exercises/new": { GET: teachers(), POST: teachers(400) },
+  "exercises/:exerciseId": { GET: row("login", 200, 200, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
+  "exercises/:exerciseId/edit": { GET: row("login", 403, 403, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
+  review: { GET: teachers(), POST: teachers(400) },
+  // Feedback is posted from the take page; opening its URL goes back to the take.
+  "takes/:takeId/feedback": { GET: ownedByA("login", 302), POST: ownedByA("login", 400) },
+  // Without a signed token there is nobody to unsubscribe, signed in or not.
+  unsubscribe: { GET: everyone(400), POST: everyone(400) },
   "*": { GET: everyone(404) },
 };
 

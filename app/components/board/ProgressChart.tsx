@@ -1,0 +1,122 @@
+import { useEffect, useRef, useState } from "react";
+import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { formatMetric, METRIC_IDS, METRICS, weekLabel, type MetricId } from "~/lib/progressFigures";
+import type { ChartData } from "~/models/board.server";
+import { LINE_STYLES, type ChartChoice } from "./chartQuery";
+
+/** The chart proper: one line per student, the metric per week. Recharts draws it after hydration. */
+export function ProgressLines({ data, height = 320, width }: { data: ChartData; height?: number; width?: number }) {
+  const rows = data.weeks.map((week, i) => ({
+    week: weekLabel(week),
+    ...Object.fromEntries(data.series.map((s) => [s.studentId, s.values[i]])),
+  }));
+  const percent = data.metric === "smoothness" || data.metric === "accuracy";
+  const chart = (
+    <LineChart data={rows} width={width} height={height} margin={{ top: 8, right: 16, bottom: 8, left: 0 }}>
+      <CartesianGrid stroke="#ddd6c8" strokeDasharray="3 3" />
+      <XAxis dataKey="week" tick={{ fontSize: 12, fill: "#545b6b" }} />
+      <YAxis
+        tick={{ fontSize: 12, fill: "#545b6b" }}
+        domain={percent ? [0, 1] : ["auto", "auto"]}
+        tickFormatter={(v: number) => (percent ? `${Math.round(v * 100)}%` : String(Math.round(v * 10) / 10))}
+      />
+      <Tooltip formatter={(v) => formatMetric(data.metric, typeof v === "number" ? v : null)} />
+      <Legend />
+      {data.series.map((s, i) => {
+        const style = LINE_STYLES[i % LINE_STYLES.length];
+        return (
+          <Line
+            key={s.studentId}
+            type="monotone"
+            dataKey={s.studentId}
+            name={s.name}
+            stroke={style.stroke}
+            strokeDasharray={style.dash}
+            strokeWidth={2}
+            dot={{ r: 2.5 }}
+            connectNulls
+            isAnimationActive={false}
+          />
+        );
+      })}
+    </LineChart>
+  );
+  return width ? chart : <ResponsiveContainer width="100%" height={height}>{chart}</ResponsiveContainer>;
+}
+
+/** The same numbers as a table, for screen readers and for anyone who prefers figures. */
+export function ChartTable({ data, caption }: { data: ChartData; caption: string }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-left text-sm">
+        <caption className="mb-2 text-left text-sm text-ink-soft">{caption}</caption>
+        <thead className="bg-paper text-xs uppercase tracking-wide text-ink-soft">
+          <tr>
+            <th scope="col" className="px-3 py-1.5">Week of</th>
+            {data.series.map((s) => (
+              <th key={s.studentId} scope="col" className="px-3 py-1.5">
+                {s.name}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody className="divide-y divide-line">
+          {data.weeks.map((w, i) => (
+            <tr key={w}>
+              <th scope="row" className="px-3 py-1 font-normal">
+                {weekLabel(w)}
+              </th>
+              {data.series.map((s) => (
+                <td key={s.studentId} className="px-3 py-1">
+                  {formatMetric(data.metric, s.values[i])}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+/** What the chart API answers: the series plus the dates the range was read as. */
+export type ChartPayload = ChartData & { from: string; to: string };
+
+export function chartCaption(data: ChartPayload) {
+  const n = data.series.length;
+  return `${METRICS[data.metric].label} per week, ${n} student${n === 1 ? "" : "s"}, ${data.from} to ${data.to}`;
+}
+
+export { METRIC_IDS };
+export type { MetricId, ChartChoice };
+
+/**
+ * Keeps the chart in step with a choice: fetches /api/progress when the choice
+ * changes (the newest request wins) and reports loading and errors.
+ */
+export function useChartData(initial: ChartPayload, search: string) {
+  const [data, setData] = useState(initial);
+  const [state, setState] = useState<{ loading: boolean; error: string | null }>({ loading: false, error: null });
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    const controller = new AbortController();
+    setState({ loading: true, error: null });
+    fetch(`/api/progress?${search}`, { signal: controller.signal, headers: { Accept: "application/json" } })
+      .then(async (r) => {
+        const body = await r.json();
+        if (!r.ok) throw new Error(body.error ?? `The server answered ${r.status}`);
+        setData(body as ChartPayload);
+        setState({ loading: false, error: null });
+      })
+      .catch((e: unknown) => {
+        if (controller.signal.aborted) return;
+        setState({ loading: false, error: e instanceof Error ? e.message : "Could not load the chart" });
+      });
+    return () => controller.abort();
+  }, [search]);
+  return { data, ...state };
+}

@@ -1,0 +1,99 @@
+import { data, redirect, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/board";
+import { requireStudentsOfTeacher, requireTeacher } from "~/auth/access.server";
+import { BoardTable } from "~/components/board/BoardTable";
+import { ChartPanel } from "~/components/board/ChartPanel";
+import { ReminderCard } from "~/components/board/ReminderCard";
+import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import { ButtonLink } from "~/components/Button";
+import { EmptyState } from "~/components/EmptyState";
+import { PageHeader } from "~/components/PageHeader";
+import { flashHeader } from "~/lib/flash.server";
+import { weekEnd } from "~/lib/progressFigures";
+import { weekStart } from "~/lib/weeks";
+import { boardRows, chartData, pickStudents } from "~/models/board.server";
+import { studioTimeZone } from "~/models/progress.server";
+import { parseProgressQuery } from "~/models/progressQuery.server";
+import { sendPracticeReminders } from "~/models/reminders.server";
+
+/** How many students the chart shows before the teacher picks: more lines than this stop being readable. */
+const DEFAULT_CHART_STUDENTS = 6;
+
+export const meta: Route.MetaFunction = () => [{ title: "Progress board · Nearnote" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const teacher = await requireTeacher(request);
+  const studioId = teacher.active.studioId;
+  const timeZone = studioTimeZone(studioId);
+  const url = new URL(request.url);
+  const parsed = parseProgressQuery(url, timeZone);
+  // A hand-edited address with a bad value falls back to the default view rather than an error page.
+  if (!parsed.ok) throw redirect("/board");
+  const query = parsed.query;
+  await requireStudentsOfTeacher(request, query.studentIds);
+  const { week, rows } = boardRows(studioId);
+  const chosenIds = query.studentIds.length ? query.studentIds : rows.slice(0, DEFAULT_CHART_STUDENTS).map((r) => r.studentId);
+  const chart = chosenIds.length ? chartData(studioId, query.metric, pickStudents(studioId, chosenIds), query.fromWeek, query.toWeek) : null;
+  return {
+    studioName: teacher.active.studioName,
+    timeZone,
+    week: { key: week, start: weekStart(week), end: weekEnd(week) },
+    rows,
+    students: rows.map((r) => ({ id: r.studentId, name: r.name })),
+    choice: { metric: query.metric, studentIds: chosenIds, from: query.from, to: query.to },
+    chart: chart && { ...chart, from: query.from, to: query.to },
+    quiet: rows.filter((r) => r.thisWeek.takes === 0).map((r) => ({ id: r.studentId, name: r.name, reminded: r.remindedThisWeek })),
+  };
+}
+
+const actionSchema = z.object({ intent: z.literal("remind") });
+
+export async function action({ request }: Route.ActionArgs) {
+  const teacher = await requireTeacher(request);
+  const parsed = actionSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ error: "Unknown action." }, { status: 400 });
+  const { sent, alreadyReminded } = await sendPracticeReminders(
+    { id: teacher.active.studioId, name: teacher.active.studioName },
+    { id: teacher.id, name: teacher.name },
+  );
+  const message = sent.length
+    ? `Reminder sent to ${sent.join(", ")}.`
+    : alreadyReminded
+      ? "Everyone without a take this week has already had a reminder."
+      : "Everyone has recorded a take this week: no reminder needed.";
+  const back = new URL(request.url);
+  return redirect(`/board${back.search}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: sent.length ? "success" : "info", message }) } });
+}
+
+export default function Board({ loaderData }: Route.ComponentProps) {
+  const navigation = useNavigation();
+  const { rows, week, chart, choice, students, quiet, timeZone } = loaderData;
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        title="Progress board"
+        lead={`This week (${week.start} to ${week.end}, ${timeZone}) for every student, with the change since last week.`}
+        actions={<ButtonLink to="/studio/settings" variant="quiet">Studio time zone</ButtonLink>}
+      />
+      {rows.length === 0 ? (
+        <EmptyState title="No students yet" action={<ButtonLink to="/students">Invite students</ButtonLink>}>
+          The board fills in as soon as your students join and upload their first takes. Invite them from the Students page: each
+          gets a link to set a password.
+        </EmptyState>
+      ) : (
+        <>
+          <ReminderCard quiet={quiet} pending={navigation.state === "submitting" && navigation.formData?.get("intent") === "remind"} />
+          <BoardTable rows={rows} />
+          {chart ? <ChartPanel key={choice.metric + choice.from} students={students} initialChoice={choice} initialData={chart} /> : null}
+          <p className="text-xs text-ink-soft">
+            Smoothness is the best possible motion divided by the motion played, summed over the week. Status compares the mean score of
+            the last three weeks with the three before. These figures are practice aids for your judgement, not grades.
+          </p>
+        </>
+      )}
+    </div>
+  );
+}
+
+export const ErrorBoundary = RouteErrorBoundary;

@@ -1,0 +1,101 @@
+import { eq } from "drizzle-orm";
+import { data, redirect, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/reports.$studentId";
+import { requireStudentOfTeacher } from "~/auth/access.server";
+import { PeriodForm } from "~/components/board/PeriodForm";
+import { ReportControls } from "~/components/board/ReportControls";
+import { ReportSheet } from "~/components/board/ReportSheet";
+import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import "~/components/board/report.css";
+import { db } from "~/db/client.server";
+import { users } from "~/db/schema";
+import { flashHeader } from "~/lib/flash.server";
+import { studioTimeZone } from "~/models/progress.server";
+import { parseProgressQuery } from "~/models/progressQuery.server";
+import { getProgressReport, listProgressReports, saveProgressReport } from "~/models/progressReports.server";
+import { studentProgress } from "~/models/studentProgress.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Progress report: ${data.student.name}, ${data.from} to ${data.to} · Nearnote` : "Progress report · Nearnote" },
+];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { user } = await requireStudentOfTeacher(request, params.studentId);
+  const studioId = user.active.studioId;
+  const url = new URL(request.url);
+  const reportId = url.searchParams.get("report");
+  const saved = reportId ? getProgressReport(studioId, params.studentId, reportId) : undefined;
+  if (reportId && !saved) throw data("There is no such report for this student.", { status: 404 });
+  if (saved) {
+    url.searchParams.set("from", saved.fromDate);
+    url.searchParams.set("to", saved.toDate);
+  }
+  const parsed = parseProgressQuery(url, studioTimeZone(studioId));
+  if (!parsed.ok) throw redirect(`/reports/${params.studentId}`);
+  const q = parsed.query;
+  const student = db().select({ id: users.id, name: users.name }).from(users).where(eq(users.id, params.studentId)).get()!;
+  return {
+    student,
+    studioName: user.active.studioName,
+    teacherName: user.name,
+    from: q.from,
+    to: q.to,
+    saved: saved ? { id: saved.id, summary: saved.summary, createdAt: saved.createdAt.toISOString() } : null,
+    savedReports: listProgressReports(studioId, student.id),
+    progress: studentProgress(studioId, student, q.fromWeek, q.toWeek),
+  };
+}
+
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-01-31");
+const saveSchema = z.object({
+  intent: z.literal("save"),
+  from: isoDate,
+  to: isoDate,
+  summary: z.string().trim().min(1, "Write a few words for the student first").max(5000, "Keep the summary under 5,000 characters"),
+});
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user } = await requireStudentOfTeacher(request, params.studentId);
+  const parsed = saveSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) {
+    return data({ errors: z.flattenError(parsed.error).fieldErrors }, { status: 400 });
+  }
+  const { from, to, summary } = parsed.data;
+  if (from > to) return data({ errors: { to: ["The period must end after it starts"] } }, { status: 400 });
+  const report = saveProgressReport({ studioId: user.active.studioId, studentId: params.studentId, fromDate: from, toDate: to, summary, createdById: user.id });
+  return redirect(`/reports/${params.studentId}?report=${report.id}`, {
+    headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message: "Report saved. Print it or save it as a PDF from the browser." }) },
+  });
+}
+
+export default function Report({ loaderData: d, actionData }: Route.ComponentProps) {
+  const navigation = useNavigation();
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="no-print flex flex-col gap-4">
+        <PeriodForm from={d.from} to={d.to} label="Change period" />
+        <ReportControls
+          studentId={d.student.id}
+          from={d.from}
+          to={d.to}
+          saved={d.saved}
+          savedReports={d.savedReports}
+          errors={actionData && "errors" in actionData ? actionData.errors : undefined}
+          pending={navigation.state === "submitting"}
+        />
+      </div>
+      <ReportSheet
+        student={d.student.name}
+        studio={d.studioName}
+        teacher={d.teacherName}
+        from={d.from}
+        to={d.to}
+        summary={d.saved?.summary ?? null}
+        progress={d.progress}
+      />
+    </div>
+  );
+}
+
+export const ErrorBoundary = RouteErrorBoundary;
