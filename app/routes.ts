@@ -33,5 +33,13 @@ export default [
   route("studio/settings", "routes/studio.settings.tsx"),
   route("api/progress", "routes/api.progress.ts"),
   route("api/export/progress.csv", "routes/api.export.progress[.]csv.ts"),
+  // Exercises, review queue and feedback (issue 6)
+  route("exercises", "routes/exercises.tsx"),
+  route("exercises/new", "routes/exercises.new.tsx"),
+  route("exercises/:exerciseId", "routes/exercises.$exerciseId.tsx"),
+  route("exercises/:exerciseId/edit", "routes/exercises.$exerciseId.edit.tsx"),
+  route("review", "routes/review.tsx"),
+  route("takes/:takeId/feedback", "routes/takes.$takeId.feedback.ts"),
+  route("unsubscribe", "routes/unsubscribe.tsx"),
   route("*", "routes/$.tsx"),
 ] satisfies RouteConfig;

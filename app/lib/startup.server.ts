@@ -1,5 +1,6 @@
 import { db } from "~/db/client.server";
 import { reanalyseOutdated } from "~/models/takes.server";
+import { startScheduler } from "./scheduler.server";
 
 let started = false;
 
@@ -25,4 +26,6 @@ export function startBackgroundWork() {
     }
   }, 500);
   timer.unref();
+  // Daily digests and due-date reminders (issue 6).
+  startScheduler();
 }

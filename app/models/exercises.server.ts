@@ -1,0 +1,269 @@
+import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
+import { z } from "zod";
+import { TECHNIQUES } from "~/analysis/types";
+import { db } from "~/db/client.server";
+import { exerciseAssignees, exercises, memberships, takeMetrics, takes, users, type Exercise } from "~/db/schema";
+import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
+import { AnalysisError, readMidi } from "~/analysis";
+import { newFileKey, readTakeFile, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
+import { parseFormData, type FileUpload } from "@remix-run/form-data-parser";
+
+// Exercises as the teacher sets them: validation of the form, saving, archiving, and what
+// each side sees (the teacher every exercise with hand-in figures, a student theirs by key).
+
+const checkbox = z.preprocess((v) => v === "on" || v === "true" || v === true, z.boolean());
+
+export const exerciseFormSchema = z.object({
+  title: z.string().trim().min(1, "Give the exercise a title.").max(120, "Keep the title under 120 characters."),
+  keyChoice: z.enum(["listed", "all-major", "all-minor"]).default("listed"),
+  keys: z.string().trim().max(200).default(""),
+  progression: z.string().trim().min(1, "Write the target progression, e.g. I IV V I or D G A D.").max(600),
+  focusTechniques: z.array(z.enum(TECHNIQUES as [string, ...string[]])).default([]),
+  tempo: z
+    .string()
+    .trim()
+    .transform((v) => (v === "" ? null : Number(v)))
+    .pipe(z.number().int("Tempo is a whole number of beats per minute.").min(20, "Tempo is 20–300 bpm.").max(300, "Tempo is 20–300 bpm.").nullable())
+    .default(null),
+  dueDate: z
+    .string()
+    .trim()
+    .transform((v) => v || null)
+    .pipe(z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Pick a date.").nullable())
+    .default(null),
+  instructions: z.string().trim().max(4000, "Keep the instructions under 4,000 characters.").default(""),
+  assignedTo: z.enum(["studio", "students"]).default("studio"),
+  students: z.array(z.string().max(64)).default([]),
+  sendAnyway: checkbox.optional(),
+});
+
+export type ExerciseInput = {
+  title: string;
+  keys: string[];
+  progression: string;
+  focusTechniques: string[];
+  tempo: number | null;
+  dueDate: string | null;
+  instructions: string;
+  assignedTo: "studio" | "students";
+  students: string[];
+};
+
+export type FieldErrors = Partial<Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>>;
+
+/** Reads the exercise form; returns the input or one message per field at fault. */
+export function readExerciseForm(form: FormData, studioStudentIds: readonly string[]): { ok: true; input: ExerciseInput } | { ok: false; errors: FieldErrors } {
+  const raw = {
+    ...Object.fromEntries([...form.entries()].filter(([k]) => k !== "focusTechniques" && k !== "students")),
+    focusTechniques: form.getAll("focusTechniques").map(String),
+    students: form.getAll("students").map(String),
+  };
+  const parsed = exerciseFormSchema.safeParse(raw);
+  if (!parsed.success) {
+    const errors: FieldErrors = {};
+    for (const issue of parsed.error.issues) {
+      const field = String(issue.path[0]) as keyof FieldErrors;
+      errors[field] ??= issue.message;
+    }
+    return { ok: false, errors };
+  }
+  const d = parsed.data;
+  const keys = d.keyChoice === "all-major" ? ALL_MAJOR_KEYS : d.keyChoice === "all-minor" ? ALL_MINOR_KEYS : splitKeys(d.keys);
+  const check = checkProgression(d.progression, keys);
+  if (!check.ok) return { ok: false, errors: { [check.field]: check.message } };
+  const students = [...new Set(d.students)];
+  if (d.assignedTo === "students") {
+    if (students.length === 0) return { ok: false, errors: { students: "Choose at least one student, or set it for the whole studio." } };
+    if (students.some((s) => !studioStudentIds.includes(s))) return { ok: false, errors: { students: "Choose students of this studio." } };
+  }
+  return {
+    ok: true,
+    input: { ...d, keys, students: d.assignedTo === "students" ? students : [] },
+  };
+}
+
+export function activeStudentsOfStudio(studioId: string) {
+  return db()
+    .select({ id: users.id, name: users.name, email: users.email })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(and(eq(memberships.studioId, studioId), eq(memberships.role, "student"), eq(memberships.status, "active")))
+    .orderBy(users.name)
+    .all();
+}
+
+export function createExercise(studioId: string, teacherId: string, input: ExerciseInput): string {
+  const { students, ...fields } = input;
+  return db().transaction((tx) => {
+    const row = tx.insert(exercises).values({ ...fields, studioId, createdById: teacherId }).returning({ id: exercises.id }).get();
+    if (students.length) tx.insert(exerciseAssignees).values(students.map((userId) => ({ exerciseId: row.id, userId }))).run();
+    return row.id;
+  });
+}
+
+export function updateExercise(exerciseId: string, input: ExerciseInput) {
+  const { students, ...fields } = input;
+  db().transaction((tx) => {
+    tx.update(exercises).set(fields).where(eq(exercises.id, exerciseId)).run();
+    tx.delete(exerciseAssignees).where(eq(exerciseAssignees.exerciseId, exerciseId)).run();
+    if (students.length) tx.insert(exerciseAssignees).values(students.map((userId) => ({ exerciseId, userId }))).run();
+  });
+}
+
+export function setArchived(exerciseId: string, archived: boolean) {
+  db().update(exercises).set({ archivedAt: archived ? new Date() : null }).where(eq(exercises.id, exerciseId)).run();
+}
+
+export function assigneeIds(exerciseId: string): string[] {
+  return db().select({ id: exerciseAssignees.userId }).from(exerciseAssignees).where(eq(exerciseAssignees.exerciseId, exerciseId)).all().map((r) => r.id);
+}
+
+/** Whether a student is set this exercise: for the whole studio, or named among its students. */
+export function isAssignedTo(exercise: Pick<Exercise, "id" | "assignedTo">, studentId: string): boolean {
+  return exercise.assignedTo === "studio" || assigneeIds(exercise.id).includes(studentId);
+}
+
+/** The students an exercise is set for: every active student of the studio, or the chosen ones. */
+export function studentsOfExercise(exercise: Pick<Exercise, "id" | "studioId" | "assignedTo">) {
+  const all = activeStudentsOfStudio(exercise.studioId);
+  if (exercise.assignedTo === "studio") return all;
+  const chosen = new Set(assigneeIds(exercise.id));
+  return all.filter((s) => chosen.has(s.id));
+}
+
+export type ExerciseTakeRow = {
+  id: string;
+  studentId: string;
+  studentName: string;
+  key: string | null;
+  recordedAt: string;
+  status: string;
+  score: number | null;
+  accuracy: number | null;
+};
+
+/** Takes handed in for one exercise, newest first; only one student's when `studentId` is given. */
+export function takesOfExercise(exerciseId: string, studentId?: string): ExerciseTakeRow[] {
+  return db()
+    .select({
+      id: takes.id,
+      studentId: takes.studentId,
+      studentName: users.name,
+      key: takes.key,
+      recordedAt: takes.recordedAt,
+      status: takes.status,
+      score: takeMetrics.score,
+      accuracy: takeMetrics.accuracy,
+    })
+    .from(takes)
+    .innerJoin(users, eq(users.id, takes.studentId))
+    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .where(and(eq(takes.exerciseId, exerciseId), studentId ? eq(takes.studentId, studentId) : undefined))
+    .orderBy(desc(takes.recordedAt))
+    .all()
+    .map((r) => ({ ...r, recordedAt: r.recordedAt.toISOString() }));
+}
+
+export type KeyProgress = { key: string; takes: ExerciseTakeRow[]; best: number | null; bestAccuracy: number | null };
+
+/** Per key: the takes and the best score so far. A key with an analysed take counts as handed in. */
+export function progressByKey(keys: readonly string[], rows: readonly ExerciseTakeRow[]): KeyProgress[] {
+  return keys.map((key) => {
+    const mine = rows.filter((r) => r.key === key);
+    const scores = mine.map((r) => r.score).filter((s): s is number => s !== null);
+    const acc = mine.map((r) => r.accuracy).filter((s): s is number => s !== null);
+    return { key, takes: mine, best: scores.length ? Math.max(...scores) : null, bestAccuracy: acc.length ? Math.max(...acc) : null };
+  });
+}
+
+export function isDone(progress: readonly KeyProgress[]): boolean {
+  return progress.every((p) => p.takes.some((t) => t.status === "analysed"));
+}
+
+/** Every exercise of the studio for its teachers, archived ones last, with hand-in counts. */
+export function listExercisesForTeacher(studioId: string) {
+  const rows = db().select().from(exercises).where(eq(exercises.studioId, studioId)).orderBy(exercises.dueDate).all();
+  const ids = rows.map((r) => r.id);
+  const handedIn = ids.length
+    ? db()
+        .selectDistinct({ exerciseId: takes.exerciseId, studentId: takes.studentId })
+        .from(takes)
+        .where(and(inArray(takes.exerciseId, ids), isNotNull(takes.exerciseId)))
+        .all()
+    : [];
+  return rows
+    .map((e) => ({
+      id: e.id,
+      title: e.title,
+      keys: e.keys,
+      progression: e.progression,
+      dueDate: e.dueDate,
+      archived: e.archivedAt !== null,
+      assignedTo: e.assignedTo,
+      setFor: studentsOfExercise(e).length,
+      handedIn: handedIn.filter((h) => h.exerciseId === e.id).length,
+    }))
+    .sort((a, b) => Number(a.archived) - Number(b.archived));
+}
+
+/** Exercises not archived whose due date is `date` (YYYY-MM-DD): the due-date reminders' list. */
+export function openExercisesDueOn(date: string) {
+  return db()
+    .select()
+    .from(exercises)
+    .where(and(eq(exercises.dueDate, date), isNull(exercises.archivedAt)))
+    .all();
+}
+
+/** Drops the teacher's model take (file and columns). */
+export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFileKey">) {
+  if (exercise.modelFileKey) await removeTakeFile(exercise.modelFileKey);
+  db().update(exercises).set({ modelFileKey: null, modelOriginalName: null }).where(eq(exercises.id, exercise.id)).run();
+}
+
+const MODEL_MAX_BYTES = 2 * 1024 * 1024;
+
+/**
+ * Stores the teacher's model take from a multipart upload (field `file`), replacing the one
+ * before. Returns an error message for the teacher, or null when it was saved.
+ */
+export async function storeModelTake(request: Request, exercise: Pick<Exercise, "id" | "modelFileKey">): Promise<string | null> {
+  let stored: { fileKey: string; name: string } | null = null;
+  try {
+    await parseFormData(request, { maxFileSize: MODEL_MAX_BYTES, maxFiles: 1 }, async (file: FileUpload) => {
+      if (file.fieldName !== "file" || (!file.name && file.size === 0)) return null;
+      const fileKey = newFileKey();
+      await takeStorage().put(fileKey, file);
+      stored = { fileKey, name: (file.name.split(/[\\/]/).pop() ?? "model.mid").slice(0, 200) || "model.mid" };
+      return fileKey;
+    });
+  } catch {
+    if (stored) await removeTakeFile((stored as { fileKey: string }).fileKey);
+    return "The file could not be read: choose one MIDI file under 2 MiB.";
+  }
+  const saved = stored as { fileKey: string; name: string } | null;
+  if (!saved) return "Choose a MIDI file to attach.";
+  const bytes = await readTakeFile(saved.fileKey);
+  try {
+    if (!bytes || readMidi(bytes).notes.length === 0) throw new AnalysisError("no-notes");
+  } catch (e) {
+    await removeTakeFile(saved.fileKey);
+    if (e instanceof AnalysisError) return `This is not a MIDI take Nearnote can play: ${e.message}`;
+    throw e;
+  }
+  if (exercise.modelFileKey) await removeTakeFile(exercise.modelFileKey);
+  db().update(exercises).set({ modelFileKey: saved.fileKey, modelOriginalName: saved.name }).where(eq(exercises.id, exercise.id)).run();
+  return null;
+}
+
+/** The model take's notes for playing in the browser, or null when there is none. */
+export async function modelTakeNotes(exercise: Pick<Exercise, "modelFileKey" | "modelOriginalName">) {
+  if (!exercise.modelFileKey) return null;
+  const bytes = await readTakeFile(exercise.modelFileKey);
+  if (!bytes) return null;
+  try {
+    return { name: exercise.modelOriginalName ?? "model.mid", notes: readMidi(bytes).notes };
+  } catch {
+    return null;
+  }
+}

@@ -1,0 +1,248 @@
+import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
+import { z } from "zod";
+import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
+import { db } from "~/db/client.server";
+import { commentReads, comments, exercises, intendedFlags, takeMetrics, takeReviews, takes, users } from "~/db/schema";
+import { applyIntendedFlags } from "./intendedFlags.server";
+
+// Feedback on takes: comments (whole take or pinned to a change) and replies, who has read
+// what, flags the teacher marks as intended, and which takes the teacher has reviewed.
+
+export const commentSchema = z.object({
+  body: z.string().trim().min(1, "Write something first.").max(4000, "Keep a comment under 4,000 characters."),
+  changeIdx: z
+    .string()
+    .optional()
+    .transform((v) => (v === undefined || v === "" ? null : Number(v)))
+    .pipe(z.number().int().min(0).nullable()),
+  parentId: z
+    .string()
+    .max(64)
+    .optional()
+    .transform((v) => v || null),
+});
+
+export const intendSchema = z.object({
+  on: z.enum(["chord", "change"]),
+  idx: z.coerce.number().int().min(0),
+  flag: z.enum([...CHORD_FLAGS, ...CHANGE_FLAGS] as [string, ...string[]]),
+  reason: z.string().trim().min(1, "Say why it was intended, e.g. “I asked for a jump here”.").max(300),
+});
+
+export class FeedbackRefused extends Error {}
+
+function analysisOf(takeId: string) {
+  return db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()?.analysis ?? null;
+}
+
+/** Adds a comment or a reply; a reply to a reply joins the same thread. Returns the new comment's id. */
+export function addComment(input: { takeId: string; authorId: string; body: string; changeIdx: number | null; parentId: string | null }): string {
+  let { changeIdx, parentId } = input;
+  if (parentId) {
+    const parent = db().select().from(comments).where(eq(comments.id, parentId)).get();
+    if (!parent || parent.takeId !== input.takeId) throw new FeedbackRefused("That comment is not on this take.");
+    parentId = parent.parentId ?? parent.id;
+    changeIdx = parent.changeIdx;
+  } else if (changeIdx !== null) {
+    const analysis = analysisOf(input.takeId);
+    if (!analysis || changeIdx >= analysis.changes.length) throw new FeedbackRefused("This take has no such change.");
+  }
+  return db()
+    .insert(comments)
+    .values({ takeId: input.takeId, authorId: input.authorId, body: input.body, changeIdx, parentId })
+    .returning({ id: comments.id })
+    .get().id;
+}
+
+export type CommentView = {
+  id: string;
+  authorId: string;
+  authorName: string;
+  body: string;
+  changeIdx: number | null;
+  createdAt: string;
+  unread: boolean;
+  replies: CommentView[];
+};
+
+export function lastRead(userId: string, takeId: string): Date | null {
+  return db().select().from(commentReads).where(and(eq(commentReads.userId, userId), eq(commentReads.takeId, takeId))).get()?.readAt ?? null;
+}
+
+export function markRead(userId: string, takeId: string, at = new Date()) {
+  db()
+    .insert(commentReads)
+    .values({ userId, takeId, readAt: at })
+    .onConflictDoUpdate({ target: [commentReads.userId, commentReads.takeId], set: { readAt: at } })
+    .run();
+}
+
+/** Threads on a take, oldest first, with what is new to `viewerId` marked unread. */
+export function commentThreads(takeId: string, viewerId: string): CommentView[] {
+  const readAt = lastRead(viewerId, takeId);
+  const rows = db()
+    .select({ c: comments, authorName: users.name })
+    .from(comments)
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .where(eq(comments.takeId, takeId))
+    .orderBy(comments.createdAt)
+    .all();
+  const view = (r: (typeof rows)[number]): CommentView => ({
+    id: r.c.id,
+    authorId: r.c.authorId,
+    authorName: r.authorName,
+    body: r.c.body,
+    changeIdx: r.c.changeIdx,
+    createdAt: r.c.createdAt.toISOString(),
+    unread: r.c.authorId !== viewerId && (readAt === null || r.c.createdAt > readAt),
+    replies: [],
+  });
+  const top = rows.filter((r) => r.c.parentId === null).map(view);
+  for (const r of rows) if (r.c.parentId) top.find((t) => t.id === r.c.parentId)?.replies.push(view(r));
+  return top;
+}
+
+export type IntendedView = { id: string; on: "chord" | "change"; idx: number; flag: string; reason: string; byName: string | null };
+
+export function intendedFlagList(takeId: string): IntendedView[] {
+  return db()
+    .select({ id: intendedFlags.id, on: intendedFlags.on, idx: intendedFlags.idx, flag: intendedFlags.flag, reason: intendedFlags.reason, byName: users.name })
+    .from(intendedFlags)
+    .leftJoin(users, eq(users.id, intendedFlags.byId))
+    .where(eq(intendedFlags.takeId, takeId))
+    .all();
+}
+
+function rescore(takeId: string) {
+  const analysis = analysisOf(takeId);
+  if (analysis) applyIntendedFlags(db(), takeId, analysis);
+}
+
+/** Marks a flag as intended and re-scores the take; refuses a flag the take does not carry there. */
+export function markIntended(takeId: string, byId: string, mark: z.infer<typeof intendSchema>) {
+  const analysis = analysisOf(takeId);
+  const item = mark.on === "chord" ? analysis?.chords[mark.idx] : analysis?.changes[mark.idx];
+  if (!item || !(item.flags as string[]).includes(mark.flag)) throw new FeedbackRefused("This take has no such flag there.");
+  db()
+    .insert(intendedFlags)
+    .values({ takeId, byId, ...mark })
+    .onConflictDoUpdate({ target: [intendedFlags.takeId, intendedFlags.on, intendedFlags.idx, intendedFlags.flag], set: { reason: mark.reason, byId } })
+    .run();
+  rescore(takeId);
+}
+
+export function unmarkIntended(takeId: string, markId: string) {
+  db().delete(intendedFlags).where(and(eq(intendedFlags.id, markId), eq(intendedFlags.takeId, takeId))).run();
+  rescore(takeId);
+}
+
+export function reviewTake(takeId: string, teacherId: string, at = new Date()) {
+  db().insert(takeReviews).values({ takeId, reviewedById: teacherId, reviewedAt: at }).onConflictDoNothing().run();
+}
+
+export function unreviewTake(takeId: string) {
+  db().delete(takeReviews).where(eq(takeReviews.takeId, takeId)).run();
+}
+
+export function reviewOf(takeId: string) {
+  const row = db()
+    .select({ at: takeReviews.reviewedAt, byName: users.name })
+    .from(takeReviews)
+    .leftJoin(users, eq(users.id, takeReviews.reviewedById))
+    .where(eq(takeReviews.takeId, takeId))
+    .get();
+  return row ? { at: row.at.toISOString(), byName: row.byName } : null;
+}
+
+/** The review queue: the studio's takes no teacher has marked reviewed, newest first. */
+export function reviewQueue(studioId: string, limit = 200) {
+  return db()
+    .select({
+      id: takes.id,
+      createdAt: takes.createdAt,
+      recordedAt: takes.recordedAt,
+      studentName: users.name,
+      exerciseTitle: exercises.title,
+      key: takes.key,
+      status: takes.status,
+      score: takeMetrics.score,
+      accuracy: takeMetrics.accuracy,
+      flags: takeMetrics.flags,
+    })
+    .from(takes)
+    .innerJoin(users, eq(users.id, takes.studentId))
+    .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
+    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+    .leftJoin(takeReviews, eq(takeReviews.takeId, takes.id))
+    .where(and(eq(takes.studioId, studioId), isNull(takeReviews.takeId)))
+    .orderBy(desc(takes.createdAt))
+    .limit(limit)
+    .all()
+    .map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), recordedAt: r.recordedAt.toISOString() }));
+}
+
+export function reviewQueueCount(studioId: string): number {
+  return (
+    db()
+      .select({ n: sql<number>`count(*)` })
+      .from(takes)
+      .leftJoin(takeReviews, eq(takeReviews.takeId, takes.id))
+      .where(and(eq(takes.studioId, studioId), isNull(takeReviews.takeId)))
+      .get()?.n ?? 0
+  );
+}
+
+/** Comments by others on this person's takes that they have not read yet, grouped by take. */
+export function unreadFeedback(studentId: string, studioId: string) {
+  const rows = db()
+    .select({
+      takeId: takes.id,
+      exerciseTitle: exercises.title,
+      recordedAt: takes.recordedAt,
+      authorName: users.name,
+      body: comments.body,
+      changeIdx: comments.changeIdx,
+      createdAt: comments.createdAt,
+    })
+    .from(comments)
+    .innerJoin(takes, eq(takes.id, comments.takeId))
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
+    .leftJoin(commentReads, and(eq(commentReads.takeId, takes.id), eq(commentReads.userId, studentId)))
+    .where(
+      and(
+        eq(takes.studentId, studentId),
+        eq(takes.studioId, studioId),
+        ne(comments.authorId, studentId),
+        or(isNull(commentReads.readAt), gt(comments.createdAt, commentReads.readAt)),
+      ),
+    )
+    .orderBy(desc(comments.createdAt))
+    .all();
+  const byTake = new Map<string, { takeId: string; exerciseTitle: string | null; recordedAt: string; count: number; latest: { authorName: string; body: string; changeIdx: number | null } }>();
+  for (const r of rows) {
+    const entry = byTake.get(r.takeId);
+    if (entry) entry.count++;
+    else
+      byTake.set(r.takeId, {
+        takeId: r.takeId,
+        exerciseTitle: r.exerciseTitle,
+        recordedAt: r.recordedAt.toISOString(),
+        count: 1,
+        latest: { authorName: r.authorName, body: r.body, changeIdx: r.changeIdx },
+      });
+  }
+  return [...byTake.values()];
+}
+
+/** Students' replies on a studio's takes since a moment: the teacher's digest lists them. */
+export function repliesSince(studioId: string, since: Date) {
+  return db()
+    .select({ takeId: comments.takeId, authorName: users.name, body: comments.body, createdAt: comments.createdAt })
+    .from(comments)
+    .innerJoin(takes, eq(takes.id, comments.takeId))
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .where(and(eq(takes.studioId, studioId), eq(comments.authorId, takes.studentId), gt(comments.createdAt, since)))
+    .orderBy(comments.createdAt)
+    .all();
+}

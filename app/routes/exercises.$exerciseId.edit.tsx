@@ -1,0 +1,56 @@
+import { data, redirect } from "react-router";
+import type { Route } from "./+types/exercises.$exerciseId.edit";
+import { requireExerciseEdit } from "~/auth/access.server";
+import { Card } from "~/components/Card";
+import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
+import { PageHeader } from "~/components/PageHeader";
+import { flashHeader } from "~/lib/flash.server";
+import { activeStudentsOfStudio, assigneeIds, readExerciseForm, updateExercise } from "~/models/exercises.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.exercise.title} · Nearnote` : "Edit exercise · Nearnote" }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+  return {
+    exercise: {
+      id: exercise.id,
+      title: exercise.title,
+      keys: exercise.keys,
+      progression: exercise.progression,
+      focusTechniques: exercise.focusTechniques,
+      tempo: exercise.tempo,
+      dueDate: exercise.dueDate,
+      instructions: exercise.instructions,
+      assignedTo: exercise.assignedTo,
+      students: assigneeIds(exercise.id),
+    },
+    students: activeStudentsOfStudio(exercise.studioId).map((s) => ({ id: s.id, name: s.name })),
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+  const students = activeStudentsOfStudio(exercise.studioId).map((s) => s.id);
+  const read = readExerciseForm(await request.formData(), students);
+  if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
+  updateExercise(exercise.id, read.input);
+  return redirect(`/exercises/${exercise.id}`, {
+    headers: {
+      "Set-Cookie": await flashHeader(request, {
+        tone: "success",
+        message: "Exercise saved. Takes already handed in keep their grades until they are analysed again.",
+      }),
+    },
+  });
+}
+
+export default function EditExercise({ loaderData, actionData }: Route.ComponentProps) {
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader title={`Edit “${loaderData.exercise.title}”`} />
+      <Card>
+        <ExerciseForm values={loaderData.exercise} errors={actionData?.errors ?? {}} students={loaderData.students} submitLabel="Save exercise" />
+      </Card>
+    </div>
+  );
+}

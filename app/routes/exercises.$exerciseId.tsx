@@ -1,0 +1,171 @@
+import { data, Form, Link, redirect, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/exercises.$exerciseId";
+import { requireExerciseAccess, requireExerciseEdit } from "~/auth/access.server";
+import { Button, ButtonLink, buttonClass } from "~/components/Button";
+import { Card } from "~/components/Card";
+import { FlashMessage } from "~/components/FlashMessage";
+import { ExerciseFacts } from "~/components/exercises/ExerciseFacts";
+import { KeyProgressTable } from "~/components/exercises/KeyProgressTable";
+import { ModelAnswer } from "~/components/exercises/ModelAnswer";
+import { PageHeader } from "~/components/PageHeader";
+import { PracticeCare } from "~/components/PracticeCare";
+import { checkProgression, targetChordsInKey } from "~/lib/exerciseProgression";
+import { flashHeader } from "~/lib/flash.server";
+import { fitsFirstChord } from "~/lib/modelAnswer";
+import { pretty } from "~/lib/noteText";
+import {
+  isDone,
+  modelTakeNotes,
+  progressByKey,
+  removeModelTake,
+  setArchived,
+  storeModelTake,
+  studentsOfExercise,
+  takesOfExercise,
+} from "~/models/exercises.server";
+import { db } from "~/db/client.server";
+import { exercises } from "~/db/schema";
+import { eq } from "drizzle-orm";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.exercise.title} · Nearnote` : "Exercise · Nearnote" }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { user, exercise, asTeacher } = await requireExerciseAccess(request, params.exerciseId);
+  const check = checkProgression(exercise.progression, exercise.keys);
+  const rows = takesOfExercise(exercise.id, asTeacher ? undefined : user.id);
+  const students = asTeacher
+    ? studentsOfExercise(exercise).map((s) => {
+        const progress = progressByKey(exercise.keys, rows.filter((r) => r.studentId === s.id));
+        return { id: s.id, name: s.name, progress, done: isDone(progress) };
+      })
+    : [];
+  const mine = asTeacher ? null : progressByKey(exercise.keys, rows);
+  return {
+    asTeacher,
+    exercise: {
+      id: exercise.id,
+      title: exercise.title,
+      keys: exercise.keys,
+      progression: exercise.progression,
+      focusTechniques: exercise.focusTechniques,
+      tempo: exercise.tempo,
+      dueDate: exercise.dueDate,
+      instructions: exercise.instructions,
+      assignedTo: exercise.assignedTo,
+      archived: exercise.archivedAt !== null,
+      modelStart: exercise.modelStart ?? null,
+    },
+    expanded: check.ok ? check.keys : [],
+    modelTake: await modelTakeNotes(exercise),
+    students,
+    mine,
+  };
+}
+
+const startSchema = z.object({ notes: z.string().regex(/^\d{1,3}(,\d{1,3}){1,7}$/, "Pick two to eight keys.") });
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+  const done = async (message: string) =>
+    redirect(`/exercises/${exercise.id}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  // The model take arrives as multipart; the parser reads the body, so its intent is in the URL.
+  if (new URL(request.url).searchParams.get("intent") === "model-take") {
+    const error = await storeModelTake(request, exercise);
+    if (error) return data({ error }, { status: 400 });
+    return done("Model take attached.");
+  }
+  const form = await request.formData();
+  const intent = String(form.get("intent") ?? "");
+  if (intent === "archive" || intent === "unarchive") {
+    setArchived(exercise.id, intent === "archive");
+    return done(intent === "archive" ? "Exercise archived: students no longer see it as due." : "Exercise brought back.");
+  }
+  if (intent === "remove-model-take") {
+    await removeModelTake(exercise);
+    return done("Model take removed.");
+  }
+  if (intent === "model-start") {
+    const parsed = startSchema.safeParse({ notes: form.get("notes") });
+    if (!parsed.success) return data({ error: parsed.error.issues[0].message }, { status: 400 });
+    const notes = parsed.data.notes.split(",").map(Number).sort((a, b) => a - b);
+    const first = targetChordsInKey(exercise.progression, exercise.keys, exercise.keys[0])[0];
+    if (notes.some((n) => n < 21 || n > 108) || !fitsFirstChord(notes, first)) {
+      return data({ error: `The starting voicing must use exactly the tones of ${pretty(first.symbol)}.` }, { status: 400 });
+    }
+    db().update(exercises).set({ modelStart: notes }).where(eq(exercises.id, exercise.id)).run();
+    return done("Starting voicing saved; the model answer follows from it.");
+  }
+  return data({ error: "Nothing to do." }, { status: 400 });
+}
+
+export default function ExercisePage({ loaderData, actionData }: Route.ComponentProps) {
+  const { exercise, asTeacher, expanded, students, mine, modelTake } = loaderData;
+  const navigation = useNavigation();
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        title={exercise.title}
+        lead={`${exercise.keys.length === 12 ? "All twelve keys" : exercise.keys.map(pretty).join(", ")}${exercise.archived ? " · archived" : ""}`}
+        actions={
+          asTeacher ? (
+            <>
+              <ButtonLink to={`/exercises/${exercise.id}/edit`} variant="secondary">Edit</ButtonLink>
+              <Form method="post">
+                <input type="hidden" name="intent" value={exercise.archived ? "unarchive" : "archive"} />
+                <Button variant="secondary">{exercise.archived ? "Bring back" : "Archive"}</Button>
+              </Form>
+            </>
+          ) : null
+        }
+      />
+      {actionData && "error" in actionData ? <FlashMessage tone="error">{actionData.error}</FlashMessage> : null}
+      <ExerciseFacts exercise={exercise} expanded={expanded} />
+
+      <Card title="Model answer">
+        <ModelAnswer progression={exercise.progression} keys={exercise.keys} start={exercise.modelStart} tempo={exercise.tempo} canEdit={asTeacher} modelTake={modelTake} />
+        {asTeacher ? (
+          <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-line pt-4">
+            <Form method="post" action="?intent=model-take" encType="multipart/form-data" className="flex flex-wrap items-end gap-2">
+              <label className="flex flex-col gap-1 text-sm">
+                <span className="font-semibold">{modelTake ? "Replace the model take" : "Attach a model take of your own"}</span>
+                <input type="file" name="file" accept=".mid,.midi,audio/midi" required className="text-sm" />
+              </label>
+              <Button variant="secondary" pending={navigation.state === "submitting"}>Attach</Button>
+            </Form>
+            {modelTake ? (
+              <Form method="post">
+                <input type="hidden" name="intent" value="remove-model-take" />
+                <Button variant="quiet">Remove model take</Button>
+              </Form>
+            ) : null}
+          </div>
+        ) : null}
+      </Card>
+
+      {asTeacher ? (
+        <Card title="Takes handed in">
+          <KeyProgressTable keys={exercise.keys} rows={students} />
+        </Card>
+      ) : (
+        <Card title="Your takes">
+          <KeyProgressTable keys={exercise.keys} rows={[{ id: "me", name: "You", progress: mine ?? [], done: isDoneClient(mine) }]} />
+          {!exercise.archived ? (
+            <div className="mt-4 flex flex-wrap gap-2">
+              {exercise.keys.map((k) => (
+                <Link key={k} to={`/takes/new?exercise=${exercise.id}&key=${encodeURIComponent(k)}`} className={buttonClass("primary")}>
+                  Upload or record in {pretty(k)}
+                </Link>
+              ))}
+            </div>
+          ) : null}
+        </Card>
+      )}
+      <PracticeCare />
+    </div>
+  );
+}
+
+function isDoneClient(progress: Array<{ takes: Array<{ status: string }> }> | null) {
+  return !!progress && progress.every((p) => p.takes.some((t) => t.status === "analysed"));
+}
