@@ -6,6 +6,7 @@ import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
+import { RecordPanel } from "~/components/record/RecordPanel";
 import { ExerciseKeyFields } from "~/components/take/ExerciseKeyFields";
 import { UploadRows } from "~/components/take/UploadRows";
 import { uploadTakesFromForm } from "~/lib/takeUpload.server";
@@ -182,6 +183,8 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
               </div>
             </div>
           </Card>
+          {/* Reads this form's exercise, key and note when it uploads (issue 9). */}
+          <RecordPanel />
         </div>
       </form>
       <PracticeCare />
