@@ -132,6 +132,29 @@ describe("sign-in and sign-out", () => {
   });
 });
 
+describe("sessions and verification links", () => {
+  it("ignores a session whose row has expired", async () => {
+    const user = makeUser("dara@tidewater.example");
+    const jar = await signIn(login, user.email);
+    expect(await getSessionUser(get("/home", jar))).not.toBeNull();
+    db().update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).run();
+    expect(await getSessionUser(get("/home", jar))).toBeNull();
+  });
+
+  it("sends a fresh verification link on request; the older one stops working", async () => {
+    await call(signup.action, post("/signup", teacherForm));
+    const jar = new CookieJar().take((await call(login.action, post("/login", { email: teacherForm.email, password: teacherForm.password }))).headers);
+    const first = linkIn(mail.latestTo("ines@tidewater.example"));
+    const resent = await call(verify.action, post("/verify", {}, jar));
+    expect(resent.location).toBe("/settings");
+    const second = linkIn(mail.latestTo("ines@tidewater.example"));
+    expect(second).not.toBe(first);
+    expect((await call(verify.loader, get(first))).status).toBe(410);
+    expect((await call(verify.loader, get(second))).status).toBe(302);
+    expect((await getSessionUser(get("/home", jar)))?.emailVerified).toBe(true);
+  });
+});
+
 describe("throttling failed sign-ins", () => {
   const attempt = (password: string, address = "203.0.113.7") =>
     call(login.action, post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }));
