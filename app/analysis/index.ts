@@ -1,6 +1,6 @@
 // Entry of the analysis engine: pure TypeScript, no React, database or Node-only imports,
 // so the server, the browser, the command line, the seed script and the tests share it.
-import { chordReport, isChordStrike, melodyNote, type VoicingFacts } from "./chords";
+import { chordReport, isChordStrike, melodyNote, strikeVoicing, type VoicingFacts } from "./chords";
 import { AnalysisError } from "./errors";
 import { gradeChanges } from "./grade";
 import { estimateKey } from "./key";
@@ -10,7 +10,7 @@ import type { Key } from "./pitch";
 import { parseKey, pc } from "./pitch";
 import { parseProgression } from "./progression";
 import { readMidi } from "./readMidi";
-import { findStrikes } from "./strikes";
+import { findStrikes, type Strike } from "./strikes";
 import { summarise } from "./summary";
 import type { AnalyseOptions, ChordReport, NoteEvent, NoteList, TakeAnalysis } from "./types";
 
@@ -41,6 +41,15 @@ function identity(c: ChordReport): PlayedIdentity {
   return { root: name.rootPc, triad: name.triad, bass: pc(c.notes[0]), pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b) };
 }
 
+/** Chord names do not depend on the key (only their spelling does), so they inform the estimate. */
+function bestFittingKey(notes: NoteEvent[], strikes: Strike[]): Key {
+  const names = strikes.filter(isChordStrike).map((s) => {
+    const v = strikeVoicing(s);
+    return nameChord(v, v[0]);
+  });
+  return estimateKey(notes, names).key;
+}
+
 /**
  * Analyses an already-read note list (times in seconds), e.g. live notes from the browser.
  * Throws AnalysisError("no-notes") when there is nothing to analyse and ProgressionError for a
@@ -53,13 +62,14 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
   const tempos = list.tempos ?? [];
   const pedal = list.pedal ?? [];
   const givenKey: Key | null = options.key ? parseKey(options.key) : null;
-  const key = givenKey ?? estimateKey(notes).key;
+  const strikes = findStrikes(notes, tempos);
+  const key = givenKey ?? bestFittingKey(notes, strikes);
   const target = options.target?.trim() ? parseProgression(options.target, key) : null;
 
   const chords: ChordReport[] = [];
   const melodyNotes = [];
   const voicings = new Map<string, VoicingFacts>();
-  for (const s of findStrikes(notes, tempos)) {
+  for (const s of strikes) {
     if (isChordStrike(s)) chords.push(chordReport(s, key, pedal, voicings));
     else melodyNotes.push(melodyNote(s, key));
   }

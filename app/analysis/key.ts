@@ -4,8 +4,15 @@
 // Source: C. L. Krumhansl, *Cognitive Foundations of Musical Pitch* (Oxford, 1990), ch. 4, using
 // the probe-tone profiles of Krumhansl & Kessler (1982). The profile values below are written
 // from memory of that table (they are widely reproduced) and rounded to two decimals.
+//
+// Short looped exercises fool the profile alone (a ii–V–i in G minor correlates best with D
+// major), so we add evidence from the chords, a heuristic of our own with no published source:
+// the share of chords diatonic to the key, the share that are its tonic triad, and a tonic
+// triad ending (or, half as much, opening) the take. Weights were chosen on our generated demo
+// takes: 46 of 57 keys right instead of 38 with the profile alone.
 import type { Key } from "./pitch";
 import { parseKey, pc } from "./pitch";
+import type { ChordName, Triad } from "./types";
 
 const MAJOR_PROFILE = [6.35, 2.23, 3.48, 2.33, 4.38, 4.09, 2.52, 5.19, 2.39, 3.66, 2.29, 2.88];
 const MINOR_PROFILE = [6.33, 2.68, 3.52, 5.38, 2.6, 3.53, 2.54, 4.75, 3.98, 2.69, 3.34, 3.17];
@@ -28,10 +35,36 @@ function correlation(x: number[], y: number[]): number {
   return dx === 0 || dy === 0 ? 0 : num / Math.sqrt(dx * dy);
 }
 
-export type KeyEstimate = { key: Key; correlation: number };
+/** Triads diatonic to each mode: [semitones above the tonic, triad]; minor with both v and V. */
+const DIATONIC: Record<"major" | "minor", Array<[number, Triad]>> = {
+  major: [[0, "major"], [2, "minor"], [4, "minor"], [5, "major"], [7, "major"], [9, "minor"], [11, "diminished"]],
+  minor: [[0, "minor"], [2, "diminished"], [3, "major"], [5, "minor"], [7, "minor"], [7, "major"], [8, "major"], [10, "major"], [11, "diminished"]],
+};
+export const CHORD_EVIDENCE_WEIGHTS = { diatonic: 0.5, tonic: 0.3, ending: 0.1 };
 
-/** Weights each note by its length (at least 50 ms, so a staccato take still counts). */
-export function estimateKey(notes: Array<{ midi: number; start: number; end: number }>): KeyEstimate {
+export type KeyEstimate = { key: Key; correlation: number; score: number };
+
+function chordEvidence(tonic: number, mode: "major" | "minor", chords: ChordName[]): number {
+  const named = chords.filter((c) => c.rootPc !== null && c.triad !== null);
+  if (named.length === 0) return 0;
+  const isTonic = (c: ChordName) => c.rootPc === tonic && c.triad === (mode === "major" ? "major" : "minor");
+  // A sus chord counts as diatonic on any diatonic root: its missing 3rd cannot clash.
+  const isDiatonic = (c: ChordName) =>
+    DIATONIC[mode].some(([iv, triad]) => pc(tonic + iv) === c.rootPc && (triad === c.triad || c.triad === "sus2" || c.triad === "sus4"));
+  const w = CHORD_EVIDENCE_WEIGHTS;
+  return (
+    (w.diatonic * named.filter(isDiatonic).length) / named.length +
+    (w.tonic * named.filter(isTonic).length) / named.length +
+    w.ending * (isTonic(named[named.length - 1]) ? 1 : 0) +
+    (w.ending / 2) * (isTonic(named[0]) ? 1 : 0)
+  );
+}
+
+/**
+ * Weights each note by its length (at least 50 ms, so a staccato take still counts) and adds
+ * the chord evidence when the take's chords are given.
+ */
+export function estimateKey(notes: Array<{ midi: number; start: number; end: number }>, chords: ChordName[] = []): KeyEstimate {
   const weights = new Array<number>(12).fill(0);
   for (const n of notes) weights[pc(n.midi)] += Math.max(0.05, n.end - n.start);
   let best: KeyEstimate | null = null;
@@ -40,10 +73,11 @@ export function estimateKey(notes: Array<{ midi: number; start: number; end: num
       const profile = mode === "major" ? MAJOR_PROFILE : MINOR_PROFILE;
       const rotated = weights.map((_, i) => profile[(i - tonic + 12) % 12]);
       const r = correlation(weights, rotated);
+      const score = r + chordEvidence(tonic, mode, chords);
       // Strictly greater: on a tie the earlier candidate (major before its minor) stays.
-      if (!best || r > best.correlation + 1e-12) {
+      if (!best || score > best.score + 1e-12) {
         const name = mode === "major" ? MAJOR_NAMES[tonic] : MINOR_NAMES[tonic];
-        best = { key: parseKey(name), correlation: r };
+        best = { key: parseKey(name), correlation: r, score };
       }
     }
   }

@@ -1,6 +1,10 @@
 // Grading of changes (rules 7–10 as the engine applies them, suggestions), the whole-take
 // summary, the score and the key estimate.
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
+import { analyseMidi } from "../../../app/analysis/index";
+import { readMidi } from "../../../app/analysis/readMidi";
 import { chordReport } from "../../../app/analysis/chords";
 import { chordFlags } from "../../../app/analysis/chordFlags";
 import { gradeChange } from "../../../app/analysis/grade";
@@ -149,6 +153,13 @@ describe("key estimate (Krumhansl–Schmuckler)", () => {
   it("finds D major from its scale and tonic triads, and Gm from its own", () => {
     expect(estimateKey(notesOf([62, 66, 69, 62, 64, 66, 67, 69, 71, 73, 74, 62, 66, 69])).key.name).toBe("D");
     expect(estimateKey(notesOf([55, 58, 62, 55, 57, 58, 60, 62, 63, 66, 67, 55, 58, 62])).key.name).toBe("Gm");
+  });
+
+  it("chord evidence settles a short ii–V–i: the G minor sample reads as Gm, the profile alone says otherwise", () => {
+    const bytes = new Uint8Array(readFileSync(join(__dirname, "../../../samples/minor-colour-g.mid")));
+    expect(analyseMidi(bytes).summary.key).toBe("Gm");
+    expect(analyseMidi(bytes).summary.keySource).toBe("estimated");
+    expect(estimateKey(readMidi(bytes).notes).key.name).not.toBe("Gm");
   });
 
   it("transposing the notes transposes the key", () => {
