@@ -246,3 +246,26 @@ export function repliesSince(studioId: string, since: Date) {
     .orderBy(comments.createdAt)
     .all();
 }
+
+/**
+ * Everything the take page shows of feedback, for one viewer. Opening the page counts as
+ * reading its comments (marking the take reviewed does not happen here: that is a button).
+ */
+export function takePageFeedback(viewer: { id: string }, take: { id: string; studentId: string; exerciseId: string | null }, asTeacher: boolean) {
+  const threads = commentThreads(take.id, viewer.id);
+  markRead(viewer.id, take.id);
+  const focus = take.exerciseId
+    ? (db().select({ f: exercises.focusTechniques }).from(exercises).where(eq(exercises.id, take.exerciseId)).get()?.f ?? [])
+    : [];
+  return {
+    asTeacher,
+    canReply: asTeacher || viewer.id === take.studentId,
+    threads,
+    intended: intendedFlagList(take.id),
+    review: asTeacher ? reviewOf(take.id) : null,
+    score: db().select({ score: takeMetrics.score }).from(takeMetrics).where(eq(takeMetrics.takeId, take.id)).get()?.score ?? null,
+    focusTechniques: focus,
+  };
+}
+
+export type TakePageFeedback = ReturnType<typeof takePageFeedback>;
