@@ -1,9 +1,9 @@
-import { and, eq, ne } from "drizzle-orm";
+import { and, eq, gt, ne } from "drizzle-orm";
 import { z } from "zod";
 import { hashPassword, spendPasswordCheck, verifyPassword } from "~/auth/password.server";
 import { consumeUserToken, issueUserToken } from "~/auth/tokens.server";
 import { db } from "~/db/client.server";
-import { memberships, sessions, studios, users, type User } from "~/db/schema";
+import { memberships, sessions, studios, userTokens, users, type User } from "~/db/schema";
 import { sendMail } from "~/lib/mail.server";
 import { resetPasswordMail, verifyEmailMail } from "~/lib/mailTemplates.server";
 
@@ -78,10 +78,25 @@ export function verifyEmailToken(token: string): string | null {
   return check.userId;
 }
 
+export const RESET_MAIL_INTERVAL_MS = 60 * 1000;
+
 /** Mails a reset link when the address is known; the caller answers the same way either way. */
-export async function requestPasswordReset(email: string) {
+export async function requestPasswordReset(email: string, now = new Date()) {
   const user = findUserByEmail(email);
   if (!user) return;
+  // One reset mail a minute per person: the form cannot be used to flood an inbox.
+  const recent = db()
+    .select({ id: userTokens.id })
+    .from(userTokens)
+    .where(
+      and(
+        eq(userTokens.userId, user.id),
+        eq(userTokens.purpose, "reset-password"),
+        gt(userTokens.createdAt, new Date(now.getTime() - RESET_MAIL_INTERVAL_MS)),
+      ),
+    )
+    .get();
+  if (recent) return;
   const token = issueUserToken(user.id, "reset-password");
   await sendMail(resetPasswordMail(user.email, user.name, token));
 }

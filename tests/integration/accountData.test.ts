@@ -72,7 +72,12 @@ describe("password reset", () => {
     expect(again.status).toBe(410);
     expect((await call(reset.loader, get(link))).status).toBe(410);
 
+    // Asking again within a minute answers the same but sends nothing more.
+    db().update(userTokens).set({ createdAt: new Date(Date.now() - 2 * 60 * 1000) }).where(eq(userTokens.userId, user.id)).run();
     await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
+    const sentBefore = mail.all().length;
+    expect((await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).status).toBe(200);
+    expect(mail.all()).toHaveLength(sentBefore);
     const late = new URL("http://x" + linkIn(mail.latestTo("dara@tidewater.example"))).searchParams.get("token")!;
     db().update(userTokens).set({ expiresAt: new Date(Date.now() - 1) }).where(eq(userTokens.userId, user.id)).run();
     expect((await call(reset.action, post("/reset-password", { token: late, password: "yet-another-password", confirm: "yet-another-password" }))).status).toBe(410);
