@@ -137,6 +137,7 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await expect(motions.last()).toHaveAttribute("data-best", "3");
   await expect(panel.getByTestId("live-chord").last().getByTestId("live-flag")).toHaveText("Whole hand jumped");
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
+  await panel.screenshot({ path: "test-results/record-graded-live.png" });
 
   await panel.getByRole("button", { name: "Stop" }).click();
   await expect(panel.getByTestId("record-status")).toContainText("Recording finished");

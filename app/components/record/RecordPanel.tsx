@@ -3,7 +3,7 @@ import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { UploadRows } from "~/components/take/UploadRows";
 import { clampBpm } from "~/lib/midiEncode";
-import { clock } from "~/lib/noteText";
+import { clock, pretty } from "~/lib/noteText";
 import { takePlan } from "~/lib/playbackPlan";
 import { createPlayer, type Player } from "~/lib/synth.client";
 import type { TakeFields } from "~/lib/uploadTake.client";
@@ -21,6 +21,8 @@ type Props = {
   exerciseId?: string;
   /** the exercise's key, for live chord names; without it the key is worked out from the notes */
   exerciseKey?: string;
+  /** all of the exercise's keys: with more than one, the panel lets the student pick */
+  exerciseKeys?: string[];
   /** the exercise's tempo: metronome and count-in */
   tempo?: number | null;
   onUploaded?: (takeId: string) => void;
@@ -44,8 +46,9 @@ function formFields(el: HTMLElement | null): TakeFields {
  * Record a take from a MIDI keyboard, graded chord by chord while playing, then play it back,
  * discard it or upload it as a Standard MIDI File through the same API as a file upload.
  */
-export function RecordPanel({ exerciseId, exerciseKey, tempo, onUploaded, uploadHref = "/takes/new" }: Props) {
+export function RecordPanel({ exerciseId, exerciseKey, exerciseKeys, tempo, onUploaded, uploadHref = "/takes/new" }: Props) {
   const root = useRef<HTMLDivElement>(null);
+  const [chosenKey, setChosenKey] = useState<string | undefined>(exerciseKey ?? exerciseKeys?.[0]);
   const [settings, setSettings] = useState<TransportSettings>({ countIn: true, clicks: false, bpm: clampBpm(tempo ?? DEFAULT_RECORD_BPM) });
   const [keyName, setKeyName] = useState<string | undefined>(exerciseKey);
   const recording = useRecording({ keyName, bpm: settings.bpm, countIn: settings.countIn, clicks: settings.clicks });
@@ -60,7 +63,7 @@ export function RecordPanel({ exerciseId, exerciseKey, tempo, onUploaded, upload
 
   const fields = (): TakeFields => {
     const around = formFields(root.current);
-    return { exerciseId: exerciseId ?? around.exerciseId, key: exerciseKey ?? around.key, note: around.note };
+    return { exerciseId: exerciseId ?? around.exerciseId, key: chosenKey ?? around.key, note: around.note };
   };
 
   const record = () => {
@@ -100,6 +103,23 @@ export function RecordPanel({ exerciseId, exerciseKey, tempo, onUploaded, upload
           <AccessMessage status={midi.status} message={midi.message} uploadHref={uploadHref} onConnect={() => void midi.connect()} />
           {midi.status === "ready" ? (
             <>
+              {exerciseKeys && exerciseKeys.length > 1 ? (
+                <label className="flex flex-wrap items-center gap-2 text-sm">
+                  <span className="font-semibold">Key of this take</span>
+                  <select
+                    value={chosenKey}
+                    disabled={phase !== "idle"}
+                    onChange={(e) => setChosenKey(e.target.value)}
+                    className="rounded-md border border-line bg-white px-3 py-1.5 text-base shadow-inner focus:border-tide"
+                  >
+                    {exerciseKeys.map((k) => (
+                      <option key={k} value={k}>
+                        {pretty(k)}
+                      </option>
+                    ))}
+                  </select>
+                </label>
+              ) : null}
               <InputAndKeys inputs={midi.inputs} inputId={midi.inputId} onChoose={midi.choose} held={recording.held} disabled={running} />
               <Transport
                 phase={phase}
