@@ -44,19 +44,46 @@ export const CHORD_EVIDENCE_WEIGHTS = { diatonic: 0.5, tonic: 0.3, ending: 0.1 }
 
 export type KeyEstimate = { key: Key; correlation: number; score: number };
 
-function chordEvidence(tonic: number, mode: "major" | "minor", chords: ChordName[]): number {
-  const named = chords.filter((c) => c.rootPc !== null && c.triad !== null);
-  if (named.length === 0) return 0;
-  const isTonic = (c: ChordName) => c.rootPc === tonic && c.triad === (mode === "major" ? "major" : "minor");
+type ChordTally = { counts: Map<string, { rootPc: number; triad: Triad; n: number }>; total: number; first: ChordName | null; last: ChordName | null };
+
+/** Counts chords by root and triad once, so scoring 24 keys does not walk a long take 24 times. */
+function tally(chords: ChordName[]): ChordTally {
+  const counts: ChordTally["counts"] = new Map();
+  let total = 0;
+  let first: ChordName | null = null;
+  let last: ChordName | null = null;
+  for (const c of chords) {
+    if (c.rootPc === null || c.triad === null) continue;
+    const id = `${c.rootPc}:${c.triad}`;
+    const entry = counts.get(id);
+    if (entry) entry.n++;
+    else counts.set(id, { rootPc: c.rootPc, triad: c.triad, n: 1 });
+    total++;
+    first ??= c;
+    last = c;
+  }
+  return { counts, total, first, last };
+}
+
+function chordEvidence(tonic: number, mode: "major" | "minor", t: ChordTally): number {
+  if (t.total === 0) return 0;
+  const tonicTriad: Triad = mode === "major" ? "major" : "minor";
+  const isTonic = (c: { rootPc: number | null; triad: Triad | null } | null) => !!c && c.rootPc === tonic && c.triad === tonicTriad;
   // A sus chord counts as diatonic on any diatonic root: its missing 3rd cannot clash.
-  const isDiatonic = (c: ChordName) =>
-    DIATONIC[mode].some(([iv, triad]) => pc(tonic + iv) === c.rootPc && (triad === c.triad || c.triad === "sus2" || c.triad === "sus4"));
+  let diatonic = 0;
+  let tonicCount = 0;
+  for (const c of t.counts.values()) {
+    if (DIATONIC[mode].some(([iv, triad]) => pc(tonic + iv) === c.rootPc && (triad === c.triad || c.triad === "sus2" || c.triad === "sus4"))) {
+      diatonic += c.n;
+    }
+    if (isTonic(c)) tonicCount += c.n;
+  }
   const w = CHORD_EVIDENCE_WEIGHTS;
   return (
-    (w.diatonic * named.filter(isDiatonic).length) / named.length +
-    (w.tonic * named.filter(isTonic).length) / named.length +
-    w.ending * (isTonic(named[named.length - 1]) ? 1 : 0) +
-    (w.ending / 2) * (isTonic(named[0]) ? 1 : 0)
+    (w.diatonic * diatonic) / t.total +
+    (w.tonic * tonicCount) / t.total +
+    w.ending * (isTonic(t.last) ? 1 : 0) +
+    (w.ending / 2) * (isTonic(t.first) ? 1 : 0)
   );
 }
 
@@ -67,13 +94,14 @@ function chordEvidence(tonic: number, mode: "major" | "minor", chords: ChordName
 export function estimateKey(notes: Array<{ midi: number; start: number; end: number }>, chords: ChordName[] = []): KeyEstimate {
   const weights = new Array<number>(12).fill(0);
   for (const n of notes) weights[pc(n.midi)] += Math.max(0.05, n.end - n.start);
+  const chordTally = tally(chords);
   let best: KeyEstimate | null = null;
   for (let tonic = 0; tonic < 12; tonic++) {
     for (const mode of ["major", "minor"] as const) {
       const profile = mode === "major" ? MAJOR_PROFILE : MINOR_PROFILE;
       const rotated = weights.map((_, i) => profile[(i - tonic + 12) % 12]);
       const r = correlation(weights, rotated);
-      const score = r + chordEvidence(tonic, mode, chords);
+      const score = r + chordEvidence(tonic, mode, chordTally);
       // Strictly greater: on a tie the earlier candidate (major before its minor) stays.
       if (!best || score > best.score + 1e-12) {
         const name = mode === "major" ? MAJOR_NAMES[tonic] : MINOR_NAMES[tonic];
