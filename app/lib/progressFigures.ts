@@ -103,7 +103,7 @@ export const METRICS: Record<MetricId, MetricInfo> = {
   motionPerChange: { label: "Motion per change (semitones)", short: "Motion", higherIsBetter: false, format: (v) => v.toFixed(1) },
   leapsPer10: { label: "Root-position leaps per 10 changes", short: "Leaps/10", higherIsBetter: false, format: (v) => v.toFixed(1) },
   accuracy: { label: "Accuracy on exercises", short: "Accuracy", higherIsBetter: true, format: (v) => `${Math.round(v * 100)}%` },
-  practiceMinutes: { label: "Practice minutes", short: "Minutes", higherIsBetter: true, format: (v) => v.toFixed(0) },
+  practiceMinutes: { label: "Practice minutes", short: "Minutes", higherIsBetter: true, format: (v) => (v < 10 ? v.toFixed(1) : v.toFixed(0)) },
   takes: { label: "Takes", short: "Takes", higherIsBetter: true, format: (v) => v.toFixed(0) },
   changes: { label: "Chord changes", short: "Changes", higherIsBetter: true, format: (v) => v.toFixed(0) },
 };

@@ -30,6 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const q = parsed.query;
   const student = db().select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, params.studentId)).get()!;
   return {
+    timeZone: studioTimeZone(studioId),
     student,
     removed: membership.status === "removed",
     from: q.from,
@@ -112,7 +113,7 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
           empty={<EmptyState title="No takes yet">Takes appear here as soon as {d.student.name} uploads one.</EmptyState>}
           head={
             <tr>
-              <th className="px-4 py-2">Recorded</th>
+              <th className="px-4 py-2">Recorded ({d.timeZone})</th>
               <th className="px-4 py-2">Exercise</th>
               <th className="px-4 py-2 text-right">Score</th>
               <th className="px-4 py-2 text-right">Smoothness</th>
@@ -124,7 +125,7 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
             <tr key={t.id}>
               <td className="px-4 py-2">
                 <Link to={`/takes/${t.id}`} className="text-tide-dark hover:underline">
-                  {new Date(t.recordedAt).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" })} UTC
+                  {new Date(t.recordedAt).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: d.timeZone })}
                 </Link>
               </td>
               <td className="px-4 py-2">{t.status === "failed" ? <span className="text-brick">Could not be analysed</span> : (t.exerciseTitle ?? "Free practice")}</td>

@@ -31,6 +31,16 @@ const features = tableFeatures({
   filterFns: { includesString: filterFn_includesString, equalsString: filterFn_equalsString },
 });
 
+/** Short tags for the techniques column; the full name is the tooltip and what screen readers get. */
+const TECHNIQUE_SHORT: Record<(typeof TECHNIQUES)[number], string> = {
+  "added-second": "add2",
+  inversion: "inv",
+  "open-voicing": "open",
+  "slash-bass": "bass",
+  "grace-to-third": "grace",
+  "smooth-top-line": "top",
+};
+
 const col = createColumnHelper<typeof features, BoardRow>();
 
 /** A this-week metric with its change since last week; weeks without a value sort last. */
@@ -74,7 +84,17 @@ const columns = col.columns([
     sortFn: "basic",
     cell: (info) => {
       const used = TECHNIQUES.filter((t) => info.row.original.thisWeek.techniques[t] > 0);
-      return <span title={used.map((t) => TECHNIQUE_WORDS[t].label).join(", ") || "none this week"}>{used.length ? used.map((t) => TECHNIQUE_WORDS[t].label).join(", ") : "–"}</span>;
+      if (!used.length) return "–";
+      return (
+        <span className="inline-flex flex-wrap gap-1">
+          {used.map((t) => (
+            <span key={t} title={TECHNIQUE_WORDS[t].label} className="rounded bg-tide-pale px-1 text-xs text-tide-dark">
+              <span aria-hidden="true">{TECHNIQUE_SHORT[t]}</span>
+              <span className="sr-only">{TECHNIQUE_WORDS[t].label}</span>
+            </span>
+          ))}
+        </span>
+      );
     },
   }),
   col.accessor((r) => r.lastTakeAt ?? "", {
@@ -85,8 +105,8 @@ const columns = col.columns([
   }),
   col.display({
     id: "trend",
-    header: "Score, 8 weeks",
-    cell: (info) => <Sparkline values={info.row.original.trend} label={`${info.row.original.name}'s mean score over 8 weeks`} />,
+    header: "Trend",
+    cell: (info) => <Sparkline width={72} values={info.row.original.trend} label={`${info.row.original.name}'s mean score over 8 weeks`} />,
   }),
 ]);
 

@@ -50,7 +50,7 @@ export function ReportSheet({
         ))}
       </section>
 
-      <section className="report-block">
+      <section className={summary ? "report-block" : "report-block no-print"}>
         <h2 className="mb-2 text-lg font-semibold">From the teacher</h2>
         {summary ? (
           <p className="whitespace-pre-wrap">{summary}</p>

@@ -1,0 +1,66 @@
+import { readFileSync } from "node:fs";
+import { parse } from "csv-parse/sync";
+import { expect, signIn, test } from "./fixtures";
+
+test("the demo teacher sorts the board, switches the chart in place, downloads the CSV and opens a report", async ({ page }) => {
+  await signIn(page, "ines@tidewater.example");
+  await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Board" }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "Progress board" })).toBeVisible();
+  const board = page.getByRole("table", { name: /this week's figures per student/i });
+  await expect(board.getByRole("row")).toHaveCount(1 + 6); // header + the six demo students
+
+  // Sort by smoothness: numeric columns sort descending first; students with no value this week go last.
+  await board.getByRole("button", { name: /smooth/i }).click();
+  await expect(board.getByRole("columnheader", { name: /smooth/i })).toHaveAttribute("aria-sort", "descending");
+  const smoothCells = await board.locator("tbody tr td:nth-child(6)").allInnerTexts();
+  const values = smoothCells.map((t) => (/^(\d+)%/.exec(t.trim()) ? Number(/^(\d+)%/.exec(t.trim())![1]) : null));
+  const present = values.filter((v): v is number => v !== null);
+  expect(present.length).toBeGreaterThan(0);
+  expect(present).toEqual([...present].sort((a, b) => b - a));
+  expect(values.slice(present.length).every((v) => v === null)).toBe(true);
+
+  // Filtering by name narrows the rows.
+  await page.getByRole("searchbox").fill("Dara");
+  await expect(board.locator("tbody tr")).toHaveCount(1);
+  await page.getByRole("searchbox").fill("");
+
+  // Switch the chart's metric: JSON from /api/progress, a redraw, no navigation.
+  await page.evaluate(() => ((window as unknown as { boardMarker: string }).boardMarker = "still here"));
+  const caption = page.getByTestId("chart-caption");
+  await expect(caption).toContainText("Mean score per week");
+  await expect(page.locator(".recharts-line").first()).toBeVisible();
+  const apiCall = page.waitForResponse((r) => r.url().includes("/api/progress?") && r.status() === 200);
+  await page.getByLabel("Metric").selectOption("smoothness");
+  await apiCall;
+  await expect(caption).toContainText("Smoothness per week");
+  await expect(page).toHaveURL(/metric=smoothness/);
+  expect(await page.evaluate(() => (window as unknown as { boardMarker?: string }).boardMarker)).toBe("still here");
+  // The screen-reader table follows the chart: percentages now, not scores.
+  await page.getByText("Show the chart as a table").click();
+  await expect(page.getByRole("table", { name: /smoothness per week/i }).getByRole("cell").first()).toContainText(/%|–/);
+
+  // Download the CSV for the current choice: one row per student per week of the range.
+  const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download CSV" }).click()]);
+  expect(download.suggestedFilename()).toMatch(/^nearnote-progress-\d{4}-\d{2}-\d{2}-to-\d{4}-\d{2}-\d{2}\.csv$/);
+  const records: Record<string, string>[] = parse(readFileSync(await download.path()), { columns: true });
+  const students = new Set(records.map((r) => r.student_id));
+  const weeks = new Set(records.map((r) => r.week));
+  expect(students.size).toBe(6);
+  expect(weeks.size).toBe(12);
+  expect(records.length).toBe(students.size * weeks.size);
+  expect(records.some((r) => Number(r.takes) > 0 && Number(r.smoothness) > 0)).toBe(true);
+
+  // Open a student's printable report from their page.
+  await board.getByRole("link", { name: "Dara Okafor" }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "Dara Okafor" })).toBeVisible();
+  await page.getByRole("link", { name: "Printable report" }).click();
+  await expect(page.getByRole("article", { name: "Dara Okafor" })).toBeVisible();
+  await page.getByLabel(/a few sentences/i).fill("Dara's changes got much smoother this term; next, open voicings in A♭.");
+  await page.getByRole("button", { name: "Save report" }).click();
+  await expect(page).toHaveURL(/report=/);
+  await expect(page.getByRole("article")).toContainText("open voicings in A♭");
+  // In print, the controls disappear and the sheet stays.
+  await page.emulateMedia({ media: "print" });
+  await expect(page.getByRole("button", { name: /save as a new version/i })).toBeHidden();
+  await expect(page.getByRole("article")).toBeVisible();
+});
