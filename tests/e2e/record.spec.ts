@@ -181,6 +181,8 @@ test("a recording in progress asks before the tab is closed", async ({ page }) =
   await panel.getByLabel("Count in one bar").uncheck();
   await panel.getByRole("button", { name: "Record" }).click();
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
+  // The keyboard used is remembered for the next visit.
+  expect(await page.evaluate(() => localStorage.getItem("nearnote.recorder.input"))).toBe(JSON.stringify({ id: "scripted-1", name: "Scripted keyboard" }));
   await page.evaluate((events) => window.__fakeMidi.play(events), chord(0, [62, 66, 69], 300));
   await expect(panel.getByTestId("live-chord-symbol")).toHaveText(["D"]);
   await page.screenshot({ path: "test-results/record-live.png", fullPage: true });

@@ -72,6 +72,7 @@ export function RecordPanel({ exerciseId, exerciseKey, exerciseKeys, tempo, onUp
     sender.reset();
     setConfirmDiscard(false);
     setKeyName(fields().key);
+    midi.remember();
     void recording.start();
   };
 

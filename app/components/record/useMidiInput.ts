@@ -96,5 +96,11 @@ export function useMidiInput(onEvent: (event: PlayedEvent, timeMs: number) => vo
     [inputs],
   );
 
-  return { status, message, inputs, inputId, connect, choose };
+  /** Remembers the keyboard a take was recorded from, for next time. */
+  const remember = useCallback(() => {
+    const input = inputs.find((i) => i.id === inputId);
+    if (input) rememberInput(input);
+  }, [inputs, inputId]);
+
+  return { status, message, inputs, inputId, connect, choose, remember };
 }
