@@ -168,6 +168,30 @@ describe("invitations", () => {
     expect((await getSessionUser(get("/home", daraJar)))?.active?.studioName).toBe("Harbour Lights");
   });
 
+  it("brings a removed student back when they accept a new invitation while signed in, without a password", async () => {
+    const { studio, jar } = await studioWithOwner();
+    const dara = makeUser("dara@tidewater.example", "Dara Okafor");
+    join(studio.id, dara.id, "student");
+    await call(students.action, post("/students", { intent: "remove", studentId: dara.id }, jar));
+    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    const link = linkIn(mail.latestTo("dara@tidewater.example"));
+    const daraJar = await signIn(login, dara.email);
+    expect((await call(invite.loader, get(link, daraJar), { token: tokenOf(link) })).data).toMatchObject({ signedInAs: "dara@tidewater.example", hasAccount: true });
+    const joined = await call(invite.action, post(link, { intent: "join" }, daraJar), { token: tokenOf(link) });
+    expect(joined.status).toBe(302);
+    expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({ status: "active", removedAt: null, role: "student" });
+  });
+
+  it("refuses to let someone signed in as another person accept", async () => {
+    const { jar } = await studioWithOwner();
+    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    const link = linkIn(mail.latestTo("dara@tidewater.example"));
+    const refused = await call(invite.action, post(link, { intent: "create", name: "Ines", password: "a-good-password", confirm: "a-good-password" }, jar), { token: tokenOf(link) });
+    expect(refused.status).toBe(403);
+    expect((refused.data as { formError: string }).formError).toMatch(/This invitation is for dara@tidewater\.example/);
+    expect((await call(invite.loader, get(link), { token: tokenOf(link) })).status).toBe(200);
+  });
+
   it(`stops at ${DAILY_INVITATION_LIMIT} invitation mails a day per studio`, async () => {
     const { jar } = await studioWithOwner();
     const many = Array.from({ length: DAILY_INVITATION_LIMIT - 1 }, (_, i) => `student${i}@tidewater.example`).join(",");
