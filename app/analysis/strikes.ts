@@ -81,8 +81,6 @@ export function findGraces(notes: NoteEvent[], tempos: TempoPoint[] = []): Map<N
 /** Rules 1 and 2: groups notes (sorted by onset) into strikes. */
 export function groupStrikes(sorted: NoteEvent[], graces: Map<NoteEvent, NoteEvent>): Strike[] {
   const owner = new Map<NoteEvent, Strike>();
-  const graceOf = new Map<NoteEvent, NoteEvent>();
-  for (const [g, t] of graces) graceOf.set(t, g);
   const strikes: Strike[] = [];
   let current: Strike | null = null;
   let lastOnset = -Infinity;
@@ -124,10 +122,8 @@ function distinctPitches(notes: NoteEvent[]): number[] {
 /** Rule 3, second half: a lone bass just before or just after a chord joins it. */
 export function mergeSeparateBass(strikes: Strike[]): Strike[] {
   const out: Strike[] = [];
-  const merged = new Set<Strike>();
   for (let i = 0; i < strikes.length; i++) {
     const s = strikes[i];
-    if (merged.has(s)) continue;
     const pitches = distinctPitches(s.notes);
     if (pitches.length === 1 && s.graces.length === 0) {
       const next = strikes[i + 1];
@@ -173,7 +169,11 @@ export function addHeldNotes(strikes: Strike[]): void {
 
 /** All of rules 1–3 over a note list. */
 export function findStrikes(notes: NoteEvent[], tempos: TempoPoint[] = []): Strike[] {
-  const sorted = [...notes].sort((a, b) => a.start - b.start || a.midi - b.midi);
+  // A full order (the same key from two tracks ties on start and pitch), so that the input's
+  // order can never change the result.
+  const sorted = [...notes].sort(
+    (a, b) => a.start - b.start || a.midi - b.midi || a.end - b.end || a.velocity - b.velocity,
+  );
   const graces = findGraces(sorted, tempos);
   const strikes = mergeSeparateBass(groupStrikes(sorted, graces));
   addHeldNotes(strikes);
