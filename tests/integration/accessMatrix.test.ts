@@ -72,6 +72,10 @@ const EXPECTED: Record<string, Expectation> = {
   "api/takes/:takeId": { GET: ownedByA(401), POST: row(401, 204, 403, 403, 403, 403), actionMethod: "DELETE" },
   // The fixture take has no file on disk: whoever may see it is told the file is missing.
   "api/takes/:takeId/file": { GET: ownedByA(401, 404) },
+  // Take pages (issue 5): uploading is for students; a take's page for its student and the studio's teachers,
+  // changing it (move, replace, delete) for its student only.
+  "takes/new": { GET: row("login", 200, 200, 403, 403, 403), POST: row("login", 200, 200, 403, 403, 403) },
+  "takes/:takeId": { GET: ownedByA(), POST: row("login", 400, 403, 403, 403, 403) },
   // Progress board (issue 7): teachers of the studio only; :studentId is student A (a student does not open the teacher pages about themself).
   board: { GET: teachers(), POST: teachers(400) },
   "students/:studentId": { GET: row("login", 403, 403, 200, 200, 403) },
