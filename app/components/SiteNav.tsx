@@ -11,6 +11,7 @@ export function navItems(user: NavUser): Item[] {
   if (user.role === "student") {
     return [
       { to: "/home", label: "Practice" },
+      { to: "/exercises", label: "Exercises" },
       { to: "/takes/new", label: "Upload" },
       { to: "/settings", label: "Settings" },
     ];
@@ -18,6 +19,8 @@ export function navItems(user: NavUser): Item[] {
   if (user.role === null) return [{ to: "/home", label: "Home" }, { to: "/settings", label: "Settings" }];
   return [
     { to: "/home", label: "Studio" },
+    { to: "/exercises", label: "Exercises" },
+    { to: "/review", label: "Review" },
     { to: "/board", label: "Board" },
     { to: "/students", label: "Students" },
     { to: "/settings", label: "Settings" },

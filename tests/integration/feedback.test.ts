@@ -9,6 +9,7 @@ import { reanalyseTake } from "~/models/takes.server";
 import * as login from "~/routes/login";
 import * as feedback from "~/routes/takes.$takeId.feedback";
 import * as review from "~/routes/review";
+import * as home from "~/routes/home";
 import { useFreshApp } from "../support/setup";
 import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, signIn, useMailCatcher } from "./accountsKit";
 import { chordsMidi, formPost, uploadAnalysed } from "./exercisesKit";
@@ -88,6 +89,14 @@ describe("comments and replies", () => {
     const bad = await postFeedback(ines, { intent: "comment", changeIdx: "9", body: "Where?" });
     expect(bad.status).toBe(400);
     expect((await postFeedback(ines, { intent: "comment", body: "   " })).status).toBe(400);
+  });
+
+  it("shows the unread feedback on the student's home page, and the review count on the teacher's", async () => {
+    await postFeedback(ines, { intent: "comment", changeIdx: "2", body: "Big jump here." });
+    const student = (await call(home.loader, get("/home", dara))).data as { student: { unread: Array<{ takeId: string; count: number }> } };
+    expect(student.student.unread).toEqual([expect.objectContaining({ takeId: ids.take, count: 1 })]);
+    const teacher = (await call(home.loader, get("/home", ines))).data as { teacher: { toReview: number } };
+    expect(teacher.teacher.toReview).toBe(1);
   });
 
   it("sends no mail to a student who turned feedback mail off", async () => {
