@@ -54,3 +54,25 @@ describe("piano roll geometry", () => {
     expect(stepChange(null, "ArrowRight", 0)).toBeNull();
   });
 });
+
+describe("piano roll drawing helpers", () => {
+  it("draws many boxes as one path, rounded to a tenth of a pixel", async () => {
+    const { boxesPath } = await import("./pianoRoll");
+    expect(boxesPath([{ x: 0, y: 10, w: 20.04, h: 8 }, { x: 1.26, y: 0, w: 2, h: 3 }])).toBe("M0 10h20v8h-20zM1.3 0h2v3h-2z");
+    expect(boxesPath([])).toBe("");
+  });
+
+  it("finds the chord under a click by time, and none in the gaps", async () => {
+    const { chordAtTime } = await import("./pianoRoll");
+    const chords = [
+      { startSec: 0, endSec: 0.9 },
+      { startSec: 1, endSec: 1.9 },
+      { startSec: 3, endSec: 3.5 },
+    ];
+    expect(chordAtTime(chords, 0.5)).toBe(0);
+    expect(chordAtTime(chords, 1.2)).toBe(1);
+    expect(chordAtTime(chords, 2.5)).toBeNull();
+    expect(chordAtTime(chords, 3.54)).toBe(2);
+    expect(chordAtTime(chords, -1)).toBeNull();
+  });
+});

@@ -96,3 +96,30 @@ export function stepChange(current: number | null, key: string, changeCount: num
       return current;
   }
 }
+
+const r1 = (x: number) => Math.round(x * 10) / 10;
+
+/**
+ * Many same-looking boxes as one SVG path ("M x y h w v h h -w z" each), so a 10-minute take
+ * of 5,000 notes is a handful of elements, not thousands: the page renders and hydrates fast.
+ */
+export function boxesPath(boxes: Iterable<{ x: number; y: number; w: number; h: number }>): string {
+  let d = "";
+  for (const b of boxes) d += `M${r1(b.x)} ${r1(b.y)}h${r1(b.w)}v${r1(b.h)}h${r1(-b.w)}z`;
+  return d;
+}
+
+/** Index of the chord whose shaded span contains time t, or null (for clicks on the roll). */
+export function chordAtTime(chords: ReadonlyArray<{ startSec: number; endSec: number }>, t: number, slackSec = 0.05): number | null {
+  let lo = 0;
+  let hi = chords.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (chords[mid].startSec - slackSec <= t) lo = mid + 1;
+    else hi = mid;
+  }
+  const k = lo - 1;
+  if (k < 0) return null;
+  const end = Math.max(chords[k].endSec, chords[k].startSec + 0.12);
+  return t <= end + slackSec ? k : null;
+}

@@ -12,12 +12,16 @@ export const TECHNIQUE_WORDS: Record<TechniqueName, { label: string; text: strin
 };
 
 const INVERSION_WORDS = ["root position", "1st inversion", "2nd inversion", "3rd inversion"];
+const INVERSION_SHORT = ["root pos.", "1st inv.", "2nd inv.", "3rd inv."];
 
-/** "1st inversion", "root position", or "other bass" when the bass is not a chord tone by rule 5. */
-export function inversionWords(chord: Pick<ChordReport, "inversion" | "upperInversion" | "detachedBass">): string {
+/**
+ * "1st inversion", "root position", or "other bass" when the bass is not a chord tone (rule 5).
+ * Over a detached bass it names the hand's own inversion (`upperInversion`).
+ */
+export function inversionWords(chord: Pick<ChordReport, "inversion" | "upperInversion" | "detachedBass">, short = false): string {
   const inv = chord.detachedBass !== null && chord.upperInversion !== null ? chord.upperInversion : chord.inversion;
-  const words = inv === null ? "other bass" : (INVERSION_WORDS[inv] ?? "other bass");
-  return chord.detachedBass !== null && chord.upperInversion !== null ? `${words} over a bass` : words;
+  const words = short ? INVERSION_SHORT : INVERSION_WORDS;
+  return inv === null ? "other bass" : (words[inv] ?? "other bass");
 }
 
 /** One line per mismatch: "Chord 3: expected G, played Em." */

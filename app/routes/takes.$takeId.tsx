@@ -1,7 +1,8 @@
+import { useMemo } from "react";
 import { data, Link, redirect, useActionData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/takes.$takeId";
-import { deny, requireTakeAccess } from "~/auth/access.server";
+import { deny, isTeacherOfTake, requireTakeAccess } from "~/auth/access.server";
 import { buttonClass } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { FlashMessage } from "~/components/FlashMessage";
@@ -9,9 +10,16 @@ import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
 import { TakeAnalysisView } from "~/components/take/TakeAnalysisView";
 import { TakeManage } from "~/components/take/TakeManage";
+import { ChangeComments } from "~/components/feedback/ChangeComments";
+import { ExerciseGrading } from "~/components/feedback/ExerciseGrading";
+import { FeedbackPanel } from "~/components/feedback/FeedbackPanel";
+import { IntendedFlags } from "~/components/feedback/IntendedFlags";
+import { ReviewToggle } from "~/components/feedback/ReviewToggle";
+import { takePageFeedback } from "~/models/feedback.server";
 import { flashHeader } from "~/lib/flash.server";
 import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
+import { packNotes, unpackNotes } from "~/lib/packNotes";
 import { formatBytes } from "~/lib/uploadRows";
 import { deleteTake, getTakeView, listExercisesForStudent, moveTake } from "~/models/takes.server";
 
@@ -24,10 +32,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const view = await getTakeView(take.id);
   if (!view) throw data("There is no such take.", { status: 404 });
   const isOwner = user.id === take.studentId;
+  // Comments, intended flags and review state (issue 6); opening the page reads the comments.
+  const feedback = takePageFeedback(user, take, isTeacherOfTake(user, take));
   const exercises = isOwner
     ? listExercisesForStudent(user.id, take.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys }))
     : [];
-  return { view, isOwner, exercises };
+  // The notes go as a flat number list (see packNotes); the page unpacks them once.
+  const { notes, pedal: _pedal, ...rest } = view;
+  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback };
 }
 
 const moveSchema = z.object({
@@ -78,7 +90,8 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, isOwner, exercises } = loaderData;
+  const { view, packedNotes, isOwner, exercises, feedback } = loaderData;
+  const notes = useMemo(() => unpackNotes(packedNotes), [packedNotes]);
   const { take, analysis } = view;
   const actionData = useActionData<typeof action>();
   const error = actionData && "error" in actionData ? actionData.error : null;
@@ -100,6 +113,7 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
             <a href={`/api/takes/${take.id}/file`} className={buttonClass("secondary")} download>
               Download MIDI
             </a>
+            {feedback.asTeacher ? <ReviewToggle takeId={take.id} review={feedback.review} /> : null}
             {isOwner ? (
               <Link to="/takes/new" className={buttonClass("primary")}>
                 Upload another
@@ -115,7 +129,11 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       ) : null}
 
       {take.status === "analysed" && analysis ? (
-        <TakeAnalysisView analysis={analysis} notes={view.notes} durationSec={take.durationSec} />
+        <TakeAnalysisView analysis={analysis} notes={notes} durationSec={take.durationSec}
+          changeExtras={(i) => (
+            <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
+          )}
+        />
       ) : (
         <Card title={take.status === "failed" ? "This take could not be analysed" : "Waiting for analysis"}>
           <FlashMessage tone={take.status === "failed" ? "error" : "info"}>
@@ -135,6 +153,20 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
           </p>
         </Card>
       )}
+
+      {take.status === "analysed" && analysis && analysis.summary.accuracy !== undefined ? (
+        <Card title={`Against the exercise${take.exerciseTitle ? `: ${take.exerciseTitle}` : ""}`}>
+          <ExerciseGrading analysis={analysis} focusTechniques={feedback.focusTechniques} />
+        </Card>
+      ) : null}
+      {take.status === "analysed" && analysis ? (
+        <Card title="Flags">
+          <IntendedFlags takeId={take.id} analysis={analysis} marks={feedback.intended} asTeacher={feedback.asTeacher} score={feedback.score} />
+        </Card>
+      ) : null}
+      <Card title="Feedback">
+        <FeedbackPanel takeId={take.id} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
+      </Card>
 
       {isOwner ? (
         <Card title="Manage this take">

@@ -1,3 +1,4 @@
+import { readFileSync } from "node:fs";
 import path from "node:path";
 import { expect, signIn, test } from "./fixtures";
 
@@ -61,4 +62,130 @@ test("a student uploads two takes, reads one change by change and plays it", asy
   await page.getByRole("button", { name: "Stop" }).click();
   await expect(play).toHaveAttribute("aria-pressed", "false");
   await expect(page.getByTestId("playback-status")).not.toContainText("Playing");
+});
+
+/** The browser reports the API's own refusals as failed loads; those are the answers under test. */
+function allowRefusals(consoleErrors: string[], statuses: number[]) {
+  const expected = consoleErrors.filter((e) => statuses.some((s) => e.includes(`status of ${s}`)));
+  expect(expected).toHaveLength(statuses.length);
+  const others = consoleErrors.filter((e) => !expected.includes(e));
+  consoleErrors.length = 0;
+  consoleErrors.push(...others);
+}
+
+test("files the server refuses or cannot analyse each get their own answer", async ({ page, consoleErrors }) => {
+  await signIn(page, "dara@tidewater.example");
+  await page.goto("/takes/new");
+  await expect(page.getByRole("button", { name: /^Upload/ })).toBeDisabled();
+  const truncated = readFileSync(sample("held-bass-d.mid")).subarray(0, 40);
+  await page.getByLabel("MIDI files").setInputFiles([
+    // Text renamed .mid: no "MThd" signature, so 415 and nothing stored (Standard MIDI File 1.0 header chunk).
+    { name: "shopping-list.mid", mimeType: "audio/midi", buffer: Buffer.from("eggs, flour, milk\n") },
+    // A real header cut short inside its first track: stored as a failed take (422).
+    { name: "cut-short.mid", mimeType: "audio/midi", buffer: truncated },
+    // Not a MIDI name at all: refused in the browser before sending.
+    { name: "voice-memo.m4a", mimeType: "audio/mp4", buffer: Buffer.from("....") },
+  ]);
+  const rows = page.getByTestId("upload-row");
+  await expect(rows.nth(2)).toHaveAttribute("data-stage", "refused");
+  await expect(rows.nth(2)).toContainText("Only MIDI files");
+  await page.getByRole("button", { name: "Upload 2 takes" }).click();
+  await expect(rows.nth(0)).toHaveAttribute("data-stage", "refused");
+  await expect(rows.nth(0)).toContainText("not a MIDI file");
+  await expect(rows.nth(1)).toHaveAttribute("data-stage", "failed");
+  allowRefusals(consoleErrors, [415, 422]);
+
+  await rows.nth(1).getByRole("link", { name: "See the stored take" }).click();
+  await expect(page.getByRole("heading", { name: "This take could not be analysed" })).toBeVisible();
+  await expect(page.getByText("cut-short.mid")).toBeVisible();
+  await expect(page.getByRole("link", { name: "Download MIDI" })).toHaveAttribute("href", /\/api\/takes\/.+\/file$/);
+});
+
+test("the same file twice links to the take uploaded before", async ({ page, consoleErrors }) => {
+  await signIn(page, "dara@tidewater.example");
+  await page.goto("/takes/new");
+  const upload = page.getByRole("button", { name: /^Upload/ });
+  await expect(upload).toBeDisabled();
+  const rows = page.getByTestId("upload-row");
+  await page.getByLabel("MIDI files").setInputFiles(sample("clumsy-top-line-d.mid"));
+  await upload.click();
+  await expect(rows.nth(0)).toHaveAttribute("data-stage", "analysed");
+  await page.getByLabel("MIDI files").setInputFiles(sample("clumsy-top-line-d.mid"));
+  await page.getByRole("button", { name: "Upload" }).click();
+  await expect(rows.nth(1)).toHaveAttribute("data-stage", "duplicate");
+  allowRefusals(consoleErrors, [409]);
+  const first = await rows.nth(0).getByRole("link", { name: /Open take/ }).getAttribute("href");
+  await expect(rows.nth(1).getByRole("link", { name: "Open the earlier take" })).toHaveAttribute("href", first!);
+});
+
+test("a student moves a take to an exercise, then deletes it", async ({ page }) => {
+  await signIn(page, "dara@tidewater.example");
+  await page.goto("/takes/new");
+  await expect(page.getByRole("button", { name: /^Upload/ })).toBeDisabled();
+  await page.getByLabel("MIDI files").setInputFiles(sample("sunday-ballad-ab.mid"));
+  await page.getByRole("button", { name: "Upload" }).click();
+  await page.getByRole("link", { name: "Open take sunday-ballad-ab.mid" }).click();
+  await expect(page.getByRole("heading", { level: 1, name: "Free practice take" })).toBeVisible();
+
+  const move = page.getByRole("form", { name: "Move to another exercise" });
+  await move.getByLabel("Exercise").selectOption({ label: (await move.getByRole("option", { name: /Sunday ballad/ }).textContent())! });
+  await move.getByRole("button", { name: "Move take" }).click();
+  await expect(page.getByText("Take moved and graded against the exercise again.")).toBeVisible();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Sunday ballad");
+  const accuracy = page.getByRole("definition").filter({ hasText: /^\d+%$/ });
+  await expect(page.getByText("Exercise accuracy")).toBeVisible();
+  await expect(accuracy.first()).toBeVisible();
+  await expect(page.getByRole("heading", { name: /Against the exercise/ })).toBeVisible();
+
+  const remove = page.getByRole("form", { name: "Delete this take" });
+  await remove.getByRole("button", { name: "Delete take" }).click();
+  // The confirmation box is required: nothing happens until it is ticked.
+  await expect(page).toHaveURL(/\/takes\//);
+  await remove.getByLabel("Yes, delete this take and its file").check();
+  await remove.getByRole("button", { name: "Delete take" }).click();
+  await expect(page).toHaveURL(/\/home$/);
+  await expect(page.getByText("Take deleted, with its file.")).toBeVisible();
+});
+
+test("the student home: due exercises, a sortable takes table and the weekly chart", async ({ page }) => {
+  await signIn(page, "dara@tidewater.example");
+  await expect(page.getByRole("heading", { name: "Due exercises" })).toBeVisible();
+  await expect(page.getByRole("link", { name: /Upload a take of Three-chord smoothing in D/ })).toHaveAttribute("href", /exercise=.+&key=D$/);
+
+  const table = page.getByRole("table", { name: /Your latest takes/ });
+  const scoreHeader = table.getByRole("columnheader", { name: "Score" });
+  await scoreHeader.getByRole("button").click();
+  const sortedOnce = await scoreHeader.getAttribute("aria-sort");
+  expect(["ascending", "descending"]).toContain(sortedOnce);
+  const scores = async () =>
+    (await table.getByTestId("take-row").locator("td:last-child").allTextContents()).map(Number).filter((n) => !Number.isNaN(n));
+  const first = await scores();
+  expect(first).toEqual([...first].sort((a, b) => (sortedOnce === "ascending" ? a - b : b - a)));
+  // Keyboard: the header is a button, so Enter sorts the other way.
+  await scoreHeader.getByRole("button").focus();
+  await page.keyboard.press("Enter");
+  await expect(scoreHeader).not.toHaveAttribute("aria-sort", sortedOnce!);
+
+  await expect(page.locator(".recharts-surface").first()).toBeVisible();
+  await expect(page.getByRole("img", { name: /Chart of smoothness and score by week/ })).toBeVisible();
+  await page.getByText("Show the figures as a table").click();
+  await expect(page.getByRole("table", { name: "Smoothness and score by week" })).toBeVisible();
+  await expect(page.getByRole("complementary", { name: "Looking after your hands" })).toBeVisible();
+});
+
+test.describe("without JavaScript", () => {
+  test.use({ javaScriptEnabled: false });
+
+  test("the upload form posts several files to the page and lists each result", async ({ page }) => {
+    await signIn(page, "dara@tidewater.example");
+    await page.goto("/takes/new");
+    await page.getByLabel("MIDI files").setInputFiles([sample("falling-bass-eb.mid"), sample("minor-colour-g.mid")]);
+    await page.getByRole("button", { name: "Upload" }).click();
+    const rows = page.getByTestId("upload-row");
+    await expect(rows).toHaveCount(2);
+    await expect(rows.nth(0)).toHaveAttribute("data-stage", "analysed");
+    await expect(rows.nth(1)).toHaveAttribute("data-stage", "analysed");
+    await expect(rows.nth(0)).toContainText("falling-bass-eb.mid");
+    await expect(rows.nth(0).getByRole("link", { name: /Open take/ })).toHaveAttribute("href", /^\/takes\/.+/);
+  });
 });

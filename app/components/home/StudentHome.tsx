@@ -33,7 +33,9 @@ function ExerciseItem({ exercise, today }: { exercise: DueExercise; today: strin
       </div>
       <div className="flex items-center gap-3">
         {exercise.dueDate ? (
-          <span className={`rounded px-2 py-0.5 text-xs font-semibold ${overdue ? "bg-brick-pale text-brick" : "bg-tide-pale text-tide-dark"}`}>
+          <span
+            className={`rounded px-2 py-0.5 text-xs font-semibold ${overdue ? "bg-brick-pale text-brick" : "bg-tide-pale text-tide-dark"}`}
+          >
             {dueWords(exercise.dueDate, today)} · {dayLabel(`${exercise.dueDate}T00:00:00Z`)}
           </span>
         ) : null}
@@ -63,24 +65,15 @@ export function StudentHome({
     <div className="flex flex-col gap-6">
       <Card title="Due exercises" actions={<ButtonLink to="/takes/new">Upload takes</ButtonLink>}>
         {exercises.length === 0 ? (
-          <p className="text-sm text-ink-soft">Your teacher has not set an exercise yet. Free practice takes are welcome in the meantime.</p>
+          <p className="text-sm text-ink-soft">
+            Your teacher has not set an exercise yet. Free practice takes are welcome in the meantime.
+          </p>
         ) : (
           <ul className="divide-y divide-line">
             {[...dated, ...open].map((e) => (
               <ExerciseItem key={e.id} exercise={e} today={today} />
             ))}
           </ul>
-        )}
-      </Card>
-
-      <Card title="Latest takes">
-        {takes.length === 0 ? (
-          <EmptyState title="No takes yet" action={<ButtonLink to="/takes/new">Upload your first take</ButtonLink>}>
-            Record a few passes of your exercise as MIDI and upload them: Nearnote goes through every chord change and shows what
-            could move less.
-          </EmptyState>
-        ) : (
-          <TakesTable takes={takes} />
         )}
       </Card>
 
@@ -96,6 +89,17 @@ export function StudentHome({
             What Nearnote keeps
           </Link>
         </p>
+      </Card>
+
+      <Card title="Latest takes">
+        {takes.length === 0 ? (
+          <EmptyState title="No takes yet" action={<ButtonLink to="/takes/new">Upload your first take</ButtonLink>}>
+            Record a few passes of your exercise as MIDI and upload them: Nearnote goes through every chord change and shows what could move
+            less.
+          </EmptyState>
+        ) : (
+          <TakesTable takes={takes} />
+        )}
       </Card>
 
       <PracticeCare />

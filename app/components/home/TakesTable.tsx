@@ -7,6 +7,7 @@ import {
   tableFeatures,
   useTable,
 } from "@tanstack/react-table";
+import { useState } from "react";
 import { Link } from "react-router";
 import { DataTable } from "~/components/DataTable";
 import { dayLabel, percent, pretty } from "~/lib/noteText";
@@ -55,8 +56,18 @@ const columns = column.columns([
     ),
   }),
   column.accessor((r) => r.chordCount ?? undefined, { id: "chords", header: "Chords", ...figure, cell: (info) => info.getValue() ?? "–" }),
-  column.accessor((r) => r.smoothness ?? undefined, { id: "smoothness", header: "Smoothness", ...figure, cell: (info) => percent(info.getValue()) }),
-  column.accessor((r) => r.rootPositionLeaps ?? undefined, { id: "leaps", header: "Leaps", ...figure, cell: (info) => info.getValue() ?? "–" }),
+  column.accessor((r) => r.smoothness ?? undefined, {
+    id: "smoothness",
+    header: "Smoothness",
+    ...figure,
+    cell: (info) => percent(info.getValue()),
+  }),
+  column.accessor((r) => r.rootPositionLeaps ?? undefined, {
+    id: "leaps",
+    header: "Leaps",
+    ...figure,
+    cell: (info) => info.getValue() ?? "–",
+  }),
   column.accessor((r) => r.score ?? undefined, {
     id: "score",
     header: "Score",
@@ -73,53 +84,70 @@ const columns = column.columns([
 const ARROWS = { asc: "▲", desc: "▼" } as const;
 
 /** The student's latest takes; every column header sorts (click, or Enter/Space on its button). */
-export function TakesTable({ takes }: { takes: TakeRow[] }) {
+export function TakesTable({ takes, firstRows = 12 }: { takes: TakeRow[]; firstRows?: number }) {
+  const [showAll, setShowAll] = useState(false);
   const table = useTable({
     features,
     columns,
     data: takes,
     initialState: { sorting: [{ id: "recordedAt", desc: true }] },
   });
+  const rows = table.getRowModel().rows;
+  const visible = showAll ? rows : rows.slice(0, firstRows);
   return (
-    <DataTable
-      caption="Your latest takes; column headers sort the table"
-      head={table.getHeaderGroups().map((group) => (
-        <tr key={group.id}>
-          {group.headers.map((header) => {
-            const sorted = header.column.getIsSorted();
-            const numeric = header.column.id !== "exercise" && header.column.id !== "recordedAt";
-            return (
-              <th
-                key={header.id}
-                scope="col"
-                aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
-                className={`px-4 py-2 font-semibold ${numeric ? "text-right" : ""}`}
-              >
-                <button
-                  type="button"
-                  onClick={header.column.getToggleSortingHandler()}
-                  className={`inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink ${sorted ? "text-ink" : ""}`}
+    <div className="flex flex-col gap-2">
+      <DataTable
+        caption="Your latest takes; column headers sort the table"
+        head={table.getHeaderGroups().map((group) => (
+          <tr key={group.id}>
+            {group.headers.map((header) => {
+              const sorted = header.column.getIsSorted();
+              const numeric = header.column.id !== "exercise" && header.column.id !== "recordedAt";
+              return (
+                <th
+                  key={header.id}
+                  scope="col"
+                  aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+                  className={`px-4 py-2 font-semibold ${numeric ? "text-right" : ""}`}
                 >
-                  <table.FlexRender header={header} />
-                  <span aria-hidden="true" className="w-3 text-[10px]">
-                    {sorted ? ARROWS[sorted] : ""}
-                  </span>
-                </button>
-              </th>
-            );
-          })}
-        </tr>
-      ))}
-    >
-      {table.getRowModel().rows.map((row) => (
-        <tr key={row.id} className="hover:bg-paper/60" data-testid="take-row">
-          {row.getAllCells().map((cell) => (
-            <td key={cell.id} className={`px-4 py-2 ${cell.column.id !== "exercise" && cell.column.id !== "recordedAt" ? "text-right tabular-nums" : ""}`}>
-              <table.FlexRender cell={cell} />
-            </td>
-          ))}
-        </tr>
-      ))}
-    </DataTable>
+                  <button
+                    type="button"
+                    onClick={header.column.getToggleSortingHandler()}
+                    className={`inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink ${sorted ? "text-ink" : ""}`}
+                  >
+                    <table.FlexRender header={header} />
+                    <span aria-hidden="true" className="w-3 text-[10px]">
+                      {sorted ? ARROWS[sorted] : ""}
+                    </span>
+                  </button>
+                </th>
+              );
+            })}
+          </tr>
+        ))}
+      >
+        {visible.map((row) => (
+          <tr key={row.id} className="hover:bg-paper/60" data-testid="take-row">
+            {row.getAllCells().map((cell) => (
+              <td
+                key={cell.id}
+                className={`px-4 py-2 ${cell.column.id !== "exercise" && cell.column.id !== "recordedAt" ? "text-right tabular-nums" : ""}`}
+              >
+                <table.FlexRender cell={cell} />
+              </td>
+            ))}
+          </tr>
+        ))}
+      </DataTable>
+      {rows.length > firstRows ? (
+        <button
+          type="button"
+          onClick={() => setShowAll(!showAll)}
+          className="self-start text-sm font-semibold text-tide-dark hover:underline"
+        >
+          {showAll ? `Show the latest ${firstRows} only` : `Show all ${rows.length} takes`}
+        </button>
+      ) : null}
+    </div>
   );
 }

@@ -1,9 +1,54 @@
-import { useRef } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { Key } from "~/analysis/pitch";
 import type { ChangeReport, ChordReport } from "~/analysis/types";
 import { explainChange, explainChord, FLAG_TITLES } from "~/lib/explainFlags";
 import { pretty } from "~/lib/noteText";
 import { stepChange } from "~/lib/pianoRoll";
+
+const PAGE = 40;
+
+function pageStartFor(indices: number[], selected: number | null): number {
+  const at = selected === null ? -1 : indices.indexOf(selected);
+  return at === -1 ? 0 : Math.floor(at / PAGE) * PAGE;
+}
+
+/** Long takes list their changes forty at a time, optionally only the flagged ones. */
+function Pager({
+  start,
+  shown,
+  total,
+  flaggedOnly,
+  onFlaggedOnly,
+  onPage,
+}: {
+  start: number;
+  shown: number;
+  total: number;
+  flaggedOnly: boolean;
+  onFlaggedOnly: (on: boolean) => void;
+  onPage: (start: number) => void;
+}) {
+  const link = "rounded-md border border-line bg-card px-2 py-1 text-sm font-semibold enabled:hover:border-tide disabled:opacity-40";
+  return (
+    <div className="mb-3 flex flex-wrap items-center justify-between gap-2 text-sm">
+      <label className="flex items-center gap-2">
+        <input type="checkbox" checked={flaggedOnly} onChange={(e) => onFlaggedOnly(e.target.checked)} className="accent-tide" />
+        Only changes with a flag
+      </label>
+      <span className="flex items-center gap-2">
+        <button type="button" className={link} disabled={start === 0} onClick={() => onPage(Math.max(0, start - PAGE))}>
+          ← Earlier
+        </button>
+        <span className="text-ink-soft" aria-live="polite">
+          {total === 0 ? "none" : `${start + 1}–${start + shown} of ${total}`}
+        </span>
+        <button type="button" className={link} disabled={start + shown >= total} onClick={() => onPage(start + PAGE)}>
+          Later →
+        </button>
+      </span>
+    </div>
+  );
+}
 
 export function chordName(c: ChordReport | undefined): string {
   if (!c) return "?";
@@ -43,14 +88,37 @@ export function ChangeList({
   onSelect: (change: number | null) => void;
 }) {
   const list = useRef<HTMLOListElement>(null);
+  const [flaggedOnly, setFlaggedOnly] = useState(false);
+  const indices = useMemo(() => {
+    const all = changes.map((_, i) => i);
+    return flaggedOnly ? all.filter((i) => changes[i].flags.length > 0 || chords[changes[i].to]?.flags.length) : all;
+  }, [changes, chords, flaggedOnly]);
+  const [pageStart, setPageStart] = useState(() => pageStartFor(indices, selected));
+  // The page follows the selection when the piano roll or the chord strip moves it.
+  useEffect(() => {
+    const at = selected === null ? -1 : indices.indexOf(selected);
+    if (at !== -1) setPageStart((ps) => (at < ps || at >= ps + PAGE ? Math.floor(at / PAGE) * PAGE : ps));
+  }, [selected, indices]);
+  const start = Math.min(pageStart, Math.max(0, Math.floor((indices.length - 1) / PAGE) * PAGE));
+  const page = indices.slice(start, start + PAGE);
+  const selectedShown = selected !== null && page.includes(selected);
   const focusChange = (i: number | null) => {
     onSelect(i);
-    if (i !== null) list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus();
+    if (i !== null) requestAnimationFrame(() => list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus());
   };
   const opening = chords[0] ? explainChord(chords[0], keyInfo) : [];
+  // Keep the selected change visible inside the list's own scroll box (never scroll the page).
+  const box = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    const el = box.current;
+    const row = el?.querySelector<HTMLElement>(`[data-change="${selected}"]`)?.closest("li");
+    if (!el || !row) return;
+    const top = row.offsetTop; // the box is positioned, so this is measured from its top
+    if (top < el.scrollTop || top + row.offsetHeight > el.scrollTop + el.clientHeight) el.scrollTop = Math.max(0, top - 60);
+  }, [selected, start]);
 
   return (
-    <div className="max-h-[34rem] overflow-y-auto pr-1">
+    <div ref={box} className="relative max-h-[34rem] overflow-y-auto pr-1">
       {opening.length ? (
         <div className="mb-2 rounded-md border border-line bg-brick-pale/40 p-3 text-sm">
           <p className="font-semibold">Opening chord, {chordName(chords[0])}</p>
@@ -61,8 +129,22 @@ export function ChangeList({
           ))}
         </div>
       ) : null}
+      {changes.length > PAGE || flaggedOnly ? (
+        <Pager
+          start={start}
+          shown={page.length}
+          total={indices.length}
+          flaggedOnly={flaggedOnly}
+          onFlaggedOnly={(on) => {
+            setFlaggedOnly(on);
+            setPageStart(0);
+          }}
+          onPage={setPageStart}
+        />
+      ) : null}
       <ol ref={list} aria-label="Changes" className="flex flex-col gap-2">
-        {changes.map((change, i) => {
+        {page.map((i) => {
+          const change = changes[i];
           const isSelected = i === selected;
           const explanations = explainChange(change, chords, keyInfo);
           return (
@@ -75,13 +157,15 @@ export function ChangeList({
                 type="button"
                 data-change={i}
                 aria-pressed={isSelected}
-                tabIndex={isSelected || (selected === null && i === 0) ? 0 : -1}
+                tabIndex={isSelected || (!selectedShown && i === page[0]) ? 0 : -1}
                 onClick={() => onSelect(i)}
                 onKeyDown={(e) => {
-                  const next = stepChange(selected ?? i, e.key, changes.length);
-                  if (next !== (selected ?? i) || e.key === "Home" || e.key === "End") {
+                  // Arrow keys walk the listed changes (all, or only the flagged ones).
+                  const at = indices.indexOf(i);
+                  const next = stepChange(at, e.key, indices.length);
+                  if (next !== null && next !== at) {
                     e.preventDefault();
-                    focusChange(next);
+                    focusChange(indices[next]);
                   }
                 }}
                 className="flex w-full flex-wrap items-baseline justify-between gap-x-4 gap-y-1 text-left"

@@ -1,11 +1,22 @@
-import { useEffect, useRef } from "react";
+import { useEffect, useRef, useState } from "react";
 import type { ChangeReport, ChordReport } from "~/analysis/types";
 import { pretty } from "~/lib/noteText";
 import { changeForChord } from "~/lib/pianoRoll";
 import { inversionWords } from "~/lib/takeWords";
 
-const CELL = 84;
-const LINE_H = 46;
+const CELL = 96;
+const LINE_H = 58;
+// Cells drawn beyond the visible ones on each side; a 10-minute take has over a thousand
+// chords, so only the visible stretch of the strip is in the page at any time.
+const OVERSCAN = 12;
+const FIRST_VIEW = 16;
+
+/** Which cells to draw for a scroll position (pure; the first render shows the start). */
+export function visibleCells(scrollLeft: number, width: number, count: number): { from: number; to: number } {
+  const from = Math.max(0, Math.floor(scrollLeft / CELL) - OVERSCAN);
+  const to = Math.min(count, Math.ceil((scrollLeft + width) / CELL) + OVERSCAN);
+  return { from, to };
+}
 
 /**
  * The chords in order: symbol with its Roman numeral under it, inversion and voicing,
@@ -27,33 +38,53 @@ export function ChordStrip({
   onSelect: (change: number | null) => void;
 }) {
   const scroller = useRef<HTMLDivElement>(null);
+  const [view, setView] = useState(() => visibleCells(0, FIRST_VIEW * CELL, chords.length));
   const change = selected !== null ? changes[selected] : undefined;
   const focus = sounding ?? change?.to ?? null;
+  const measure = () => {
+    const el = scroller.current;
+    if (el) setView(visibleCells(el.scrollLeft, el.clientWidth, chords.length));
+  };
   useEffect(() => {
     const el = scroller.current;
-    if (!el || focus === null) return;
-    const x = focus * CELL;
-    if (x < el.scrollLeft || x + CELL > el.scrollLeft + el.clientWidth) el.scrollLeft = Math.max(0, x - el.clientWidth / 3);
-  }, [focus]);
+    if (!el) return;
+    if (focus !== null) {
+      const x = focus * CELL;
+      if (x < el.scrollLeft || x + CELL > el.scrollLeft + el.clientWidth) el.scrollLeft = Math.max(0, x - el.clientWidth / 3);
+    }
+    measure();
+  }, [focus, chords.length]);
 
   const tops = chords.map((c) => c.topNote);
   const lo = Math.min(...tops);
   const hi = Math.max(...tops);
-  const yOf = (m: number) => (hi === lo ? LINE_H / 2 : 8 + ((hi - m) / (hi - lo)) * (LINE_H - 16));
+  const yOf = (m: number) => (hi === lo ? LINE_H / 2 : 18 + ((hi - m) / (hi - lo)) * (LINE_H - 26));
   const width = chords.length * CELL;
-  const points = chords.map((c, k) => `${k * CELL + CELL / 2},${yOf(c.topNote)}`).join(" ");
+  const points = chords.map((c, k) => `${k * CELL + CELL / 2},${Math.round(yOf(c.topNote))}`).join(" ");
+  const shown: number[] = [];
+  for (let k = view.from; k < view.to; k++) shown.push(k);
 
   return (
-    <div ref={scroller} className="overflow-x-auto">
-      <div style={{ width }} className="min-w-full">
-        <svg width={width} height={LINE_H} role="img" aria-label={`Top line: ${chords.map((c) => pretty(c.topNoteName)).join(", ")}`}>
+    <div ref={scroller} className="overflow-x-auto pb-2" onScroll={measure}>
+      <div style={{ width }} className="relative min-w-full">
+        <svg width={width} height={LINE_H} role="img" aria-label={`Top line of ${chords.length} chords, drawn as a melody`}>
           <polyline points={points} className="fill-none stroke-tide" strokeWidth={2} strokeLinejoin="round" />
-          {chords.map((c, k) => (
-            <circle key={k} cx={k * CELL + CELL / 2} cy={yOf(c.topNote)} r={k === sounding ? 5 : 3.5} className={k === sounding ? "fill-brick" : "fill-tide"} />
-          ))}
+          {shown.map((k) => {
+            const c = chords[k];
+            const x = k * CELL + CELL / 2;
+            return (
+              <g key={k}>
+                <circle cx={x} cy={yOf(c.topNote)} r={k === sounding ? 5 : 3.5} className={k === sounding ? "fill-brick" : "fill-tide"} />
+                <text x={x} y={yOf(c.topNote) - 7} textAnchor="middle" className="fill-ink-soft text-[10px]">
+                  {pretty(c.topNoteName)}
+                </text>
+              </g>
+            );
+          })}
         </svg>
-        <ol aria-label={`Chords, in ${pretty(keyName)}`} className="flex">
-          {chords.map((c, k) => {
+        <ol aria-label={`Chords, in ${pretty(keyName)}`} className="relative h-[5.5rem]">
+          {shown.map((k) => {
+            const c = chords[k];
             const inChange = change && (k === change.from || k === change.to);
             const tone =
               k === sounding
@@ -64,19 +95,20 @@ export function ChordStrip({
                     ? "border-line bg-brick-pale/50"
                     : "border-line bg-card";
             return (
-              <li key={k} style={{ width: CELL }} className="shrink-0 px-0.5" data-chord-index={k}>
+              <li key={k} style={{ width: CELL, left: k * CELL }} className="absolute top-0 h-full px-0.5" data-chord-index={k}>
                 <div
                   onClick={() => onSelect(changeForChord(k, changes.length))}
-                  className={`flex h-full cursor-pointer flex-col items-center rounded-md border px-1 py-1.5 text-center ${tone}`}
+                  className={`flex h-full cursor-pointer flex-col items-center justify-center rounded-md border px-1 text-center ${tone}`}
                 >
                   <span className="text-base font-semibold leading-tight" data-testid="chord-symbol">
                     {c.symbol ? pretty(c.symbol) : "?"}
                   </span>
                   <span className={`text-sm ${k === sounding ? "text-white" : "text-tide-dark"}`}>{c.roman ? pretty(c.roman) : "–"}</span>
-                  <span className={`mt-1 text-[11px] leading-tight ${k === sounding ? "text-white/90" : "text-ink-soft"}`}>
-                    {inversionWords(c)}
+                  <span className={`mt-0.5 text-[11px] leading-tight ${k === sounding ? "text-white/90" : "text-ink-soft"}`}>
+                    {inversionWords(c, true)}
                     <br />
-                    {c.voicing} · top {pretty(c.topNoteName)}
+                    {c.voicing}
+                    {c.detachedBass !== null ? " + bass" : ""}
                   </span>
                 </div>
               </li>

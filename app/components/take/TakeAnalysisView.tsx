@@ -1,4 +1,4 @@
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useState, type ReactNode } from "react";
 import type { NoteEvent, TakeAnalysis } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
@@ -20,10 +20,28 @@ function firstToLookAt(analysis: TakeAnalysis): number | null {
 }
 
 /** The analysed take: summary, piano roll with playback, chord strip, changes and the selected change. */
-export function TakeAnalysisView({ analysis, notes, durationSec }: { analysis: TakeAnalysis; notes: NoteEvent[]; durationSec: number }) {
+export function TakeAnalysisView({
+  analysis,
+  notes,
+  durationSec,
+  changeExtras,
+}: {
+  analysis: TakeAnalysis;
+  notes: NoteEvent[];
+  durationSec: number;
+  /** Shown under the selected change (comments pinned to it). */
+  changeExtras?: (index: number) => ReactNode;
+}) {
   const { chords, changes, summary } = analysis;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
   const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
+  // A link to one change (#change-3, as feedback mail sends) opens the page on that change.
+  useEffect(() => {
+    const m = /^#change-(\d+)$/.exec(window.location.hash);
+    if (!m || Number(m[1]) >= analysis.changes.length) return;
+    setSelected(Number(m[1]));
+    requestAnimationFrame(() => document.getElementById(`change-${m[1]}`)?.scrollIntoView({ block: "center" }));
+  }, [analysis.changes.length]);
   const playback = usePlayback();
   const { state } = playback;
   const sounding = (state.mode === "take" || state.mode === "smoother") && state.time !== null ? chordIndexAt(chords, state.time) : -1;
@@ -92,6 +110,7 @@ export function TakeAnalysisView({ analysis, notes, durationSec }: { analysis: T
           ) : (
             <p className="text-sm text-ink-soft">Pick a change to see it on the keyboard.</p>
           )}
+          {selected !== null && changes[selected] && changeExtras ? changeExtras(selected) : null}
         </Card>
       </div>
     </div>
