@@ -11,17 +11,20 @@ import { detachedBass, upperStructure } from "./voiceLeading";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
-/** Spans are sorted and disjoint (the reader merges them): binary search. */
-function pedalDownAt(pedal: PedalSpan[], time: number): boolean {
+/**
+ * Whether the pedal is down at some time while the chord's keys are held (players usually
+ * press it just after the chord: syncopated pedalling). Spans are sorted and disjoint (the
+ * reader merges them): binary search for the first span ending after the chord begins.
+ */
+function pedalDuring(pedal: PedalSpan[], start: number, end: number): boolean {
   let lo = 0;
-  let hi = pedal.length - 1;
-  while (lo <= hi) {
+  let hi = pedal.length;
+  while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    if (pedal[mid].start > time + 1e-9) hi = mid - 1;
-    else if (time >= pedal[mid].end) lo = mid + 1;
-    else return true;
+    if (pedal[mid].end <= start) lo = mid + 1;
+    else hi = mid;
   }
-  return false;
+  return lo < pedal.length && pedal[lo].start < end;
 }
 
 /** Distinct pitches a strike sounds as a chord: struck and held notes, grace notes excluded. */
@@ -98,7 +101,7 @@ export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cach
       note: g.note.midi,
       resolvesTo: g.target.midi,
     })),
-    pedal: pedalDownAt(pedal, s.start),
+    pedal: pedalDuring(pedal, s.start, struckEnd),
     techniques: chordTechniques({
       name,
       inversion: shown.inversion,

@@ -85,6 +85,7 @@ export type ChordReport = {
   addedTones: string[];
   topNote: number;
   topNoteName: string;
+  /** the sustain pedal was down at some time while the chord's keys were held */
   pedal: boolean;
   flags: ChordFlag[];
   techniques: ChordTechnique[];

@@ -69,6 +69,11 @@ describe("sample takes show what they were made to show", () => {
     const r = analyseMidi(sample("sunday-ballad-ab.mid"), { key: "Ab", target: "vi IV I V" });
     expect(r.melodyNotes).toEqual([]);
     expect(r.chords.map((c) => c.symbol).slice(0, 4)).toEqual(["Fm", "Db", "Ab", "Eb"]);
+    // The sustain pedal is read and reported, and changes no chord's notes (rule 3).
+    expect(r.summary.pedalSec).toBeGreaterThan(5);
+    expect(r.chords.every((c) => c.pedal)).toBe(true);
+    expect(analyseMidi(sample("three-chord-smoothing-d.mid")).chords.some((c) => c.pedal)).toBe(false);
+    expect(r.chords.every((c) => c.notes.length === 4 && c.heldNotes.length === 0)).toBe(true);
     // Played one and a half times: the target loops twice, 6 of 8 (DOMAIN matching example).
     expect(r.summary.loops).toBe(2);
     expect(r.summary.accuracy).toBe(0.75);
