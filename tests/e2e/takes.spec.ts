@@ -189,3 +189,24 @@ test.describe("without JavaScript", () => {
     await expect(rows.nth(0).getByRole("link", { name: /Open take/ })).toHaveAttribute("href", /^\/takes\/.+/);
   });
 });
+
+test("a teacher reads a student's take without the student's controls; another student is refused", async ({ page, consoleErrors }) => {
+  await signIn(page, "dara@tidewater.example");
+  const href = await page.getByRole("table", { name: /Your latest takes/ }).getByRole("link").first().getAttribute("href");
+  expect(href).toMatch(/^\/takes\/.+/);
+  await page.getByRole("button", { name: "Sign out" }).click();
+
+  await signIn(page, "ines@tidewater.example");
+  await page.goto(href!);
+  await expect(page.getByText(/^Dara Okafor · recorded/)).toBeVisible();
+  await expect(page.getByTestId("chord-symbol").first()).toBeVisible();
+  await expect(page.getByRole("link", { name: "Download MIDI" })).toBeVisible();
+  await expect(page.getByRole("heading", { name: "Manage this take" })).toHaveCount(0);
+  await page.getByRole("button", { name: "Sign out" }).click();
+
+  await signIn(page, "felix@tidewater.example");
+  const response = await page.goto(href!);
+  expect(response?.status()).toBe(403);
+  await expect(page.getByRole("heading", { name: "Not yours to see" })).toBeVisible();
+  allowRefusals(consoleErrors, [403]);
+});
