@@ -51,3 +51,4 @@ function main() {
 }
 
 main();
+for (const line of await (await import("./bench/board")).benchProgressBoard()) console.log(line);
