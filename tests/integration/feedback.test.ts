@@ -10,6 +10,7 @@ import * as login from "~/routes/login";
 import * as feedback from "~/routes/takes.$takeId.feedback";
 import * as review from "~/routes/review";
 import * as home from "~/routes/home";
+import * as takePage from "~/routes/takes.$takeId";
 import { useFreshApp } from "../support/setup";
 import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, signIn, useMailCatcher } from "./accountsKit";
 import { chordsMidi, formPost, uploadAnalysed } from "./exercisesKit";
@@ -75,6 +76,19 @@ describe("comments and replies", () => {
     // The student's own reply is not feedback for her, and sends her no mail.
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
     expect(mail.all().filter((m) => m.to.includes("dara@tidewater.example"))).toHaveLength(1);
+  });
+
+  it("the take page carries the threads, marks them read for whoever opens it, and offers review to teachers only", async () => {
+    await postFeedback(ines, { intent: "comment", changeIdx: "0", body: "Keep the top note." });
+    const asStudent = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
+      feedback: { threads: Array<{ changeIdx: number | null; unread: boolean }>; asTeacher: boolean; canReply: boolean; review: unknown };
+    };
+    expect(asStudent.feedback).toMatchObject({ asTeacher: false, canReply: true, review: null });
+    expect(asStudent.feedback.threads).toEqual([expect.objectContaining({ changeIdx: 0, unread: true })]);
+    expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
+    const asTeacher = (await call(takePage.loader, get(`/takes/${ids.take}`, ines), { takeId: ids.take })).data as { feedback: { asTeacher: boolean } };
+    expect(asTeacher.feedback.asTeacher).toBe(true);
+    expect(reviewQueueCount(ids.studio)).toBe(1);
   });
 
   it("counts unread comments per take and leaves out the student's own", async () => {
