@@ -1,16 +1,16 @@
 // npm run demo: build if needed, migrate, seed the demo studio into an empty database,
 // start the local mail catcher and serve on http://127.0.0.1:3000.
 import { count } from "drizzle-orm";
-import { existsSync } from "node:fs";
 import path from "node:path";
-import { pathToFileURL } from "node:url";
 import { closeDatabaseForTests, db } from "~/db/client.server";
 import { users } from "~/db/schema";
+import { startMailCatcher } from "~/lib/mailCatcher.server";
 import { buildIfNeeded, loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
 import { printDemoSignIns, seed } from "./seed";
 
 process.env.HOST ??= "127.0.0.1";
 process.env.PORT ??= "3000";
+process.env.APP_URL ??= `http://${process.env.HOST}:${process.env.PORT}`;
 const config = loadEnvOrExit();
 buildIfNeeded();
 
@@ -20,20 +20,14 @@ else console.log("Using the existing database (not seeding again).");
 closeDatabaseForTests();
 
 const extraEnv: Record<string, string> = { HOST: config.host, PORT: String(config.port) };
-const catcher = await startCatcherIfAvailable(path.join(config.storageDir, "mail"));
-if (catcher) {
-  extraEnv.SMTP_URL = catcher.url;
-  extraEnv.MAIL_CATCHER_DIR = path.join(config.storageDir, "mail");
-}
+const mailDir = path.join(config.storageDir, "mail");
+const catcher = await startMailCatcher({ dir: mailDir });
+extraEnv.SMTP_URL = catcher.url;
+extraEnv.MAIL_CATCHER_DIR = mailDir;
 
 serveBuiltApp(extraEnv);
 console.log(`\nNearnote demo: http://${config.host}:${config.port}`);
-if (catcher) console.log(`Caught e-mail: http://${config.host}:${config.port}/dev/mail`);
+console.log(`Caught e-mail: http://${config.host}:${config.port}/dev/mail`);
 printDemoSignIns();
 
-async function startCatcherIfAvailable(dir: string): Promise<{ url: string } | null> {
-  const file = path.resolve("app/lib/mailCatcher.server.ts");
-  if (!existsSync(file)) return null;
-  const { startMailCatcher } = await import(pathToFileURL(file).href);
-  return startMailCatcher({ dir });
-}
+

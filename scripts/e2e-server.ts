@@ -3,9 +3,8 @@
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { existsSync } from "node:fs";
-import { pathToFileURL } from "node:url";
 import { closeDatabaseForTests, db } from "~/db/client.server";
+import { startMailCatcher } from "~/lib/mailCatcher.server";
 import { seedDemoStudio } from "~/models/demoStudio.server";
 import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
 import { seedDemoTakes } from "./lib/seedTakes";
@@ -23,13 +22,9 @@ await seedDemoTakes(db(), studioId);
 closeDatabaseForTests();
 
 const extraEnv: Record<string, string> = { HOST: config.host, PORT: String(config.port), NODE_ENV: "production" };
-const catcherFile = path.resolve("app/lib/mailCatcher.server.ts");
-if (existsSync(catcherFile)) {
-  const { startMailCatcher } = await import(pathToFileURL(catcherFile).href);
-  const mailDir = path.join(storageDir, "mail");
-  const catcher = await startMailCatcher({ dir: mailDir });
-  extraEnv.SMTP_URL = catcher.url;
-  extraEnv.MAIL_CATCHER_DIR = mailDir;
-}
+const mailDir = path.join(storageDir, "mail");
+const catcher = await startMailCatcher({ dir: mailDir });
+extraEnv.SMTP_URL = catcher.url;
+extraEnv.MAIL_CATCHER_DIR = mailDir;
 console.log(`e2e storage: ${storageDir}`);
 serveBuiltApp(extraEnv);
