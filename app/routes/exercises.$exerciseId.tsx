@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from "react-router";
+import { data, Form, Link, redirect, useNavigation, useRevalidator } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/exercises.$exerciseId";
 import { requireExerciseAccess, requireExerciseEdit } from "~/auth/access.server";
@@ -10,6 +10,7 @@ import { KeyProgressTable } from "~/components/exercises/KeyProgressTable";
 import { ModelAnswer } from "~/components/exercises/ModelAnswer";
 import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
+import { RecordPanel } from "~/components/record/RecordPanel";
 import { checkProgression, targetChordsInKey } from "~/lib/exerciseProgression";
 import { flashHeader } from "~/lib/flash.server";
 import { fitsFirstChord } from "~/lib/modelAnswer";
@@ -102,6 +103,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 export default function ExercisePage({ loaderData, actionData }: Route.ComponentProps) {
   const { exercise, asTeacher, expanded, students, mine, modelTake } = loaderData;
   const navigation = useNavigation();
+  const revalidator = useRevalidator();
   return (
     <div className="flex flex-col gap-6">
       <PageHeader
@@ -148,6 +150,7 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
           <KeyProgressTable keys={exercise.keys} rows={students} />
         </Card>
       ) : (
+        <>
         <Card title="Your takes">
           <KeyProgressTable keys={exercise.keys} rows={[{ id: "me", name: "You", progress: mine ?? [], done: isDoneClient(mine) }]} />
           {!exercise.archived ? (
@@ -160,6 +163,17 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
             </div>
           ) : null}
         </Card>
+        {/* Record straight from a MIDI keyboard, graded live (issue 9); the table above refreshes after an upload. */}
+        {!exercise.archived ? (
+          <RecordPanel
+            exerciseId={exercise.id}
+            exerciseKeys={exercise.keys}
+            tempo={exercise.tempo}
+            uploadHref={`/takes/new?exercise=${exercise.id}`}
+            onUploaded={() => void revalidator.revalidate()}
+          />
+        ) : null}
+        </>
       )}
       <PracticeCare />
     </div>

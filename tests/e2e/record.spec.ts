@@ -213,3 +213,34 @@ test("when MIDI access is refused the panel says so plainly, with no console err
   await expect(panel.getByRole("alert")).toContainText("site settings");
   await page.screenshot({ path: "test-results/record-refused.png", fullPage: true });
 });
+
+test("on an exercise page the panel records at the exercise's tempo and key, and the take joins the exercise", async ({ page }) => {
+  await page.addInitScript(installFakeMidi, "keyboard");
+  await signIn(page, "dara@tidewater.example");
+  await page.goto("/exercises");
+  await page.getByRole("link", { name: "Three-chord smoothing in D" }).click();
+  const panel = page.getByTestId("record-panel");
+  await panel.getByRole("button", { name: "Connect keyboard" }).click();
+  // The demo exercise is set at 72 bpm.
+  await expect(panel.getByLabel("Tempo")).toHaveValue("72");
+  await panel.getByLabel("Count in one bar").uncheck();
+  await panel.getByLabel("Metronome while recording").check();
+  await panel.getByRole("button", { name: "Record" }).click();
+  await expect(panel.getByTestId("record-status")).toContainText("Recording");
+  await page.evaluate(
+    (events) => window.__fakeMidi.play(events),
+    [...chord(0, [62, 66, 69]), ...chord(500, [62, 67, 71]), ...chord(1000, [61, 64, 69]), ...chord(1500, [62, 66, 69])].sort(byTime),
+  );
+  await expect(panel.getByTestId("live-chord-symbol")).toHaveText(["D", "G/D", "A/C♯", "D"]);
+  await panel.getByRole("button", { name: "Stop" }).click();
+  await panel.getByRole("button", { name: "Upload this take" }).click();
+  const row = panel.getByTestId("upload-row");
+  await expect(row).toHaveAttribute("data-stage", "analysed");
+  const href = await row.getByRole("link", { name: /Open take/ }).getAttribute("href");
+  // The exercise's own table refreshes: its latest take is the one just recorded.
+  await expect(page.getByRole("link", { name: /^latest/ })).toHaveAttribute("href", href!);
+  await page.goto(href!);
+  await expect(page.getByRole("heading", { level: 1, name: "Three-chord smoothing in D" })).toBeVisible();
+  await expect(page.getByTestId("chord-symbol")).toHaveText(["D", "G/D", "A/C♯", "D"]);
+  await expect(page.getByTestId("change-motion")).toHaveText(["3", "6", "3"]);
+});
