@@ -23,6 +23,14 @@ export async function createApp(buildDir: string) {
   app.use("/assets", express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }));
   app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }));
   if (process.env.NEARNOTE_ACCESS_LOG !== "off") app.use(morgan("tiny"));
+  // Sign-in throttling keys on the client address. Unless a trusted proxy sets it
+  // (TRUST_PROXY=1), the address is the socket's own, so a client cannot forge it.
+  if (process.env.TRUST_PROXY !== "1") {
+    app.use((req, _res, next) => {
+      req.headers["x-forwarded-for"] = req.socket.remoteAddress ?? "unknown";
+      next();
+    });
+  }
   app.all("*", createRequestHandler({ build, mode: process.env.NODE_ENV }));
   return app;
 }
