@@ -60,7 +60,7 @@ const columns = col.columns([
     sortFn: "alphanumeric",
     filterFn: "includesString",
     cell: (info) => (
-      <Link to={`/students/${info.row.original.studentId}`} className="font-semibold text-tide-dark hover:underline">
+      <Link to={`/students/${info.row.original.studentId}`} className="whitespace-nowrap font-semibold text-tide-dark hover:underline">
         {info.getValue()}
       </Link>
     ),
@@ -171,7 +171,7 @@ export function BoardTable({ rows }: { rows: BoardRow[] }) {
                     <th
                       key={header.id}
                       scope="col"
-                      className="px-3 py-2 align-bottom"
+                      className="px-2 py-2 align-bottom"
                       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
                     >
                       {header.column.getCanSort() ? (
@@ -192,7 +192,7 @@ export function BoardTable({ rows }: { rows: BoardRow[] }) {
             {shown.map((row) => (
               <tr key={row.id} className="hover:bg-paper/60">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
+                  <td key={cell.id} className="px-2 py-2 align-middle">
                     <table.FlexRender cell={cell} />
                   </td>
                 ))}

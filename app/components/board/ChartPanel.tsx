@@ -17,7 +17,7 @@ type Student = { id: string; name: string };
 export function ChartPanel({ students, initialChoice, initialData }: { students: Student[]; initialChoice: ChartChoice; initialData: ChartPayload }) {
   const [choice, setChoice] = useState(initialChoice);
   const search = useMemo(() => choiceSearch(choice), [choice]);
-  const { data, loading, error } = useChartData(initialData, search);
+  const { data, loading, error } = useChartData(initialData, choice.studentIds.length ? search : null);
 
   function update(next: Partial<ChartChoice>) {
     const merged = { ...choice, ...next };

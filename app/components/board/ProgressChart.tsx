@@ -17,7 +17,13 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
       <XAxis dataKey="week" tick={{ fontSize: 12, fill: "#545b6b" }} />
       <YAxis
         tick={{ fontSize: 12, fill: "#545b6b" }}
-        domain={percent ? [0, 1] : ["auto", "auto"]}
+        domain={
+          percent
+            ? [0, 1]
+            : data.metric === "score"
+              ? [(min: number) => Math.max(0, Math.floor(min / 10) * 10), (max: number) => Math.min(100, Math.ceil(max / 10) * 10)]
+              : ["auto", "auto"]
+        }
         tickFormatter={(v: number) => (percent ? `${Math.round(v * 100)}%` : String(Math.round(v * 10) / 10))}
       />
       <Tooltip formatter={(v) => formatMetric(data.metric, typeof v === "number" ? v : null)} />
@@ -94,7 +100,7 @@ export type { MetricId, ChartChoice };
  * Keeps the chart in step with a choice: fetches /api/progress when the choice
  * changes (the newest request wins) and reports loading and errors.
  */
-export function useChartData(initial: ChartPayload, search: string) {
+export function useChartData(initial: ChartPayload, search: string | null) {
   const [data, setData] = useState(initial);
   const [state, setState] = useState<{ loading: boolean; error: string | null }>({ loading: false, error: null });
   const first = useRef(true);
@@ -103,6 +109,7 @@ export function useChartData(initial: ChartPayload, search: string) {
       first.current = false;
       return;
     }
+    if (search === null) return; // nothing chosen: nothing to fetch
     const controller = new AbortController();
     setState({ loading: true, error: null });
     fetch(`/api/progress?${search}`, { signal: controller.signal, headers: { Accept: "application/json" } })
