@@ -9,14 +9,14 @@ import { FLAG_TITLES } from "~/lib/explainFlags";
 import { flashHeader } from "~/lib/flash.server";
 import { pretty, timeLabel } from "~/lib/noteText";
 import type { FlagName } from "~/analysis/types";
-import { reviewQueue, reviewTake, unreviewTake } from "~/models/feedback.server";
+import { reviewQueue, reviewQueueCount, reviewTake, unreviewTake } from "~/models/feedback.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Review · Nearnote" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireTeacher(request);
   const url = new URL(request.url);
-  return { queue: reviewQueue(user.active.studioId), undo: url.searchParams.get("undo") };
+  return { queue: reviewQueue(user.active.studioId), total: reviewQueueCount(user.active.studioId), undo: url.searchParams.get("undo") };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -46,7 +46,7 @@ function flagList(flags: Record<string, number> | null) {
 }
 
 export default function Review({ loaderData }: Route.ComponentProps) {
-  const { queue, undo } = loaderData;
+  const { queue, total, undo } = loaderData;
   const navigation = useNavigation();
   return (
     <div className="flex flex-col gap-6">
@@ -62,11 +62,11 @@ export default function Review({ loaderData }: Route.ComponentProps) {
       {queue.length === 0 ? (
         <EmptyState title="Nothing to review">New takes from your students appear here as they arrive.</EmptyState>
       ) : (
-        <Card>
+        <Card title={`${total} take${total === 1 ? "" : "s"} to review${total > queue.length ? ` (the newest ${queue.length} shown)` : ""}`}>
           <table className="w-full text-sm" data-testid="review-queue">
             <thead>
               <tr className="border-b border-line text-left text-ink-soft">
-                <th scope="col" className="py-2 pr-3">Arrived</th>
+                <th scope="col" className="py-2 pr-3">Recorded</th>
                 <th scope="col" className="py-2 pr-3">Student</th>
                 <th scope="col" className="py-2 pr-3">Exercise</th>
                 <th scope="col" className="py-2 pr-3">Key</th>
@@ -78,7 +78,7 @@ export default function Review({ loaderData }: Route.ComponentProps) {
             <tbody>
               {queue.map((t) => (
                 <tr key={t.id} className="border-b border-line/60 align-top">
-                  <td className="py-2 pr-3 whitespace-nowrap">{timeLabel(t.createdAt)}</td>
+                  <td className="py-2 pr-3 whitespace-nowrap" title={`Arrived ${timeLabel(t.createdAt)}`}>{timeLabel(t.recordedAt)}</td>
                   <td className="py-2 pr-3">{t.studentName}</td>
                   <td className="py-2 pr-3">
                     <Link to={`/takes/${t.id}`} className="text-tide-dark hover:underline">{t.exerciseTitle ?? "Free practice"}</Link>

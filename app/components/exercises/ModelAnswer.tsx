@@ -42,8 +42,11 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, modelTak
 
   if (!result) return <p className="text-sm text-ink-soft">The progression cannot be read, so there is no model answer yet.</p>;
   const { path, key, fits } = result;
-  const low = Math.min(...path.steps.flatMap((s) => s.voicing));
-  const range = { low: Math.min(48, low - (((low % 12) + 12) % 12)), high: 84 };
+  // One range for every chord of the path, whole octaves from C to B, so the cards line up.
+  const all = path.steps.flatMap((s) => s.voicing);
+  const low = Math.min(...all);
+  const high = Math.max(...all);
+  const range = { low: low - (((low % 12) + 12) % 12), high: high + (11 - (((high % 12) + 12) % 12)) };
   const toggle = (m: number) => {
     const current = picking ?? result.first;
     setPicking(current.includes(m) ? current.filter((n) => n !== m) : [...current, m].sort((a, b) => a - b));
