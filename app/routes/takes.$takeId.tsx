@@ -129,7 +129,8 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       ) : null}
 
       {take.status === "analysed" && analysis ? (
-        <TakeAnalysisView analysis={analysis} notes={notes} durationSec={take.durationSec}
+        // Keyed by take: after a replace the new take starts with a fresh selection and playback.
+        <TakeAnalysisView key={take.id} analysis={analysis} notes={notes} durationSec={take.durationSec}
           changeExtras={(i) => (
             <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
           )}

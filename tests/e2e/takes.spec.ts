@@ -62,6 +62,14 @@ test("a student uploads two takes, reads one change by change and plays it", asy
   await page.getByRole("button", { name: "Stop" }).click();
   await expect(play).toHaveAttribute("aria-pressed", "false");
   await expect(page.getByTestId("playback-status")).not.toContainText("Playing");
+  const smoother = page.getByRole("button", { name: "Hear the smoother path" });
+  await smoother.click();
+  await expect(smoother).toHaveAttribute("aria-pressed", "true");
+  await expect(page.getByTestId("playback-status")).toContainText("Playing the smoother path");
+  // A suggestion plays on its own and stops the path.
+  await page.getByTestId("suggestion").first().getByRole("button", { name: "Play this" }).click();
+  await expect(smoother).toHaveAttribute("aria-pressed", "false");
+  await expect(page.getByTestId("playback-status")).toContainText("Playing smoothest voicing");
 });
 
 /** The browser reports the API's own refusals as failed loads; those are the answers under test. */
@@ -110,7 +118,15 @@ test("the same file twice links to the take uploaded before", async ({ page, con
   await page.getByLabel("MIDI files").setInputFiles(sample("clumsy-top-line-d.mid"));
   await upload.click();
   await expect(rows.nth(0)).toHaveAttribute("data-stage", "analysed");
-  await page.getByLabel("MIDI files").setInputFiles(sample("clumsy-top-line-d.mid"));
+  // The second time the file is dropped on the drop zone instead of picked.
+  const bytes = readFileSync(sample("clumsy-top-line-d.mid")).toString("base64");
+  const dropped = await page.evaluateHandle((b64) => {
+    const data = new DataTransfer();
+    data.items.add(new File([Uint8Array.from(atob(b64), (c) => c.charCodeAt(0))], "clumsy-top-line-d.mid", { type: "audio/midi" }));
+    return data;
+  }, bytes);
+  await page.getByText("Choose MIDI files, or drop them here").dispatchEvent("drop", { dataTransfer: dropped });
+  await expect(rows).toHaveCount(2);
   await page.getByRole("button", { name: "Upload" }).click();
   await expect(rows.nth(1)).toHaveAttribute("data-stage", "duplicate");
   allowRefusals(consoleErrors, [409]);
@@ -118,7 +134,7 @@ test("the same file twice links to the take uploaded before", async ({ page, con
   await expect(rows.nth(1).getByRole("link", { name: "Open the earlier take" })).toHaveAttribute("href", first!);
 });
 
-test("a student moves a take to an exercise, then deletes it", async ({ page }) => {
+test("a student moves a take to an exercise, replaces it, then deletes it", async ({ page, consoleErrors }) => {
   await signIn(page, "dara@tidewater.example");
   await page.goto("/takes/new");
   await expect(page.getByRole("button", { name: /^Upload/ })).toBeDisabled();
@@ -135,7 +151,18 @@ test("a student moves a take to an exercise, then deletes it", async ({ page }) 
   const accuracy = page.getByRole("definition").filter({ hasText: /^\d+%$/ });
   await expect(page.getByText("Exercise accuracy")).toBeVisible();
   await expect(accuracy.first()).toBeVisible();
-  await expect(page.getByRole("heading", { name: /Against the exercise/ })).toBeVisible();
+  await expect(page.getByRole("heading", { level: 3, name: "Against the exercise: vi IV I V" })).toBeVisible();
+  const before = page.url();
+
+  // Replacing keeps the exercise and gives the take a new page.
+  const replace = page.getByRole("form", { name: "Replace with a new recording" });
+  await replace.getByLabel("New MIDI file").setInputFiles(sample("held-bass-d.mid"));
+  await replace.getByRole("button", { name: "Replace take" }).click();
+  await expect(page.getByText("Take replaced and analysed.")).toBeVisible();
+  expect(page.url()).not.toBe(before);
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Sunday ballad");
+  const gone = await page.request.get(before);
+  expect(gone.status()).toBe(404);
 
   const remove = page.getByRole("form", { name: "Delete this take" });
   await remove.getByRole("button", { name: "Delete take" }).click();
@@ -145,6 +172,9 @@ test("a student moves a take to an exercise, then deletes it", async ({ page }) 
   await remove.getByRole("button", { name: "Delete take" }).click();
   await expect(page).toHaveURL(/\/home$/);
   await expect(page.getByText("Take deleted, with its file.")).toBeVisible();
+  // Only the deliberate request for the replaced take's old page answered 404.
+  expect(consoleErrors.every((e) => e.includes("404"))).toBe(true);
+  consoleErrors.length = 0;
 });
 
 test("the student home: due exercises, a sortable takes table and the weekly chart", async ({ page }) => {

@@ -62,7 +62,7 @@ export function ChordStrip({
   const width = chords.length * CELL;
   const points = chords.map((c, k) => `${k * CELL + CELL / 2},${Math.round(yOf(c.topNote))}`).join(" ");
   const shown: number[] = [];
-  for (let k = view.from; k < view.to; k++) shown.push(k);
+  for (let k = view.from; k < Math.min(view.to, chords.length); k++) shown.push(k);
 
   return (
     <div ref={scroller} className="overflow-x-auto pb-2" onScroll={measure}>
