@@ -5,7 +5,8 @@ import { Card } from "~/components/Card";
 import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
-import { activeStudentsOfStudio, assigneeIds, readExerciseForm, updateExercise } from "~/models/exercises.server";
+import { activeStudentsOfStudio, assigneeIds, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
+import { reanalyseTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.exercise.title} · Nearnote` : "Edit exercise · Nearnote" }];
 
@@ -34,11 +35,15 @@ export async function action({ request, params }: Route.ActionArgs) {
   const read = readExerciseForm(await request.formData(), students);
   if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
   updateExercise(exercise.id, read.input);
+  // A new target changes what the takes handed in are graded against: grade them again.
+  const targetChanged = read.input.progression !== exercise.progression || read.input.keys.join(" ") !== exercise.keys.join(" ");
+  const regraded = targetChanged ? takesOfExercise(exercise.id) : [];
+  for (const t of regraded) await reanalyseTake(t.id);
   return redirect(`/exercises/${exercise.id}`, {
     headers: {
       "Set-Cookie": await flashHeader(request, {
         tone: "success",
-        message: "Exercise saved. Takes already handed in keep their grades until they are analysed again.",
+        message: regraded.length ? `Exercise saved; ${regraded.length} take${regraded.length === 1 ? "" : "s"} graded against the new target.` : "Exercise saved.",
       }),
     },
   });

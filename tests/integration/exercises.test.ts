@@ -4,7 +4,7 @@
 import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
-import { exerciseAssignees, exercises } from "~/db/schema";
+import { exerciseAssignees, exercises, takeMetrics } from "~/db/schema";
 import * as login from "~/routes/login";
 import * as exercisesList from "~/routes/exercises";
 import * as exerciseNew from "~/routes/exercises.new";
@@ -205,5 +205,42 @@ describe("grading takes against the exercise", () => {
     expect(after.student.done.map((e) => e.id)).toEqual([id]);
     const teacher = (await call(exercisePage.loader, get(`/exercises/${id}`, ines), { exerciseId: id })).data as { students: Array<{ name: string; done: boolean }> };
     expect(teacher.students).toEqual([expect.objectContaining({ name: "Dara Okafor", done: true }), expect.objectContaining({ name: "Felix Brandt", done: false })]);
+  });
+});
+
+describe("editing the target and the model answer", () => {
+  it("grades the takes handed in again when the progression changes", async () => {
+    const id = await createExercise({});
+    const body = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
+    expect(body.analysis.summary.accuracy).toBe(0.75);
+    // Now the target is I IV vi I: B minor is what was asked for.
+    const r = await call(exerciseEdit.action, formPost(`/exercises/${id}/edit`, { ...base, progression: "I IV vi I" }, ines), { exerciseId: id });
+    expect(r.status).toBe(302);
+    expect(db().select().from(takeMetrics).where(eq(takeMetrics.takeId, body.id)).get()!.accuracy).toBe(1);
+  });
+
+  it("saves a starting voicing only when it holds the first chord's tones", async () => {
+    const id = await createExercise({});
+    const save = (notes: string) => call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes }, ines), { exerciseId: id });
+    expect((await save("57,62,65")).status).toBe(400); // A3 D4 F4: F natural is not in D major
+    expect((await save("57,62,66")).status).toBe(302); // A3 D4 F#4
+    expect(db().select().from(exercises).where(eq(exercises.id, id)).get()!.modelStart).toEqual([57, 62, 66]);
+    expect((await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes: "57,62,66" }, dara), { exerciseId: id })).status).toBe(403);
+  });
+
+  it("attaches the teacher's own model take, plays it back as notes, refuses a file that is not MIDI, and removes it", async () => {
+    const id = await createExercise({});
+    const attach = (bytes: Uint8Array, name: string) => {
+      const form = new FormData();
+      form.append("file", new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
+      return call(exercisePage.action, new Request(`http://127.0.0.1:3000/exercises/${id}?intent=model-take`, { method: "POST", body: form, headers: { Cookie: ines.header(), Origin: "http://127.0.0.1:3000" } }), { exerciseId: id });
+    };
+    expect((await attach(new TextEncoder().encode("not a midi file at all"), "notes.txt")).status).toBe(400);
+    expect((await attach(chordsMidi([D, G, A, D]), "model.mid")).status).toBe(302);
+    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { modelTake: { name: string; notes: Array<{ midi: number }> } };
+    expect(page.modelTake.name).toBe("model.mid");
+    expect(page.modelTake.notes.map((n) => n.midi)).toEqual([D, G, A, D].flat());
+    expect((await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines), { exerciseId: id })).status).toBe(302);
+    expect(((await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { modelTake: unknown }).modelTake).toBeNull();
   });
 });

@@ -1,3 +1,4 @@
+import { useEffect, useRef } from "react";
 import { useFetcher } from "react-router";
 import { Button } from "~/components/Button";
 import { timeLabel } from "~/lib/noteText";
@@ -29,8 +30,18 @@ export function CommentComposer({
 }) {
   const fetcher = useFetcher<{ error?: { message: string } }>();
   const error = fetcher.data?.error?.message;
+  const form = useRef<HTMLFormElement>(null);
+  const wasBusy = useRef(false);
+  // Empty the box once the comment is saved (an error leaves the text for another try).
+  useEffect(() => {
+    if (fetcher.state !== "idle") wasBusy.current = true;
+    else if (wasBusy.current) {
+      wasBusy.current = false;
+      if (!fetcher.data?.error) form.current?.reset();
+    }
+  }, [fetcher.state, fetcher.data]);
   return (
-    <fetcher.Form method="post" action={`/takes/${takeId}/feedback`} className="flex flex-col gap-2">
+    <fetcher.Form ref={form} method="post" action={`/takes/${takeId}/feedback`} className="flex flex-col gap-2">
       <input type="hidden" name="intent" value="comment" />
       {changeIdx !== null ? <input type="hidden" name="changeIdx" value={changeIdx} /> : null}
       {parentId ? <input type="hidden" name="parentId" value={parentId} /> : null}
