@@ -50,8 +50,14 @@ export function studentStatus(weeks: Map<string, WeekSums>, thisWeek: string): S
   return "level";
 }
 
-export function boardRows(studioId: string, now = new Date()): { week: string; rows: BoardRow[] } {
-  const week = currentWeek(studioId, now);
+/**
+ * The board for one week (the studio's current week unless another is chosen):
+ * each student's figures that week against the week before, trend and status
+ * up to it.
+ */
+export function boardRows(studioId: string, now = new Date(), chosenWeek?: string): { week: string; current: string; rows: BoardRow[] } {
+  const current = currentWeek(studioId, now);
+  const week = chosenWeek ?? current;
   const students = studioStudents(studioId);
   const fromWeek = shiftWeek(week, -(TREND_WEEKS - 1));
   const sums = weeklySums(studioId, { fromWeek, toWeek: week });
@@ -80,7 +86,7 @@ export function boardRows(studioId: string, now = new Date()): { week: string; r
       remindedThisWeek: reminded.has(s.id),
     };
   });
-  return { week, rows };
+  return { week, current, rows };
 }
 
 export type ChartData = {

@@ -5,20 +5,23 @@ import { requireStudentsOfTeacher, requireTeacher } from "~/auth/access.server";
 import { BoardTable } from "~/components/board/BoardTable";
 import { ChartPanel } from "~/components/board/ChartPanel";
 import { ReminderCard } from "~/components/board/ReminderCard";
+import { WeekPicker } from "~/components/board/WeekPicker";
 import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
 import { ButtonLink } from "~/components/Button";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
-import { weekEnd } from "~/lib/progressFigures";
+import { shiftWeek, weekEnd, weekLabel } from "~/lib/progressFigures";
 import { weekStart } from "~/lib/weeks";
 import { boardRows, chartData, pickStudents } from "~/models/board.server";
-import { studioTimeZone } from "~/models/progress.server";
+import { currentWeek, studioTimeZone } from "~/models/progress.server";
 import { parseProgressQuery } from "~/models/progressQuery.server";
 import { sendPracticeReminders } from "~/models/reminders.server";
 
 /** How many students the chart shows before the teacher picks: more lines than this stop being readable. */
 const DEFAULT_CHART_STUDENTS = 6;
+/** Weeks the table can look back on (a Monday-morning teacher wants last week's figures). */
+const WEEK_CHOICES = 12;
 
 export const meta: Route.MetaFunction = () => [{ title: "Progress board · Nearnote" }];
 
@@ -32,18 +35,23 @@ export async function loader({ request }: Route.LoaderArgs) {
   if (!parsed.ok) throw redirect("/board");
   const query = parsed.query;
   await requireStudentsOfTeacher(request, query.studentIds);
-  const { week, rows } = boardRows(studioId);
+  const current = currentWeek(studioId);
+  const weekOptions = Array.from({ length: WEEK_CHOICES }, (_, i) => shiftWeek(current, -i));
+  const chosen = url.searchParams.get("week");
+  if (chosen !== null && !weekOptions.includes(chosen)) throw redirect("/board");
+  const { week, rows } = boardRows(studioId, new Date(), chosen ?? current);
   const chosenIds = query.studentIds.length ? query.studentIds : rows.slice(0, DEFAULT_CHART_STUDENTS).map((r) => r.studentId);
   const chart = chosenIds.length ? chartData(studioId, query.metric, pickStudents(studioId, chosenIds), query.fromWeek, query.toWeek) : null;
   return {
     studioName: teacher.active.studioName,
     timeZone,
-    week: { key: week, start: weekStart(week), end: weekEnd(week) },
+    week: { key: week, start: weekStart(week), end: weekEnd(week), isCurrent: week === current },
+    weekOptions: weekOptions.map((key, i) => ({ key, label: i === 0 ? "This week" : i === 1 ? "Last week" : `Week of ${weekLabel(key)}` })),
     rows,
     students: rows.map((r) => ({ id: r.studentId, name: r.name })),
     choice: { metric: query.metric, studentIds: chosenIds, from: query.from, to: query.to },
     chart: chart && { ...chart, from: query.from, to: query.to },
-    quiet: rows.filter((r) => r.thisWeek.takes === 0).map((r) => ({ id: r.studentId, name: r.name, reminded: r.remindedThisWeek })),
+    quiet: week !== current ? [] : rows.filter((r) => r.thisWeek.takes === 0).map((r) => ({ id: r.studentId, name: r.name, reminded: r.remindedThisWeek })),
   };
 }
 
@@ -68,12 +76,12 @@ export async function action({ request }: Route.ActionArgs) {
 
 export default function Board({ loaderData }: Route.ComponentProps) {
   const navigation = useNavigation();
-  const { rows, week, chart, choice, students, quiet, timeZone } = loaderData;
+  const { rows, week, weekOptions, chart, choice, students, quiet, timeZone } = loaderData;
   return (
     <div className="flex flex-col gap-6">
       <PageHeader
         title="Progress board"
-        lead={`This week (${week.start} to ${week.end}, ${timeZone}) for every student, with the change since last week.`}
+        lead={`${week.isCurrent ? "This week" : "The week"} of ${week.start} to ${week.end} (${timeZone}) for every student, with the change since the week before.`}
         actions={<ButtonLink to="/studio/settings" variant="quiet">Studio time zone</ButtonLink>}
       />
       {rows.length === 0 ? (
@@ -84,6 +92,7 @@ export default function Board({ loaderData }: Route.ComponentProps) {
       ) : (
         <>
           <ReminderCard quiet={quiet} pending={navigation.state === "submitting" && navigation.formData?.get("intent") === "remind"} />
+          <WeekPicker week={week.key} options={weekOptions} />
           <BoardTable rows={rows} />
           {chart ? <ChartPanel key={choice.metric + choice.from} students={students} initialChoice={choice} initialData={chart} /> : null}
           <p className="text-xs text-ink-soft">

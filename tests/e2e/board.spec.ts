@@ -9,7 +9,13 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   const board = page.getByRole("table", { name: /this week's figures per student/i });
   await expect(board.getByRole("row")).toHaveCount(1 + 6); // header + the six demo students
 
-  // Sort by smoothness: numeric columns sort descending first; students with no value this week go last.
+  // Last week always has takes in the demo (this week may not have begun for anyone yet).
+  await page.getByLabel("Week shown in the table").selectOption({ index: 1 }); // "Last week"
+  await expect(page).toHaveURL(/week=\d{4}-W\d{2}/);
+  await expect(page.getByRole("heading", { level: 1, name: "Progress board" })).toBeVisible();
+  await expect(page.getByText(/^The week of/)).toBeVisible();
+
+  // Sort by smoothness: numeric columns sort descending first; students with no value that week go last.
   await board.getByRole("button", { name: /smooth/i }).click();
   await expect(board.getByRole("columnheader", { name: /smooth/i })).toHaveAttribute("aria-sort", "descending");
   const smoothCells = await board.locator("tbody tr td:nth-child(6)").allInnerTexts();

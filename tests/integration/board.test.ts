@@ -111,6 +111,20 @@ describe("board page", () => {
     expect((await call(boardRoute.loader, get(`/board?student=${s.slider}`, jars.otherTeacher))).status).toBe(403);
     // A hand-edited bad value falls back to the default view.
     expect((await call(boardRoute.loader, get("/board?metric=zzz", jars.owner))).location).toBe("/board");
+    expect((await call(boardRoute.loader, get("/board?week=1999-W01", jars.owner))).location).toBe("/board");
+  });
+
+  it("shows an earlier week on request, against the week before it, without the reminder card", async () => {
+    const current = (await call(boardRoute.loader, get("/board", jars.owner))).data as { week: { key: string; isCurrent: boolean }; weekOptions: { key: string; label: string }[] };
+    expect(current.week.isCurrent).toBe(true);
+    expect(current.weekOptions.slice(0, 2).map((o) => o.label)).toEqual(["This week", "Last week"]);
+    const lastWeek = current.weekOptions[1].key;
+    insertHandTake({ studentId: s.slider, studioId: s.studio, at: new Date(Date.now() - 7 * DAY).toISOString(), score: 64 });
+    const page = await call(boardRoute.loader, get(`/board?week=${lastWeek}`, jars.owner));
+    const d = page.data as { week: { key: string; isCurrent: boolean }; quiet: unknown[]; rows: { name: string; thisWeek: { score: number | null } }[] };
+    expect(d.week).toMatchObject({ key: lastWeek, isCurrent: false });
+    expect(d.quiet).toEqual([]);
+    expect(d.rows.find((r) => r.name === "Felix Brandt")!.thisWeek.score).toBe(64);
   });
 
   it("says there are no students yet in an empty studio", async () => {

@@ -22,7 +22,11 @@ export function ChartPanel({ students, initialChoice, initialData }: { students:
   function update(next: Partial<ChartChoice>) {
     const merged = { ...choice, ...next };
     setChoice(merged);
-    const url = `${window.location.pathname}?${choiceSearch(merged)}`;
+    // Other parts of the address (the table's week) stay as they are.
+    const params = new URLSearchParams(window.location.search);
+    for (const k of ["metric", "student", "from", "to"]) params.delete(k);
+    for (const [k, v] of new URLSearchParams(choiceSearch(merged))) params.append(k, v);
+    const url = `${window.location.pathname}?${params}`;
     // Keep React Router's own history entry state; only the address changes.
     window.history.replaceState(window.history.state, "", url);
   }
