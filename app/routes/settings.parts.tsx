@@ -71,7 +71,7 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
             <input type="checkbox" name="mailOnFeedback" defaultChecked={account.mailOnFeedback} /> Mail me about new comments on takes
           </label>
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" name="mailDigest" defaultChecked={account.mailDigest} /> A weekly summary of practice
+            <input type="checkbox" name="mailDigest" defaultChecked={account.mailDigest} /> The daily digest of new takes (teachers) and due-date reminders (students)
           </label>
           <p className="text-xs text-ink-soft">Invitations, confirmations and password links are always sent.</p>
           <div><Button pending={pending("prefs")} pendingLabel="Saving…">Save preferences</Button></div>
