@@ -38,9 +38,8 @@ export function isChordStrike(s: Strike): boolean {
 }
 
 /** The parts of a chord report that depend only on its voicing (and the key). */
-type VoicingFacts = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "pedal" | "techniques"> & {
-  name: ReturnType<typeof nameChord>;
-};
+type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "pedal" | "techniques">;
+type VoicingFacts = { name: ReturnType<typeof nameChord>; shown: Shown; techniquesWithoutGraces: ChordReport["techniques"] };
 
 function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
   const bassMidi = notes[0];
@@ -49,8 +48,7 @@ function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
   const upper = upperStructure(notes);
   const inversion = inversionOf(name, bassMidi);
   const top = notes[notes.length - 1];
-  return {
-    name,
+  const shown: Shown = {
     notes,
     noteNames: notes.map((n) => noteName(n, key)),
     root: rootName(name, key),
@@ -68,11 +66,24 @@ function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
     topNoteName: noteName(top, key),
     flags: chordFlags(notes, name),
   };
+  return { name, shown, techniquesWithoutGraces: techniquesOf(name, shown, []) };
+}
+
+function techniquesOf(name: VoicingFacts["name"], shown: Shown, graces: Array<{ note: number; resolvesTo: number }>) {
+  return chordTechniques({
+    name,
+    inversion: shown.inversion,
+    upperInversion: shown.upperInversion,
+    detachedBass: shown.detachedBass,
+    voicing: shown.voicing,
+    graces,
+  });
 }
 
 /**
  * The report of one chord strike. `cache` (one per take, since spelling depends on the key)
- * lets repeated voicings skip naming and spelling.
+ * lets repeated voicings skip naming and spelling; reports of the same voicing then share
+ * their arrays, so treat a report as read-only.
  */
 export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
   const notes = strikeVoicing(s);
@@ -82,19 +93,22 @@ export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cach
     facts = voicingFacts(notes, key);
     cache?.set(id, facts);
   }
-  const { name, ...shown } = facts;
-  const graces = s.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
   let struckEnd = 0;
   for (const n of s.notes) if (n.end > struckEnd) struckEnd = n.end;
   let start = s.start;
   for (const g of s.graces) if (g.note.start < start) start = g.note.start;
-  const struckPitches = new Set(s.notes.map((n) => n.midi));
-  const held = new Set(s.held.map((n) => n.midi));
+  let heldNotes: number[] = [];
+  if (s.held.length > 0) {
+    const struck = new Set(s.notes.map((n) => n.midi));
+    const held = new Set(s.held.map((n) => n.midi));
+    heldNotes = notes.filter((n) => held.has(n) && !struck.has(n));
+  }
+  const graces = s.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
   return {
     startSec: round3(start),
     endSec: round3(struckEnd),
-    ...shown,
-    heldNotes: notes.filter((n) => held.has(n) && !struckPitches.has(n)),
+    ...facts.shown,
+    heldNotes,
     graceNotes: s.graces.map((g) => ({
       startSec: round3(g.note.start),
       endSec: round3(g.note.end),
@@ -102,14 +116,7 @@ export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cach
       resolvesTo: g.target.midi,
     })),
     pedal: pedalDuring(pedal, s.start, struckEnd),
-    techniques: chordTechniques({
-      name,
-      inversion: shown.inversion,
-      upperInversion: shown.upperInversion,
-      detachedBass: shown.detachedBass,
-      voicing: shown.voicing,
-      graces,
-    }),
+    techniques: graces.length === 0 ? facts.techniquesWithoutGraces : techniquesOf(facts.name, facts.shown, graces),
   };
 }
 
