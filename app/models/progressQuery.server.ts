@@ -8,7 +8,7 @@ import { localDate, weekStart } from "~/lib/weeks";
 export const MAX_WEEKS = 160;
 export const DEFAULT_WEEKS = 12;
 
-const isoDate = z
+export const isoDate = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-01-31")
   .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "Not a real date");

@@ -12,7 +12,7 @@ import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
 import { flashHeader } from "~/lib/flash.server";
 import { studioTimeZone } from "~/models/progress.server";
-import { parseProgressQuery } from "~/models/progressQuery.server";
+import { isoDate, parseProgressQuery } from "~/models/progressQuery.server";
 import { getProgressReport, listProgressReports, saveProgressReport } from "~/models/progressReports.server";
 import { studentProgress } from "~/models/studentProgress.server";
 
@@ -47,7 +47,6 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-01-31");
 const saveSchema = z.object({
   intent: z.literal("save"),
   from: isoDate,

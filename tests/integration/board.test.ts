@@ -156,6 +156,8 @@ describe("reports and the student page", () => {
     const params = { studentId: s.climber };
     const empty = await call(reportRoute.action, post(`/reports/${s.climber}`, { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "  " }, jars.owner), params);
     expect(empty.status).toBe(400);
+    const badDate = await call(reportRoute.action, post(`/reports/${s.climber}`, { intent: "save", from: "2026-02-30", to: "2026-03-31", summary: "Fine." }, jars.owner), params);
+    expect(badDate.status).toBe(400);
     const saved = await call(
       reportRoute.action,
       post(`/reports/${s.climber}`, { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "Smoother changes; open voicings are new." }, jars.owner),
