@@ -1,3 +1,4 @@
+import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "@playwright/test";
 import { expect, signIn, test } from "./fixtures";
 
@@ -144,6 +145,10 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await expect(panel).toContainText(/recording-\d{4}-\d{2}-\d{2}-\d{4}\.mid/);
   await expect(motions.evaluateAll((els) => els.map((e) => e.getAttribute("data-motion")))).resolves.toEqual(["3", "6", "3", "15"]);
 
+  // axe-core (Deque's rules engine, WCAG 2.x A/AA): no serious or critical violation in the panel.
+  const axe = await new AxeBuilder({ page }).include('[data-testid="record-panel"]').withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id)).toEqual([]);
+
   // Play it back in the browser, then stop.
   await panel.getByRole("button", { name: "Play back" }).click();
   await panel.getByRole("button", { name: "Stop playback" }).click();
@@ -239,6 +244,7 @@ test("on an exercise page the panel records at the exercise's tempo and key, and
   const href = await row.getByRole("link", { name: /Open take/ }).getAttribute("href");
   // The exercise's own table refreshes: its latest take is the one just recorded.
   await expect(page.getByRole("link", { name: /^latest/ })).toHaveAttribute("href", href!);
+  await page.screenshot({ path: "test-results/record-exercise-page.png", fullPage: true });
   await page.goto(href!);
   await expect(page.getByRole("heading", { level: 1, name: "Three-chord smoothing in D" })).toBeVisible();
   await expect(page.getByTestId("chord-symbol")).toHaveText(["D", "G/D", "A/C♯", "D"]);

@@ -95,7 +95,8 @@ export function InputAndKeys({
           ))}
         </select>
       </label>
-      <div className="overflow-x-auto" data-testid="live-keys" data-held={held.join(" ")}>
+      {/* The drawing scales down to the column (max-w-full), so it never needs a scroll bar. */}
+      <div data-testid="live-keys" data-held={held.join(" ")}>
         <MiniKeyboard
           notes={held}
           range={{ low, high }}

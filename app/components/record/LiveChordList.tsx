@@ -51,7 +51,8 @@ export function LiveChordList({ grade, recording }: { grade: LiveGrade | null; r
         {grade.keySource === "estimated" ? " (worked out from the notes so far)" : ""}
         {first > 0 ? ` · showing the latest ${LIVE_ROWS}` : ""}
       </p>
-      <ol ref={list} aria-label="Chords as played" className="flex max-h-80 flex-col gap-1.5 overflow-y-auto pr-1" aria-live="off">
+      {/* Focusable, so the list scrolls from the keyboard too. */}
+      <ol ref={list} aria-label="Chords as played" tabIndex={0} className="flex max-h-80 flex-col gap-1.5 overflow-y-auto pr-1">
         {grade.chords.slice(first).map((chord, i) => {
           const k = first + i;
           const settled = k < grade.settled;
