@@ -65,7 +65,8 @@ export function ChordStrip({
   for (let k = view.from; k < Math.min(view.to, chords.length); k++) shown.push(k);
 
   return (
-    <div ref={scroller} className="overflow-x-auto pb-2" onScroll={measure}>
+    // The strip scrolls sideways on a long take; as a focusable region the arrow keys scroll it too.
+    <div ref={scroller} className="overflow-x-auto pb-2" onScroll={measure} tabIndex={0} role="region" aria-label="Chord strip">
       <div style={{ width }} className="relative min-w-full">
         <svg width={width} height={LINE_H} role="img" aria-label={`Top line of ${chords.length} chords, drawn as a melody`}>
           <polyline points={points} className="fill-none stroke-tide" strokeWidth={2} strokeLinejoin="round" />
