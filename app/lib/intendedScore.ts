@@ -49,3 +49,23 @@ export function scoreWithIntended(analysis: TakeAnalysis, marks: readonly Intend
     excluded,
   };
 }
+
+/**
+ * The analysis as the take page shows it: score, clean-playing part and flag counts with the
+ * intended flags left out (the flags themselves stay on their chords and changes, marked there).
+ */
+export function withIntendedMarks(analysis: TakeAnalysis, marks: readonly IntendedMark[]): TakeAnalysis {
+  if (marks.length === 0) return analysis;
+  const r = scoreWithIntended(analysis, marks);
+  if (r.excluded === 0) return analysis;
+  return {
+    ...analysis,
+    summary: {
+      ...analysis.summary,
+      score: r.score,
+      scoreParts: { ...analysis.summary.scoreParts, cleanliness: r.cleanliness },
+      flags: r.flags as TakeAnalysis["summary"]["flags"],
+      rootPositionLeaps: r.rootPositionLeaps,
+    },
+  };
+}

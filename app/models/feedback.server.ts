@@ -257,13 +257,15 @@ export function takePageFeedback(viewer: { id: string }, take: { id: string; stu
   const focus = take.exerciseId
     ? (db().select({ f: exercises.focusTechniques }).from(exercises).where(eq(exercises.id, take.exerciseId)).get()?.f ?? [])
     : [];
+  const metricsRow = db().select({ score: takeMetrics.score, analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, take.id)).get();
   return {
     asTeacher,
     canReply: asTeacher || viewer.id === take.studentId,
     threads,
     intended: intendedFlagList(take.id),
     review: asTeacher ? reviewOf(take.id) : null,
-    score: db().select({ score: takeMetrics.score }).from(takeMetrics).where(eq(takeMetrics.takeId, take.id)).get()?.score ?? null,
+    score: metricsRow?.score ?? null,
+    engineScore: metricsRow?.analysis.summary.score ?? null,
     focusTechniques: focus,
   };
 }

@@ -16,6 +16,7 @@ import { FeedbackPanel } from "~/components/feedback/FeedbackPanel";
 import { IntendedFlags } from "~/components/feedback/IntendedFlags";
 import { ReviewToggle } from "~/components/feedback/ReviewToggle";
 import { takePageFeedback } from "~/models/feedback.server";
+import { withIntendedMarks } from "~/lib/intendedScore";
 import { flashHeader } from "~/lib/flash.server";
 import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
@@ -34,6 +35,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const isOwner = user.id === take.studentId;
   // Comments, intended flags and review state (issue 6); opening the page reads the comments.
   const feedback = takePageFeedback(user, take, isTeacherOfTake(user, take));
+  // The score shown leaves out the flags the teacher marked as intended.
+  if (view.analysis) view.analysis = withIntendedMarks(view.analysis, feedback.intended);
   const exercises = isOwner
     ? listExercisesForStudent(user.id, take.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys }))
     : [];
@@ -162,7 +165,7 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       ) : null}
       {take.status === "analysed" && analysis ? (
         <Card title="Flags">
-          <IntendedFlags takeId={take.id} analysis={analysis} marks={feedback.intended} asTeacher={feedback.asTeacher} score={feedback.score} />
+          <IntendedFlags takeId={take.id} analysis={analysis} marks={feedback.intended} asTeacher={feedback.asTeacher} score={feedback.score} engineScore={feedback.engineScore} />
         </Card>
       ) : null}
       <Card title="Feedback">

@@ -146,6 +146,15 @@ describe("intended flags", () => {
     expect(page.intended).toEqual([expect.objectContaining({ on: "change", idx: 0, reason: "I asked for a block jump to hear it.", byName: "Ines Marlowe" })]);
     expect(page.score).toBe(byHand(6 / 7));
 
+    // The take page shows the score without the intended flag, and the engine's beside it.
+    const shown = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
+      view: { analysis: { summary: { score: number; scoreParts: { cleanliness: number } } } };
+      feedback: { score: number; engineScore: number };
+    };
+    expect(shown.view.analysis.summary.score).toBe(byHand(6 / 7));
+    expect(shown.view.analysis.summary.scoreParts.cleanliness).toBeCloseTo(6 / 7, 10);
+    expect(shown.feedback).toMatchObject({ score: byHand(6 / 7), engineScore: engine.score });
+
     expect(await reanalyseTake(ids.take)).toBe("analysed");
     expect(metrics().score).toBe(byHand(6 / 7));
 

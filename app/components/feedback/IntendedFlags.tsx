@@ -63,22 +63,25 @@ export function IntendedFlags({
   marks,
   asTeacher,
   score,
+  engineScore,
 }: {
   takeId: string;
   analysis: Pick<TakeAnalysis, "chords" | "changes" | "summary">;
   marks: IntendedItem[];
   asTeacher: boolean;
   score: number | null;
+  /** the engine's own score, before intended flags were left out */
+  engineScore: number | null;
 }) {
   const spots = flagSpots(analysis);
   if (spots.length === 0) return <p className="text-sm text-ink-soft">No flags on this take.</p>;
   const markOf = (s: FlagSpot) => marks.find((m) => m.on === s.on && m.idx === s.idx && m.flag === s.flag);
-  const changed = score !== null && score !== analysis.summary.score;
+  const changed = score !== null && engineScore !== null && score !== engineScore;
   return (
     <div className="flex flex-col gap-3">
       {changed ? (
         <p className="text-sm" data-testid="intended-score">
-          Score <strong>{Math.round(score!)}</strong> with the intended flags left out (the engine gave {analysis.summary.score}).
+          Score <strong>{Math.round(score!)}</strong> with the intended flags left out (the engine gave {engineScore}).
         </p>
       ) : null}
       <ul className="flex flex-col gap-3">
