@@ -36,6 +36,9 @@ describe("motion and best motion properties", () => {
         const up = (v: number[]) => v.map((x) => x + t);
         expect(motion(up(a), up(b))).toBe(motion(a, b));
         const r = bestMotion(a, b)!;
+        // Candidates live on the 88 keys (MIDI 21–108): a best voicing pushed off the keyboard
+        // by the transposition is legitimately replaced by another one, so skip those cases.
+        fc.pre(Math.min(...r.voicing) + t >= 21 && Math.max(...r.voicing) + t <= 108);
         const rt = bestMotion(up(a), up(b))!;
         expect(rt.motion).toBe(r.motion);
         expect(rt.voicing).toEqual(up(r.voicing));
