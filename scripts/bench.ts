@@ -1,5 +1,6 @@
 // `npm run bench`: timings recorded in BENCHMARKS.md. Each section is its own function so later
 // sections (page render times, the board) can be added beside it.
+import "./lib/production";
 import tonejsMidi from "@tonejs/midi";
 import { analyseMidi } from "../app/analysis/index";
 import { generateLongTake } from "./lib/takeGenerator";
@@ -51,4 +52,7 @@ function main() {
 }
 
 main();
+for (const line of (await import("./bench/fuzz")).benchFuzz()) console.log(line);
 for (const line of await (await import("./bench/board")).benchProgressBoard()) console.log(line);
+for (const line of await (await import("./bench/takePage")).benchTakePage()) console.log(line);
+process.exit(0);

@@ -26,7 +26,13 @@ export function useScratchStorage(label: string) {
 export async function benchTakePage(): Promise<string[]> {
   useScratchStorage("take");
   buildIfNeeded();
-  const { db } = await import("~/db/client.server");
+  const { db, closeDatabaseForTests } = await import("~/db/client.server");
+  const { resetEnvForTests } = await import("~/lib/env.server");
+  const { resetSessionCookieForTests } = await import("~/auth/session.server");
+  // Another section may have pointed the app at its own scratch database first.
+  closeDatabaseForTests();
+  resetEnvForTests();
+  resetSessionCookieForTests();
   const { memberships, sessions, studios, users } = await import("~/db/schema");
   const { sessionCookie } = await import("~/auth/session.server");
   const { createTakeRecord } = await import("~/models/takes.server");
