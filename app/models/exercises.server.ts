@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
 import { db } from "~/db/client.server";
@@ -10,8 +10,6 @@ import { parseFormData, type FileUpload } from "@remix-run/form-data-parser";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
 // each side sees (the teacher every exercise with hand-in figures, a student theirs by key).
-
-const checkbox = z.preprocess((v) => v === "on" || v === "true" || v === true, z.boolean());
 
 export const exerciseFormSchema = z.object({
   title: z.string().trim().min(1, "Give the exercise a title.").max(120, "Keep the title under 120 characters."),
@@ -34,7 +32,6 @@ export const exerciseFormSchema = z.object({
   instructions: z.string().trim().max(4000, "Keep the instructions under 4,000 characters.").default(""),
   assignedTo: z.enum(["studio", "students"]).default("studio"),
   students: z.array(z.string().max(64)).default([]),
-  sendAnyway: checkbox.optional(),
 });
 
 export type ExerciseInput = {
@@ -204,15 +201,6 @@ export function listExercisesForTeacher(studioId: string) {
       handedIn: handedIn.filter((h) => h.exerciseId === e.id).length,
     }))
     .sort((a, b) => Number(a.archived) - Number(b.archived));
-}
-
-/** Exercises not archived whose due date is `date` (YYYY-MM-DD): the due-date reminders' list. */
-export function openExercisesDueOn(date: string) {
-  return db()
-    .select()
-    .from(exercises)
-    .where(and(eq(exercises.dueDate, date), isNull(exercises.archivedAt)))
-    .all();
 }
 
 /** Drops the teacher's model take (file and columns). */
