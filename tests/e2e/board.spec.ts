@@ -57,7 +57,7 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   expect(records.some((r) => Number(r.takes) > 0 && Number(r.smoothness) > 0)).toBe(true);
 
   // Open a student's printable report from their page.
-  await board.getByRole("link", { name: "Dara Okafor" }).click();
+  await board.getByRole("link", { name: "Dara Okafor", exact: true }).click();
   await expect(page.getByRole("heading", { level: 1, name: "Dara Okafor" })).toBeVisible();
   await page.getByRole("link", { name: "Printable report" }).click();
   await expect(page.getByRole("article", { name: "Dara Okafor" })).toBeVisible();

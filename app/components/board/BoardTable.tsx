@@ -108,6 +108,15 @@ const columns = col.columns([
     header: "Trend",
     cell: (info) => <Sparkline width={72} values={info.row.original.trend} label={`${info.row.original.name}'s mean score over 8 weeks`} />,
   }),
+  col.display({
+    id: "report",
+    header: "Report",
+    cell: (info) => (
+      <Link to={`/reports/${info.row.original.studentId}`} className="text-tide-dark hover:underline" aria-label={`Report for ${info.row.original.name}`}>
+        Report
+      </Link>
+    ),
+  }),
 ]);
 
 function shortDate(iso: string) {

@@ -12,7 +12,8 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
   }));
   const percent = data.metric === "smoothness" || data.metric === "accuracy";
   const chart = (
-    <LineChart data={rows} width={width} height={height} margin={{ top: 8, right: 16, bottom: 8, left: 0 }}>
+    // The keyboard layer is off: the chart sits in an aria-hidden wrapper, and its figures are in the table beside it.
+    <LineChart data={rows} width={width} height={height} margin={{ top: 8, right: 16, bottom: 8, left: 0 }} accessibilityLayer={false}>
       <CartesianGrid stroke="#ddd6c8" strokeDasharray="3 3" />
       <XAxis dataKey="week" tick={{ fontSize: 12, fill: "#545b6b" }} />
       <YAxis
@@ -51,9 +52,10 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
 }
 
 /** The same numbers as a table, for screen readers and for anyone who prefers figures. */
-export function ChartTable({ data, caption }: { data: ChartData; caption: string }) {
+export function ChartTable({ data, caption, hidden = false }: { data: ChartData; caption: string; hidden?: boolean }) {
+  // A visible wide table scrolls, and a scrolling region must take keyboard focus; a screen-reader-only copy does neither.
   return (
-    <div className="overflow-x-auto">
+    <div className={hidden ? "sr-only" : "overflow-x-auto"} tabIndex={hidden ? undefined : 0} role={hidden ? undefined : "region"} aria-label={hidden ? undefined : caption}>
       <table className="w-full border-collapse text-left text-sm">
         <caption className="mb-2 text-left text-sm text-ink-soft">{caption}</caption>
         <thead className="bg-paper text-xs uppercase tracking-wide text-ink-soft">

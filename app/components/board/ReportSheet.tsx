@@ -79,9 +79,7 @@ export function ReportSheet({
             <div aria-hidden="true">
               <ProgressLines data={p.charts[m]} height={200} />
             </div>
-            <div className="sr-only">
-              <ChartTable data={p.charts[m]} caption={`${METRICS[m].label} per week, ${from} to ${to}`} />
-            </div>
+            <ChartTable hidden data={p.charts[m]} caption={`${METRICS[m].label} per week, ${from} to ${to}`} />
           </figure>
         ))}
       </section>
