@@ -35,12 +35,17 @@ export function TakeAnalysisView({
   const { chords, changes, summary } = analysis;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
   const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
-  // A link to one change (#change-3, as feedback mail sends) opens the page on that change.
+  // A link to one change (#change-3, as feedback mail and the feedback panel send) opens that change.
   useEffect(() => {
-    const m = /^#change-(\d+)$/.exec(window.location.hash);
-    if (!m || Number(m[1]) >= analysis.changes.length) return;
-    setSelected(Number(m[1]));
-    requestAnimationFrame(() => document.getElementById(`change-${m[1]}`)?.scrollIntoView({ block: "center" }));
+    const follow = () => {
+      const m = /^#change-(\d+)$/.exec(window.location.hash);
+      if (!m || Number(m[1]) >= analysis.changes.length) return;
+      setSelected(Number(m[1]));
+      requestAnimationFrame(() => document.getElementById(`change-${m[1]}`)?.scrollIntoView({ block: "center" }));
+    };
+    follow();
+    window.addEventListener("hashchange", follow);
+    return () => window.removeEventListener("hashchange", follow);
   }, [analysis.changes.length]);
   const playback = usePlayback();
   const { state } = playback;
