@@ -70,6 +70,19 @@ test("the teacher sets an exercise, the student hands in a take, the teacher com
   await teacher.getByRole("button", { name: "Pin comment here" }).click();
   await expect(teacher.getByTestId("change-comments").getByTestId("comment")).toContainText("Keep D on top");
 
+  // The teacher asked for that jump after all: marked intended, it leaves the score.
+  const flags = teacher.locator("section", { has: teacher.getByRole("heading", { name: "Flags", exact: true }) });
+  await flags.getByPlaceholder(/^Why/).first().fill("I asked for one block jump here.");
+  await flags.getByRole("button", { name: "I asked for this" }).first().click();
+  await expect(flags.getByTestId("intended-reason")).toContainText("I asked for one block jump here.");
+  await expect(flags.getByTestId("intended-score")).toContainText("with the intended flags left out");
+
+  // Reviewed is a button of its own, with undo.
+  await teacher.getByRole("button", { name: "Mark reviewed" }).click();
+  await expect(teacher.getByTestId("review-state")).toContainText("Reviewed");
+  await teacher.getByRole("button", { name: "Undo" }).click();
+  await expect(teacher.getByRole("button", { name: "Mark reviewed" })).toBeVisible();
+
   // The student sees new feedback at home and reads it at that change.
   await student.goto("/home");
   const unread = student.getByTestId("unread-feedback");
