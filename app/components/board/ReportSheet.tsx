@@ -77,7 +77,8 @@ export function ReportSheet({
           <figure key={m}>
             <figcaption className="mb-1 text-sm font-semibold">{METRICS[m].label} per week</figcaption>
             <div aria-hidden="true">
-              <ProgressLines data={p.charts[m]} height={200} />
+              {/* A fixed width that fits an A4 or Letter page two to a row: print layout does not wait for resize observers. */}
+              <ProgressLines data={p.charts[m]} height={200} width={340} />
             </div>
             <ChartTable hidden data={p.charts[m]} caption={`${METRICS[m].label} per week, ${from} to ${to}`} />
           </figure>

@@ -23,7 +23,7 @@ export function WeeklyFiguresTable({ weeks, total, caption }: { weeks: Week[]; t
           <tr>
             <th scope="col" className="px-3 py-2">Week of</th>
             {COLUMNS.map(([, label]) => (
-              <th key={label} scope="col" className="px-3 py-2 text-right">
+              <th key={label} scope="col" className="px-3 py-2 text-right print:px-1">
                 {label}
               </th>
             ))}
@@ -32,11 +32,11 @@ export function WeeklyFiguresTable({ weeks, total, caption }: { weeks: Week[]; t
         <tbody className="divide-y divide-line">
           {[...weeks].reverse().map((w) => (
             <tr key={w.week} className={w.takes === 0 ? "text-ink-soft" : undefined}>
-              <th scope="row" className="px-3 py-1.5 font-normal">
-                {weekLabel(w.week)} <span className="text-xs text-ink-soft">{w.week}</span>
+              <th scope="row" className="whitespace-nowrap px-3 py-1.5 font-normal print:px-1">
+                {weekLabel(w.week)} <span className="text-xs text-ink-soft print:hidden">{w.week}</span>
               </th>
               {COLUMNS.map(([metric]) => (
-                <td key={metric} className="px-3 py-1.5 text-right tabular-nums">
+                <td key={metric} className="px-3 py-1.5 text-right tabular-nums print:px-1">
                   {formatMetric(metric, w[metric])}
                 </td>
               ))}
