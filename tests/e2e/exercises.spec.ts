@@ -1,5 +1,14 @@
 import { writeMidi, type MidiData, type MidiEvent } from "midi-file";
+import type { Page } from "@playwright/test";
 import { expect, signIn, test } from "./fixtures";
+
+/** Pages of extra browser contexts report console errors to the fixture like the default page does. */
+function watch(page: Page, errors: string[]) {
+  page.on("console", (m) => {
+    if (m.type() === "error") errors.push(m.text());
+  });
+  page.on("pageerror", (e) => errors.push(e.message));
+}
 
 /**
  * A take in root position all the way, D G A D, written with `midi-file` (npm): D4 F#4 A4 to
@@ -24,7 +33,7 @@ function blockChordTake(): Buffer {
   return Buffer.from(writeMidi(data));
 }
 
-test("the teacher sets an exercise, the student hands in a take, the teacher comments on a flagged change, the student reads it there", async ({ browser }) => {
+test("the teacher sets an exercise, the student hands in a take, the teacher comments on a flagged change, the student reads it there", async ({ browser, consoleErrors }) => {
   // Two people, two sign-ins and an upload on a shared two-core machine: more than the default minute.
   test.setTimeout(180_000);
   const title = `Block chords in D ${Date.now() % 100000}`;
@@ -32,6 +41,7 @@ test("the teacher sets an exercise, the student hands in a take, the teacher com
   // The teacher sets the exercise; the progression is expanded live as it is typed.
   const teacherContext = await browser.newContext();
   const teacher = await teacherContext.newPage();
+  watch(teacher, consoleErrors);
   await signIn(teacher, "ines@tidewater.example");
   await teacher.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Exercises" }).click();
   await teacher.getByRole("link", { name: "New exercise" }).click();
@@ -52,6 +62,7 @@ test("the teacher sets an exercise, the student hands in a take, the teacher com
   // The student finds it, hands in a take for it in D.
   const studentContext = await browser.newContext();
   const student = await studentContext.newPage();
+  watch(student, consoleErrors);
   await signIn(student, "dara@tidewater.example");
   await student.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Exercises" }).click();
   await student.getByRole("link", { name: title }).click();
