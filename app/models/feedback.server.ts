@@ -175,7 +175,7 @@ export function reviewQueue(studioId: string, limit = 200) {
     .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
     .leftJoin(takeReviews, eq(takeReviews.takeId, takes.id))
     .where(and(eq(takes.studioId, studioId), isNull(takeReviews.takeId)))
-    .orderBy(desc(takes.createdAt))
+    .orderBy(desc(takes.createdAt), desc(takes.recordedAt))
     .limit(limit)
     .all()
     .map((r) => ({ ...r, createdAt: r.createdAt.toISOString(), recordedAt: r.recordedAt.toISOString() }));
