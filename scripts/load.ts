@@ -78,7 +78,7 @@ async function main() {
     const ceiling = rows[0].rps;
     const machine = `${cpus().length} cores (${cpus()[0]?.model.trim()}), ${Math.round(totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
     const table = [
-      `Machine: ${machine}. autocannon, ${CONNECTIONS} connections, ${SECONDS} s each, client and server on the same machine (127.0.0.1).`,
+      `Machine: ${machine}. autocannon, ${CONNECTIONS} connections, ${SECONDS} s each, client and server on the same machine (127.0.0.1). The app is the production build behind \`scripts/serve.ts\` (Express, compression, security headers); the ceiling is a one-route React Router app under \`react-router-serve\`.`,
       "",
       "| page | requests/s | p99 latency | share of the hello ceiling |",
       "|---|---|---|---|",
