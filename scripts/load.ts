@@ -3,7 +3,7 @@
 import autocannon from "autocannon";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
-import { cpus, tmpdir, totalmem } from "node:os";
+import { cpus, loadavg, tmpdir, totalmem } from "node:os";
 import path from "node:path";
 import { buildIfNeeded } from "./lib/runApp";
 
@@ -76,9 +76,10 @@ async function main() {
       await measure("progress board (signed-in teacher)", `${BASE}/board`, teacher),
     ];
     const ceiling = rows[0].rps;
+    const load = loadavg()[0].toFixed(1);
     const machine = `${cpus().length} cores (${cpus()[0]?.model.trim()}), ${Math.round(totalmem() / 2 ** 30)} GiB, Node ${process.version}`;
     const table = [
-      `Machine: ${machine}. autocannon, ${CONNECTIONS} connections, ${SECONDS} s each, client and server on the same machine (127.0.0.1). The app is the production build behind \`scripts/serve.ts\` (Express, compression, security headers); the ceiling is a one-route React Router app under \`react-router-serve\`.`,
+      `Machine: ${machine}. autocannon, ${CONNECTIONS} connections, ${SECONDS} s each, client and server on the same machine (127.0.0.1), load average ${load} at the end. The app is the production build behind \`scripts/serve.ts\` (Express, compression, security headers); the ceiling is a one-route React Router app under \`react-router-serve\`.`,
       "",
       "| page | requests/s | p99 latency | share of the hello ceiling |",
       "|---|---|---|---|",
