@@ -29,6 +29,7 @@ export function ChordStrip({
   selected,
   sounding,
   onSelect,
+  marks,
 }: {
   chords: ChordReport[];
   changes: ChangeReport[];
@@ -36,6 +37,8 @@ export function ChordStrip({
   selected: number | null;
   sounding: number | null;
   onSelect: (change: number | null) => void;
+  /** Differences from the exercise by chord index: wrong on the chord, missing just before it (issue 6). */
+  marks?: Record<number, { on: string[]; before: string[] }>;
 }) {
   const scroller = useRef<HTMLDivElement>(null);
   const [view, setView] = useState(() => visibleCells(0, FIRST_VIEW * CELL, chords.length));
@@ -97,6 +100,21 @@ export function ChordStrip({
                     : "border-line bg-card";
             return (
               <li key={k} style={{ width: CELL, left: k * CELL }} className="absolute top-0 h-full px-0.5" data-chord-index={k}>
+                {marks?.[k]?.before.length ? (
+                  <span className="absolute left-0 top-0 z-10 -translate-x-1/2 -translate-y-1/2 whitespace-nowrap rounded bg-brick px-1 text-[10px] font-semibold text-white" data-testid="strip-missing">
+                    {marks![k].before.map((s) => `${pretty(s)} missing`).join(", ")}
+                  </span>
+                ) : null}
+                {k === chords.length - 1 && marks?.[k + 1]?.before.length ? (
+                  <span className="absolute right-0 top-0 z-10 translate-x-1/2 -translate-y-1/2 whitespace-nowrap rounded bg-brick px-1 text-[10px] font-semibold text-white" data-testid="strip-missing">
+                    {marks[k + 1].before.map((s) => `${pretty(s)} missing`).join(", ")}
+                  </span>
+                ) : null}
+                {marks?.[k]?.on.length ? (
+                  <span className="absolute left-1/2 top-0 z-10 -translate-x-1/2 -translate-y-1/2 whitespace-nowrap rounded border border-brick bg-brick-pale px-1 text-[10px] font-semibold text-brick" data-testid="strip-mismatch">
+                    {marks[k].on.map(pretty).join(", ")}
+                  </span>
+                ) : null}
                 <div
                   onClick={() => onSelect(changeForChord(k, changes.length))}
                   className={`flex h-full cursor-pointer flex-col items-center justify-center rounded-md border px-1 text-center ${tone}`}

@@ -7,6 +7,7 @@ import { chordIndexAt, smootherPathPlan, takePlan } from "~/lib/playbackPlan";
 import { ChangeDetail } from "./ChangeDetail";
 import { ChangeList } from "./ChangeList";
 import { ChordStrip } from "./ChordStrip";
+import { placeMismatches, stripMarks } from "~/lib/mismatchPlaces";
 import { PianoRoll, PianoRollLegend } from "./PianoRoll";
 import { PlaybackBar } from "./PlaybackBar";
 import { TakeSummary } from "./TakeSummary";
@@ -35,6 +36,8 @@ export function TakeAnalysisView({
   const { chords, changes, summary } = analysis;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
   const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
+  // Differences from the exercise's target, at their places in the chord strip.
+  const marks = useMemo(() => stripMarks(placeMismatches(analysis)), [analysis]);
   // A link to one change (#change-3, as feedback mail and the feedback panel send) opens that change.
   useEffect(() => {
     const follow = () => {
@@ -91,6 +94,7 @@ export function TakeAnalysisView({
           selected={selected}
           sounding={sounding >= 0 ? sounding : null}
           onSelect={setSelected}
+          marks={marks}
         />
       </Card>
 
