@@ -1,4 +1,5 @@
 import { writeMidi, type MidiData, type MidiEvent } from "midi-file";
+import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "@playwright/test";
 import { expect, signIn, test } from "./fixtures";
 
@@ -112,4 +113,31 @@ test("the teacher sets an exercise, the student hands in a take, the teacher com
 
   await teacherContext.close();
   await studentContext.close();
+});
+
+// axe-core (Deque's rules engine, WCAG 2.x A/AA tags) on the teacher's exercise pages and the
+// review queue; serious and critical violations fail.
+test("the teacher's exercise pages and review queue pass axe", async ({ page }) => {
+  test.setTimeout(120_000);
+  const check = async (label: string) => {
+    const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+    const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
+    expect(serious.map((v) => `${label}: ${v.id} ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`)).toEqual([]);
+  };
+  await signIn(page, "ines@tidewater.example");
+  await page.goto("/exercises");
+  await expect(page.getByRole("heading", { level: 1, name: "Exercises" })).toBeVisible();
+  await check("exercises");
+  await page.goto("/exercises/new");
+  await page.getByLabel("Key or keys").fill("Ab");
+  await page.getByLabel("Target progression").fill("vi IV I V");
+  await expect(page.getByTestId("progression-preview")).toBeVisible();
+  await check("new exercise");
+  await page.goto("/exercises");
+  await page.getByRole("link", { name: "Falling bass in E♭" }).click();
+  await expect(page.getByTestId("model-path")).toBeVisible();
+  await check("exercise, teacher");
+  await page.goto("/review");
+  await expect(page.getByTestId("review-queue")).toBeVisible();
+  await check("review");
 });
