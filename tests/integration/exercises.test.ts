@@ -1,6 +1,8 @@
 // Exercises from the teacher's form to a graded take. Expected chords come from the rules of
 // DOMAIN.md ("Progressions as teachers write them", "Matching a take to a target"), worked by
 // hand below each case; voicings are MIDI numbers (middle C = 60).
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
@@ -164,6 +166,20 @@ describe("grading takes against the exercise", () => {
       { kind: "missing", targetIndex: 2, playedIndex: null, expected: "Ab", pass: 1 },
       { kind: "missing", targetIndex: 3, playedIndex: null, expected: "Eb", pass: 1 },
     ]);
+  });
+
+  it("grades the sample take samples/sunday-ballad-ab.mid (Fm Db Ab Eb Fm Db, open voicings) handed in for the A♭ exercise", async () => {
+    const id = await createExercise({ keys: "Ab", progression: "vi IV I V" }, [["focusTechniques", "open-voicing"]]);
+    const bytes = new Uint8Array(readFileSync(path.resolve("samples", "sunday-ballad-ab.mid")));
+    const body = await uploadAnalysed(dara, bytes, { exerciseId: id, key: "Ab" });
+    // DOMAIN's own matching example: one and a half times through is k = 2, 6 of 8.
+    expect(body.analysis.summary).toMatchObject({ loops: 2, accuracy: 0.75 });
+    expect(body.analysis.summary.mismatches!.map((m) => [m.kind, m.expected, m.pass])).toEqual([
+      ["missing", "Ab", 1],
+      ["missing", "Eb", 1],
+    ]);
+    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }> };
+    expect(page.mine[0].takes.map((t) => t.accuracy)).toEqual([0.75]);
   });
 
   it("the target played twice through in full is k = 2 and accuracy 1", async () => {
