@@ -1,3 +1,4 @@
+import type { ExerciseFormValues } from "~/components/exercises/ExerciseForm";
 import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
@@ -34,17 +35,23 @@ export const exerciseFormSchema = z.object({
   students: z.array(z.string().max(64)).default([]),
 });
 
-export type ExerciseInput = {
-  title: string;
-  keys: string[];
-  progression: string;
-  focusTechniques: string[];
-  tempo: number | null;
-  dueDate: string | null;
-  instructions: string;
-  assignedTo: "studio" | "students";
-  students: string[];
-};
+/** What the exercise form edits: the same shape the form component shows. */
+export type ExerciseInput = ExerciseFormValues;
+
+/** The fields of an exercise that its pages show and its form edits. */
+export function exerciseFields(e: Exercise) {
+  return {
+    id: e.id,
+    title: e.title,
+    keys: e.keys,
+    progression: e.progression,
+    focusTechniques: e.focusTechniques,
+    tempo: e.tempo,
+    dueDate: e.dueDate,
+    instructions: e.instructions,
+    assignedTo: e.assignedTo,
+  };
+}
 
 export type FieldErrors = Partial<Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>>;
 

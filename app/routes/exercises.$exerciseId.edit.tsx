@@ -5,7 +5,7 @@ import { Card } from "~/components/Card";
 import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
-import { activeStudentsOfStudio, assigneeIds, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
+import { activeStudentsOfStudio, assigneeIds, exerciseFields, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
 import { reanalyseTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.exercise.title} · Nearnote` : "Edit exercise · Nearnote" }];
@@ -13,18 +13,7 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${d
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { exercise } = await requireExerciseEdit(request, params.exerciseId);
   return {
-    exercise: {
-      id: exercise.id,
-      title: exercise.title,
-      keys: exercise.keys,
-      progression: exercise.progression,
-      focusTechniques: exercise.focusTechniques,
-      tempo: exercise.tempo,
-      dueDate: exercise.dueDate,
-      instructions: exercise.instructions,
-      assignedTo: exercise.assignedTo,
-      students: assigneeIds(exercise.id),
-    },
+    exercise: { ...exerciseFields(exercise), students: assigneeIds(exercise.id) },
     students: activeStudentsOfStudio(exercise.studioId).map((s) => ({ id: s.id, name: s.name })),
   };
 }

@@ -16,6 +16,7 @@ import { flashHeader } from "~/lib/flash.server";
 import { fitsFirstChord } from "~/lib/modelAnswer";
 import { pretty } from "~/lib/noteText";
 import {
+  exerciseFields,
   isDone,
   modelTakeNotes,
   progressByKey,
@@ -45,15 +46,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     asTeacher,
     exercise: {
-      id: exercise.id,
-      title: exercise.title,
-      keys: exercise.keys,
-      progression: exercise.progression,
-      focusTechniques: exercise.focusTechniques,
-      tempo: exercise.tempo,
-      dueDate: exercise.dueDate,
-      instructions: exercise.instructions,
-      assignedTo: exercise.assignedTo,
+      ...exerciseFields(exercise),
       archived: exercise.archivedAt !== null,
       modelStart: exercise.modelStart ?? null,
     },
