@@ -1,3 +1,4 @@
+import type { CommentItem } from "~/components/feedback/CommentThread";
 import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
@@ -54,16 +55,8 @@ export function addComment(input: { takeId: string; authorId: string; body: stri
     .get().id;
 }
 
-export type CommentView = {
-  id: string;
-  authorId: string;
-  authorName: string;
-  body: string;
-  changeIdx: number | null;
-  createdAt: string;
-  unread: boolean;
-  replies: CommentView[];
-};
+/** A comment with its replies as the take page shows it (the component owns the shape). */
+export type CommentView = CommentItem;
 
 export function lastRead(userId: string, takeId: string): Date | null {
   return db().select().from(commentReads).where(and(eq(commentReads.userId, userId), eq(commentReads.takeId, takeId))).get()?.readAt ?? null;
