@@ -183,8 +183,8 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
               </div>
             </div>
           </Card>
-          {/* Reads this form's exercise, key and note when it uploads (issue 9). */}
-          <RecordPanel />
+          {/* Reads this form's exercise, key and note when it uploads; starts at a preselected exercise's tempo. */}
+          <RecordPanel tempo={loaderData.exercises.find((e) => e.id === loaderData.exerciseId)?.tempo} />
         </div>
       </form>
       <PracticeCare />
