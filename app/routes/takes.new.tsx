@@ -18,7 +18,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Upload takes · Nearnot
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireStudent(request);
-  const exercises = listExercisesForStudent(user.id, user.active.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys }));
+  const exercises = listExercisesForStudent(user.id, user.active.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys, tempo: e.tempo }));
   const url = new URL(request.url);
   const exerciseId = exercises.some((e) => e.id === url.searchParams.get("exercise")) ? url.searchParams.get("exercise")! : "";
   const chosen = exercises.find((e) => e.id === exerciseId);
