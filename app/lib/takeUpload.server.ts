@@ -34,7 +34,7 @@ export type UploadBody = {
 };
 export type UploadResult = { status: number; body: UploadBody; fileName: string };
 
-type Stored = { fieldName: string; fileKey: string; originalName: string; size: number; lastModified: number };
+type Stored = { fieldName: string; fileKey: string; originalName: string; lastModified: number };
 
 class UploadRefused extends Error {
   constructor(
@@ -71,9 +71,8 @@ async function parseUpload(request: Request): Promise<{ form: FormData; files: S
     const form = await parseFormData(request, { maxFileSize: MAX_TAKE_BYTES, maxFiles: MAX_FILES }, async (file: FileUpload) => {
       if (!file.name && file.size === 0) return null; // an empty file input
       const fileKey = newFileKey();
-      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name), size: 0, lastModified: file.lastModified });
-      const stored = await takeStorage().put(fileKey, file);
-      files[files.length - 1].size = stored.size;
+      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name), lastModified: file.lastModified });
+      await takeStorage().put(fileKey, file);
       return fileKey;
     });
     return { form, files };

@@ -122,11 +122,6 @@ export function assigneeIds(exerciseId: string): string[] {
   return db().select({ id: exerciseAssignees.userId }).from(exerciseAssignees).where(eq(exerciseAssignees.exerciseId, exerciseId)).all().map((r) => r.id);
 }
 
-/** Whether a student is set this exercise: for the whole studio, or named among its students. */
-export function isAssignedTo(exercise: Pick<Exercise, "id" | "assignedTo">, studentId: string): boolean {
-  return exercise.assignedTo === "studio" || assigneeIds(exercise.id).includes(studentId);
-}
-
 /** The students an exercise is set for: every active student of the studio, or the chosen ones. */
 export function studentsOfExercise(exercise: Pick<Exercise, "id" | "studioId" | "assignedTo">) {
   const all = activeStudentsOfStudio(exercise.studioId);

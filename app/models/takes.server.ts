@@ -1,9 +1,10 @@
 import { and, desc, eq, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
 import { db } from "~/db/client.server";
-import { exerciseAssignees, exercises, studios, takeMetrics, takes, users, type Take } from "~/db/schema";
+import { exerciseAssignees, exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
 import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
 import { weekKey } from "~/lib/weeks";
+import { studioTimeZone } from "./progress.server";
 import {
   analyseTakeBytes,
   clearAnalysisRows,
@@ -37,8 +38,7 @@ export type TakeView = {
 };
 
 export function takeWeekKey(studioId: string, recordedAt: Date): string {
-  const tz = db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()?.tz ?? "UTC";
-  return weekKey(recordedAt, tz);
+  return weekKey(recordedAt, studioTimeZone(studioId));
 }
 
 export type NewTake = {

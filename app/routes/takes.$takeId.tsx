@@ -22,7 +22,7 @@ import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
 import { packNotes, unpackNotes } from "~/lib/packNotes";
 import { formatBytes } from "~/lib/uploadRows";
-import { deleteTake, getTakeView, listExercisesForStudent, moveTake } from "~/models/takes.server";
+import { deleteTake, exerciseForStudent, getTakeView, listExercisesForStudent, moveTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
@@ -81,7 +81,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (!parsed.success) return fail("move", "Choose an exercise and a key.");
     let { exerciseId, key } = parsed.data;
     if (exerciseId) {
-      const exercise = listExercisesForStudent(user.id, take.studioId).find((e) => e.id === exerciseId);
+      const exercise = exerciseForStudent(user.id, take.studioId, exerciseId);
       if (!exercise) return fail("move", "That exercise is not one of yours.");
       key ??= exercise.keys[0] ?? null;
       if (key && !exercise.keys.includes(key)) return fail("move", `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.`);

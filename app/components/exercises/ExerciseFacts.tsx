@@ -1,17 +1,11 @@
 import type { TechniqueName } from "~/analysis/types";
 import { Card } from "~/components/Card";
+import type { ExerciseFormValues } from "./ExerciseForm";
 import type { ExpandedKey } from "~/lib/exerciseProgression";
 import { pretty } from "~/lib/noteText";
 import { TECHNIQUE_WORDS } from "~/lib/takeWords";
 
-type Facts = {
-  progression: string;
-  focusTechniques: string[];
-  tempo: number | null;
-  dueDate: string | null;
-  instructions: string;
-  assignedTo: "studio" | "students";
-};
+type Facts = Pick<ExerciseFormValues, "progression" | "focusTechniques" | "tempo" | "dueDate" | "instructions" | "assignedTo">;
 
 /** What the exercise asks for: target chords in each key, focus techniques, tempo, due date, instructions. */
 export function ExerciseFacts({ exercise, expanded }: { exercise: Facts; expanded: ExpandedKey[] }) {
