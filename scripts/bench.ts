@@ -3,15 +3,11 @@
 import "./lib/production";
 import tonejsMidi from "@tonejs/midi";
 import { analyseMidi } from "../app/analysis/index";
+import { median } from "./bench/stats";
 import { generateLongTake } from "./lib/takeGenerator";
 
 const { Midi } = tonejsMidi;
 
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /** Median wall times (ms) of several functions, run interleaved so machine load hits them alike. */
 export function timeInterleaved(fns: Array<() => unknown>, runs = 25, warmup = 3): number[] {

@@ -8,22 +8,14 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { RouterContextProvider } from "react-router";
 import type { TakeAnalysis } from "~/analysis/types";
+import { seededRandom } from "../lib/takeGenerator";
+import { median } from "./stats";
 
 const STUDENTS = 40;
 const WEEKS = 52;
 const TAKES_PER_WEEK = 5;
 const RUNS = 15;
 
-function seeded(seed: number) {
-  let s = seed >>> 0;
-  return () => ((s = (s * 1664525 + 1013904223) >>> 0) / 2 ** 32);
-}
-
-function median(xs: number[]) {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 async function timeAsync(fn: () => Promise<unknown>, runs = RUNS, warmup = 2) {
   for (let i = 0; i < warmup; i++) await fn();
@@ -61,7 +53,7 @@ export async function benchProgressBoard(): Promise<string[]> {
       for (let s = 0; s < STUDENTS; s++) {
         const student = tx.insert(users).values({ email: `student${s}@bench.example`, name: `Bench Student ${String(s + 1).padStart(2, "0")}`, passwordHash: "x" }).returning().get();
         tx.insert(memberships).values({ studioId: studio.id, userId: student.id, role: "student" }).run();
-        const rand = seeded(s + 1);
+        const rand = seededRandom(s + 1);
         for (let w = 0; w < WEEKS; w++) {
           const skill = Math.min(0.95, 0.2 + (w / WEEKS) * 0.6 + (rand() - 0.5) * 0.1);
           for (let t = 0; t < TAKES_PER_WEEK; t++) {

@@ -7,11 +7,8 @@ import { pathToFileURL } from "node:url";
 import { createRequestHandler, type ServerBuild } from "react-router";
 import { BUILD_DIR, buildIfNeeded } from "../lib/runApp";
 import { generateLongTake } from "../lib/takeGenerator";
+import { median } from "./stats";
 
-function median(xs: number[]) {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[s.length >> 1];
-}
 
 /** Points the app at a throwaway storage folder; call before any app module touches the database. */
 export function useScratchStorage(label: string) {

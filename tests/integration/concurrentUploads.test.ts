@@ -1,5 +1,3 @@
-import { readdirSync } from "node:fs";
-import path from "node:path";
 import { count } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
@@ -7,7 +5,7 @@ import { takeMetrics, takes } from "~/db/schema";
 import { boardRows } from "~/models/board.server";
 import { EXERCISES, generateTake } from "../../scripts/lib/takeGenerator";
 import { useHttpApp } from "../support/httpApp";
-import { useFreshApp } from "../support/setup";
+import { storedTakeFiles, useFreshApp } from "../support/setup";
 import { join, makeStudio, makeUser, PASSWORD } from "./accountsKit";
 
 const app = useFreshApp();
@@ -43,8 +41,7 @@ describe("twenty uploads at once", () => {
 
     expect(db().select({ n: count() }).from(takes).get()!.n).toBe(20);
     expect(db().select({ n: count() }).from(takeMetrics).get()!.n).toBe(20);
-    const files = readdirSync(path.join(app.storageDir, "takes"), { recursive: true }).filter((f) => String(f).endsWith(".dat"));
-    expect(files).toHaveLength(20);
+    expect(storedTakeFiles(app.storageDir)).toHaveLength(20);
 
     // The board's figures equal the sums of what each upload answered (smoothness is a ratio of sums).
     const { rows } = boardRows(studioId);

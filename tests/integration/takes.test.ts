@@ -1,4 +1,4 @@
-import { readdirSync, readFileSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import path from "node:path";
 import { count, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
@@ -13,7 +13,7 @@ import * as login from "~/routes/login";
 import * as apiTakes from "~/routes/api.takes";
 import * as apiTake from "~/routes/api.takes.$takeId";
 import * as apiTakeFile from "~/routes/api.takes.$takeId.file";
-import { useFreshApp } from "../support/setup";
+import { storedTakeFiles, useFreshApp } from "../support/setup";
 import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
 
 const app = useFreshApp();
@@ -30,13 +30,7 @@ function upload(jar: CookieJar, form: FormData) {
   return new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } });
 }
 
-const storedFiles = () => {
-  try {
-    return readdirSync(path.join(app.storageDir, "takes"), { recursive: true }).filter((f) => String(f).endsWith(".dat"));
-  } catch {
-    return [];
-  }
-};
+const storedFiles = () => storedTakeFiles(app.storageDir);
 const rows = (table: typeof takes | typeof takeMetrics | typeof chordEvents | typeof changeResults) =>
   db().select({ n: count() }).from(table).get()!.n;
 

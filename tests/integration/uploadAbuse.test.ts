@@ -1,11 +1,10 @@
-import { existsSync, readdirSync, readFileSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import http from "node:http";
-import path from "node:path";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { takes } from "~/db/schema";
 import { useHttpApp } from "../support/httpApp";
-import { useFreshApp } from "../support/setup";
+import { storedTakeFiles, useFreshApp } from "../support/setup";
 import { join, makeStudio, makeUser, PASSWORD } from "./accountsKit";
 
 // These run against the real HTTP server (the built app behind Express), so a
@@ -24,10 +23,7 @@ beforeEach(async () => {
 });
 
 const sample = () => new Uint8Array(readFileSync("samples/held-bass-d.mid"));
-const storedTakeFiles = () => {
-  const dir = path.join(app.storageDir, "takes");
-  return existsSync(dir) ? readdirSync(dir, { recursive: true }).filter((f) => String(f).endsWith(".dat")).length : 0;
-};
+const storedFiles = () => storedTakeFiles(app.storageDir).length;
 
 function post(form: FormData | null, headers: Record<string, string> = {}) {
   return fetch(`${base}/api/takes`, { method: "POST", body: form, headers: { Cookie: cookie, Origin: base, ...headers } });
@@ -87,7 +83,7 @@ describe("abusive uploads against the running server", () => {
     expect(r5.status).toBe(422);
     expect((await r5.json()).error).toMatch(/cut short or damaged/);
 
-    expect(storedTakeFiles()).toBe(1); // only the failed take is kept, by design
+    expect(storedFiles()).toBe(1); // only the failed take is kept, by design
 
     // A hostile file name never reaches a path, and the server still works.
     const r6 = await post(form({ name: "../../etc/pass\u0007wd\r\n.mid", bytes: sample() }));
@@ -98,7 +94,7 @@ describe("abusive uploads against the running server", () => {
     expect(saved.originalName).toMatch(/^passwd/);
     expect(saved.originalName).not.toMatch(/[\/\\\u0000-\u001f]/);
     expect(saved.fileKey).toMatch(/^[0-9a-f-]{36}$/);
-    expect(storedTakeFiles()).toBe(2);
+    expect(storedFiles()).toBe(2);
     const health = await fetch(`${base}/healthz`);
     expect(health.status).toBe(200);
   }, 60_000);

@@ -1,18 +1,8 @@
 // Deterministic damage to MIDI files, shared by the fuzz test and `npm run bench`.
+import { seededRandom } from "../../scripts/lib/takeGenerator";
 
 export type Mutant = { index: number; sample: number; kind: "flip" | "truncate" | "duplicate-chunk" | "length"; bytes: Uint8Array };
 
-/** A small seeded generator (mulberry32) so every run damages the files the same way. */
-function random(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Offsets of the chunks ("MThd", "MTrk") in a Standard MIDI File. */
 function chunks(bytes: Uint8Array): { start: number; end: number }[] {
@@ -28,7 +18,8 @@ function chunks(bytes: Uint8Array): { start: number; end: number }[] {
 }
 
 export function* mutations(samples: Uint8Array[], count: number, seed: number): Generator<Mutant> {
-  const rand = random(seed);
+  // Seeded, so every run damages the files the same way.
+  const rand = seededRandom(seed);
   const kinds: Mutant["kind"][] = ["flip", "truncate", "duplicate-chunk", "length"];
   for (let index = 0; index < count; index++) {
     const sample = Math.floor(rand() * samples.length);

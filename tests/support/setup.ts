@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
@@ -30,4 +30,13 @@ export function useFreshApp(): FreshApp {
     rmSync(state.storageDir, { recursive: true, force: true });
   });
   return state;
+}
+
+/** Take files kept under storage/takes/ (LocalFileStorage writes one `.dat` per file beside its metadata). */
+export function storedTakeFiles(storageDir: string): string[] {
+  const dir = path.join(storageDir, "takes");
+  if (!existsSync(dir)) return [];
+  return readdirSync(dir, { recursive: true })
+    .map(String)
+    .filter((f) => f.endsWith(".dat"));
 }
