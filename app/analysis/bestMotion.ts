@@ -1,4 +1,4 @@
-// Best motion of a change (DOMAIN rule 8): the smallest motion the same change could have had.
+// Best motion of a change (RULES.md rule 8): the smallest motion the same change could have had.
 //
 // Candidates are voicings of B's pitch classes (or, when both chords have a detached bass,
 // B's bass as played plus any voicing of upper(B)'s pitch classes above it). They are built

@@ -1,4 +1,4 @@
-// Flags on a change between two chords (DOMAIN rules 9 and 10).
+// Flags on a change between two chords (RULES.md rules 9 and 10).
 
 function sorted(v: readonly number[]): number[] {
   return v.slice().sort((x, y) => x - y);

@@ -1,4 +1,4 @@
-// Flags on a single chord: DOMAIN rules 11 and 12, and `too-many-notes` (rule 8).
+// Flags on a single chord: RULES.md rules 11 and 12, and `too-many-notes` (rule 8).
 import { isMuddyLowInterval } from "./lowInterval";
 import { nameChord } from "./naming";
 import { pc } from "./pitch";

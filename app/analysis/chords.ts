@@ -38,7 +38,7 @@ export function isChordStrike(s: Strike): boolean {
 }
 
 /** The parts of a chord report that depend only on its voicing (and the key). */
-type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "pedal" | "techniques">;
+type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "bassLine" | "nonChordTones" | "pedal" | "techniques">;
 type VoicingFacts = { name: ReturnType<typeof nameChord>; shown: Shown; techniquesWithoutGraces: ChordReport["techniques"] };
 
 function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
@@ -109,6 +109,8 @@ export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cach
     endSec: round3(struckEnd),
     ...facts.shown,
     heldNotes,
+    bassLine: [],
+    nonChordTones: [],
     graceNotes: s.graces.map((g) => ({
       startSec: round3(g.note.start),
       endSec: round3(g.note.end),

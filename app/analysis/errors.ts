@@ -1,6 +1,6 @@
 // Typed errors with one-line messages a student understands. The command line prints
 // `message` alone; the server maps `code` to its own responses.
-export type AnalysisErrorCode = "not-midi" | "corrupt" | "no-notes" | "too-long" | "too-many-notes";
+export type AnalysisErrorCode = "not-midi" | "corrupt" | "no-notes" | "too-long" | "too-many-notes" | "too-complex";
 
 const MESSAGES: Record<AnalysisErrorCode, string> = {
   "not-midi": "This is not a MIDI file: save or export the take as a Standard MIDI File (.mid).",
@@ -8,6 +8,7 @@ const MESSAGES: Record<AnalysisErrorCode, string> = {
   "no-notes": "This MIDI file has no notes to analyse (drum-channel notes are ignored).",
   "too-long": "This take is longer than 30 minutes: split it into shorter takes.",
   "too-many-notes": "This take has more than 100,000 notes: split it into shorter takes.",
+  "too-complex": "This take is too complex to grade (too many dense chords to compare in time): record a shorter or plainer take.",
 };
 
 export class AnalysisError extends Error {

@@ -1,4 +1,4 @@
-// Grades each change between consecutive chords: DOMAIN rules 7–10 plus the suggestions a
+// Grades each change between consecutive chords: RULES.md rules 7–10 plus the suggestions a
 // student sees (smoothest; smoothest keeping the played top note; smoothest keeping the
 // played bass), none of which may raise a chord flag.
 import { bestMotion, MAX_GRADED_PITCHES } from "./bestMotion";
@@ -37,6 +37,7 @@ export function gradeChange(from: number, to: number, a: ChordReport, b: ChordRe
     to,
     bassMotion: vb[0] - va[0],
     topVoiceInterval: vb[vb.length - 1] - va[va.length - 1],
+    blurredNotes: [] as number[],
   };
   if (va.length > MAX_GRADED_PITCHES || vb.length > MAX_GRADED_PITCHES) {
     // Rule 8: chords of more than 8 distinct pitches are not graded.

@@ -1,4 +1,4 @@
-// Low-interval limits (DOMAIN rule 12). Source: jazz-arranging texts (Lowell & Pullig,
+// Low-interval limits (RULES.md rule 12). Source: jazz-arranging texts (Lowell & Pullig,
 // "Arranging for Large Jazz Ensemble") as tabulated in the open-source elm-music-theory
 // package. Texts differ by a step and call these guidelines.
 

@@ -1,4 +1,4 @@
-// Matching a take to an exercise's target progression (DOMAIN "Matching a take to a target").
+// Matching a take to an exercise's target progression (RULES.md "Matching a take to a target").
 //
 // A played chord matches a target chord when root and triad agree, every interval the target
 // names is present (other added tones and sevenths are free) and, when the target has a slash,

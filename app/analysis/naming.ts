@@ -1,4 +1,4 @@
-// DOMAIN rules 4–6: root, quality and lead-sheet symbol from tonal's chord detection with
+// RULES.md rules 4–6: root, quality and lead-sheet symbol from tonal's chord detection with
 // our tie-break; inversion by the chord tone in the bass; close or open voicing.
 import { Chord, Interval, Note } from "tonal";
 import type { Key } from "./pitch";

@@ -1,4 +1,4 @@
-// Target progressions as teachers write them (DOMAIN "Progressions as teachers write them"):
+// Target progressions as teachers write them (RULES.md "Progressions as teachers write them"):
 // space-separated lead-sheet symbols ("Eb Bb/D Cm Cm/Bb Ab") or Roman numerals ("iiø7 V7 i").
 // Both parsers are ours: tonal's Progression makes lower-case "vi" major and reads "V/7" as a
 // slash chord, and its chord symbols need normalising anyway.
@@ -171,7 +171,7 @@ function parseRoman(token: string, position: number, key: Key): TargetChord {
   return chord;
 }
 
-// Suffixes after a Roman numeral (DOMAIN: 7, maj7, add9, sus4; a few common others).
+// Suffixes after a Roman numeral (RULES.md: 7, maj7, add9, sus4; a few common others).
 const ROMAN_SUFFIXES: Record<string, { triad?: Triad; required: number[] }> = {
   "": { required: [] },
   "7": { required: [10] },

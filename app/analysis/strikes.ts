@@ -1,4 +1,4 @@
-// DOMAIN rules 1–3: notes begun together form strikes; quick grace notes travel with the
+// RULES.md rules 1–3: notes begun together form strikes; quick grace notes travel with the
 // note they resolve to; keys still held join later strikes; a lone bass played a little
 // early or late joins the chord above it.
 import type { NoteEvent, TempoPoint } from "./types";

@@ -1,4 +1,4 @@
-// Techniques a chord or a take shows: DOMAIN rules 13 and 14.
+// Techniques a chord or a take shows: RULES.md rules 13 and 14.
 import { pc } from "./pitch";
 import type { ChordName, ChordTechnique } from "./types";
 

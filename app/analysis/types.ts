@@ -30,13 +30,13 @@ export type NoteList = {
 };
 
 export type ChordFlag = "doubled-bass-third" | "muddy-low-interval" | "too-many-notes";
-export type ChangeFlag = "root-position-leap" | "top-line-leap";
+export type ChangeFlag = "root-position-leap" | "top-line-leap" | "pedal-blur";
 export type FlagName = ChordFlag | ChangeFlag;
 export type ChordTechnique = "added-second" | "inversion" | "open-voicing" | "slash-bass" | "grace-to-third";
 export type TechniqueName = ChordTechnique | "smooth-top-line";
 
 export const CHORD_FLAGS: readonly ChordFlag[] = ["doubled-bass-third", "muddy-low-interval", "too-many-notes"];
-export const CHANGE_FLAGS: readonly ChangeFlag[] = ["root-position-leap", "top-line-leap"];
+export const CHANGE_FLAGS: readonly ChangeFlag[] = ["root-position-leap", "top-line-leap", "pedal-blur"];
 export const CHORD_TECHNIQUES: readonly ChordTechnique[] = [
   "added-second",
   "inversion",
@@ -61,6 +61,15 @@ export type ChordName = {
   intervalNames: Record<number, string>;
 };
 
+/** Kinds of non-chord tone (RULES.md rule 15); null when none of them fits. */
+export type NonChordToneKind = "passing" | "neighbour" | "grace" | "suspension" | "anticipation";
+
+/** A note sounding in a harmony that is not one of its chord tones (RULES.md rules 15 and 17). */
+export type NonChordTone = { note: number; noteName: string; startSec: number; kind: NonChordToneKind | null };
+
+/** A note of a walking or passing bass struck after the harmony's first strike (RULES.md rule 16). */
+export type BassLineNote = { note: number; noteName: string; startSec: number };
+
 export type GraceNote = { startSec: number; endSec: number; note: number; resolvesTo: number };
 
 export type ChordReport = {
@@ -72,6 +81,10 @@ export type ChordReport = {
   /** notes held over from an earlier strike (rule 3) */
   heldNotes: number[];
   graceNotes: GraceNote[];
+  /** bass notes struck later in the harmony (rule 16): never its bass, never in its voicing */
+  bassLine: BassLineNote[];
+  /** passing, neighbour and grace notes, suspensions and anticipations (rules 15 and 17) */
+  nonChordTones: NonChordTone[];
   root: string | null;
   bass: string;
   symbol: string | null;
@@ -116,6 +129,8 @@ export type ChangeReport = {
   commonTones: number;
   largestVoiceMove: number | null;
   flags: ChangeFlag[];
+  /** notes of the previous harmony the pedal carried into this one that are not its chord tones (rule 19) */
+  blurredNotes: number[];
 };
 
 /** One difference between a take and its target progression (VL's matching.ts owns the shape). */

@@ -1,4 +1,4 @@
-// Motion between two voicings (DOMAIN rule 7) and the detached bass / upper structure split.
+// Motion between two voicings (RULES.md rule 7) and the detached bass / upper structure split.
 //
 // Voice-leading size is the taxicab (L1) norm: D. Tymoczko, "A Geometry of Music" (2011);
 // Callender, Quinn & Tymoczko, "Generalized voice-leading spaces", Science 320 (2008).
@@ -11,7 +11,7 @@ function sorted(v: readonly number[]): number[] {
 }
 
 /**
- * Cost table of the non-crossing joins between sorted `a` and `b` (DOMAIN rule 7).
+ * Cost table of the non-crossing joins between sorted `a` and `b` (RULES.md rule 7).
  * cost[j * m + i] is the cheapest way to join a[0..i] with b[0..j] where a[i] and b[j] are
  * joined last. Only the smaller chord's notes may take part in more than one join.
  */
@@ -44,7 +44,7 @@ function checkNonEmpty(a: readonly number[], b: readonly number[]): void {
   }
 }
 
-/** Total semitone motion of the change from voicing a to voicing b (DOMAIN rule 7). */
+/** Total semitone motion of the change from voicing a to voicing b (RULES.md rule 7). */
 export function motion(a: readonly number[], b: readonly number[]): number {
   checkNonEmpty(a, b);
   const sa = sorted(a);
@@ -92,7 +92,7 @@ export function voiceLeadingPairs(a: readonly number[], b: readonly number[]): A
 /** Minimum gap (semitones) under the next note for the lowest note to count as a left-hand bass. */
 export const DETACHED_BASS_GAP = 7;
 
-/** The detached bass of a voicing of three or more notes, or null (DOMAIN terms). */
+/** The detached bass of a voicing of three or more notes, or null (RULES.md terms). */
 export function detachedBass(v: readonly number[]): number | null {
   if (v.length < 3) return null;
   const s = sorted(v);

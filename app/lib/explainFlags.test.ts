@@ -1,4 +1,4 @@
-// The flag explanations a student reads, built from real engine output for the DOMAIN
+// The flag explanations a student reads, built from real engine output for the RULES.md
 // worked examples (derived by hand from its rules 7–12), so the numbers in the words are
 // the numbers the rules give.
 import { describe, expect, it } from "vitest";
@@ -22,7 +22,7 @@ function explained(a: number[], b: number[], keyName: string) {
 }
 
 describe("root-position leap in words", () => {
-  it("F3 A3 C4 → B♭3 D4 F4: every note up 5, F–B♭–D would have moved 3 (DOMAIN worked example)", () => {
+  it("F3 A3 C4 → B♭3 D4 F4: every note up 5, F–B♭–D would have moved 3 (RULES.md worked example)", () => {
     const { change, texts } = explained([53, 57, 60], [58, 62, 65], "F");
     expect(change.flags).toEqual(["root-position-leap"]);
     expect(texts).toHaveLength(1);
@@ -32,13 +32,13 @@ describe("root-position leap in words", () => {
     );
   });
 
-  it("G4 B4 D5 → C5 E5 G5 in C: up 5, C–E–G (G4 C5 E5) would have moved 3 (DOMAIN worked example)", () => {
+  it("G4 B4 D5 → C5 E5 G5 in C: up 5, C–E–G (G4 C5 E5) would have moved 3 (RULES.md worked example)", () => {
     const { texts } = explained([67, 71, 74], [72, 76, 79], "C");
     expect(texts[0].text).toContain("every note jumped 5 semitones up");
     expect(texts[0].text).toContain("G–C–E would have moved 3, against 15 as played");
   });
 
-  it("C3 C4 E4 G4 → F2 F3 A3 C4: every voice down 7 (DOMAIN worked example, best 10 = bass 7 + upper 3)", () => {
+  it("C3 C4 E4 G4 → F2 F3 A3 C4: every voice down 7 (RULES.md worked example, best 10 = bass 7 + upper 3)", () => {
     const { change, texts } = explained([48, 60, 64, 67], [41, 53, 57, 60], "C");
     expect(change.bestMotion).toBe(10);
     expect(texts[0].text).toMatch(/^Both chords are in root position and every note jumped 7 semitones down; /);
@@ -52,7 +52,7 @@ describe("root-position leap in words", () => {
     expect(texts[0].text).toContain("every note jumped up, by 4 to 5 semitones");
   });
 
-  it("gives no explanation for a smooth change (F3 A3 C4 → F3 B♭3 D4, DOMAIN worked example)", () => {
+  it("gives no explanation for a smooth change (F3 A3 C4 → F3 B♭3 D4, RULES.md worked example)", () => {
     expect(explained([53, 57, 60], [53, 58, 62], "F").texts).toEqual([]);
   });
 });
@@ -64,7 +64,7 @@ describe("top-line leap in words", () => {
     expect(change.flags).toContain("top-line-leap");
     const top = texts.find((t) => t.flag === "top-line-leap")!;
     expect(top.text).toContain("The top note leapt 10 semitones up, from G4 to F5; more than 7");
-    // Best voicing C4 F4 A4 (DOMAIN: C → F best 3) puts the top on A4, 2 up from G4.
+    // Best voicing C4 F4 A4 (RULES.md: C → F best 3) puts the top on A4, 2 up from G4.
     expect(change.bestVoicing).toEqual([60, 65, 69]);
     expect(top.text).toContain("With C–F–A the top would move 2 semitones up.");
   });
@@ -82,7 +82,7 @@ describe("chord flags in words", () => {
     );
   });
 
-  it("doubled bass third: E3 C4 G4 E5 C6 has the 3rd E in the bass and again at E5 (DOMAIN rule 11, common practice)", () => {
+  it("doubled bass third: E3 C4 G4 E5 C6 has the 3rd E in the bass and again at E5 (RULES.md rule 11, common practice)", () => {
     // E4 would be exactly an octave above the bass (allowed), so the doubled 3rd sits at E5, not on top.
     const c = chord([52, 60, 67, 76, 84], key);
     expect(c.flags).toContain("doubled-bass-third");
@@ -90,7 +90,7 @@ describe("chord flags in words", () => {
     expect(e.text).toContain("The 3rd of C/E, E, is in the bass and sounds again at E5.");
   });
 
-  it("too many notes: nine distinct pitches are not graded (DOMAIN rule 8)", () => {
+  it("too many notes: nine distinct pitches are not graded (RULES.md rule 8)", () => {
     const c = chord([48, 50, 52, 53, 55, 57, 59, 60, 62], key);
     expect(c.flags).toContain("too-many-notes");
     expect(explainChordFlag("too-many-notes", c, key).text).toMatch(/^This chord has 9 different notes; chords of more than 8 are not graded/);

@@ -18,6 +18,7 @@ export const FLAG_TITLES: Record<FlagName, string> = {
   "doubled-bass-third": "Third doubled over the bass",
   "muddy-low-interval": "Low notes too close",
   "too-many-notes": "Too many notes to grade",
+  "pedal-blur": "Pedal held through the change",
 };
 
 const direction = (d: number) => (d > 0 ? "up" : "down");
@@ -84,6 +85,19 @@ function tooManyNotes(chord: ChordReport): string {
   return `This chord has ${chord.notes.length} different notes; chords of more than ${MAX_GRADED_PITCHES} are not graded, so the changes into and out of it do not count towards smoothness. Check for a resting arm or palm.`;
 }
 
+/** Rule 19 in words: which notes the pedal carried into a chord they do not belong to. */
+function pedalBlur(change: ChangeReport, _from: ChordReport, to: ChordReport, key: Key | null): string {
+  const carried = change.blurredNotes.map((n) => noteLabel(n, key)).join(", ");
+  const name = to.symbol ? pretty(to.symbol) : "the next chord";
+  return `The pedal stayed down into ${name}, so ${carried || "notes of the previous chord"} went on sounding under it and do not belong to it. Lift the pedal as the new chord sounds and press it again just after.`;
+}
+
+const CHANGE_FLAG_TEXT: Record<ChangeFlag, (change: ChangeReport, from: ChordReport, to: ChordReport, key: Key | null) => string> = {
+  "root-position-leap": rootPositionLeap,
+  "top-line-leap": topLineLeap,
+  "pedal-blur": pedalBlur,
+};
+
 export function explainChangeFlag(
   flag: ChangeFlag,
   change: ChangeReport,
@@ -91,7 +105,7 @@ export function explainChangeFlag(
   to: ChordReport,
   key: Key | null,
 ): FlagExplanation {
-  const text = flag === "root-position-leap" ? rootPositionLeap(change, from, to, key) : topLineLeap(change, from, to, key);
+  const text = CHANGE_FLAG_TEXT[flag](change, from, to, key);
   return { flag, title: FLAG_TITLES[flag], text };
 }
 

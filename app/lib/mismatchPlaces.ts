@@ -2,7 +2,7 @@
 // on the chord played; a missing one sits between two played chords. The engine lists the
 // differences in the order of its alignment and leaves matched chords out, so the place of a
 // missing chord is worked out by replaying that alignment: the looped target advances on every
-// matched or missing step, the take on every matched or extra step (DOMAIN "Matching a take to
+// matched or missing step, the take on every matched or extra step (RULES.md "Matching a take to
 // a target"; repeats collapse in take and target alike).
 import { parseKey, pc } from "~/analysis/pitch";
 import { parseProgression, type TargetChord } from "~/analysis/progression";

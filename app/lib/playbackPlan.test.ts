@@ -28,7 +28,7 @@ describe("playback plan", () => {
     expect(planEnd(plan)).toBe(1.5);
   });
 
-  it("the smoother path re-voices each chord with its change's best voicing (DOMAIN: F A C → B♭ D F best F3 B♭3 D4)", () => {
+  it("the smoother path re-voices each chord with its change's best voicing (RULES.md: F A C → B♭ D F best F3 B♭3 D4)", () => {
     const chords = [chord([53, 57, 60], 0), chord([58, 62, 65], 1)];
     const changes = gradeChanges(chords, key);
     const plan = smootherPathPlan(chords, changes, [{ startSec: 2, endSec: 2.5, note: 72, noteName: "C5" }]);

@@ -1,6 +1,6 @@
 // Weekly figures of the progress board, derived from sums. Pure: the server, the
 // CSV export, the browser (formatting) and the tests share it. Every ratio is a
-// ratio of sums (DOMAIN.md: smoothness is never a mean of per-take ratios), so
+// ratio of sums (RULES.md: smoothness is never a mean of per-take ratios), so
 // sums of several weeks or exercises combine exactly before dividing.
 import { TECHNIQUES, type TechniqueName } from "~/analysis/types";
 import { isoWeekOfDate, weekStart } from "./weeks";
@@ -74,7 +74,7 @@ export function figuresFrom(s: WeekSums): Figures {
     practiceMinutes: s.durationSec / 60,
     changes: s.changes,
     motionPerChange: s.changes > 0 ? s.totalMotion / s.changes : null,
-    // Nothing analysed: nothing to say. Analysed but nothing moved: perfectly smooth (DOMAIN.md).
+    // Nothing analysed: nothing to say. Analysed but nothing moved: perfectly smooth (RULES.md).
     smoothness: s.analysed === 0 ? null : s.totalMotion === 0 ? 1 : s.bestTotalMotion / s.totalMotion,
     leapsPer10: s.changes > 0 ? (10 * s.leaps) / s.changes : null,
     accuracy: s.accuracyTakes > 0 ? s.accuracySum / s.accuracyTakes : null,

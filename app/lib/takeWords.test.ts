@@ -7,7 +7,7 @@ import { TECHNIQUES } from "~/analysis/types";
 const chord = (symbol: string | null, noteNames: string[]) => ({ symbol, noteNames }) as unknown as ChordReport;
 
 describe("take words", () => {
-  it("names inversions by DOMAIN rule 5, using the hand's inversion over a detached bass", () => {
+  it("names inversions by RULES.md rule 5, using the hand's inversion over a detached bass", () => {
     expect(inversionWords({ inversion: 0, upperInversion: null, detachedBass: null })).toBe("root position");
     expect(inversionWords({ inversion: 1, upperInversion: null, detachedBass: null })).toBe("1st inversion");
     expect(inversionWords({ inversion: null, upperInversion: null, detachedBass: null })).toBe("other bass");

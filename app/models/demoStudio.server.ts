@@ -3,7 +3,7 @@ import { eq } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { exercises, memberships, studios, users } from "~/db/schema";
 
-/** The invented demo scenario (see DOMAIN.md): nothing here is real. */
+/** The invented demo scenario (Tidewater Keys, see the README): nothing here is real. */
 export const DEMO_PASSWORD = "tidewater-keys";
 export const DEMO_STUDIO = { name: "Tidewater Keys", timeZone: "America/New_York" };
 export const DEMO_TEACHER = { name: "Ines Marlowe", email: "ines@tidewater.example" };

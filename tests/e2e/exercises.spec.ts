@@ -13,7 +13,7 @@ function watch(page: Page, errors: string[]) {
 
 /**
  * A take in root position all the way, D G A D, written with `midi-file` (npm): D4 F#4 A4 to
- * G4 B4 D5 moves every voice 5 up, a root-position leap by DOMAIN rule 9. The velocity is
+ * G4 B4 D5 moves every voice 5 up, a root-position leap by RULES.md rule 9. The velocity is
  * varied so the file is new to the server on every run.
  */
 function blockChordTake(): Buffer {

@@ -121,7 +121,7 @@ test("a student records I IV V I in D, sees each change graded while playing, up
       ...chord(1000, [61, 64, 69]),
     ].sort(byTime),
   );
-  // Graded while the take is still running. Motions by DOMAIN rule 7, by hand: D F# A → D G B
+  // Graded while the take is still running. Motions by RULES.md rule 7, by hand: D F# A → D G B
   // moves 0+1+2 = 3; D G B → C# E A moves 1+3+2 = 6; both already the smallest (rule 8).
   const symbols = panel.getByTestId("live-chord-symbol");
   await expect(symbols).toHaveText(["D", "G/D", "A/C♯"]);
@@ -130,7 +130,7 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await expect(motions).toHaveText(["moved 3 · best 3 · as smooth as it gets", "moved 6 · best 6 · as smooth as it gets"]);
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
 
-  // Back to D, then a block leap up to G: every voice +5 in root position (DOMAIN worked
+  // Back to D, then a block leap up to G: every voice +5 in root position (RULES.md worked
   // example): motion 15, best 3, flagged.
   await page.evaluate((events) => window.__fakeMidi.play(events), [...chord(0, [62, 66, 69]), ...chord(500, [67, 71, 74], 600)].sort(byTime));
   await expect(symbols).toHaveText(["D", "G/D", "A/C♯", "D", "G"]);

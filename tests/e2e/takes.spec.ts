@@ -6,8 +6,8 @@ const sample = (name: string) => path.resolve("samples", name);
 
 // The demo student's practice day: upload two takes, watch them finish, read one change by
 // change and listen to it. The expected figures for clumsy-root-position-d.mid come from
-// DOMAIN rule 7 by hand: D4 F♯4 A4 → G4 B4 D5 moves every voice 5 up (15 in all, the
-// DOMAIN's own example), and the closest voicing of G from there is D4 G4 B4 (3).
+// RULES.md rule 7 by hand: D4 F♯4 A4 → G4 B4 D5 moves every voice 5 up (15 in all, the
+// RULES.md's own example), and the closest voicing of G from there is D4 G4 B4 (3).
 test("a student uploads two takes, reads one change by change and plays it", async ({ page }) => {
   await signIn(page, "dara@tidewater.example");
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Upload" }).click();

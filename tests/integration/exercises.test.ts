@@ -1,5 +1,5 @@
 // Exercises from the teacher's form to a graded take. Expected chords come from the rules of
-// DOMAIN.md ("Progressions as teachers write them", "Matching a take to a target"), worked by
+// RULES.md ("Progressions as teachers write them", "Matching a take to a target"), worked by
 // hand below each case; voicings are MIDI numbers (middle C = 60).
 import { readFileSync } from "node:fs";
 import path from "node:path";
@@ -64,7 +64,7 @@ describe("setting exercises", () => {
   it("reads Roman numerals in a major key (D: I IV V I = D G A D) and a minor key (G minor: iiø7 V7 i = Am7b5 D7 Gm)", async () => {
     const major = await createExercise({ keys: "D", progression: "I IV V I" });
     expect(symbols(await expanded(major), "D")).toEqual(["D", "G", "A", "D"]);
-    // Minor keys use the natural minor with a major V unless written v (DOMAIN): ii° of G minor
+    // Minor keys use the natural minor with a major V unless written v (RULES.md): ii° of G minor
     // is A C Eb (+G = Am7b5), V7 is D F# A C, i is G Bb D.
     const minor = await createExercise({ keys: "Gm", progression: "iiø7 V7 i" }, [["focusTechniques", "added-second"]]);
     expect(symbols(await expanded(minor), "Gm")).toEqual(["Am7b5", "D7", "Gm"]);
@@ -151,7 +151,7 @@ describe("grading takes against the exercise", () => {
     expect(body.analysis.summary.mismatches).toEqual([{ kind: "wrong-chord", targetIndex: 2, playedIndex: 2, expected: "A", pass: 0 }]);
   });
 
-  it("a take that loops the target: vi IV I V played one and a half times in A♭ is k = 2, 6 of 8 = 0.75 (DOMAIN example)", async () => {
+  it("a take that loops the target: vi IV I V played one and a half times in A♭ is k = 2, 6 of 8 = 0.75 (RULES.md example)", async () => {
     const id = await createExercise({ keys: "Ab", progression: "vi IV I V" });
     const Fm = [65, 68, 72]; // F4 Ab4 C5
     const Db = [65, 68, 73]; // F4 Ab4 Db5
@@ -172,7 +172,7 @@ describe("grading takes against the exercise", () => {
     const id = await createExercise({ keys: "Ab", progression: "vi IV I V" }, [["focusTechniques", "open-voicing"]]);
     const bytes = new Uint8Array(readFileSync(path.resolve("samples", "sunday-ballad-ab.mid")));
     const body = await uploadAnalysed(dara, bytes, { exerciseId: id, key: "Ab" });
-    // DOMAIN's own matching example: one and a half times through is k = 2, 6 of 8.
+    // RULES.md's own matching example: one and a half times through is k = 2, 6 of 8.
     expect(body.analysis.summary).toMatchObject({ loops: 2, accuracy: 0.75 });
     expect(body.analysis.summary.mismatches!.map((m) => [m.kind, m.expected, m.pass])).toEqual([
       ["missing", "Ab", 1],

@@ -1,5 +1,5 @@
 // Feedback on a take: pinned comments, replies, read state, intended flags and the score they
-// change, review and undo. The take is played so its flags are known by hand (DOMAIN rule 9).
+// change, review and undo. The take is played so its flags are known by hand (RULES.md rule 9).
 import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";

@@ -1,7 +1,7 @@
 // Live grading in the recorder: what the panel shows while the student plays must be what the
 // take page shows afterwards. The reference is the engine's own analysis of the finished take
 // (itself checked against outside sources in tests/unit/analysis); the chord symbols and
-// motions below are the DOMAIN.md worked examples' arithmetic (rule 7 and 8) for D major.
+// motions below are the RULES.md worked examples' arithmetic (rule 7 and 8) for D major.
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";
@@ -44,7 +44,7 @@ describe("gradeSoFar", () => {
 
   it("reports flags on a change as soon as it is graded", () => {
     // G4 B4 D5 → C5 E5 G5: every voice up 5 in root position, motion 15, best 3, a
-    // root-position leap (DOMAIN.md worked example).
+    // root-position leap (RULES.md worked example).
     const notes = [...chord(0, [67, 71, 74]), ...chord(0.6, [72, 76, 79])];
     const live = gradeSoFar({ notes }, 1.4, { key: "C" });
     expect(live.changes).toHaveLength(1);

@@ -74,7 +74,7 @@ describe("sample takes show what they were made to show", () => {
     expect(r.chords.every((c) => c.pedal)).toBe(true);
     expect(analyseMidi(sample("three-chord-smoothing-d.mid")).chords.some((c) => c.pedal)).toBe(false);
     expect(r.chords.every((c) => c.notes.length === 4 && c.heldNotes.length === 0)).toBe(true);
-    // Played one and a half times: the target loops twice, 6 of 8 (DOMAIN matching example).
+    // Played one and a half times: the target loops twice, 6 of 8 (RULES.md matching example).
     expect(r.summary.loops).toBe(2);
     expect(r.summary.accuracy).toBe(0.75);
   });

@@ -1,4 +1,4 @@
-// Best motion and best voicing (DOMAIN rule 8). Expected values are DOMAIN.md's worked
+// Best motion and best voicing (RULES.md rule 8). Expected values are RULES.md's worked
 // examples (derived by hand from the rules), reverse directions worked out by hand the same
 // way, and a literal brute-force reading of rule 8 over a wide range of keys.
 import fc from "fast-check";
@@ -48,7 +48,7 @@ function bruteBest(a: number[], b: number[], opts: BestMotionOptions = {}): { mo
   return best;
 }
 
-// DOMAIN.md worked examples: from, to, best motion, best voicing
+// RULES.md worked examples: from, to, best motion, best voicing
 const WORKED: Array<[number[], number[], number, number[]]> = [
   [[53, 57, 60], [58, 62, 65], 3, [53, 58, 62]],
   [[53, 57, 60], [53, 58, 62], 3, [53, 58, 62]],
@@ -71,7 +71,7 @@ const REVERSED: Array<[number[], number[], number, number[]]> = [
   [[41, 53, 57, 60], [48, 60, 64, 67], 10, [48, 52, 55, 60]], // bass 7 + F3 A3 C4 -> E3 G3 C4 = 3
 ];
 
-describe("bestMotion (rule 8) on DOMAIN's worked examples", () => {
+describe("bestMotion (rule 8) on RULES.md's worked examples", () => {
   it.each(WORKED)("%j -> %j: best %i via %j, transposed too", (a, b, best, voicing) => {
     for (const t of [0, -9, -4, 2, 7, 12]) {
       const r = bestMotion(shift(a, t), shift(b, t));

@@ -1,4 +1,4 @@
-// Change flags (DOMAIN rules 9 and 10) on DOMAIN.md's worked examples. Inversions are given by
+// Change flags (RULES.md rules 9 and 10) on RULES.md's worked examples. Inversions are given by
 // hand here (naming belongs to the engine): F, Bb, C, G, Dm7, G7, C, F in root position, C/F etc.
 import { describe, expect, it } from "vitest";
 import { isRootPositionLeap, isTopLineLeap } from "../../../app/analysis/changeFlags";
@@ -47,7 +47,7 @@ describe("top-line leap (rule 10)", () => {
     expect(isTopLineLeap([60, 65, 69], [59, 62, 67])).toBe(false);
   });
 
-  it("flags none of DOMAIN's worked examples", () => {
+  it("flags none of RULES.md's worked examples", () => {
     for (const [a, b] of ROWS) expect(isTopLineLeap(a, b)).toBe(false);
   });
 });

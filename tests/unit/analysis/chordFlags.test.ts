@@ -1,4 +1,4 @@
-// Chord flags (DOMAIN rules 11, 12 and too-many-notes) and techniques (rules 13, 14), through
+// Chord flags (RULES.md rules 11, 12 and too-many-notes) and techniques (rules 13, 14), through
 // whole chords built from hand-made strikes.
 import { describe, expect, it } from "vitest";
 import { chordFlags, isDoubledBassThird, raisesNoChordFlag } from "../../../app/analysis/chordFlags";

@@ -22,8 +22,8 @@ function chord(pitches: number[], start = 0) {
 }
 const change = (a: number[], b: number[]) => gradeChange(0, 1, chord(a), chord(b), key);
 
-describe("grading a change (DOMAIN worked examples)", () => {
-  // Every row of DOMAIN.md's worked-example table, through the engine's naming (inversions
+describe("grading a change (RULES.md worked examples)", () => {
+  // Every row of RULES.md's worked-example table, through the engine's naming (inversions
   // decide rule 9) and grading; each also transposed up a minor third.
   it.each([
     [[53, 57, 60], [58, 62, 65], 15, 3, ["root-position-leap"]],

@@ -1,4 +1,4 @@
-// Low-interval limits (DOMAIN rule 12). Source of the table: Lowell & Pullig, "Arranging for
+// Low-interval limits (RULES.md rule 12). Source of the table: Lowell & Pullig, "Arranging for
 // Large Jazz Ensemble", as tabulated in the open-source elm-music-theory package.
 import { describe, expect, it } from "vitest";
 import { isMuddyLowInterval, lowIntervalLimit } from "../../../app/analysis/lowInterval";

@@ -1,4 +1,4 @@
-// Matching a take to a target (DOMAIN "Matching a take to a target"), including its worked
+// Matching a take to a target (RULES.md "Matching a take to a target"), including its worked
 // example: target vi IV I V played one and a half times gives k = 2 and 6 of 8 (75%).
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -15,7 +15,7 @@ const min = (r: number) => chord(t(r), "minor", [t(r), t(r + 3), t(r + 7)]);
 
 const KEYS = ["C", "Db", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
 
-describe("DOMAIN's loop example", () => {
+describe("RULES.md's loop example", () => {
   it.each(KEYS)("vi IV I V played as vi IV I V vi IV in %s: k = 2, 6 of 8 = 75%%", (k) => {
     const key: Key = parseKey(k);
     const s = key.tonic;
@@ -150,7 +150,7 @@ describe("free extensions versus named ones", () => {
   });
 });
 
-/** DOMAIN's matching rule read literally: every k up to well past the take's length, full table. */
+/** RULES.md's matching rule read literally: every k up to well past the take's length, full table. */
 function referenceMatch(played: PlayedIdentity[], target: ReturnType<typeof parseProgression>) {
   const sameP = (x: PlayedIdentity, y: PlayedIdentity) =>
     x.root === y.root && x.triad === y.triad && x.bass === y.bass && [...x.pcs].sort().join() === [...y.pcs].sort().join();

@@ -1,4 +1,4 @@
-// DOMAIN rules 4–6: naming, inversion and voicing, with tonal as the outside reference.
+// RULES.md rules 4–6: naming, inversion and voicing, with tonal as the outside reference.
 import { Chord, Note } from "tonal";
 import { describe, expect, it } from "vitest";
 import { chordReport } from "../../../app/analysis/chords";
@@ -17,7 +17,7 @@ const tonalPcs = (symbol: string) => new Set(Chord.get(symbol).notes.map((n) => 
 const ourPcs = (pitches: number[]) => new Set(pitches.map(pc));
 
 describe("rule 4: naming", () => {
-  // DOMAIN tie-break examples.
+  // RULES.md tie-break examples.
   it("A C F is F/A, not Am#5 (readings without an altered fifth first)", () => {
     const c = chord([57, 60, 65], "F");
     expect(c.symbol).toBe("F/A");

@@ -1,4 +1,4 @@
-// Target progressions: chord symbols and Roman numerals (DOMAIN "Progressions as teachers
+// Target progressions: chord symbols and Roman numerals (RULES.md "Progressions as teachers
 // write them"). Chord-symbol pitch classes are compared with tonal's Chord.get (tonal,
 // general-purpose music-theory library on npm); scale degrees follow common practice.
 import { Chord, Note } from "tonal";
@@ -17,7 +17,7 @@ const KEYS_MAJOR = ["C", "Db", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", 
 const KEYS_MINOR = ["Cm", "C#m", "Dm", "Ebm", "Em", "Fm", "F#m", "Gm", "G#m", "Am", "Bbm", "Bm"];
 const pcOf = (name: string) => Note.chroma(name)!;
 
-describe("DOMAIN's demo exercises", () => {
+describe("RULES.md's demo exercises", () => {
   it("iiø7 V7 i in G minor: Am7b5 D7 Gm", () => {
     const chords = parseProgression("iiø7 V7 i", parseKey("Gm"));
     expect(chords.map((c) => c.symbol)).toEqual(["Am7b5", "D7", "Gm"]);

@@ -1,4 +1,4 @@
-// Property tests (fast-check) for motion and best motion, DOMAIN rules 7 and 8.
+// Property tests (fast-check) for motion and best motion, RULES.md rules 7 and 8.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { bestMotion } from "../../../app/analysis/bestMotion";

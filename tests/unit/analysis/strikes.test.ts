@@ -1,4 +1,4 @@
-// DOMAIN rules 1–3 with small hand-made note lists (times in seconds).
+// RULES.md rules 1–3 with small hand-made note lists (times in seconds).
 import { describe, expect, it } from "vitest";
 import { findStrikes } from "../../../app/analysis/strikes";
 import type { NoteEvent } from "../../../app/analysis/types";

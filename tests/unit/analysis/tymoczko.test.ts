@@ -67,7 +67,7 @@ describe("best motion equals Tymoczko's minimal voice leading (Science 313, 2006
 
 describe("tonal's Voicing.sequence as a second opinion", () => {
   it("C F G C from C3..C5 moves 3, 6, 3 by rule 7", () => {
-    // Source: tonal (general-purpose music-theory library on npm), Voicing.sequence; DOMAIN.md
+    // Source: tonal (general-purpose music-theory library on npm), Voicing.sequence; RULES.md
     // lists its answer C3 E3 G3, C3 F3 A3, D3 G3 B3, E3 G3 C4.
     const voicings = Voicing.sequence(["C", "F", "G", "C"], ["C3", "C5"]);
     expect(voicings).toEqual([

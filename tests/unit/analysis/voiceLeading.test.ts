@@ -1,9 +1,9 @@
-// Motion (DOMAIN rule 7), detached bass and upper structure. Values are DOMAIN.md's worked
+// Motion (RULES.md rule 7), detached bass and upper structure. Values are RULES.md's worked
 // examples, derived by hand from the rules; each is checked both ways and transposed.
 import { describe, expect, it } from "vitest";
 import { detachedBass, motion, upperStructure, voiceLeadingPairs } from "../../../app/analysis/voiceLeading";
 
-/** DOMAIN.md "Worked examples": from, to, motion. */
+/** RULES.md "Worked examples": from, to, motion. */
 const WORKED_MOTION: Array<[number[], number[], number]> = [
   [[53, 57, 60], [58, 62, 65], 15],
   [[53, 57, 60], [53, 58, 62], 3],

@@ -1,5 +1,5 @@
 // Places of differences in the chord strip, on takes analysed by the real engine. Expected
-// places are worked by hand from DOMAIN's matching rule (alignment of take and looped target).
+// places are worked by hand from RULES.md's matching rule (alignment of take and looped target).
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";

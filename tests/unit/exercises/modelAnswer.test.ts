@@ -8,10 +8,10 @@ import { closeVoicing, defaultStart, fitsFirstChord, modelPath, pathPlan, shiftS
 const C = parseKey("C");
 
 describe("model answer: the smoothest path from the teacher's starting voicing", () => {
-  it("C F G C from C4 E4 G4 moves 3, 6, 3 semitones: the same totals as tonal's Voicing.sequence (DOMAIN reference)", () => {
+  it("C F G C from C4 E4 G4 moves 3, 6, 3 semitones: the same totals as tonal's Voicing.sequence (RULES.md reference)", () => {
     const path = modelPath(parseProgression("C F G C", C), [60, 64, 67]);
     expect(path.steps.map((s) => s.motion)).toEqual([null, 3, 6, 3]);
-    // DOMAIN worked examples: C4 E4 G4 -> C4 F4 A4 (3); C4 F4 A4 -> B3 D4 G4 (6, the lower of a tie).
+    // RULES.md worked examples: C4 E4 G4 -> C4 F4 A4 (3); C4 F4 A4 -> B3 D4 G4 (6, the lower of a tie).
     expect(path.steps.map((s) => s.voicing)).toEqual([
       [60, 64, 67],
       [60, 65, 69],
