@@ -82,6 +82,8 @@ export async function createUserSession(
   extraHeaders?: HeadersInit,
   activeStudioId?: string,
 ) {
+  // Checked before the row is written, so a refused target never leaves a session behind.
+  const target = safeRedirect(redirectTo);
   const session = db()
     .insert(sessions)
     .values({ userId, activeStudioId, expiresAt: new Date(Date.now() + SESSION_MS) })
@@ -89,7 +91,7 @@ export async function createUserSession(
     .get();
   const headers = new Headers(extraHeaders);
   headers.append("Set-Cookie", await sessionCookie().serialize(session.id));
-  return redirect(safeRedirect(redirectTo), { headers });
+  return redirect(target, { headers });
 }
 
 export async function destroyUserSession(request: Request, redirectTo = "/") {
@@ -100,10 +102,27 @@ export async function destroyUserSession(request: Request, redirectTo = "/") {
   });
 }
 
-/** Only same-site paths: never let `redirectTo` send someone to another host. */
-export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = "/home") {
-  if (typeof to !== "string" || !to.startsWith("/") || to.startsWith("//") || to.startsWith("/\\")) {
+const REDIRECT_BASE = "http://nearnote.invalid";
+
+/**
+ * The one check for every redirect target a request names (`redirectTo`, `back`): only a
+ * path on this site, else `fallback`. A reference starting with "//" names another host
+ * (RFC 3986 section 4.2, network-path reference). Browsers follow the WHATWG URL Standard,
+ * which also reads "\" as "/" and silently drops tabs and newlines, so "/\evil.example" and
+ * "/<tab>/evil.example" lead away too; and a control character in a Location header is
+ * refused by Node's Headers (a 500). So only printable ASCII without a backslash passes
+ * (our own links are percent-encoded, RFC 3986 section 2.1), and the result must resolve
+ * to our own origin.
+ */
+export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = "/home"): string {
+  if (typeof to !== "string" || to.length > 2048) return fallback;
+  if (!to.startsWith("/") || to.startsWith("//")) return fallback;
+  if (!/^[\x21-\x7e]+$/.test(to) || to.includes("\\")) return fallback;
+  let resolved: URL;
+  try {
+    resolved = new URL(to, REDIRECT_BASE);
+  } catch {
     return fallback;
   }
-  return to;
+  return resolved.origin === REDIRECT_BASE ? to : fallback;
 }

@@ -3,7 +3,8 @@
 // as they are; every answer sends the browser back to the take (or where `back` says).
 import { data, redirect } from "react-router";
 import type { Route } from "./+types/takes.$takeId.feedback";
-import { deny, isTeacherOfTake, requireTakeAccess } from "~/auth/access.server";
+import { deny, isTeacherOfTake, requireSameOrigin, requireTakeAccess } from "~/auth/access.server";
+import { safeRedirect } from "~/auth/session.server";
 import { flashHeader } from "~/lib/flash.server";
 import { sendFeedbackNotice } from "~/models/digest.server";
 import {
@@ -22,18 +23,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return redirect(`/takes/${take.id}`);
 }
 
-/** Only paths inside the app are followed, so the form cannot send anyone elsewhere. */
-function backTo(value: FormDataEntryValue | null, fallback: string) {
-  const v = typeof value === "string" ? value : "";
-  return v.startsWith("/") && !v.startsWith("//") ? v : fallback;
-}
-
+/** A resource route that changes data: it checks the origin itself. */
 export async function action({ request, params }: Route.ActionArgs) {
+  requireSameOrigin(request);
   const { user, take } = await requireTakeAccess(request, params.takeId);
   const form = await request.formData();
   const intent = String(form.get("intent") ?? "");
   const asTeacher = isTeacherOfTake(user, take);
-  const back = backTo(form.get("back"), `/takes/${take.id}`);
+  const back = safeRedirect(form.get("back"), `/takes/${take.id}`);
   const done = async (message: string, anchor = "") =>
     redirect(`${back}${anchor}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
   const fail = (message: string, status = 400) => data({ error: { intent, message } }, { status });
