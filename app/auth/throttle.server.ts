@@ -46,8 +46,37 @@ export function signInThrottle(email: string, address: string, now = new Date())
   return { blocked: false };
 }
 
-export function recordSignInFailure(email: string, address: string, now = new Date()) {
-  db().insert(signInFailures).values({ email, address, createdAt: now }).run();
+/**
+ * Checks the throttle and, when not blocked, records this attempt as a failure in the
+ * same transaction, before the slow password comparison. Parallel guesses therefore
+ * each see the ones before them: only MAX_FAILURES get as far as bcrypt, the rest are
+ * blocked. A correct password clears the record again (`clearSignInFailures`); for an
+ * attempt that ends in an unexpected error, `forgetSignInAttempt` takes it back.
+ */
+export function claimSignInAttempt(
+  email: string,
+  address: string,
+  now = new Date(),
+): { blocked: true; retryAt: Date } | { blocked: false; attemptId: string } {
+  return db().transaction(
+    (tx) => {
+      const state = signInThrottle(email, address, now);
+      if (state.blocked) return state;
+      const row = tx.insert(signInFailures).values({ email, address, createdAt: now }).returning({ id: signInFailures.id }).get();
+      trimOldFailures(now);
+      return { blocked: false as const, attemptId: row.id };
+    },
+    // IMMEDIATE takes the write lock before the count, so a second server process on the
+    // same database cannot count in between either.
+    { behavior: "immediate" },
+  );
+}
+
+export function forgetSignInAttempt(attemptId: string) {
+  db().delete(signInFailures).where(eq(signInFailures.id, attemptId)).run();
+}
+
+function trimOldFailures(now: Date) {
   // Old rows are worthless; trim them as we go rather than with a scheduled job.
   db()
     .delete(signInFailures)
@@ -55,6 +84,7 @@ export function recordSignInFailure(email: string, address: string, now = new Da
     .run();
 }
 
+/** A successful sign-in clears this e-mail and address's record, its own claimed attempt included. */
 export function clearSignInFailures(email: string, address: string) {
   db()
     .delete(signInFailures)

@@ -3,7 +3,7 @@ import type { Route } from "./+types/login";
 import { requireAnonymous } from "~/auth/access.server";
 import { authenticator, InvalidCredentialsError, loginSchema } from "~/auth/authenticator.server";
 import { createUserSession, safeRedirect } from "~/auth/session.server";
-import { clearSignInFailures, clientAddress, recordSignInFailure, retryMessage, signInThrottle } from "~/auth/throttle.server";
+import { claimSignInAttempt, clearSignInFailures, clientAddress, forgetSignInAttempt, retryMessage } from "~/auth/throttle.server";
 import { formFailure, parseForm, type FieldErrors } from "~/auth/validate.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
@@ -26,7 +26,9 @@ export async function action({ request }: Route.ActionArgs) {
   const email = parsed.data.email;
   const address = clientAddress(request);
 
-  const throttle = signInThrottle(email, address);
+  // The attempt counts as a failure from here on, before the slow password check, so
+  // parallel guesses cannot all pass the throttle at once.
+  const throttle = claimSignInAttempt(email, address);
   if (throttle.blocked) {
     const seconds = Math.max(1, Math.ceil((throttle.retryAt.getTime() - Date.now()) / 1000));
     return data(
@@ -40,8 +42,10 @@ export async function action({ request }: Route.ActionArgs) {
     clearSignInFailures(email, address);
     return createUserSession(user.id, safeRedirect(form.get("redirectTo")));
   } catch (error) {
-    if (!(error instanceof InvalidCredentialsError)) throw error;
-    recordSignInFailure(email, address);
+    if (!(error instanceof InvalidCredentialsError)) {
+      forgetSignInAttempt(throttle.attemptId);
+      throw error;
+    }
     return formFailure(form, {}, error.message, undefined, 401);
   }
 }
