@@ -11,6 +11,8 @@ import { printDemoSignIns, seed } from "./seed";
 process.env.HOST ??= "127.0.0.1";
 process.env.PORT ??= "3000";
 process.env.APP_URL ??= `http://${process.env.HOST}:${process.env.PORT}`;
+// The demo is allowed to start from nothing: it creates its storage folder.
+process.env.STORAGE_CREATE ??= "1";
 const config = loadEnvOrExit();
 buildIfNeeded();
 

@@ -15,6 +15,7 @@ process.env.DATABASE_PATH = path.join(storageDir, "e2e.db");
 process.env.HOST = "127.0.0.1";
 process.env.PORT ??= "3210";
 process.env.APP_URL = `http://127.0.0.1:${process.env.PORT}`;
+process.env.STORAGE_CREATE ??= "1";
 const config = loadEnvOrExit();
 
 const { studioId } = await seedDemoStudio(db());

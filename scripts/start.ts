@@ -2,6 +2,8 @@
 import { db, closeDatabaseForTests } from "~/db/client.server";
 import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
 
+// A first start may create the storage folder when asked to; otherwise a missing one stops start-up.
+if (process.argv.includes("--create-storage")) process.env.STORAGE_CREATE = "1";
 const config = loadEnvOrExit();
 db(); // applies pending migrations before the first request
 closeDatabaseForTests();

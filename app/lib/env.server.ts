@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { chmodSync, existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { z } from "zod";
 
@@ -19,6 +19,15 @@ const schema = z.object({
     .optional(),
   HOST: z.string().min(1).default("127.0.0.1"),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  // Longest a worker may spend on one take before it is kept as "too complex to grade".
+  ANALYSIS_TIME_LIMIT_MS: z.coerce
+    .number({ error: "ANALYSIS_TIME_LIMIT_MS must be a number of milliseconds" })
+    .int()
+    .min(100, "ANALYSIS_TIME_LIMIT_MS must be at least 100")
+    .max(600_000, "ANALYSIS_TIME_LIMIT_MS must be at most 600000 (ten minutes)")
+    .default(15_000),
+  // A missing storage folder is created only when asked: an unmounted volume must not look like an empty studio.
+  STORAGE_CREATE: z.enum(["0", "1"], { error: "STORAGE_CREATE must be 0 or 1" }).optional(),
 });
 
 export type Env = {
@@ -30,6 +39,8 @@ export type Env = {
   smtpUrl: string | undefined;
   host: string;
   port: number;
+  analysisTimeLimitMs: number;
+  createStorage: boolean;
 };
 
 export class ConfigError extends Error {}
@@ -54,6 +65,8 @@ export function parseEnv(source: NodeJS.ProcessEnv): Omit<Env, "sessionSecret"> 
     smtpUrl: e.SMTP_URL,
     host: e.HOST,
     port: e.PORT,
+    analysisTimeLimitMs: e.ANALYSIS_TIME_LIMIT_MS,
+    createStorage: e.STORAGE_CREATE === "1",
   };
 }
 
@@ -69,11 +82,31 @@ export function loadOrCreateSecret(storageDir: string, log = console.warn): stri
   return secret;
 }
 
+/**
+ * Refuses a storage folder that is not there, unless creating it was asked for
+ * (the demo, or a first start with STORAGE_CREATE=1 / `npm start -- --create-storage`).
+ */
+export function ensureStorageDir(storageDir: string, create: boolean, log = console.warn) {
+  if (existsSync(storageDir)) {
+    if (!statSync(storageDir).isDirectory()) throw new ConfigError(`Nearnote cannot start: STORAGE_DIR ${storageDir} is not a folder.`);
+    return;
+  }
+  if (!create) {
+    throw new ConfigError(
+      `Nearnote cannot start: the storage folder ${storageDir} does not exist. ` +
+        "If the storage volume is not mounted, mount it; on a first start, set STORAGE_CREATE=1 (or run `npm start -- --create-storage`) to create it.",
+    );
+  }
+  mkdirSync(storageDir, { recursive: true });
+  log(`[nearnote] created the storage folder ${storageDir}`);
+}
+
 let cached: Env | undefined;
 
 export function env(): Env {
   if (!cached) {
     const parsed = parseEnv(process.env);
+    ensureStorageDir(parsed.storageDir, parsed.createStorage);
     cached = {
       ...parsed,
       sessionSecret: parsed.sessionSecret ?? loadOrCreateSecret(parsed.storageDir),

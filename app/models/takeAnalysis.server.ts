@@ -1,13 +1,14 @@
 import { eq } from "drizzle-orm";
-import { AnalysisError, analyseMidi, ProgressionError, type TakeAnalysis } from "~/analysis";
+import type { TakeAnalysis } from "~/analysis";
 import type { Db } from "~/db/client.server";
 import { changeResults, chordEvents, exercises, takeMetrics } from "~/db/schema";
+import { analyseTake, type AnalysisOutcome } from "~/lib/analysisWorker/task";
 import { targetTextForKey } from "~/lib/exerciseProgression";
 import { applyIntendedFlags } from "./intendedFlags.server";
 
 type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
-export type AnalysisOutcome = { ok: true; analysis: TakeAnalysis } | { ok: false; error: string };
+export type { AnalysisOutcome };
 
 /** What the engine needs to know about the exercise a take belongs to: its target in the take's key. */
 export function exerciseTarget(database: Db | Tx, exerciseId: string | null, key: string | null = null): string | undefined {
@@ -17,21 +18,11 @@ export function exerciseTarget(database: Db | Tx, exerciseId: string | null, key
 }
 
 /**
- * Runs the engine on a take's bytes. A file the engine refuses (truncated, no
- * notes, too long…) becomes a failed outcome with the engine's one-line reason;
- * anything else is a bug and is rethrown.
+ * Runs the engine on a take's bytes on this thread. Only for the command line
+ * (seeding, benchmarks): the server analyses uploads with `analyseInWorker`.
  */
 export function analyseTakeBytes(bytes: Uint8Array, options: { key?: string | null; target?: string }): AnalysisOutcome {
-  try {
-    return { ok: true, analysis: analyseMidi(bytes, { key: options.key ?? undefined, target: options.target }) };
-  } catch (e) {
-    if (e instanceof AnalysisError) return { ok: false, error: e.message };
-    if (e instanceof ProgressionError) {
-      // The exercise's target no longer parses: grade without it rather than lose the take.
-      return analyseTakeBytes(bytes, { key: options.key });
-    }
-    throw e;
-  }
+  return analyseTake(bytes, options);
 }
 
 /** Replaces a take's metric, chord and change rows with those of `analysis` (inside the caller's transaction). */

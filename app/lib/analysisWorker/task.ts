@@ -1,0 +1,40 @@
+// What one analysis worker does with one take. Runs inside a worker thread
+// (see entry.mjs), so it imports the engine by relative path only.
+import type { MessagePort } from "node:worker_threads";
+import { analyseMidi, AnalysisError, ProgressionError } from "../../analysis/index";
+import type { TakeAnalysis } from "../../analysis/types";
+
+export type AnalysisTask = {
+  bytes: Uint8Array;
+  key?: string | null;
+  target?: string;
+  /** Told when the worker starts on this take, so queue time does not count against the time limit. */
+  started?: MessagePort;
+};
+
+export type AnalysisOutcome =
+  | { ok: true; analysis: TakeAnalysis }
+  | { ok: false; error: string; code?: string };
+
+/**
+ * A file the engine refuses (truncated, no notes, too long…) becomes a failed
+ * outcome with the engine's one-line reason; anything else is a bug and is rethrown.
+ */
+export function analyseTake(bytes: Uint8Array, options: { key?: string | null; target?: string }): AnalysisOutcome {
+  try {
+    return { ok: true, analysis: analyseMidi(bytes, { key: options.key ?? undefined, target: options.target }) };
+  } catch (e) {
+    if (e instanceof AnalysisError) return { ok: false, error: e.message, code: e.code };
+    if (e instanceof ProgressionError && options.target !== undefined) {
+      // The exercise's target no longer parses: grade without it rather than lose the take.
+      return analyseTake(bytes, { key: options.key });
+    }
+    throw e;
+  }
+}
+
+export default function runTask(task: AnalysisTask): AnalysisOutcome {
+  task.started?.postMessage("started");
+  task.started?.close();
+  return analyseTake(task.bytes, task);
+}
