@@ -58,6 +58,29 @@ export async function requireOwner(request: Request, mode: AccessMode = "page"):
   return user;
 }
 
+/**
+ * A co-teacher of the owner's active studio, for removing them: only the owner may, and
+ * only a co-teacher (so nobody can remove the owner).
+ */
+export async function requireCoTeacherOfOwner(request: Request, teacherId: string | undefined, mode: AccessMode = "page") {
+  const user = await requireOwner(request, mode);
+  const row = teacherId
+    ? db()
+        .select()
+        .from(memberships)
+        .where(
+          and(
+            eq(memberships.userId, teacherId),
+            eq(memberships.studioId, user.active.studioId),
+            eq(memberships.role, "teacher"),
+          ),
+        )
+        .get()
+    : undefined;
+  if (!row) deny(mode, "Only a co-teacher of your studio can be removed.");
+  return { user, membership: row };
+}
+
 export async function requireStudent(request: Request, mode: AccessMode = "page"): Promise<StudentContext> {
   const user = await requireUser(request, mode);
   if (!user.active || user.active.role !== "student") deny(mode, "This page is for students.");
@@ -84,6 +107,16 @@ export async function requireTakeAccess(
   if (!take) notFound(mode, "There is no such take.");
   if (!canSeeTake(user, take)) deny(mode, "This take belongs to someone else.");
   return { user, take };
+}
+
+/**
+ * Changing a take (moving, replacing, replying on it) needs an active membership in
+ * the take's own studio: a removed student still reads their takes but changes none.
+ */
+export function requireActiveInStudio(user: SessionUser, studioId: string, mode: AccessMode = "page") {
+  if (!user.studios.some((s) => s.studioId === studioId)) {
+    deny(mode, "You are no longer a member of this take's studio, so it cannot be changed.");
+  }
 }
 
 /** A teacher of the take's studio: comments on it, marks flags intended, reviews it. */

@@ -14,11 +14,11 @@ import { ProgressionError, type TakeAnalysis } from "~/analysis";
 import { parseKey } from "~/analysis/pitch";
 import type { SessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
-import { takes } from "~/db/schema";
+import { takes, type Take } from "~/db/schema";
 import { targetTextForKey } from "~/lib/exerciseProgression";
-import { newFileKey, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
-import { analyseTakeBytes } from "~/models/takeAnalysis.server";
-import { createTakeRecord, deleteTake, exerciseForStudent } from "~/models/takes.server";
+import { analyseInWorker } from "~/lib/analysisPool.server";
+import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
+import { createTakeRecord, exerciseForStudent, replaceTakeRecord } from "~/models/takes.server";
 
 // One module for every way a take arrives: the API route, the upload page's
 // no-JavaScript form, and "replace this take".
@@ -80,11 +80,16 @@ async function parseUpload(request: Request): Promise<{ form: FormData; files: S
     await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
     if (e instanceof MaxFileSizeExceededError || e instanceof MaxTotalSizeExceededError) throw new UploadRefused(413, tooBig());
     if (e instanceof MaxFilesExceededError) throw new UploadRefused(413, `Send at most ${MAX_FILES} files at once.`);
-    if (e instanceof FormDataParseError || e instanceof MultipartParseError) {
+    if (e instanceof FormDataParseError || e instanceof MultipartParseError || isMalformedText(e)) {
       throw new UploadRefused(400, "The upload could not be read; try sending the file again.");
     }
     throw e;
   }
+}
+
+/** A part header that is not valid UTF-8 makes the parser's strict text decoder throw. */
+function isMalformedText(e: unknown) {
+  return e instanceof TypeError && (e as NodeJS.ErrnoException).code === "ERR_ENCODING_INVALID_ENCODED_DATA";
 }
 
 function tooBig() {
@@ -108,51 +113,51 @@ function parseRecordedAt(value: string | undefined, fallback: number | undefined
   return new Date(now);
 }
 
-/** Checks, analyses and saves one stored file for the student. */
-async function ingest(user: SessionUser, file: Stored, fields: UploadFields): Promise<UploadResult> {
+/** Where an ingested file goes: a new take in a studio, or in place of an existing take. */
+type Destination = { studioId: string; replacing?: { id: string; fileKey: string } };
+
+/** Checks, analyses and saves one stored file for the student; every refusal removes the file. */
+async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to: Destination): Promise<UploadResult> {
   const fileName = file.originalName;
-  const studioId = user.active!.studioId;
+  const studioId = to.studioId;
   const fail = async (status: number, error: string, extra: UploadBody = {}): Promise<UploadResult> => {
     await removeTakeFile(file.fileKey);
     return { status, body: { error, ...extra }, fileName };
   };
-  const stored = await takeStorage().get(file.fileKey);
-  const bytes = stored ? new Uint8Array(await stored.arrayBuffer()) : new Uint8Array();
-  if (bytes.length < 4 || MIDI_SIGNATURE.some((b, i) => bytes[i] !== b)) {
-    return fail(415, "This is not a MIDI file: save or export the take as a Standard MIDI File (.mid).");
-  }
-  const contentHash = createHash("sha256").update(bytes).digest("hex");
-  const existing = db()
-    .select({ id: takes.id })
-    .from(takes)
-    .where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash)))
-    .get();
-  if (existing) return fail(409, "You have uploaded this take already.", { id: existing.id });
-
-  let key = fields.key ?? null;
-  let target: string | undefined;
-  if (fields.exerciseId) {
-    const exercise = exerciseForStudent(user.id, studioId, fields.exerciseId);
-    if (!exercise) return fail(400, "That exercise is not one of yours.");
-    key ??= exercise.keys[0] ?? null;
-    if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
-    target = targetTextForKey(exercise.progression, exercise.keys, key);
-  }
-  if (key) {
-    try {
-      parseKey(key);
-    } catch (e) {
-      if (e instanceof ProgressionError) return fail(400, `"${key}" is not a key Nearnote knows (try D, Ab, F# or Gm).`);
-      throw e;
-    }
-  }
-
-  const outcome = analyseTakeBytes(bytes, { key, target });
-  const recordedAt = parseRecordedAt(fields.recordedAt, file.lastModified);
   try {
-    const id = createTakeRecord({
-      studentId: user.id,
-      studioId,
+    const stored = await takeStorage().get(file.fileKey);
+    const bytes = stored ? new Uint8Array(await stored.arrayBuffer()) : new Uint8Array();
+    if (bytes.length < 4 || MIDI_SIGNATURE.some((b, i) => bytes[i] !== b)) {
+      return fail(415, "This is not a MIDI file: save or export the take as a Standard MIDI File (.mid).");
+    }
+    const contentHash = createHash("sha256").update(bytes).digest("hex");
+    const existing = db()
+      .select({ id: takes.id })
+      .from(takes)
+      .where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash)))
+      .get();
+    if (existing) return fail(409, "You have uploaded this take already.", { id: existing.id });
+
+    let key = fields.key ?? null;
+    let target: string | undefined;
+    if (fields.exerciseId) {
+      const exercise = exerciseForStudent(user.id, studioId, fields.exerciseId);
+      if (!exercise) return fail(400, "That exercise is not one of yours.");
+      key ??= exercise.keys[0] ?? null;
+      if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
+      target = targetTextForKey(exercise.progression, exercise.keys, key);
+    }
+    if (key) {
+      try {
+        parseKey(key);
+      } catch (e) {
+        if (e instanceof ProgressionError) return fail(400, `"${key}" is not a key Nearnote knows (try D, Ab, F# or Gm).`);
+        throw e;
+      }
+    }
+
+    const outcome = await analyseInWorker(bytes, { key, target });
+    const record = {
       exerciseId: fields.exerciseId ?? null,
       key,
       note: fields.note,
@@ -160,19 +165,33 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields): Pr
       originalName: fileName,
       size: bytes.length,
       contentHash,
-      recordedAt,
+      recordedAt: parseRecordedAt(fields.recordedAt, file.lastModified),
       outcome,
-    });
+    };
+    let id: string;
+    try {
+      if (to.replacing) {
+        const replaced = replaceTakeRecord(to.replacing.id, to.replacing.fileKey, record);
+        if (!replaced) return fail(409, "This take was replaced or deleted meanwhile; open it again to see what it holds now.");
+        await removeTakeFilesAfterRows([replaced]);
+        id = to.replacing.id;
+      } else {
+        id = createTakeRecord({ studentId: user.id, studioId, ...record });
+      }
+    } catch (e) {
+      // The same content arriving twice at once: the unique index decides.
+      if (e instanceof Error && /UNIQUE constraint failed: takes\.student_id/.test(e.message)) {
+        const twin = db().select({ id: takes.id }).from(takes).where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash))).get();
+        return fail(409, "You have uploaded this take already.", { id: twin?.id });
+      }
+      throw e;
+    }
     return outcome.ok
       ? { status: 201, body: { id, status: "analysed", analysis: outcome.analysis }, fileName }
       : { status: 422, body: { id, status: "failed", error: outcome.error }, fileName };
   } catch (e) {
-    // The same content arriving twice at once: the unique index decides.
-    if (e instanceof Error && /UNIQUE constraint failed: takes\.student_id/.test(e.message)) {
-      const twin = db().select({ id: takes.id }).from(takes).where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash))).get();
-      return fail(409, "You have uploaded this take already.", { id: twin?.id });
-    }
-    await removeTakeFile(file.fileKey);
+    // Nothing refers to the file yet: an unexpected error must not leave it behind.
+    await removeTakeFile(file.fileKey).catch(() => {});
     throw e;
   }
 }
@@ -206,7 +225,7 @@ export async function uploadOneTake(request: Request, user: SessionUser): Promis
       await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
       throw new UploadRefused(400, mine.length === 0 ? "Choose a MIDI file to upload." : "Send one file per request.");
     }
-    return await ingest(user, mine[0], fields);
+    return await ingest(user, mine[0], fields, { studioId: user.active!.studioId });
   } catch (e) {
     return refusal(e);
   }
@@ -219,7 +238,15 @@ export async function uploadTakesFromForm(request: Request, user: SessionUser): 
     const fields = await readFields(form, files);
     if (files.length === 0) throw new UploadRefused(400, "Choose one or more MIDI files to upload.");
     const results: UploadResult[] = [];
-    for (const f of files) results.push(await ingest(user, f, fields));
+    for (const [i, f] of files.entries()) {
+      try {
+        results.push(await ingest(user, f, fields, { studioId: user.active!.studioId }));
+      } catch (e) {
+        // The files not reached yet have no row either.
+        await Promise.all(files.slice(i + 1).map((rest) => removeTakeFile(rest.fileKey).catch(() => {})));
+        throw e;
+      }
+    }
     return results;
   } catch (e) {
     return [refusal(e)];
@@ -227,12 +254,12 @@ export async function uploadTakesFromForm(request: Request, user: SessionUser): 
 }
 
 /**
- * Replaces a take with a new recording: the new file keeps the old take's
- * exercise, key and note unless the form gives others; the old take goes once
- * the new one is safely saved.
+ * Replaces a take with a new recording, in place and in the take's own studio
+ * (whichever studio is active): the new file keeps the take's exercise, key and
+ * note unless the form gives others, and the take keeps its comments, review
+ * state and intended-flag marks. The old file goes once the new one is saved.
  */
-export async function replaceTakeFromForm(request: Request, user: SessionUser, takeId: string): Promise<UploadResult> {
-  const old = db().select().from(takes).where(eq(takes.id, takeId)).get();
+export async function replaceTakeFromForm(request: Request, user: SessionUser, take: Take): Promise<UploadResult> {
   try {
     const { form, files } = await parseUpload(request);
     const fields = await readFields(form, files);
@@ -240,14 +267,17 @@ export async function replaceTakeFromForm(request: Request, user: SessionUser, t
       await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
       throw new UploadRefused(400, "Choose one MIDI file to replace this take with.");
     }
-    const result = await ingest(user, files[0], {
-      exerciseId: fields.exerciseId ?? old?.exerciseId ?? undefined,
-      key: fields.key ?? old?.key ?? undefined,
-      recordedAt: fields.recordedAt,
-      note: fields.note || old?.note || "",
-    });
-    if ((result.status === 201 || result.status === 422) && old) await deleteTake(old.id);
-    return result;
+    return await ingest(
+      user,
+      files[0],
+      {
+        exerciseId: fields.exerciseId ?? take.exerciseId ?? undefined,
+        key: fields.key ?? take.key ?? undefined,
+        recordedAt: fields.recordedAt,
+        note: fields.note || take.note || "",
+      },
+      { studioId: take.studioId, replacing: { id: take.id, fileKey: take.fileKey } },
+    );
   } catch (e) {
     return refusal(e);
   }

@@ -3,7 +3,7 @@ import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
 import { db } from "~/db/client.server";
-import { commentReads, comments, exercises, intendedFlags, takeMetrics, takeReviews, takes, users } from "~/db/schema";
+import { commentReads, comments, exercises, intendedFlags, memberships, takeMetrics, takeReviews, takes, users } from "~/db/schema";
 import { applyIntendedFlags } from "./intendedFlags.server";
 
 // Feedback on takes: comments (whole take or pinned to a change) and replies, who has read
@@ -39,6 +39,14 @@ function analysisOf(takeId: string) {
 /** Adds a comment or a reply; a reply to a reply joins the same thread. Returns the new comment's id. */
 export function addComment(input: { takeId: string; authorId: string; body: string; changeIdx: number | null; parentId: string | null }): string {
   let { changeIdx, parentId } = input;
+  // Only someone active in the take's studio may write on it (a removed student reads, never writes).
+  const member = db()
+    .select({ id: memberships.id })
+    .from(takes)
+    .innerJoin(memberships, and(eq(memberships.studioId, takes.studioId), eq(memberships.userId, input.authorId), eq(memberships.status, "active")))
+    .where(eq(takes.id, input.takeId))
+    .get();
+  if (!member) throw new FeedbackRefused("You are no longer a member of this take's studio, so you cannot write on it.");
   if (parentId) {
     const parent = db().select().from(comments).where(eq(comments.id, parentId)).get();
     if (!parent || parent.takeId !== input.takeId) throw new FeedbackRefused("That comment is not on this take.");

@@ -2,11 +2,11 @@ import { and, desc, eq, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
-import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
+import { analyseInWorker } from "~/lib/analysisPool.server";
+import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
 import { weekKey } from "~/lib/weeks";
 import { studioTimeZone } from "./progress.server";
 import {
-  analyseTakeBytes,
   clearAnalysisRows,
   exerciseTarget,
   writeAnalysisRows,
@@ -227,12 +227,29 @@ export function exerciseForStudent(studentId: string, studioId: string, exercise
   return listExercisesForStudent(studentId, studioId).find((e) => e.id === exerciseId) ?? null;
 }
 
-/** Removes the take, its rows (by cascade) and its file. */
+/** Removes the take and its rows (by cascade) first, then its file. */
 export async function deleteTake(takeId: string) {
   const take = db().select().from(takes).where(eq(takes.id, takeId)).get();
   if (!take) return;
   db().delete(takes).where(eq(takes.id, takeId)).run();
-  await removeTakeFile(take.fileKey);
+  await removeTakeFilesAfterRows([take.fileKey]);
+}
+
+/**
+ * Writes an analysis outcome onto a take, provided the take still has the file that
+ * was analysed (it may have been replaced or deleted while a worker was busy).
+ */
+function writeOutcome(take: Pick<Take, "id" | "fileKey">, outcome: AnalysisOutcome): boolean {
+  return db().transaction((tx) => {
+    const set = outcome.ok
+      ? { status: "analysed" as const, error: null, durationSec: outcome.analysis.summary.durationSec, analysisVersion: ANALYSIS_VERSION }
+      : { status: "failed" as const, error: outcome.error, analysisVersion: ANALYSIS_VERSION };
+    const updated = tx.update(takes).set(set).where(and(eq(takes.id, take.id), eq(takes.fileKey, take.fileKey))).run();
+    if (updated.changes !== 1) return false;
+    if (outcome.ok) writeAnalysisRows(tx, take.id, outcome.analysis);
+    else clearAnalysisRows(tx, take.id);
+    return true;
+  });
 }
 
 /** Re-runs the engine on a stored take from its file (after a move, or a newer engine). */
@@ -241,28 +258,40 @@ export async function reanalyseTake(takeId: string): Promise<"analysed" | "faile
   if (!take) return null;
   const bytes = await readTakeFile(take.fileKey);
   if (!bytes) return null;
-  const outcome = analyseTakeBytes(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId, take.key) });
-  db().transaction((tx) => {
-    if (outcome.ok) {
-      writeAnalysisRows(tx, take.id, outcome.analysis);
-      tx.update(takes)
-        .set({
-          status: "analysed",
-          error: null,
-          durationSec: outcome.analysis.summary.durationSec,
-          analysisVersion: ANALYSIS_VERSION,
-        })
-        .where(eq(takes.id, take.id))
-        .run();
-    } else {
-      clearAnalysisRows(tx, take.id);
-      tx.update(takes)
-        .set({ status: "failed", error: outcome.error, analysisVersion: ANALYSIS_VERSION })
-        .where(eq(takes.id, take.id))
-        .run();
-    }
-  });
+  const outcome = await analyseInWorker(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId, take.key) });
+  if (!writeOutcome(take, outcome)) return null;
   return outcome.ok ? "analysed" : "failed";
+}
+
+export type Replacement = Omit<NewTake, "studentId" | "studioId">;
+
+/**
+ * Puts a new recording into an existing take, in place: the take keeps its id,
+ * studio, comments, review state and intended-flag marks (all point to the take).
+ * The take is claimed by the file it had when the replacement began, so of
+ * several replacements racing only one lands; returns the file key it replaced,
+ * or null when the take was replaced or deleted meanwhile.
+ */
+export function replaceTakeRecord(takeId: string, expectedFileKey: string, r: Replacement): string | null {
+  const { outcome, ...fields } = r;
+  return db().transaction((tx) => {
+    const take = tx.select({ studioId: takes.studioId }).from(takes).where(and(eq(takes.id, takeId), eq(takes.fileKey, expectedFileKey))).get();
+    if (!take) return null;
+    tx.update(takes)
+      .set({
+        ...fields,
+        status: outcome.ok ? "analysed" : "failed",
+        error: outcome.ok ? null : outcome.error,
+        weekKey: takeWeekKey(take.studioId, r.recordedAt),
+        durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
+        analysisVersion: ANALYSIS_VERSION,
+      })
+      .where(eq(takes.id, takeId))
+      .run();
+    if (outcome.ok) writeAnalysisRows(tx, takeId, outcome.analysis);
+    else clearAnalysisRows(tx, takeId);
+    return expectedFileKey;
+  });
 }
 
 /** Attaches a take to another exercise (or none) and grades it again against that target. */

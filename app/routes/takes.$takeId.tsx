@@ -2,7 +2,7 @@ import { useMemo } from "react";
 import { data, Link, redirect, useActionData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/takes.$takeId";
-import { deny, isTeacherOfTake, requireTakeAccess } from "~/auth/access.server";
+import { deny, isTeacherOfTake, requireActiveInStudio, requireTakeAccess } from "~/auth/access.server";
 import { buttonClass } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { FlashMessage } from "~/components/FlashMessage";
@@ -62,7 +62,8 @@ export async function action({ request, params }: Route.ActionArgs) {
 
   // A replacement arrives as multipart; the parser must read the body first, so its intent is in the URL.
   if (new URL(request.url).searchParams.get("intent") === "replace") {
-    const result = await replaceTakeFromForm(request, user, take.id);
+    requireActiveInStudio(user, take.studioId);
+    const result = await replaceTakeFromForm(request, user, take);
     if ((result.status === 201 || result.status === 422) && result.body.id) {
       return done(`/takes/${result.body.id}`, result.status === 201 ? "Take replaced and analysed." : "Take replaced, but the new file could not be analysed.");
     }
@@ -77,6 +78,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     return done("/home", "Take deleted, with its file.");
   }
   if (intent === "move") {
+    requireActiveInStudio(user, take.studioId);
     const parsed = moveSchema.safeParse(Object.fromEntries(form));
     if (!parsed.success) return fail("move", "Choose an exercise and a key.");
     let { exerciseId, key } = parsed.data;
@@ -132,8 +134,8 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       ) : null}
 
       {take.status === "analysed" && analysis ? (
-        // Keyed by take: after a replace the new take starts with a fresh selection and playback.
-        <TakeAnalysisView key={take.id} analysis={analysis} notes={notes} durationSec={take.durationSec}
+        // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.
+        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec}
           changeExtras={(i) => (
             <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
           )}

@@ -222,7 +222,8 @@ describe("reading and managing takes", () => {
     const s = await uploaded();
     await moveTake(s.takeId, s.exercise.id, "D");
     const user = (await getSessionUser(get("/", s.dara)))!;
-    const result = await replaceTakeFromForm(upload(s.dara, multipart([{ name: "better.mid", bytes: sample("three-chord-smoothing-d.mid") }])), user, s.takeId);
+    const take = db().select().from(takes).where(eq(takes.id, s.takeId)).get()!;
+    const result = await replaceTakeFromForm(upload(s.dara, multipart([{ name: "better.mid", bytes: sample("three-chord-smoothing-d.mid") }])), user, take);
     expect(result.status).toBe(201);
     const all = db().select().from(takes).all();
     expect(all.map((t) => t.id)).toEqual([result.body.id]);
