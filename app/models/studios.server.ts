@@ -67,20 +67,29 @@ export function addMember(studioId: string, userId: string, role: MembershipRole
   db().insert(memberships).values({ studioId, userId, role }).run();
 }
 
-/** Takes them off the roster: their takes stay, the membership is marked removed. */
-export function removeStudent(studioId: string, studentId: string): boolean {
+/**
+ * Takes a student or co-teacher off the roster: the membership is marked removed, so every
+ * power it gave (board, exports, deleting students' data) ends with the next request; a
+ * student's takes stay. Never the owner: the role must match.
+ */
+export function removeMember(studioId: string, userId: string, role: "student" | "teacher"): boolean {
   const result = db()
     .update(memberships)
     .set({ status: "removed", removedAt: new Date() })
     .where(
-      and(eq(memberships.studioId, studioId), eq(memberships.userId, studentId), eq(memberships.role, "student")),
+      and(
+        eq(memberships.studioId, studioId),
+        eq(memberships.userId, userId),
+        eq(memberships.role, role),
+        eq(memberships.status, "active"),
+      ),
     )
     .run();
   // Sessions pointed at this studio fall back to another one on the next request.
   db()
     .update(sessions)
     .set({ activeStudioId: null })
-    .where(and(eq(sessions.userId, studentId), eq(sessions.activeStudioId, studioId)))
+    .where(and(eq(sessions.userId, userId), eq(sessions.activeStudioId, studioId)))
     .run();
   return result.changes === 1;
 }

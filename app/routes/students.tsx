@@ -1,7 +1,7 @@
 import { data, Form, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/students";
-import { requireStudentOfTeacher, requireTeacher } from "~/auth/access.server";
+import { requireCoTeacherOfOwner, requireStudentOfTeacher, requireTeacher } from "~/auth/access.server";
 import { formFailure, parseForm } from "~/auth/validate.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
@@ -18,7 +18,7 @@ import {
   resendInvitation,
   revokeInvitation,
 } from "~/models/invitations.server";
-import { deleteStudentData, removeStudent, studioRoster } from "~/models/studios.server";
+import { deleteStudentData, removeMember, studioRoster } from "~/models/studios.server";
 import { emailSchema } from "~/models/users.server";
 import { InviteForm, RosterRow, PendingRow } from "./students.parts";
 
@@ -62,6 +62,7 @@ const studentSchema = z.object({
   studentId: z.string().min(1),
   confirm: z.string().optional(),
 });
+const teacherSchema = z.object({ intent: z.literal("remove-teacher"), teacherId: z.string().min(1) });
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireTeacher(request);
@@ -120,7 +121,7 @@ export async function action({ request }: Route.ActionArgs) {
     if (!parsed.ok) return parsed.response;
     await requireStudentOfTeacher(request, parsed.data.studentId);
     if (intent === "remove") {
-      removeStudent(studioId, parsed.data.studentId);
+      removeMember(studioId, parsed.data.studentId, "student");
       return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
     }
     if (parsed.data.confirm !== "yes") {
@@ -128,6 +129,14 @@ export async function action({ request }: Route.ActionArgs) {
     }
     const { accountDeleted } = await deleteStudentData(studioId, parsed.data.studentId);
     return done(accountDeleted ? "The student's takes and account are deleted for good." : "The student's takes in this studio are deleted for good.");
+  }
+
+  if (intent === "remove-teacher") {
+    const parsed = parseForm(teacherSchema, form, intent);
+    if (!parsed.ok) return parsed.response;
+    await requireCoTeacherOfOwner(request, parsed.data.teacherId);
+    removeMember(studioId, parsed.data.teacherId, "teacher");
+    return done("Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.");
   }
 
   return formFailure(form, {}, "Unknown action.", intent);
@@ -139,7 +148,7 @@ export default function Students({ loaderData }: Route.ComponentProps) {
   const busy = (intent: string, id?: string) =>
     navigation.state === "submitting" &&
     navigation.formData?.get("intent") === intent &&
-    (!id || navigation.formData?.get("studentId") === id || navigation.formData?.get("invitationId") === id);
+    (!id || [navigation.formData?.get("studentId"), navigation.formData?.get("teacherId"), navigation.formData?.get("invitationId")].includes(id));
   const failure = actionData && !actionData.ok ? actionData : null;
   const { students, teachers, pending } = loaderData;
   return (
@@ -182,9 +191,20 @@ export default function Students({ loaderData }: Route.ComponentProps) {
       <Card title="Teachers">
         <ul className="flex flex-col gap-1 text-sm">
           {teachers.map((t) => (
-            <li key={t.userId}>
-              <strong>{t.name}</strong> · {t.email} · {t.role === "owner" ? "owner" : "co-teacher"}
-              {t.status === "removed" ? " (removed)" : ""}
+            <li key={t.userId} className="flex flex-wrap items-center gap-2">
+              <span>
+                <strong>{t.name}</strong> · {t.email} · {t.role === "owner" ? "owner" : "co-teacher"}
+                {t.status === "removed" ? " (removed)" : ""}
+              </span>
+              {loaderData.isOwner && t.role === "teacher" && t.status === "active" ? (
+                <Form method="post">
+                  <input type="hidden" name="intent" value="remove-teacher" />
+                  <input type="hidden" name="teacherId" value={t.userId} />
+                  <Button variant="secondary" pending={busy("remove-teacher", t.userId)} pendingLabel="Removing…" aria-label={`Remove ${t.name}`}>
+                    Remove
+                  </Button>
+                </Form>
+              ) : null}
             </li>
           ))}
         </ul>
