@@ -81,29 +81,6 @@ export async function requireCoTeacherOfOwner(request: Request, teacherId: strin
   return { user, membership: row };
 }
 
-/**
- * A co-teacher of the owner's active studio, for removing them: only the owner may, and
- * only a co-teacher (so nobody can remove the owner).
- */
-export async function requireCoTeacherOfOwner(request: Request, teacherId: string | undefined, mode: AccessMode = "page") {
-  const user = await requireOwner(request, mode);
-  const row = teacherId
-    ? db()
-        .select()
-        .from(memberships)
-        .where(
-          and(
-            eq(memberships.userId, teacherId),
-            eq(memberships.studioId, user.active.studioId),
-            eq(memberships.role, "teacher"),
-          ),
-        )
-        .get()
-    : undefined;
-  if (!row) deny(mode, "Only a co-teacher of your studio can be removed.");
-  return { user, membership: row };
-}
-
 export async function requireStudent(request: Request, mode: AccessMode = "page"): Promise<StudentContext> {
   const user = await requireUser(request, mode);
   if (!user.active || user.active.role !== "student") deny(mode, "This page is for students.");
