@@ -68,7 +68,7 @@ describe("removing a co-teacher", () => {
     const { s, ines, rafe, inesJar, rafeJar } = await studio();
     const juno = makeUser("juno@tidewater.example", "Juno Hale");
     join(s.id, juno.id, "teacher");
-    for (const fields of [
+    for (const fields of <Record<string, string>[]>[
       { intent: "remove-teacher", teacherId: ines.id },
       { intent: "remove-teacher", teacherId: juno.id },
       { intent: "remove", studentId: ines.id },
