@@ -1,10 +1,14 @@
 // RULES.md rules 4–6: root, quality and lead-sheet symbol from tonal's chord detection with
-// our tie-break; inversion by the chord tone in the bass; close or open voicing.
+// our tie-break; inversion by the chord tone in the bass; close or open voicing. Rule 20's
+// chords of the trade are added to tonal's dictionary by chordDictionary.ts, imported here so
+// that they are in place before the first chord is named. Spelling and Roman numerals (rule
+// 21) live in spelling.ts and are re-exported here.
 import { Chord, Interval, Note } from "tonal";
-import type { Key } from "./pitch";
-import { MAJOR_SCALE, NATURAL_MINOR_SCALE, pc, spellDegree, spellPc } from "./pitch";
-import { romanFor, TRIAD_INTERVALS } from "./progression";
+import { displaySuffix, tradeIntervals } from "./chordDictionary";
+import { pc } from "./pitch";
 import type { ChordName, Triad } from "./types";
+
+export { chordNoteNames, type SpellingContext, requiredIntervals, romanOf, rootName, spelledSymbol } from "./spelling";
 
 const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#", "B"];
 
@@ -20,6 +24,8 @@ const CORE_INTERVALS = new Set(["1P", "3m", "3M", "5P", "5d", "5A", "7m", "7M", 
 
 type Reading = {
   rootPc: number;
+  /** Holds its whole triad (root, 3rd or suspended tone, 5th): not a shell leaving a tone out. */
+  complete: boolean;
   suffix: string;
   quality: string;
   intervals: string[];
@@ -30,6 +36,8 @@ type Reading = {
 };
 
 function suffixOf(aliases: string[]): string {
+  const shown = displaySuffix(aliases);
+  if (shown !== null) return shown;
   for (const s of PREFERRED_SUFFIXES) if (aliases.includes(s)) return s;
   // A suffix starting with an accidental would merge with the root ("A" + "b9sus" reads as Ab).
   return aliases.find((a) => !/^[b#]/.test(a)) ?? aliases[0] ?? "";
@@ -57,7 +65,10 @@ function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order:
   const alias = slashed.aliases[0] ?? "";
   // Re-read without the slash: tonal rotates the intervals of a slash chord around its bass.
   const plain = Chord.getChord(alias, slashed.tonic);
-  const intervals = plain.empty ? slashed.intervals : plain.intervals;
+  // A third written as a tenth (tonal's quartal type C F Bb Eb) is the chord's 3rd.
+  const intervals = tradeIntervals(slashed.aliases, plain.empty ? slashed.intervals : plain.intervals).map((i) =>
+    i === "10m" || i === "10M" ? i.replace("10", "3") : i,
+  );
   // Keep only readings whose tones are exactly the chord's pitch classes: with some sharp
   // spellings tonal returns a reading on a misspelled root (D E G A A# gives "Ab9sus/D").
   let readingMask = 1 << bassPc;
@@ -70,10 +81,13 @@ function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order:
   const addedCount = intervals.filter(
     (i) => !CORE_INTERVALS.has(i) && !(!hasThird && (i === "2M" || i === "4P")),
   ).length;
+  const sus = /sus/.test(alias) || (!hasThird && (intervals.includes("4P") || intervals.includes("2M")));
+  const complete = (hasThird || sus) && intervals.some((i) => i === "5P" || i === "5d" || i === "5A");
   return {
     rootPc,
+    complete,
     suffix: suffixOf(slashed.aliases),
-    quality: slashed.type || alias,
+    quality: slashed.type || (alias === "4" ? "quartal" : alias),
     intervals,
     alteredFifth,
     rootIsBass: rootPc === bassPc,
@@ -83,13 +97,30 @@ function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order:
 }
 
 /**
- * Rule 4's tie-break: (a) no altered fifth, (b) root in the bass, (c) fewer added tones. Our
- * own last step (d), the root nearest above the bass, keeps the choice independent of how
- * tonal orders its readings, which varies with spelling (G C F gives Csus4/G first, F# B E
- * gives Esus2/F# first), so transposing a take never renames its chords.
+ * A stack of fourths of four or more tones from the bass (C F Bb Eb): rule 20 names it by its
+ * root-position reading where one exists. Three stacked fourths (F# B E) are a sus triad's
+ * inversion and are left to the tie-break (Bsus4/F#).
  */
-function better(a: Reading, b: Reading, bassPc: number): number {
+function isQuartalStack(mask: number, bassPc: number): boolean {
+  let count = 0;
+  for (let p = 0; p < 12; p++) if (mask & (1 << p)) count++;
+  if (count < 4) return false;
+  for (let k = 0; k < count; k++) if (!(mask & (1 << pc(bassPc + 5 * k)))) return false;
+  return true;
+}
+
+/**
+ * Rule 4's tie-break: (a) no altered fifth, (a′) readings holding their whole triad before
+ * shells that leave a tone out (C E A is Am/C, not a C6 shell), (b) root in the bass, (c) fewer
+ * added tones. Rule 20's quartal stacks take their root-position reading before (a′). Our own
+ * last step (d), the root nearest above the bass, keeps the choice independent of how tonal
+ * orders its readings, which varies with spelling (G C F gives Csus4/G first, F# B E gives
+ * Esus2/F# first), so transposing a take never renames its chords.
+ */
+function better(a: Reading, b: Reading, bassPc: number, quartal: boolean): number {
   if (a.alteredFifth !== b.alteredFifth) return a.alteredFifth ? 1 : -1;
+  if (quartal && a.rootIsBass !== b.rootIsBass) return a.rootIsBass ? -1 : 1;
+  if (a.complete !== b.complete) return a.complete ? -1 : 1;
   if (a.rootIsBass !== b.rootIsBass) return a.rootIsBass ? -1 : 1;
   if (a.addedCount !== b.addedCount) return a.addedCount - b.addedCount;
   const above = (r: Reading) => (r.rootPc - bassPc + 12) % 12;
@@ -106,37 +137,59 @@ export function triadOf(intervals: string[]): Triad | null {
   return null;
 }
 
-const cache = new Map<string, ChordName>();
+const UNNAMED: ChordName = { rootPc: null, triad: null, quality: null, suffix: null, intervals: [], intervalNames: {} };
 
-/** Names a chord from its pitch classes and bass pitch class; cached, since takes repeat chords. */
-export function nameChord(pcs: Iterable<number>, bassPc: number): ChordName {
+function nameOf(best: Reading): ChordName {
+  return {
+    rootPc: best.rootPc,
+    triad: triadOf(best.intervals),
+    quality: best.quality,
+    suffix: best.suffix,
+    intervals: [...new Set(best.intervals.map((i) => (Interval.semitones(i) ?? 0) % 12))].sort((a, b) => a - b),
+    intervalNames: Object.fromEntries(best.intervals.map((i) => [(Interval.semitones(i) ?? 0) % 12, i])),
+  };
+}
+
+/** Every reading tonal's detection (with rule 20's types) gives the set over this bass, best first. */
+function readingsOf(pcs: Iterable<number>, bassPc: number): Reading[] {
   const set = new Set<number>();
   for (const p of pcs) set.add(pc(p));
   set.add(pc(bassPc));
   let mask = 0;
   for (const p of set) mask |= 1 << p;
+  const ordered = [pc(bassPc), ...[...set].filter((p) => p !== pc(bassPc)).sort((a, b) => a - b)];
+  const names = set.size >= 2 ? Chord.detect(ordered.map((p) => SHARP_NAMES[p])) : [];
+  const quartal = isQuartalStack(mask, pc(bassPc));
+  return names
+    .map((n, i) => reading(n, pc(bassPc), i, mask))
+    .filter((r): r is Reading => r !== null)
+    .sort((x, y) => better(x, y, pc(bassPc), quartal));
+}
+
+const cache = new Map<string, ChordName>();
+
+/** Names a chord from its pitch classes and bass pitch class; cached, since takes repeat chords. */
+export function nameChord(pcs: Iterable<number>, bassPc: number): ChordName {
+  const list = [...pcs].map(pc);
+  let mask = 1 << pc(bassPc);
+  for (const p of list) mask |= 1 << p;
   const cacheKey = `${pc(bassPc)}:${mask}`;
   const hit = cache.get(cacheKey);
   if (hit) return hit;
-  const ordered = [pc(bassPc), ...[...set].filter((p) => p !== pc(bassPc)).sort((a, b) => a - b)];
-  const names = set.size >= 2 ? Chord.detect(ordered.map((p) => SHARP_NAMES[p])) : [];
-  const readings = names
-    .map((n, i) => reading(n, pc(bassPc), i, mask))
-    .filter((r): r is Reading => r !== null)
-    .sort((x, y) => better(x, y, pc(bassPc)));
-  const best = readings[0];
-  const result: ChordName = best
-    ? {
-        rootPc: best.rootPc,
-        triad: triadOf(best.intervals),
-        quality: best.quality,
-        suffix: best.suffix,
-        intervals: [...new Set(best.intervals.map((i) => (Interval.semitones(i) ?? 0) % 12))].sort((a, b) => a - b),
-        intervalNames: Object.fromEntries(best.intervals.map((i) => [(Interval.semitones(i) ?? 0) % 12, i])),
-      }
-    : { rootPc: null, triad: null, quality: null, suffix: null, intervals: [], intervalNames: {} };
+  const best = readingsOf(list, bassPc)[0];
+  const result = best ? nameOf(best) : UNNAMED;
   cache.set(cacheKey, result);
   return result;
+}
+
+/**
+ * The chord's name read on a given root that need not sound (rule 20's rootless readings):
+ * the best reading of the tones plus that root, with the root in the bass; null when no
+ * reading has that root. F A B E on G is G13 (no 5th), B D F# A on G is Gmaj9.
+ */
+export function nameOnRoot(pcs: Iterable<number>, rootPc: number): ChordName | null {
+  const best = readingsOf(pcs, pc(rootPc)).find((r) => r.rootPc === pc(rootPc));
+  return best ? nameOf(best) : null;
 }
 
 /** Rule 5: 0 root, 1 third, 2 fifth, 3 seventh; null for any other tone in the bass. */
@@ -168,44 +221,4 @@ export function addedTones(name: ChordName): string[] {
       const accidental = q === "m" || q === "d" ? "b" : q === "A" ? "#" : "";
       return `${accidental}${shown}`;
     });
-}
-
-export function spelledSymbol(name: ChordName, bassPc: number, key: Key | null): string | null {
-  if (name.rootPc === null || name.suffix === null) return null;
-  const root = rootName(name, key)!;
-  const slash = pc(bassPc) === name.rootPc ? "" : `/${spellPc(pc(bassPc), key)}`;
-  return `${root}${name.suffix}${slash}`;
-}
-
-/** Semitones above the root that the chord names beyond its triad (7ths, 9ths, 6ths, ...). */
-export function requiredIntervals(name: ChordName): number[] {
-  if (name.triad === null) return [];
-  const triad = new Set(TRIAD_INTERVALS[name.triad]);
-  return name.intervals.filter((i) => !triad.has(i));
-}
-
-/**
- * Roman numeral of the chord in the key, written by progression.ts's `romanFor` so that what
- * we print reads back through the exercise parser as the same chord.
- */
-export function romanOf(name: ChordName, key: Key): string | null {
-  if (name.rootPc === null || name.triad === null) return null;
-  return romanFor({ root: name.rootPc, triad: name.triad, required: requiredIntervals(name) }, key);
-}
-
-const NUMERALS = ["I", "II", "III", "IV", "V", "VI", "VII"];
-
-/**
- * The root's name in the key: a chromatic root takes the letter of its Roman numeral's degree,
- * so bVI in D is Bb (not A#) and the leading tone in G minor is F#.
- */
-export function rootName(name: ChordName, key: Key | null): string | null {
-  if (name.rootPc === null) return null;
-  const roman = key ? romanOf(name, key) : null;
-  const m = roman ? /^([b#]?)(VII|VI|V|IV|III|II|I)/i.exec(roman) : null;
-  if (!key || !m) return spellPc(name.rootPc, key);
-  const degree = NUMERALS.indexOf(m[2].toUpperCase());
-  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
-  const alter = pc(name.rootPc - key.tonic - scale[degree] + 6) - 6;
-  return spellDegree(key, degree, alter);
 }

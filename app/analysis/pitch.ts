@@ -154,3 +154,50 @@ export function noteName(midi: number, key: Key | null): string {
   const octave = Math.floor((midi - parsed.alter) / 12) - 1;
   return name + String(octave);
 }
+
+/** A spelled pitch class: letter index (0 = C … 6 = B) and alteration in semitones. */
+export type Spelled = { letter: number; alter: number };
+
+export function spelledText(s: Spelled): string {
+  return LETTERS[s.letter] + accidentalText(s.alter);
+}
+
+/** The pitch class `pitchClass` written on letter `letter` (alteration between -6 and +5). */
+export function onLetter(pitchClass: number, letter: number): Spelled {
+  const l = ((letter % 7) + 7) % 7;
+  return { letter: l, alter: pc(pitchClass - LETTER_PC[l] + 6) - 6 };
+}
+
+/** Pitch classes that belong to the key: its scale, and in minor the raised 6th and 7th too. */
+function inKey(p: number, key: Key): boolean {
+  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
+  if (scale.some((s) => pc(key.tonic + s) === p)) return true;
+  return key.mode === "minor" && (pc(key.tonic + 9) === p || pc(key.tonic + 11) === p);
+}
+
+/**
+ * RULES.md rule 21: a chord root spelled for its function in the key. A root in the key keeps
+ * the key's letter (Cb in Gb, F# in G minor); a foreign root takes the spelling with fewer
+ * accidentals (A, not Bbb), and of two with equally few the flat one (Db, not C#: bII).
+ * Without a key: C Db D Eb E F F# G Ab A Bb B.
+ */
+export function spellRoot(rootPc: number, key: Key | null): Spelled {
+  const p = pc(rootPc);
+  if (!key || inKey(p, key)) return parseNoteName(spellPc(p, key))!;
+  let best: Spelled | null = null;
+  for (let letter = 0; letter < 7; letter++) {
+    const s = onLetter(p, letter);
+    if (Math.abs(s.alter) > 1) continue;
+    if (!best || Math.abs(s.alter) < Math.abs(best.alter) || (Math.abs(s.alter) === Math.abs(best.alter) && s.alter < best.alter)) best = s;
+  }
+  return best!;
+}
+
+/** Scale degree (0 = tonic … 6) of a spelled note in the key, and its alteration from the scale. */
+export function degreeInKey(s: Spelled, key: Key): { degree: number; alter: number } {
+  const tonic = tonicSpelling(key);
+  const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
+  const degree = (s.letter - tonic.letter + 7) % 7;
+  const notePc = pc(LETTER_PC[s.letter] + s.alter);
+  return { degree, alter: pc(notePc - key.tonic - scale[degree] + 6) - 6 };
+}
