@@ -310,7 +310,8 @@ export const userTokens = sqliteTable(
   (t) => [index("user_tokens_user_idx").on(t.userId, t.purpose)],
 );
 
-// Failed sign-ins, keyed by the e-mail typed and the client address.
+// Failed sign-ins, keyed by the e-mail typed and the client address. An attempt is written
+// here before its password is checked, and removed again when it succeeds.
 export const signInFailures = sqliteTable(
   "sign_in_failures",
   {
@@ -320,6 +321,39 @@ export const signInFailures = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [index("sign_in_failures_key_idx").on(t.email, t.address, t.createdAt)],
+);
+
+// A studio sign-up waiting for its e-mail to be confirmed: nothing is created until the
+// mailed link is opened, so the sign-up form never has to say whether an address is taken.
+export const pendingSignups = sqliteTable(
+  "pending_signups",
+  {
+    id: id(),
+    email: text("email").notNull(),
+    name: text("name").notNull(),
+    passwordHash: text("password_hash").notNull(),
+    studioName: text("studio_name").notNull(),
+    tokenHash: text("token_hash").notNull().unique(),
+    expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("pending_signups_email_idx").on(t.email)],
+);
+
+export const ACCOUNT_MAIL_KINDS = ["verify-email", "reset-password", "signup"] as const;
+export type AccountMailKind = (typeof ACCOUNT_MAIL_KINDS)[number];
+
+// Every account mail sent (confirmation and reset links, sign-up mail), for their rate limits.
+// `key` is "user:<id>" for an account, "email:<address>" before there is one.
+export const accountMailSends = sqliteTable(
+  "account_mail_sends",
+  {
+    id: id(),
+    kind: text("kind", { enum: ACCOUNT_MAIL_KINDS }).notNull(),
+    key: text("key").notNull(),
+    sentAt: integer("sent_at", { mode: "timestamp_ms" }).notNull(),
+  },
+  (t) => [index("account_mail_sends_key_idx").on(t.kind, t.key, t.sentAt)],
 );
 
 export type Invitation = typeof invitations.$inferSelect;
