@@ -10,6 +10,10 @@
 // the share of chords diatonic to the key, the share that are its tonic triad, and a tonic
 // triad ending (or, half as much, opening) the take. Weights were chosen on our generated demo
 // takes: 46 of 57 keys right instead of 38 with the profile alone.
+//
+// RULES.md rule 23 adds a bonus when the tonic is the bass of the first and of the last
+// harmony (a teacher hears a piece begin and end on its tonic), given by the caller; its size
+// is ours, like the chord weights. On a tie the major key wins.
 import type { Key } from "./pitch";
 import { parseKey, pc } from "./pitch";
 import type { ChordName, Triad } from "./types";
@@ -43,6 +47,14 @@ const DIATONIC: Record<"major" | "minor", Array<[number, Triad]>> = {
 export const CHORD_EVIDENCE_WEIGHTS = { diatonic: 0.5, tonic: 0.3, ending: 0.1 };
 
 export type KeyEstimate = { key: Key; correlation: number; score: number };
+
+/** Basses of the take's first and last harmonies (pitch classes), when known. */
+export type KeyBassEvidence = { firstBassPc?: number | null; lastBassPc?: number | null };
+
+/** Added to a key's score for each of the first and last harmonies whose bass is its tonic. */
+export const BASS_BONUS = 0.1;
+
+const TIE = 1e-9;
 
 type ChordTally = { counts: Map<string, { rootPc: number; triad: Triad; n: number }>; total: number; first: ChordName | null; last: ChordName | null };
 
@@ -89,9 +101,14 @@ function chordEvidence(tonic: number, mode: "major" | "minor", t: ChordTally): n
 
 /**
  * Weights each note by its length (at least 50 ms, so a staccato take still counts) and adds
- * the chord evidence when the take's chords are given.
+ * the chord evidence when the take's chords are given, and rule 23's bass bonus when the
+ * basses of the first and last harmonies are.
  */
-export function estimateKey(notes: Array<{ midi: number; start: number; end: number }>, chords: ChordName[] = []): KeyEstimate {
+export function estimateKey(
+  notes: Array<{ midi: number; start: number; end: number }>,
+  chords: ChordName[] = [],
+  basses: KeyBassEvidence = {},
+): KeyEstimate {
   const weights = new Array<number>(12).fill(0);
   for (const n of notes) weights[pc(n.midi)] += Math.max(0.05, n.end - n.start);
   const chordTally = tally(chords);
@@ -101,9 +118,12 @@ export function estimateKey(notes: Array<{ midi: number; start: number; end: num
       const profile = mode === "major" ? MAJOR_PROFILE : MINOR_PROFILE;
       const rotated = weights.map((_, i) => profile[(i - tonic + 12) % 12]);
       const r = correlation(weights, rotated);
-      const score = r + chordEvidence(tonic, mode, chordTally);
-      // Strictly greater: on a tie the earlier candidate (major before its minor) stays.
-      if (!best || score > best.score + 1e-12) {
+      const isBass = (b: number | null | undefined) => b !== undefined && b !== null && pc(b) === tonic;
+      const bonus = (isBass(basses.firstBassPc) ? BASS_BONUS : 0) + (isBass(basses.lastBassPc) ? BASS_BONUS : 0);
+      const score = r + chordEvidence(tonic, mode, chordTally) + bonus;
+      // A higher score wins; on a tie a major key beats a minor one, else the first found stays.
+      const tied = best !== null && Math.abs(score - best.score) <= TIE;
+      if (!best || score > best.score + TIE || (tied && mode === "major" && best.key.mode === "minor")) {
         const name = mode === "major" ? MAJOR_NAMES[tonic] : MINOR_NAMES[tonic];
         best = { key: parseKey(name), correlation: r, score };
       }

@@ -2,15 +2,18 @@
 //
 // A played chord matches a target chord when root and triad agree, every interval the target
 // names is present (other added tones and sevenths are free) and, when the target has a slash,
-// the bass agrees. Consecutive identical chords count once in take and target. The take may
+// the bass agrees; or when it is a rootless voicing of the target (RULES.md rule 20). Consecutive identical chords count once in take and target. The take may
 // loop the target: for k = 1, 2, … the target repeated k times and collapsed is aligned with
 // the take, maximising matched minus mismatched chords; the best k wins, the larger on a tie.
 //
 // Looping and collapsing only ever append to the looped target, so one alignment table over
 // the longest looped target answers every k at once (its last row, at each k's length).
 
-import { pc } from "./pitch";
+import { nameOnRoot } from "./naming";
+import { type Key, pc } from "./pitch";
 import { ProgressionError, type TargetChord, type Triad } from "./progression";
+import { spelledSymbol } from "./spelling";
+import type { ChordName } from "./types";
 
 export type PlayedIdentity = { root: number | null; triad: Triad | null; bass: number; pcs: number[] };
 
@@ -26,6 +29,9 @@ export type Mismatch = {
   pass: number | null;
 };
 
+/** A played chord matched as a rootless voicing of a target chord (RULES.md rule 20). */
+export type RootlessMatch = { playedIndex: number; targetIndex: number };
+
 export type MatchResult = {
   accuracy: number;
   loops: number;
@@ -33,6 +39,8 @@ export type MatchResult = {
   /** Length of the collapsed, looped target that accuracy divides by. */
   targetLength: number;
   mismatches: Mismatch[];
+  /** Matched chords read as rootless voicings of their target; present only when there are some. */
+  rootless?: RootlessMatch[];
 };
 
 /** Takes longer than this (after collapsing repeats) are matched on their first chords only. */
@@ -42,12 +50,72 @@ type Verdict = "match" | "wrong-chord" | "wrong-bass";
 const VERDICTS: Verdict[] = ["match", "wrong-chord", "wrong-bass"];
 const MATCH = 0;
 
+/**
+ * Intervals a target names that a played chord must hold. A 13th chord is a 13th with or
+ * without its 9th (RULES.md rule 20), so the 9th of a 13th is not required.
+ */
+function essential(t: TargetChord): number[] {
+  const thirteenth = t.required.includes(9) && (t.required.includes(10) || t.required.includes(11));
+  return thirteenth ? t.required.filter((i) => i !== 2) : t.required;
+}
+
 function verdict(p: PlayedIdentity, t: TargetChord): Verdict {
-  if (p.root === null || p.triad === null || pc(p.root) !== t.root || p.triad !== t.triad) return "wrong-chord";
+  const bassOk = t.bass === null || pc(p.bass) === t.bass;
+  if (p.root === null || p.triad === null || pc(p.root) !== t.root || p.triad !== t.triad) {
+    if (isRootlessOf(p.pcs, t)) return bassOk ? "match" : "wrong-bass";
+    return "wrong-chord";
+  }
   const played = new Set(p.pcs.map(pc));
-  if (!t.required.every((i) => played.has(pc(t.root + i)))) return "wrong-chord";
-  if (t.bass !== null && pc(p.bass) !== t.bass) return "wrong-bass";
+  if (!essential(t).every((i) => played.has(pc(t.root + i)))) return "wrong-chord";
+  if (!bassOk) return "wrong-bass";
   return "match";
+}
+
+const THIRD: Partial<Record<Triad, number>> = { major: 4, minor: 3, diminished: 3, augmented: 4 };
+const FIFTH: Partial<Record<Triad, number>> = { major: 7, minor: 7, diminished: 6, augmented: 8 };
+
+/**
+ * RULES.md rule 20: whether the played pitch classes are a rootless voicing of the target, a
+ * voicing without the target's root that holds its 3rd and 7th and two of its 5th, 9th and
+ * 13th, so that the target explains every note (F A C E is a rootless Dm9, F A B E a rootless
+ * G13, E G B D a rootless Cmaj9). The target must name its 7th: a plain triad target (IV) is
+ * not matched by a four-note chord on another root (A C E G would otherwise pass for F).
+ * A dominant target also explains its altered 9ths and flat 13th (b9, #9, b13), since those
+ * are its usual tensions (common practice), and any tension the target itself names.
+ */
+export function isRootlessOf(pcs: readonly number[], target: TargetChord): boolean {
+  const third = THIRD[target.triad];
+  const fifth = FIFTH[target.triad];
+  if (third === undefined || fifth === undefined) return false; // sus chords have no 3rd
+  const played = new Set(pcs.map((p) => pc(p - target.root)));
+  if (played.size !== 4 || played.has(0) || !played.has(third)) return false;
+  const sevenths = target.triad === "diminished" ? [9, 10] : [10, 11];
+  const seventh = target.required.find((i) => sevenths.includes(i) && played.has(i));
+  if (seventh === undefined) return false;
+  const dominant = target.triad === "major" && seventh === 10;
+  const tensions = new Set([fifth, 2, 9, ...target.required.filter((i) => i !== seventh)]);
+  if (dominant) for (const i of [1, 3, 8]) tensions.add(i);
+  const rest = [...played].filter((i) => i !== third && i !== seventh);
+  return rest.length === 2 && rest.every((i) => tensions.has(i));
+}
+
+/**
+ * The chord a rootless voicing is read as against its target (rule 20: against a target the
+ * name follows that reading): F A B E against G7 is G13, B D F# A against Gmaj7 is Gmaj9.
+ * Null when the pitch classes are not a rootless voicing of the target.
+ */
+export function rootlessReading(pcs: readonly number[], target: TargetChord): ChordName | null {
+  if (!isRootlessOf(pcs, target)) return null;
+  return nameOnRoot(pcs, target.root);
+}
+
+/**
+ * The rootless reading's lead-sheet symbol spelled in the key, without a slash: the lowest
+ * note of a rootless voicing is not a bass the player chose (`G13`, `Gmaj9`).
+ */
+export function rootlessSymbol(pcs: readonly number[], target: TargetChord, key: Key | null): string | null {
+  const name = rootlessReading(pcs, target);
+  return name === null ? null : spelledSymbol(name, target.root, key);
 }
 
 function samePlayed(x: PlayedIdentity, y: PlayedIdentity): boolean {
@@ -173,6 +241,7 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
 
   // Walk the alignment back for the chosen k.
   const mismatches: Mismatch[] = [];
+  const rootless: RootlessMatch[] = [];
   let matched = 0;
   let i = P;
   let j = lengthAt[bestK];
@@ -181,8 +250,13 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
     if (how === DIAG) {
       const t = seq[j - 1];
       const v = VERDICTS[verdicts[(i - 1) * T + t.index]];
-      if (v === "match") matched++;
-      else mismatches.push({ kind: v, targetIndex: t.index, playedIndex: takeIdx[i - 1], expected: target[t.index].symbol, pass: t.pass });
+      if (v === "match") {
+        matched++;
+        const p = played[takeIdx[i - 1]];
+        const tc = target[t.index];
+        const plain = p.root !== null && pc(p.root) === tc.root && p.triad === tc.triad;
+        if (!plain) rootless.push({ playedIndex: takeIdx[i - 1], targetIndex: t.index });
+      } else mismatches.push({ kind: v, targetIndex: t.index, playedIndex: takeIdx[i - 1], expected: target[t.index].symbol, pass: t.pass });
       i--;
       j--;
     } else if (how === EXTRA) {
@@ -195,6 +269,9 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
     }
   }
   mismatches.reverse();
+  rootless.reverse();
   const targetLength = lengthAt[bestK];
-  return { accuracy: matched / targetLength, loops: bestK, matched, targetLength, mismatches };
+  const result: MatchResult = { accuracy: matched / targetLength, loops: bestK, matched, targetLength, mismatches };
+  if (rootless.length > 0) result.rootless = rootless;
+  return result;
 }
