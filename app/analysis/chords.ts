@@ -4,28 +4,14 @@ import { chordFlags } from "./chordFlags";
 import { addedTones, inversionOf, nameChord, romanOf, rootName, spelledSymbol, voicingOf } from "./naming";
 import type { Key } from "./pitch";
 import { noteName, pc, spellPc } from "./pitch";
+import type { Harmony } from "./harmonies";
+import { pedalDuring } from "./sounding";
 import type { Strike } from "./strikes";
 import { chordTechniques } from "./techniques";
 import type { ChordReport, MelodyNote, NoteEvent, PedalSpan } from "./types";
 import { detachedBass, upperStructure } from "./voiceLeading";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
-
-/**
- * Whether the pedal is down at some time while the chord's keys are held (players usually
- * press it just after the chord: syncopated pedalling). Spans are sorted and disjoint (the
- * reader merges them): binary search for the first span ending after the chord begins.
- */
-function pedalDuring(pedal: PedalSpan[], start: number, end: number): boolean {
-  let lo = 0;
-  let hi = pedal.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (pedal[mid].end <= start) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo < pedal.length && pedal[lo].start < end;
-}
 
 /** Distinct pitches a strike sounds as a chord: struck and held notes, grace notes excluded. */
 export function strikeVoicing(s: Strike): number[] {
@@ -81,50 +67,69 @@ function techniquesOf(name: VoicingFacts["name"], shown: Shown, graces: Array<{ 
 }
 
 /**
- * The report of one chord strike. `cache` (one per take, since spelling depends on the key)
- * lets repeated voicings skip naming and spelling; reports of the same voicing then share
- * their arrays, so treat a report as read-only.
+ * The report of one harmony (rules 15–17). `cache` (one per take, since spelling depends on
+ * the key) lets repeated voicings skip naming and spelling; reports of the same voicing then
+ * share their arrays, so treat a report as read-only.
  */
-export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
-  const notes = strikeVoicing(s);
+export function harmonyReport(h: Harmony, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
+  const notes = [...new Set(h.voicing.map((n) => n.midi))].sort((a, b) => a - b);
   const id = notes.join(",");
   let facts = cache?.get(id);
   if (!facts) {
     facts = voicingFacts(notes, key);
     cache?.set(id, facts);
   }
-  let struckEnd = 0;
-  for (const n of s.notes) if (n.end > struckEnd) struckEnd = n.end;
-  let start = s.start;
-  for (const g of s.graces) if (g.note.start < start) start = g.note.start;
-  let heldNotes: number[] = [];
-  if (s.held.length > 0) {
-    const struck = new Set(s.notes.map((n) => n.midi));
-    const held = new Set(s.held.map((n) => n.midi));
-    heldNotes = notes.filter((n) => held.has(n) && !struck.has(n));
-  }
-  const graces = s.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
+  let start = h.start;
+  for (const g of h.graces) if (g.note.start < start) start = g.note.start;
+  const heldNotes = [...new Set(h.held.map((n) => n.midi))].sort((a, b) => a - b);
+  const graces = h.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
+  const byTime = <T extends { startSec: number; note: number }>(x: T, y: T) => x.startSec - y.startSec || x.note - y.note;
   return {
     startSec: round3(start),
-    endSec: round3(struckEnd),
+    endSec: round3(h.end),
     ...facts.shown,
     heldNotes,
-    bassLine: [],
-    nonChordTones: [],
-    graceNotes: s.graces.map((g) => ({
+    bassLine: h.bassLine.map((n) => ({ note: n.midi, noteName: noteName(n.midi, key), startSec: round3(n.start) })).sort(byTime),
+    nonChordTones: h.nonChordTones
+      .map((t) => ({ note: t.note.midi, noteName: noteName(t.note.midi, key), startSec: round3(t.note.start), kind: t.kind }))
+      .sort(byTime),
+    graceNotes: h.graces.map((g) => ({
       startSec: round3(g.note.start),
       endSec: round3(g.note.end),
       note: g.note.midi,
       resolvesTo: g.target.midi,
     })),
-    pedal: pedalDuring(pedal, s.start, struckEnd),
+    pedal: pedalDuring(pedal, h.start, h.end),
     techniques: graces.length === 0 ? facts.techniquesWithoutGraces : techniquesOf(facts.name, facts.shown, graces),
   };
 }
 
+/** The report of one strike read as a harmony on its own (block chords; tools and tests). */
+export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
+  let end = 0;
+  for (const n of s.notes) if (n.end > end) end = n.end;
+  const harmony: Harmony = {
+    start: s.start,
+    end,
+    firstStrike: 0,
+    endStrike: 1,
+    voicing: [...s.notes, ...s.held],
+    held: s.held,
+    bassLine: [],
+    nonChordTones: s.graces.map((g) => ({ note: g.note, kind: "grace" as const })),
+    graces: s.graces,
+    topNotes: [],
+    ownLine: false,
+    carried: [],
+    chordPcs: new Set([...s.notes, ...s.held].map((n) => pc(n.midi))),
+    afterSilence: false,
+    solo: false,
+  };
+  return harmonyReport(harmony, key, pedal, cache);
+}
+
 export type { VoicingFacts };
 
-export function melodyNote(s: Strike, key: Key | null): MelodyNote {
-  const n: NoteEvent = s.notes[0];
+export function melodyNote(n: NoteEvent, key: Key | null): MelodyNote {
   return { startSec: round3(n.start), endSec: round3(n.end), note: n.midi, noteName: noteName(n.midi, key) };
 }

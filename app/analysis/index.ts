@@ -1,8 +1,9 @@
 // Entry of the analysis engine: pure TypeScript, no React, database or Node-only imports,
 // so the server, the browser, the command line, the seed script and the tests share it.
-import { chordReport, isChordStrike, melodyNote, strikeVoicing, type VoicingFacts } from "./chords";
+import { harmonyReport, melodyNote, type VoicingFacts } from "./chords";
 import { AnalysisError } from "./errors";
 import { gradeChanges } from "./grade";
+import { readHarmonies, type Harmony } from "./harmonies";
 import { estimateKey } from "./key";
 import { matchProgression, type PlayedIdentity } from "./matching";
 import { nameChord } from "./naming";
@@ -10,8 +11,11 @@ import type { Key } from "./pitch";
 import { parseKey, pc } from "./pitch";
 import { parseProgression } from "./progression";
 import { readMidi } from "./readMidi";
-import { findStrikes, type Strike } from "./strikes";
+import { MIN_HARMONY_SEC } from "./segment";
+import { soundings } from "./sounding";
+import { findStrikes } from "./strikes";
 import { summarise } from "./summary";
+import { bpmAt, followsTempoGrid, GRID_TOLERANCE_SEC } from "./tempo";
 import type { AnalyseOptions, ChordReport, NoteEvent, NoteList, TakeAnalysis } from "./types";
 
 import { ANALYSIS_VERSION } from "./version";
@@ -42,12 +46,18 @@ function identity(c: ChordReport): PlayedIdentity {
 }
 
 /** Chord names do not depend on the key (only their spelling does), so they inform the estimate. */
-function bestFittingKey(notes: NoteEvent[], strikes: Strike[]): Key {
-  const names = strikes.filter(isChordStrike).map((s) => {
-    const v = strikeVoicing(s);
+function bestFittingKey(notes: NoteEvent[], harmonies: Harmony[]): Key {
+  const names = harmonies.map((h) => {
+    const v = [...new Set(h.voicing.map((n) => n.midi))].sort((a, b) => a - b);
     return nameChord(v, v[0]);
   });
   return estimateKey(notes, names).key;
+}
+
+/** Rule 19: notes the pedal carried into a harmony that are not its chord tones. */
+function blurredNotes(h: Harmony, chord: ChordReport): number[] {
+  const tones = new Set(chord.notes.map(pc));
+  return [...new Set(h.carried.filter((n) => !tones.has(pc(n.midi)) && !h.chordPcs.has(pc(n.midi))).map((n) => n.midi))].sort((a, b) => a - b);
 }
 
 /**
@@ -63,17 +73,27 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
   const pedal = list.pedal ?? [];
   const givenKey: Key | null = options.key ? parseKey(options.key) : null;
   const strikes = findStrikes(notes, tempos);
-  const key = givenKey ?? bestFittingKey(notes, strikes);
+  const sorted = [...notes].sort((a, b) => a.start - b.start || a.midi - b.midi);
+  const sounding = soundings(sorted, pedal);
+  let endTime = 0;
+  for (const n of notes) endTime = Math.max(endTime, sounding.get(n)?.heardEnd ?? n.end);
+  const onsets = strikes.map((s) => s.start);
+  // Rule 15: in a take made to a metronome a harmony lasts about a beat at least.
+  const beat = followsTempoGrid(onsets, tempos) ? 60 / bpmAt(tempos, onsets[0] ?? 0) : 0;
+  const minHarmonySec = Math.max(MIN_HARMONY_SEC, beat - GRID_TOLERANCE_SEC);
+  const reading = readHarmonies({ strikes, sounding, endTime, minHarmonySec });
+  const key = givenKey ?? bestFittingKey(notes, reading.harmonies);
   const target = options.target?.trim() ? parseProgression(options.target, key) : null;
 
-  const chords: ChordReport[] = [];
-  const melodyNotes = [];
   const voicings = new Map<string, VoicingFacts>();
-  for (const s of strikes) {
-    if (isChordStrike(s)) chords.push(chordReport(s, key, pedal, voicings));
-    else melodyNotes.push(melodyNote(s, key));
-  }
+  const chords: ChordReport[] = reading.harmonies.map((h) => harmonyReport(h, key, pedal, voicings));
+  const melodyNotes = reading.melody.map((n) => melodyNote(n, key));
   const changes = gradeChanges(chords, key);
+  changes.forEach((c, i) => {
+    const blurred = blurredNotes(reading.harmonies[i + 1], chords[i + 1]);
+    if (blurred.length === 0) return;
+    changes[i] = { ...c, blurredNotes: blurred, flags: [...c.flags, "pedal-blur"] };
+  });
   let durationSec = 0;
   for (const n of notes) durationSec = Math.max(durationSec, n.end);
   const match = target

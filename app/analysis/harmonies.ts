@@ -1,0 +1,312 @@
+// From strikes to harmonies (RULES.md rules 15–19): where each harmony begins (segment.ts),
+// then, within it, which notes form its voicing, which are its bass line, its melody, its
+// non-chord tones, and which notes the pedal carried in from before.
+import { pc } from "./pitch";
+import { MIN_HARMONY_SEC, HELD_FOR, segment, TEMPLATES, type Segment } from "./segment";
+import type { Sounding } from "./sounding";
+import type { Strike } from "./strikes";
+import type { NonChordToneKind, NoteEvent } from "./types";
+
+const EPS = 1e-9;
+/** Rule 18: a take has a melody when at least this share of its harmonies has top notes of their own. */
+export const MELODY_SHARE = 0.25;
+/** Rule 15: a non-chord tone is approached or left "by step": one or two semitones. */
+const STEP = 2;
+/** How far back and ahead (seconds) a step to or from a non-chord tone is looked for. */
+const STEP_WINDOW = 1.5;
+
+export type HarmonyNote = { note: NoteEvent; kind: NonChordToneKind | null };
+
+/** One harmony as read from the take, before it is named and measured. */
+export type Harmony = {
+  start: number;
+  /** when the next harmony begins (the end of the take for the last one) */
+  end: number;
+  firstStrike: number;
+  endStrike: number;
+  /** rule 17: the notes of the voicing (several may share a pitch) */
+  voicing: NoteEvent[];
+  /** voicing notes struck before the harmony and held into it by key */
+  held: NoteEvent[];
+  bassLine: NoteEvent[];
+  nonChordTones: HarmonyNote[];
+  graces: Strike["graces"];
+  /** rule 18: later notes on top that may be a melody (decided for the whole take) */
+  topNotes: NoteEvent[];
+  /** whether those top notes read as a line rather than a figure through the chord */
+  ownLine: boolean;
+  /** notes the pedal carried in from before, still sounding 150 ms into the harmony */
+  carried: NoteEvent[];
+  /** pitch classes of the chord that segmentation heard (its template plus the voicing) */
+  chordPcs: Set<number>;
+  /** a silence before it forced it to begin */
+  afterSilence: boolean;
+  /** a line of single notes, never two at once, moving by step somewhere: a tune, not a chord */
+  solo: boolean;
+};
+
+export type ReadInput = {
+  strikes: Strike[];
+  sounding: ReadonlyMap<NoteEvent, Sounding>;
+  endTime: number;
+  minHarmonySec?: number;
+};
+
+export type Reading = { harmonies: Harmony[]; melody: NoteEvent[]; hasMelody: boolean };
+
+const soundEnd = (s: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent) => s.get(n)?.soundEnd ?? n.end;
+const heardEnd = (s: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent) => s.get(n)?.heardEnd ?? n.end;
+
+function templatePcs(seg: Segment): number[] {
+  if (!seg.chord) return [];
+  return TEMPLATES[seg.chord.template].intervals.map((i) => (seg.chord!.rootPc + i) % 12);
+}
+
+/** Notes struck in the 64 strikes before `i` (enough for any held or pedal-carried note). */
+function earlierNotes(strikes: readonly Strike[], i: number): NoteEvent[] {
+  const out: NoteEvent[] = [];
+  for (let k = Math.max(0, i - 64); k < i; k++) out.push(...strikes[k].notes);
+  return out;
+}
+
+/** The lowest note sounding 150 ms after each strike begins (a sweep over the take). */
+function lowestSounding(strikes: readonly Strike[], sounding: ReadInput["sounding"]): Array<NoteEvent | null> {
+  const active: NoteEvent[] = [];
+  return strikes.map((s, k) => {
+    const t = s.start + HELD_FOR;
+    active.push(...s.notes);
+    let low: NoteEvent | null = null;
+    let kept = 0;
+    for (const n of active) {
+      if (heardEnd(sounding, n) <= s.start + EPS) continue;
+      active[kept++] = n;
+      if (heardEnd(sounding, n) > t + EPS && (!low || n.midi < low.midi)) low = n;
+    }
+    active.length = kept;
+    return k >= 0 ? low : null;
+  });
+}
+
+/**
+ * Rule 15, first point: a new bass pitch class struck with an upper note, which then stays
+ * until the harmony ends, starts a harmony even on the same chord (C → C/E). A bass that
+ * moves on under the same chord is a bass line instead.
+ */
+function splitOnBassChange(segs: Segment[], strikes: readonly Strike[], sounding: ReadInput["sounding"], endTime: number, minSec: number): Segment[] {
+  const lowest = lowestSounding(strikes, sounding);
+  const struckLow = (k: number) => {
+    const l = lowest[k];
+    return l && strikes[k].notes.includes(l) ? l : null;
+  };
+  const out: Segment[] = [];
+  for (const seg of segs) {
+    // For each strike, up to two bass pitch classes struck after it in the segment.
+    const later: number[][] = new Array(seg.end - seg.first);
+    let seen: number[] = [];
+    for (let k = seg.end - 1; k >= seg.first; k--) {
+      later[k - seg.first] = seen;
+      const l = struckLow(k);
+      if (l && !seen.includes(pc(l.midi)) && seen.length < 2) seen = [...seen, pc(l.midi)];
+    }
+    let cur: Segment = { ...seg };
+    let bassPc = lowest[seg.first] ? pc(lowest[seg.first]!.midi) : null;
+    const nextStart = seg.end < strikes.length ? strikes[seg.end].start : endTime;
+    for (let k = seg.first + 1; k < seg.end; k++) {
+      const low = struckLow(k);
+      if (!low) continue;
+      const p = pc(low.midi);
+      const chordStrike = new Set(strikes[k].notes.map((n) => n.midi)).size >= 2;
+      const stays = later[k - seg.first].every((q) => q === p);
+      if (chordStrike && p !== bassPc && stays && strikes[k].start - strikes[cur.first].start >= minSec - EPS && nextStart - strikes[k].start >= minSec - EPS) {
+        out.push({ ...cur, end: k });
+        cur = { ...cur, first: k };
+      }
+      bassPc = p;
+    }
+    out.push(cur);
+  }
+  return out;
+}
+
+/** Rule 17 and friends: what each note of one harmony is. */
+function readHarmony(seg: Segment, input: ReadInput, nextStart: number, afterSilence: boolean): Harmony {
+  const { strikes, sounding } = input;
+  const first = strikes[seg.first];
+  const t0 = first.start;
+  const before = earlierNotes(strikes, seg.first);
+  const tmpl = templatePcs(seg);
+  const firstPcs = new Set(first.notes.map((n) => pc(n.midi)));
+  const laterNotes: NoteEvent[] = [];
+  for (let k = seg.first + 1; k < seg.end; k++) laterNotes.push(...strikes[k].notes);
+
+  // Held by key into the harmony, and carried by the pedal only.
+  const keyHeld = before.filter((n) => n.end >= t0 + HELD_FOR - EPS);
+  const carried = before.filter((n) => n.end < t0 + HELD_FOR - EPS && soundEnd(sounding, n) >= t0 + HELD_FOR - EPS);
+  const fits = new Set([...tmpl, ...firstPcs]);
+  const nonChordTones: HarmonyNote[] = [];
+  const held: NoteEvent[] = [];
+  for (const h of keyHeld) {
+    const resolves = laterNotes.some((n) => n.start >= t0 - EPS && Math.abs(n.midi - h.midi) >= 1 && Math.abs(n.midi - h.midi) <= STEP);
+    if (!fits.has(pc(h.midi)) && resolves) nonChordTones.push({ note: h, kind: "suspension" });
+    else held.push(h);
+  }
+  const voicing: NoteEvent[] = [...first.notes, ...held];
+  const chordPcs = new Set<number>([...tmpl, ...voicing.map((n) => pc(n.midi))]);
+  const pcsOf = (v: NoteEvent[]) => new Set(v.map((n) => pc(n.midi)));
+  const complete = () => {
+    const have = pcsOf(voicing);
+    return have.size >= 3 || tmpl.every((p) => have.has(p));
+  };
+
+  const bassLine: NoteEvent[] = [];
+  const topNotes: NoteEvent[] = [];
+  const graces = [...first.graces];
+  const within = [...keyHeld, ...carried, ...first.notes];
+  const soundingAt = (t: number) => within.filter((n) => n.start <= t + EPS && heardEnd(sounding, n) > t + EPS);
+  for (let k = seg.first + 1; k < seg.end; k++) {
+    const s = strikes[k];
+    graces.push(...s.graces);
+    // Only notes still sounding matter from here on: keeps long harmonies linear.
+    let kept = 0;
+    for (const n of within) if (heardEnd(sounding, n) > s.start + EPS) within[kept++] = n;
+    within.length = kept;
+    within.push(...s.notes);
+    const distinct = new Set(s.notes.map((n) => n.midi));
+    if (!complete()) {
+      // A broken chord: the strikes that complete it belong to the voicing.
+      for (const n of s.notes) {
+        if (chordPcs.has(pc(n.midi))) voicing.push(n);
+        else nonChordTones.push({ note: n, kind: null });
+      }
+      continue;
+    }
+    const bass = Math.min(...voicing.map((n) => n.midi));
+    const upperLow = Math.min(...voicing.filter((n) => n.midi > bass).map((n) => n.midi), Infinity);
+    for (const n of s.notes) {
+      const after = soundingAt(n.start + HELD_FOR).filter((x) => x !== n);
+      const lowest = after.every((x) => x.midi > n.midi) && heardEnd(sounding, n) > n.start + HELD_FOR - EPS;
+      if (lowest && n.midi !== bass && n.midi < upperLow) {
+        bassLine.push(n);
+        continue;
+      }
+      const under = soundingAt(n.start + 0.05).filter((x) => x !== n);
+      if (distinct.size === 1 && under.length > 0 && under.every((x) => x.midi < n.midi)) {
+        topNotes.push(n);
+        if (!chordPcs.has(pc(n.midi))) nonChordTones.push({ note: n, kind: null });
+        continue;
+      }
+      if (!chordPcs.has(pc(n.midi))) nonChordTones.push({ note: n, kind: null });
+    }
+  }
+  for (const g of graces) nonChordTones.push({ note: g.note, kind: "grace" });
+  return {
+    start: t0,
+    end: nextStart,
+    firstStrike: seg.first,
+    endStrike: seg.end,
+    voicing,
+    held: held.filter((h) => !first.notes.some((n) => n.midi === h.midi)),
+    bassLine,
+    nonChordTones,
+    graces,
+    topNotes,
+    ownLine: isOwnLine(voicing, topNotes, chordPcs),
+    carried,
+    chordPcs,
+    afterSilence,
+    solo: isSolo(strikes.slice(seg.first, seg.end), keyHeld.length + carried.length, sounding),
+  };
+}
+
+/** A tune played alone: one note at a time, nothing under it, and some steps between notes. */
+function isSolo(span: readonly Strike[], underneath: number, sounding: ReadInput["sounding"]): boolean {
+  if (underneath > 0) return false;
+  const line = span.flatMap((s) => s.notes);
+  if (span.some((s) => new Set(s.notes.map((n) => n.midi)).size > 1)) return false;
+  for (let i = 1; i < line.length; i++) if (heardEnd(sounding, line[i - 1]) > line[i].start + HELD_FOR) return false;
+  return line.some((n, i) => i > 0 && Math.abs(n.midi - line[i - 1].midi) <= STEP && n.midi !== line[i - 1].midi);
+}
+
+/**
+ * Rule 18: top notes are a line of their own unless they only cycle through chord tones by
+ * leaps (or repeat), as a broken chord or arpeggio does.
+ */
+function isOwnLine(voicing: NoteEvent[], top: NoteEvent[], chordPcs: Set<number>): boolean {
+  if (top.length === 0) return false;
+  if (top.some((n) => !chordPcs.has(pc(n.midi)))) return true;
+  if (top.length < 2) return true;
+  let prev = Math.max(...voicing.map((n) => n.midi));
+  for (const n of top) {
+    const d = Math.abs(n.midi - prev);
+    if (d > 0 && d < 3) return true;
+    prev = n.midi;
+  }
+  return false;
+}
+
+/** First index of a note starting at or after `t` (notes sorted by onset). */
+function firstFrom(notes: readonly NoteEvent[], t: number): number {
+  let lo = 0;
+  let hi = notes.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (notes[mid].start < t) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Kinds of the non-chord tones left unnamed: passing, neighbour or anticipation (rule 15). */
+function nameKinds(h: Harmony, next: Harmony | undefined, sorted: readonly NoteEvent[]): void {
+  for (const nct of h.nonChordTones) {
+    if (nct.kind !== null) continue;
+    const x = nct.note;
+    let before: NoteEvent | null = null;
+    let after: NoteEvent | null = null;
+    for (let i = firstFrom(sorted, x.start - STEP_WINDOW); i < sorted.length && sorted[i].start <= x.start + STEP_WINDOW; i++) {
+      const n = sorted[i];
+      const d = Math.abs(n.midi - x.midi);
+      if (n === x || d < 1 || d > STEP) continue;
+      if (n.start < x.start - EPS && (!before || n.start > before.start)) before = n;
+      if (n.start > x.start + EPS && (!after || n.start < after.start)) after = n;
+    }
+    if (next && next.voicing.some((n) => n.midi === x.midi) && next.start - x.start <= STEP_WINDOW && x.end >= next.start - 0.05) {
+      nct.kind = "anticipation";
+    } else if (before && after) {
+      if (after.midi === before.midi) nct.kind = "neighbour";
+      else if (x.midi > before.midi === after.midi > x.midi) nct.kind = "passing";
+    }
+  }
+}
+
+/** Rules 15–18 over a take's strikes. */
+export function readHarmonies(input: ReadInput): Reading {
+  const { strikes, sounding, endTime } = input;
+  const minSec = input.minHarmonySec ?? MIN_HARMONY_SEC;
+  if (strikes.length === 0) return { harmonies: [], melody: [], hasMelody: false };
+  const raw = segment({ strikes, sounding, endTime, minHarmonySec: minSec });
+  const segs = splitOnBassChange(raw, strikes, sounding, endTime, minSec);
+  const silenceStarts = new Set(raw.map((s) => s.first));
+  const all = segs.map((seg, i) => {
+    const nextStart = i + 1 < segs.length ? strikes[segs[i + 1].first].start : endTime;
+    const prevEnd = seg.first > 0 ? Math.max(...earlierNotes(strikes, seg.first).map((n) => soundEnd(sounding, n))) : -Infinity;
+    return readHarmony(seg, input, nextStart, silenceStarts.has(seg.first) && strikes[seg.first].start - prevEnd >= 0.25 - EPS);
+  });
+  // A tune played alone is listed as melody and never graded as chords (rule 18).
+  const harmonies = all.filter((h) => !h.solo);
+  const solo = all.filter((h) => h.solo).flatMap((h) => strikes.slice(h.firstStrike, h.endStrike).flatMap((s) => s.notes));
+  const allNotes = strikes.flatMap((s) => [...s.notes, ...s.graces.map((g) => g.note)]).sort((a, b) => a.start - b.start);
+  harmonies.forEach((h, i) => nameKinds(h, harmonies[i + 1], allNotes));
+  const withLine = harmonies.filter((h) => h.ownLine).length;
+  const hasMelody = withLine > 0 && withLine >= MELODY_SHARE * harmonies.length;
+  const melody: NoteEvent[] = [...solo];
+  if (hasMelody) {
+    for (const h of harmonies) {
+      const firstTop = strikes[h.firstStrike].notes.reduce((a, b) => (b.midi > a.midi ? b : a));
+      if (h.ownLine || h.topNotes.length === 0) melody.push(firstTop);
+      if (h.ownLine) melody.push(...h.topNotes);
+    }
+  }
+  melody.sort((a, b) => a.start - b.start || a.midi - b.midi);
+  return { harmonies, melody, hasMelody };
+}

@@ -1,0 +1,237 @@
+// Dividing a take into harmonies (RULES.md rule 15), after B. Pardo & W. Birmingham,
+// "Algorithms for Chordal Analysis", Computer Music Journal 26(2), 2002: every strike onset
+// is a possible boundary; a span between two boundaries is scored against chord templates by
+// how long each pitch class sounds in it (matched weight minus unmatched weight, less a
+// charge for each template tone that never sounds); dynamic programming picks the division
+// with the best total, less a cost per change. Our additions, from rule 15: spans shorter
+// than a harmony may be are charged heavily, silences force a boundary, a lone bass note
+// under held notes can never start a harmony, and notes the pedal carried in from before a
+// span never count in it. The weights are our own, tuned on the takes `npm run samples`
+// writes (see RULES.md, "How Nearnote implements rule 15").
+import { pc } from "./pitch";
+import type { Sounding } from "./sounding";
+import type { Strike } from "./strikes";
+import type { NoteEvent } from "./types";
+
+/** Chord templates for segmentation: triads, sevenths and sus chords (no added-tone chords, rule 15). */
+export const TEMPLATES: ReadonlyArray<{ name: string; intervals: readonly number[] }> = [
+  { name: "major", intervals: [0, 4, 7] },
+  { name: "minor", intervals: [0, 3, 7] },
+  { name: "dominant seventh", intervals: [0, 4, 7, 10] },
+  { name: "major seventh", intervals: [0, 4, 7, 11] },
+  { name: "minor seventh", intervals: [0, 3, 7, 10] },
+  { name: "half-diminished", intervals: [0, 3, 6, 10] },
+  { name: "diminished", intervals: [0, 3, 6] },
+  { name: "diminished seventh", intervals: [0, 3, 6, 9] },
+  { name: "augmented", intervals: [0, 4, 8] },
+  { name: "suspended fourth", intervals: [0, 5, 7] },
+  { name: "seventh suspended fourth", intervals: [0, 5, 7, 10] },
+];
+
+/** Rule 15: a harmony lasts at least this long. */
+export const MIN_HARMONY_SEC = 0.25;
+/** Rule 15: a strike after this long with nothing sounding starts a harmony. */
+export const SILENCE_SEC = 0.25;
+/** Rule 3: a key still down this long after a strike sounds in it. */
+export const HELD_FOR = 0.15;
+
+// Our weights (tuned on the sample library; see RULES.md).
+/** Charge for a template tone that never sounds, as a share of the span's mean weight per sounding pitch class. */
+const MISSING_CHARGE = 0.6;
+/**
+ * Charge for a four-note template, as a share of the mean weight: two triads a third apart
+ * (G then Em) together fill a seventh chord (Em7 = G6), and rule 15 hears them as two
+ * harmonies, never one added-tone chord. A seventh chord that is really played still wins.
+ */
+const SEVENTH_CHARGE = 0.5;
+/** Cost of a change, in weighted seconds. */
+const CHANGE_COST = 0.08;
+/** Extra weight of the first strike's notes and of the bass, to choose the chord of a span (not its length). */
+const FIRST_STRIKE_BONUS = 0.5;
+const BASS_BONUS = 0.5;
+/** A span no longer than this many strikes, or this many seconds, is considered (longer harmonies are joined after). */
+const MAX_SPAN_STRIKES = 20;
+const MAX_SPAN_SEC = 8;
+const TOO_SHORT = 1000;
+const EPS = 1e-9;
+
+export type Template = { rootPc: number; template: number };
+
+export type Segment = {
+  /** index of the harmony's first strike */
+  first: number;
+  /** index after its last strike */
+  end: number;
+  /** the best template's root and index into TEMPLATES, null for a span that sounds nothing */
+  chord: Template | null;
+};
+
+export type SegmentInput = {
+  strikes: readonly Strike[];
+  sounding: ReadonlyMap<NoteEvent, Sounding>;
+  /** end of the take (the last sound) */
+  endTime: number;
+  /** shortest harmony: MIN_HARMONY_SEC, or about a beat in a take that follows its tempo map */
+  minHarmonySec: number;
+};
+
+/** Notes struck before strike i whose key is down at its onset (held into it, rule 3). */
+function keyHeldAt(strikes: readonly Strike[], i: number, t: number): NoteEvent[] {
+  const out: NoteEvent[] = [];
+  // Looking back a bounded number of strikes keeps this linear; a key held longer than that
+  // many strikes is rare and is still caught by the strikes' own `held` lists.
+  for (let k = i - 1; k >= 0 && k >= i - 64; k--) for (const n of strikes[k].notes) if (n.end > t + EPS) out.push(n);
+  for (const n of strikes[i].held) if (!out.includes(n)) out.push(n);
+  return out;
+}
+
+/** Boundaries a harmony must start at (silence before the strike) and strikes that can never start one. */
+export function boundaryRules(input: SegmentInput): { forced: boolean[]; barred: boolean[] } {
+  const { strikes, sounding } = input;
+  const forced = strikes.map(() => false);
+  const barred = strikes.map(() => false);
+  let lastSound = -Infinity;
+  for (let i = 0; i < strikes.length; i++) {
+    const t = strikes[i].start;
+    if (i > 0 && t - lastSound >= SILENCE_SEC - EPS) forced[i] = true;
+    const pitches = new Set(strikes[i].notes.map((n) => n.midi));
+    if (i > 0 && pitches.size === 1) {
+      // A note struck alone in the bass under held upper notes never starts a harmony.
+      const p = strikes[i].notes[0].midi;
+      const held = keyHeldAt(strikes, i, t + HELD_FOR).filter((n) => n.midi !== p);
+      if (held.length > 0 && held.every((n) => n.midi > p)) barred[i] = true;
+    }
+    for (const n of strikes[i].notes) lastSound = Math.max(lastSound, sounding.get(n)?.soundEnd ?? n.end);
+  }
+  return { forced, barred };
+}
+
+type Live = { p: number; from: number; to: number };
+
+/** Best template for a weight vector; `score` uses `w`, the choice uses `w` plus `bonus`. */
+export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: number | null): { score: number; chord: Template | null } {
+  let total = 0;
+  let present = 0;
+  let totalB = 0;
+  for (let p = 0; p < 12; p++) {
+    total += w[p];
+    totalB += w[p] + bonus[p];
+    if (w[p] > EPS) present++;
+  }
+  if (present === 0) return { score: 0, chord: null };
+  const unit = total / present;
+  let bestScore = -Infinity;
+  let choice: Template | null = null;
+  let choiceScore = -Infinity;
+  for (let t = 0; t < TEMPLATES.length; t++) {
+    const iv = TEMPLATES[t].intervals;
+    for (let r = 0; r < 12; r++) {
+      let inW = 0;
+      let inB = 0;
+      let missing = 0;
+      for (const i of iv) {
+        const p = (r + i) % 12;
+        inW += w[p];
+        inB += w[p] + bonus[p];
+        if (w[p] <= EPS) missing++;
+      }
+      const charge = unit * (MISSING_CHARGE * missing + (iv.length > 3 ? SEVENTH_CHARGE : 0));
+      const score = 2 * inW - total - charge;
+      if (score > bestScore) bestScore = score;
+      // The root in the bass breaks ties (rule 15: the bass weighted up).
+      const chosen = 2 * inB - totalB - charge + (r === bassPc ? 1e-6 : 0);
+      if (chosen > choiceScore + EPS) {
+        choiceScore = chosen;
+        choice = { rootPc: r, template: t };
+      }
+    }
+  }
+  return { score: bestScore, chord: choice };
+}
+
+function sameTemplate(a: Template | null, b: Template | null): boolean {
+  if (!a || !b) return a === b;
+  if (a.template !== b.template) return false;
+  // Symmetric chords (augmented, diminished seventh) are one chord on several roots.
+  const x = TEMPLATES[a.template].intervals.map((i) => (a.rootPc + i) % 12).sort((p, q) => p - q);
+  const y = TEMPLATES[b.template].intervals.map((i) => (b.rootPc + i) % 12).sort((p, q) => p - q);
+  return x.every((v, k) => v === y[k]);
+}
+
+/** Rule 15: the division of the strikes into harmonies with the best total score. */
+export function segment(input: SegmentInput): Segment[] {
+  const { strikes, sounding, endTime, minHarmonySec } = input;
+  const n = strikes.length;
+  if (n === 0) return [];
+  const { forced, barred } = boundaryRules(input);
+  const T = strikes.map((s) => s.start);
+  T.push(Math.max(endTime, T[n - 1]));
+  const best = new Float64Array(n + 1).fill(-Infinity);
+  const from = new Int32Array(n + 1).fill(-1);
+  const chordOf: Array<Template | null> = new Array(n + 1).fill(null);
+  best[0] = 0;
+  const w = new Float64Array(12);
+  const bonus = new Float64Array(12);
+  for (let i = 0; i < n; i++) {
+    if (best[i] === -Infinity) continue;
+    // A barred start is charged rather than refused, so every strike stays reachable.
+    const barredCost = i > 0 && barred[i] && !forced[i] ? TOO_SHORT : 0;
+    const t0 = T[i];
+    w.fill(0);
+    bonus.fill(0);
+    // Keys held into the span count while they stay down; pedal-carried notes do not count.
+    const held = keyHeldAt(strikes, i, t0);
+    const live: Live[] = held.map((h) => ({ p: pc(h.midi), from: t0, to: h.end }));
+    let bassPc: number | null = null;
+    let bass = Infinity;
+    for (const h of held) if (h.end >= t0 + HELD_FOR - EPS && h.midi < bass) bass = h.midi;
+    for (const note of strikes[i].notes) {
+      const s = sounding.get(note);
+      const dur = (s?.heardEnd ?? note.end) - note.start;
+      bonus[pc(note.midi)] += FIRST_STRIKE_BONUS * Math.min(dur, 1);
+      if (note.midi < bass) bass = note.midi;
+    }
+    if (bass !== Infinity) {
+      bassPc = pc(bass);
+      bonus[bassPc] += BASS_BONUS;
+    }
+    for (let j = i + 1; j <= n && j - i <= MAX_SPAN_STRIKES; j++) {
+      if (j - 1 > i && forced[j - 1]) break; // a silence lies inside the span
+      if (j - 1 > i && T[j - 1] - t0 > MAX_SPAN_SEC) break;
+      for (const note of strikes[j - 1].notes) {
+        const s = sounding.get(note);
+        live.push({ p: pc(note.midi), from: note.start, to: s?.heardEnd ?? note.end });
+      }
+      const a = T[j - 1];
+      const b = T[j];
+      let k = 0;
+      for (const l of live) {
+        const d = Math.min(l.to, b) - Math.max(l.from, a);
+        if (d > 0) w[l.p] += d;
+        if (l.to > b + EPS) live[k++] = l;
+      }
+      live.length = k;
+      const { score, chord } = bestTemplate(w, bonus, bassPc);
+      const short = b - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
+      const total = best[i] + score - (i > 0 ? CHANGE_COST : 0) - short - barredCost;
+      if (total > best[j] + EPS) {
+        best[j] = total;
+        from[j] = i;
+        chordOf[j] = chord;
+      }
+      if (j < n && forced[j]) break; // the next strike must start a harmony
+    }
+  }
+  const spans: Segment[] = [];
+  for (let j = n; j > 0; j = from[j]) spans.push({ first: from[j], end: j, chord: chordOf[j] });
+  spans.reverse();
+  // Spans of one template are one harmony unless a silence divides them: the search splits
+  // them only where a harmony outgrew the longest span it considers.
+  const out: Segment[] = [];
+  for (const s of spans) {
+    const prev = out[out.length - 1];
+    if (prev && !forced[s.first] && sameTemplate(prev.chord, s.chord)) prev.end = s.end;
+    else out.push({ ...s });
+  }
+  return out;
+}

@@ -1,0 +1,80 @@
+// How long each note sounds (RULES.md terms "sounding", rule 3 and rule 15): from its onset
+// until its key is released, and on while the sustain pedal stays down after that. For
+// reading harmonies we also follow the ear: a note whose key is up stops counting when a
+// note a half or whole step from it is struck under the same pedal (it has resolved), and
+// any note stops when its own key is struck again.
+import type { NoteEvent, PedalSpan } from "./types";
+
+const EPS = 1e-9;
+
+/** The pedal span that is down at `time` (start ≤ time < end), or null. Spans are sorted and disjoint. */
+export function pedalSpanAt(pedal: readonly PedalSpan[], time: number): PedalSpan | null {
+  let lo = 0;
+  let hi = pedal.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (pedal[mid].end <= time + EPS) lo = mid + 1;
+    else hi = mid;
+  }
+  const span = pedal[lo];
+  return span && span.start <= time + EPS ? span : null;
+}
+
+/** Whether the pedal is down at some time in [start, end). */
+export function pedalDuring(pedal: readonly PedalSpan[], start: number, end: number): boolean {
+  let lo = 0;
+  let hi = pedal.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (pedal[mid].end <= start) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo < pedal.length && pedal[lo].start < end;
+}
+
+export type Sounding = {
+  /** end of the sound: key release, carried on by the pedal, cut by a re-strike of the same key */
+  soundEnd: number;
+  /** soundEnd cut where the ear hears the note resolve by step (rule 15, last point) */
+  heardEnd: number;
+};
+
+function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (list[mid].start <= time + EPS) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo < list.length ? list[lo].start : Infinity;
+}
+
+/** Sound and heard ends of every note (notes sorted by onset). */
+export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[]): Map<NoteEvent, Sounding> {
+  const byPitch = new Map<number, NoteEvent[]>();
+  for (const n of sorted) {
+    const list = byPitch.get(n.midi);
+    if (list) list.push(n);
+    else byPitch.set(n.midi, [n]);
+  }
+  const out = new Map<NoteEvent, Sounding>();
+  for (const n of sorted) {
+    const span = pedalSpanAt(pedal, n.end);
+    let soundEnd = span ? Math.max(n.end, span.end) : n.end;
+    const again = firstOnsetAfter(byPitch.get(n.midi)!, n.start);
+    if (again < soundEnd) soundEnd = again;
+    let heardEnd = soundEnd;
+    if (soundEnd > n.end + EPS) {
+      // Carried by the pedal: a step away struck meanwhile ends it for the ear.
+      for (const step of [-2, -1, 1, 2]) {
+        const list = byPitch.get(n.midi + step);
+        if (!list) continue;
+        const t = firstOnsetAfter(list, n.end - EPS);
+        if (t < heardEnd) heardEnd = Math.max(n.end, t);
+      }
+    }
+    out.set(n, { soundEnd, heardEnd });
+  }
+  return out;
+}
