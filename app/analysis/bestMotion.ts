@@ -1,21 +1,35 @@
 // Best motion of a change (RULES.md rule 8): the smallest motion the same change could have had.
 //
-// Candidates are voicings of B's pitch classes (or, when both chords have a detached bass,
-// B's bass as played plus any voicing of upper(B)'s pitch classes above it). They are built
-// note by note from the bottom while the motion DP of rule 7 runs one column per note, so a
-// partial voicing whose cheapest completion already costs more than the best found is dropped.
-// Choices at each step are tried cheapest first, so good candidates come early.
+// Candidates are voicings of B's pitch classes (or, when both chords are two-hand voicings,
+// B's bass as played, with its left-hand octave if it has one, plus any voicing of upper(B)'s
+// pitch classes above it; when the take has a melody, B's top note as played too). They are
+// built note by note from the bottom while the motion DP of rule 7 runs one column per note,
+// so a partial voicing whose cheapest completion already costs more than the best found is
+// dropped. Choices at each step are tried cheapest first, so good candidates come early.
+// Every step is paid from a Budget (budget.ts): a search cut short throws and is never cached.
 
+import { Budget, CALL_BUDGET_STEPS } from "./budget";
 import { pc } from "./pitch";
 import { DETACHED_BASS_GAP, motion } from "./voiceLeading";
 
 export type BestMotionOptions = {
   /** Keeps only candidates it returns true for; must depend on the voicing alone (results are cached). */
   accept?: (v: number[]) => boolean;
-  /** Keep B's played top note. */
+  /**
+   * A necessary condition for `accept`, tested on the lowest `length` notes of a candidate
+   * (ascending, the top note not among them) so that hopeless candidates are dropped early:
+   * when it returns false, `accept` refuses every voicing that begins with those notes. `b` is
+   * B as played. Only used together with `accept`, and must depend on its arguments alone.
+   */
+  acceptPrefix?: (prefix: readonly number[], length: number, b: readonly number[]) => boolean;
+  /** Keep B's played top note (the tune, when the take has a melody). */
   keepTop?: boolean;
-  /** Keep B's played bass. */
+  /** Keep B's played bass (with its left-hand octave, if it has one). */
   keepBass?: boolean;
+  /** Only candidates moving less than this count (B as played included); null when none does. */
+  below?: number;
+  /** Where the search's steps are paid from; without one, each call gets a hang guard of its own. */
+  budget?: Budget;
 };
 
 export type BestMotionResult = { motion: number; voicing: number[] };
@@ -24,8 +38,12 @@ export type BestMotionResult = { motion: number; voicing: number[] };
 export const MAX_GRADED_PITCHES = 8;
 const LOWEST_KEY = 21; // A0
 const HIGHEST_KEY = 108; // C8
-/** Hang guard: search steps per call. Far above what real voicings need (a few hundred). */
-const STEP_BUDGET = 200_000;
+/** RULES.md terms: no hand reaches a voicing spanning more than this many semitones alone. */
+export const ONE_HAND_SPAN = 16;
+/** Steps charged for one `accept` test (naming a chord from its cache and checking its flags: ~6 µs). */
+const ACCEPT_STEPS = 8;
+/** Steps are counted locally and paid to the budget in batches of this many. */
+const PAY_EVERY = 1024;
 
 const plainCache = new Map<string, BestMotionResult | null>();
 const acceptCaches = new WeakMap<(v: number[]) => boolean, Map<string, BestMotionResult | null>>();
@@ -42,6 +60,22 @@ function distinctSorted(v: readonly number[]): number[] {
 /** Whether a sorted voicing has a detached bass (the test of voiceLeading.detachedBass, without copying). */
 function hasDetachedBass(sortedV: readonly number[]): boolean {
   return sortedV.length >= 3 && sortedV[1] - sortedV[0] >= DETACHED_BASS_GAP;
+}
+
+/** RULES.md terms: a two-hand voicing has a detached bass or spans more than 16 semitones. */
+export function isTwoHand(v: readonly number[]): boolean {
+  return isTwoHandSorted(distinctSorted(v));
+}
+
+/**
+ * The bass a two-hand voicing keeps (RULES.md rules 6 and 8): its lowest note, and the octave
+ * above it when that octave is itself 7 or more semitones below the next note (a left-hand
+ * octave belongs to the bass). Sorted distinct input.
+ */
+export function keptBass(sortedB: readonly number[]): number[] {
+  const b0 = sortedB[0];
+  if (sortedB.length >= 3 && sortedB[1] === b0 + 12 && sortedB[2] - sortedB[1] >= DETACHED_BASS_GAP) return [b0, b0 + 12];
+  return [b0];
 }
 
 // Work buffers for the search, allocated once: per placed note, its candidate notes, their
@@ -81,7 +115,8 @@ export function beatsOnTie(candidate: readonly number[], best: readonly number[]
 
 /**
  * The smallest motion from A to any allowed voicing of B, with that voicing (ascending), or
- * null when no candidate is accepted or either chord has more than 8 distinct pitches.
+ * null when no candidate is accepted (or moves less than `below`) or either chord has more
+ * than 8 distinct pitches. Throws AnalysisError("too-complex") when the budget runs out.
  */
 export function bestMotion(
   aIn: readonly number[],
@@ -93,7 +128,8 @@ export function bestMotion(
   if (a.length === 0 || b.length === 0) throw new RangeError("bestMotion needs two non-empty voicings");
   if (b.length > MAX_GRADED_PITCHES || a.length > MAX_GRADED_PITCHES) return null;
 
-  const key = `${a.join(",")}|${b.join(",")}|${opts.keepTop ? 1 : 0}${opts.keepBass ? 1 : 0}`;
+  const below = opts.below ?? Infinity;
+  const key = `${a.join(",")}|${b.join(",")}|${opts.keepTop ? 1 : 0}${opts.keepBass ? 1 : 0}|${below}`;
   let cache = plainCache;
   if (opts.accept) {
     cache = acceptCaches.get(opts.accept) ?? new Map();
@@ -104,7 +140,9 @@ export function bestMotion(
     const nested = sharedInUse;
     sharedInUse = true;
     try {
-      result = search(a, b, opts, nested ? makeBuffers() : sharedBuffers);
+      const budget = opts.budget ?? new Budget(CALL_BUDGET_STEPS);
+      // A search cut short throws here, so only finished searches reach the cache.
+      result = search(a, b, opts, below, budget, nested ? makeBuffers() : sharedBuffers);
     } finally {
       if (!nested) sharedInUse = false;
     }
@@ -114,29 +152,52 @@ export function bestMotion(
   return result && { motion: result.motion, voicing: result.voicing.slice() };
 }
 
-function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buffers): BestMotionResult | null {
+function search(
+  a: number[],
+  b: number[],
+  opts: BestMotionOptions,
+  below: number,
+  budget: Budget,
+  buffers: Buffers,
+): BestMotionResult | null {
   const accept = opts.accept;
+  const acceptPrefix = accept ? opts.acceptPrefix : undefined;
   const m = a.length;
   const n = b.length;
   const aTop = a[m - 1];
+  let steps = 0;
+  const pay = () => {
+    const due = steps;
+    steps = 0;
+    budget.spend(due);
+  };
+  const accepts = (v: number[]) => {
+    steps += ACCEPT_STEPS;
+    return !accept || accept(v);
+  };
 
-  let bestCost = Infinity;
+  // Found so far: `bestCost` is also the bound a candidate must meet (strictly below `below`
+  // until one is found).
+  let bestCost = below;
   let bestVoicing: number[] | null = null;
   // B as played is always a candidate (rule 8).
-  if (!accept || accept(b.slice())) {
-    bestCost = motion(a, b);
+  const played = motion(a, b);
+  if (played < below && accepts(b.slice())) {
+    bestCost = played;
     bestVoicing = b.slice();
   }
 
-  const bothDetached = hasDetachedBass(a) && hasDetachedBass(b);
-  const fixedLow = bothDetached || opts.keepBass ? b[0] : null;
+  // Rule 8: between two-hand voicings the bass (with a left-hand octave) is the player's choice.
+  const fixedLow = (isTwoHandSorted(a) && isTwoHandSorted(b)) || opts.keepBass ? keptBass(b) : [];
   const fixedTop = opts.keepTop ? b[n - 1] : null;
-  if (n === 1 && fixedLow !== null && fixedTop !== null) return finish();
+  const lowCount = fixedLow.length;
+  const lowTop = lowCount > 0 ? fixedLow[lowCount - 1] : null;
+  if (lowCount + (fixedTop !== null && fixedTop !== lowTop ? 1 : 0) >= n) return finish();
 
   // Pitch classes still to place freely (a multiset: upper(B) may double a pitch class).
   const counts = new Int32Array(12);
   for (const note of b) counts[pc(note)]++;
-  if (fixedLow !== null) counts[pc(fixedLow)]--;
+  for (const note of fixedLow) counts[pc(note)]--;
   if (fixedTop !== null) counts[pc(fixedTop)]--;
 
   // Without `accept`, no optimal candidate has a free note more than 12 x (largest number of
@@ -144,10 +205,9 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
   // bass): moving such a note an octave towards A shortens its joins and nothing else.
   const margin = 12 * Math.max(1, ...counts);
   const lo = Math.min(a[0], fixedTop ?? Infinity) - margin;
-  const hi = Math.max(aTop, fixedLow ?? -Infinity) + margin;
+  const hi = Math.max(aTop, lowTop ?? -Infinity) + margin;
   const { notes: notesAt, bounds: boundsAt, order: orderAt, columns: columnsAt } = buffers;
   const path = new Array<number>(n).fill(0);
-  let steps = 0;
 
   run(Math.max(LOWEST_KEY, lo), Math.min(HIGHEST_KEY, hi));
   if (accept) {
@@ -156,6 +216,7 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
     const outside = Math.min(lo > LOWEST_KEY ? a[0] - lo : Infinity, hi < HIGHEST_KEY ? hi - aTop : Infinity);
     if (bestCost > outside) run(LOWEST_KEY, HIGHEST_KEY);
   }
+  pay();
   return finish();
 
   function finish(): BestMotionResult | null {
@@ -165,9 +226,8 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
   function run(rangeLo: number, rangeHi: number): void {
     let freeLo = rangeLo;
     let freeHi = rangeHi;
-    if (fixedLow !== null) freeLo = Math.max(freeLo, fixedLow + 1);
+    if (lowTop !== null) freeLo = Math.max(freeLo, lowTop + 1);
     if (fixedTop !== null) freeHi = Math.min(freeHi, fixedTop - 1);
-    steps = 0;
     place(0, -Infinity, null, 0, freeLo, freeHi);
   }
 
@@ -200,7 +260,7 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
   }
 
   function place(j: number, prevNote: number, prev: Float64Array | null, prevOff: number, freeLo: number, freeHi: number): void {
-    if (++steps > STEP_BUDGET) return;
+    if (steps >= PAY_EVERY) pay();
     const notes = notesAt[j];
     const bounds = boundsAt[j];
     const order = orderAt[j];
@@ -208,6 +268,7 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
     const last = j === n - 1;
     let count = 0;
     const push = (v: number) => {
+      steps++;
       notes[count] = v;
       bounds[count] = fillColumn(cols, count * m, prev, prevOff, j, v);
       // insertion into `order`, cheapest bound first, then lower note
@@ -221,7 +282,8 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
       order[k] = count;
       count++;
     };
-    if (j === 0 && fixedLow !== null) push(fixedLow);
+    const isFixed = j < lowCount;
+    if (isFixed) push(fixedLow[j]);
     else if (last && fixedTop !== null) {
       if (fixedTop > prevNote) push(fixedTop);
     } else {
@@ -231,25 +293,29 @@ function search(a: number[], b: number[], opts: BestMotionOptions, buffers: Buff
         for (let v = start + ((p - pc(start) + 12) % 12); v <= freeHi; v += 12) push(v);
       }
     }
-    const isFixed = j === 0 && fixedLow !== null;
     for (let r = 0; r < count; r++) {
       const k = order[r];
-      if (bounds[k] > bestCost) break;
+      // A candidate must beat the best found, or move less than `below` while none is found.
+      if (bounds[k] > bestCost || (bestVoicing === null && bounds[k] >= bestCost)) break;
       const v = notes[k];
       path[j] = v;
       if (last) {
         const cost = cols[k * m + m - 1];
-        if (cost < bestCost || (cost === bestCost && bestVoicing !== null && beatsOnTie(path, bestVoicing, aTop))) {
-          if (!accept || accept(path.slice())) {
-            bestCost = cost;
-            bestVoicing = path.slice();
-          }
+        const wins = bestVoicing === null ? cost < bestCost : cost < bestCost || (cost === bestCost && beatsOnTie(path, bestVoicing, aTop));
+        if (wins && accepts(path.slice())) {
+          bestCost = cost;
+          bestVoicing = path.slice();
         }
         continue;
       }
+      if (acceptPrefix && !acceptPrefix(path, j + 1, b)) continue;
       if (!isFixed) counts[pc(v)]--;
       place(j + 1, v, cols, k * m, freeLo, freeHi);
       if (!isFixed) counts[pc(v)]++;
     }
   }
+}
+
+function isTwoHandSorted(s: readonly number[]): boolean {
+  return hasDetachedBass(s) || (s.length >= 2 && s[s.length - 1] - s[0] > ONE_HAND_SPAN);
 }

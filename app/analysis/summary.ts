@@ -3,6 +3,7 @@
 import { noteName } from "./pitch";
 import type { Key } from "./pitch";
 import { score, scoreParts } from "./score";
+import { tempoSteadiness } from "./tempo";
 import { hasSmoothTopLine, smoothTopLineShare } from "./techniques";
 import {
   CHANGE_FLAGS,
@@ -15,8 +16,10 @@ import {
   type PedalSpan,
   type Summary,
   type TechniqueName,
-  type TempoSteadiness,
+  type TempoPoint,
 } from "./types";
+
+export { tempoSteadiness };
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
@@ -25,17 +28,22 @@ export function smoothnessOf(totalMotion: number, bestTotalMotion: number): numb
   return totalMotion === 0 ? 1 : bestTotalMotion / totalMotion;
 }
 
-/** Spread of the time between chord changes (coefficient of variation of the gaps). */
-export function tempoSteadiness(startTimes: number[]): TempoSteadiness {
-  if (startTimes.length < 2) return { medianGapSec: null, spread: null, steadiness: 1 };
-  const gaps = startTimes.slice(1).map((t, i) => t - startTimes[i]);
-  const sorted = [...gaps].sort((a, b) => a - b);
-  const mid = sorted.length >> 1;
-  const median = sorted.length % 2 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
-  const mean = gaps.reduce((a, b) => a + b, 0) / gaps.length;
-  const sd = Math.sqrt(gaps.reduce((a, g) => a + (g - mean) ** 2, 0) / gaps.length);
-  const spread = mean > 0 ? sd / mean : 0;
-  return { medianGapSec: round3(median), spread: round3(spread), steadiness: round3(Math.min(1, Math.max(0, 1 - spread))) };
+/** Rule 1: notes begun within 80 ms of each other are one strike. */
+const STRIKE_GAP_SEC = 0.08;
+
+/** Strike onsets as far as the reports show them, strikes begun within 80 ms counted once (rule 1). */
+function reportedOnsets(input: Pick<SummaryInput, "chords" | "melodyNotes">): number[] {
+  const times: number[] = [];
+  for (const c of input.chords) {
+    times.push(c.startSec);
+    for (const n of c.bassLine ?? []) times.push(n.startSec);
+    for (const n of c.nonChordTones ?? []) times.push(n.startSec);
+  }
+  for (const n of input.melodyNotes) times.push(n.startSec);
+  times.sort((a, b) => a - b);
+  const out: number[] = [];
+  for (const t of times) if (out.length === 0 || t - out[out.length - 1] > STRIKE_GAP_SEC) out.push(t);
+  return out;
 }
 
 export type SummaryInput = {
@@ -46,6 +54,14 @@ export type SummaryInput = {
   keySource: "given" | "estimated";
   durationSec: number;
   pedal: PedalSpan[];
+  /**
+   * Onsets of every strike (rule 1), seconds: steady time is judged on these (rule 22). When
+   * absent, the onsets the reports still show are used (harmonies, melody, bass-line notes and
+   * non-chord tones), which misses repeated strikes of one harmony.
+   */
+  strikeOnsets?: number[];
+  /** The file's tempo map (rule 22 takes the beat from it where the strikes follow it). */
+  tempos?: TempoPoint[];
   analysisVersion: number;
   match?: { target: string; accuracy: number; loops: number; mismatches: Summary["mismatches"] };
 };
@@ -65,7 +81,7 @@ export function summarise(input: SummaryInput): Summary {
   const topNotes = chords.map((c) => c.topNote);
   if (hasSmoothTopLine(topNotes)) techniques["smooth-top-line"] = 1;
   const share = smoothTopLineShare(topNotes);
-  const tempo = tempoSteadiness(chords.map((c) => c.startSec));
+  const tempo = tempoSteadiness(input.strikeOnsets ?? reportedOnsets(input), input.tempos ?? []);
   const smoothness = smoothnessOf(totalMotion, bestTotalMotion);
   const parts = scoreParts({
     chordCount: chords.length,

@@ -4,6 +4,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { bestMotion, type BestMotionOptions } from "../../../app/analysis/bestMotion";
+import { Budget } from "../../../app/analysis/budget";
+import { AnalysisError } from "../../../app/analysis/errors";
 import { detachedBass, motion } from "../../../app/analysis/voiceLeading";
 
 const shift = (v: number[], t: number) => v.map((x) => x + t);
@@ -20,19 +22,29 @@ function lowerOnTie(v: number[], w: number[], aTop: number): boolean {
   return false;
 }
 
-/** Rule 8 read literally: every voicing of the pitch classes between 24 and 100, B itself included. */
+/** RULES.md terms: a detached bass, or a span of more than 16 semitones (no hand reaches it alone). */
+const twoHand = (v: number[]) => detachedBass(v) !== null || Math.max(...v) - Math.min(...v) > 16;
+/** Rules 6 and 8: the bass kept, with the octave above it when that octave lies 7 or more below the next note. */
+const bassKept = (b: number[]) => (b.length >= 3 && b[1] === b[0] + 12 && b[2] - b[1] >= 7 ? [b[0], b[1]] : [b[0]]);
+
+/**
+ * Rule 8 read literally: every voicing of the pitch classes between 24 and 100, B itself
+ * included; between two-hand voicings (or with keepBass) B's bass as played and every other
+ * note above it; with keepTop, B's top note as played.
+ */
 function bruteBest(a: number[], b: number[], opts: BestMotionOptions = {}): { motion: number; voicing: number[] } | null {
-  const both = detachedBass(a) !== null && detachedBass(b) !== null;
-  const fixed = both ? [b[0]] : [];
-  const free = (both ? b.slice(1) : b).map(pcOf);
-  const lowest = both ? b[0] + 1 : 24;
+  const keep = twoHand(a) && twoHand(b);
+  const fixed = keep || opts.keepBass ? bassKept(b) : [];
+  const free = b.slice(fixed.length).map(pcOf);
+  const lowest = fixed.length ? fixed[fixed.length - 1] + 1 : 24;
   const aTop = Math.max(...a);
   let best: { motion: number; voicing: number[] } | null = null;
   const consider = (v: number[]) => {
     if (opts.keepTop && v[v.length - 1] !== b[b.length - 1]) return;
-    if (opts.keepBass && v[0] !== b[0]) return;
+    if (fixed.some((f, i) => v[i] !== f)) return;
     if (opts.accept && !opts.accept(v.slice())) return;
     const m = motion(a, v);
+    if (opts.below !== undefined && m >= opts.below) return;
     if (!best || m < best.motion || (m === best.motion && lowerOnTie(v, best.voicing, aTop))) best = { motion: m, voicing: v };
   };
   const rec = (i: number, chosen: number[]) => {
@@ -166,16 +178,91 @@ const chord = fc.oneof(
   fc.integer({ min: 2, max: 4 }).chain((n) => voicing(52, 80, n)),
   // left-hand bass under a right-hand triad
   fc.tuple(fc.integer({ min: 33, max: 48 }), voicing(57, 76, 3)).map(([bass, upper]) => [bass, ...upper]),
+  // a left-hand octave under a right-hand voicing (rule 6)
+  fc.tuple(fc.integer({ min: 36, max: 48 }), voicing(62, 79, 2)).map(([bass, upper]) => [bass, bass + 12, ...upper]),
+  // wide voicings without a detached bass (two-hand by their span)
+  fc.tuple(voicing(48, 55, 2), voicing(70, 84, 1)).map(([low, high]) => [...low, ...high]),
 );
+const options = fc.constantFrom<BestMotionOptions>({}, { keepTop: true }, { keepBass: true }, { keepTop: true, keepBass: true });
 
 describe("bestMotion against the literal brute force (fast-check)", () => {
   it("finds the same motion and voicing, with and without options", () => {
     fc.assert(
-      fc.property(chord, chord, fc.constantFrom({}, { keepTop: true }, { keepBass: true }), (a, b, opts) => {
+      fc.property(chord, chord, options, (a, b, opts) => {
         expect(bestMotion(a, b, opts)).toEqual(bruteBest(a, b, opts));
       }),
       { numRuns: 150, seed: 20261201 },
     );
+  });
+
+  it("finds the same under a motion bound and a flag filter with its early test", () => {
+    // the filter: no two lowest notes closer than a 4th, and no note below C3 other than the bass
+    const accept = (v: number[]) => v[1] - v[0] >= 5 && v.slice(1).every((n) => n >= 48);
+    const acceptPrefix = (p: readonly number[], len: number) => (len < 2 || p[1] - p[0] >= 5) && (len < 2 || p[len - 1] >= 48);
+    fc.assert(
+      fc.property(chord, chord, options, fc.integer({ min: 1, max: 30 }), (a, b, opts, below) => {
+        expect(bestMotion(a, b, { ...opts, accept, acceptPrefix, below })).toEqual(bruteBest(a, b, { ...opts, accept, below }));
+      }),
+      { numRuns: 150, seed: 20261202 },
+    );
+  });
+});
+
+describe("rule 8 with two-hand voicings and a tune", () => {
+  it("keeps B's bass between two-hand voicings even without a detached bass (span over 16)", () => {
+    // C3 E3 G4 (two-hand by its span) -> F3 A3 C5 (span 19): F3 stays; A3 C5 become A3 C4 (worked by hand from RULES.md rule 8)
+    for (const t of [0, 2, -5]) {
+      const r = bestMotion(shift([48, 52, 67], t), shift([53, 57, 72], t))!;
+      expect(r.voicing[0]).toBe(53 + t);
+      expect(r).toEqual(bruteBest(shift([48, 52, 67], t), shift([53, 57, 72], t)));
+    }
+  });
+
+  it("keeps a left-hand octave with the bass (rule 6)", () => {
+    // C2 C3 under E4 G4 C5 -> F2 F3 under A4 C5 F5: F2 F3 stay, the right hand re-voices
+    const r = bestMotion([36, 48, 64, 67, 72], [41, 53, 69, 72, 77])!;
+    expect(r.voicing.slice(0, 2)).toEqual([41, 53]);
+    expect(r).toEqual(bruteBest([36, 48, 64, 67, 72], [41, 53, 69, 72, 77]));
+  });
+
+  it("with the tune kept and a two-hand bass, re-voices only what lies between (RULES.md rule 8 worked example)", () => {
+    // left hand C3 G3 E4 with melody G5, then F3 A3 E4 under melody F5 (worked by hand from RULES.md rule 8)
+    for (const t of [0, 3, -4]) {
+      const a = shift([48, 55, 64, 79], t);
+      const b = shift([53, 64, 69, 77], t); // F3 E4 A4 F5: A and E re-voiced are A3 E4
+      const r = bestMotion(a, b, { keepTop: true })!;
+      expect(r.voicing).toEqual(shift([53, 57, 64, 77], t));
+      expect(r).toEqual(bruteBest(a, b, { keepTop: true }));
+    }
+  });
+});
+
+describe("the budget", () => {
+  it("refuses a search that outruns it as too complex, and caches nothing of it", () => {
+    const a = [47, 54, 63, 66];
+    const b = [49, 56, 61, 65];
+    const accept = (v: number[]) => v[0] % 2 === 1 && v[1] - v[0] > 8;
+    let error: unknown;
+    try {
+      bestMotion(a, b, { accept, budget: new Budget(5) });
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(AnalysisError);
+    expect((error as AnalysisError).code).toBe("too-complex");
+    // the same search with room to finish gives the literal rule's answer, not a cut-short one
+    const budget = new Budget(1e9);
+    expect(bestMotion(a, b, { accept, budget })).toEqual(bruteBest(a, b, { accept }));
+    expect(budget.spent).toBeGreaterThan(5);
+  });
+
+  it("charges one budget across searches", () => {
+    const budget = new Budget(1e9);
+    bestMotion([59, 63, 66], [64, 68, 71], { budget });
+    const once = budget.spent;
+    bestMotion([59, 63, 66, 70], [64, 68, 71, 75], { budget });
+    expect(once).toBeGreaterThan(0);
+    expect(budget.spent).toBeGreaterThan(once);
   });
 });
 

@@ -103,13 +103,23 @@ describe("summary", () => {
     expect(smoothnessOf(30, 6)).toBeCloseTo(0.2);
   });
 
-  it("tempo steadiness is the spread of the time between changes", () => {
-    expect(tempoSteadiness([0, 1, 2, 3])).toEqual({ medianGapSec: 1, spread: 0, steadiness: 1 });
-    const uneven = tempoSteadiness([0, 0.5, 2, 2.5]);
-    // gaps 0.5, 1.5, 0.5: mean 5/6, population SD √2/3 ≈ 0.471, spread ≈ 0.566
-    expect(uneven.spread).toBeCloseTo(0.566, 3);
-    expect(uneven.steadiness).toBeCloseTo(0.434, 3);
+  it("steady time comes from the beat, not from the time between changes (rule 22)", () => {
+    expect(tempoSteadiness([0, 1, 2, 3])).toMatchObject({ medianGapSec: 1, spread: 0, steadiness: 1 });
+    // changes 0.5, 1.5 and 0.5 s apart: uneven harmonic rhythm, every strike on the 120 bpm beat
+    // (the first edition scored this 0.434 from the spread of the gaps)
+    expect(tempoSteadiness([0, 0.5, 2, 2.5])).toMatchObject({ steadiness: 1, beatFrom: "tempo-map" });
     expect(tempoSteadiness([0]).medianGapSec).toBeNull();
+  });
+
+  it("the summary judges steady time on the strikes it is given, with the file's tempo", () => {
+    const chords = [chord([53, 57, 60], 0), chord([58, 62, 65], 4)];
+    const base = { chords, melodyNotes: [], changes: [gradeChange(0, 1, chords[0], chords[1], key)], key, keySource: "given" as const, durationSec: 5, pedal: [], analysisVersion: ANALYSIS_VERSION };
+    // the first chord re-struck every beat at 60 bpm, then the second: strict time
+    const strikes = [0, 1, 2, 3, 4];
+    expect(summarise({ ...base, strikeOnsets: strikes, tempos: [{ time: 0, bpm: 60 }] }).tempo.steadiness).toBe(1);
+    // a strike 0.37 s late breaks it
+    const late = summarise({ ...base, strikeOnsets: [0, 1, 2.37, 3, 4], tempos: [{ time: 0, bpm: 60 }] }).tempo;
+    expect(late.steadiness).toBeLessThan(0.8);
   });
 
   it("totals, flags and techniques by name, top line and score", () => {
