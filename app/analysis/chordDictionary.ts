@@ -49,6 +49,7 @@ const DISPLAY: Record<string, string> = {
   "13no5": "13",
   "4": "m11",
   M7b5: "maj7#11",
+  "maj#4": "maj7#11",
   m7add11: "m11",
 };
 
@@ -83,5 +84,8 @@ registerTradeChords();
 /** Lead-sheet suffix for a tonal type given by its aliases, or null to let the caller choose. */
 export function displaySuffix(aliases: readonly string[]): string | null {
   const first = aliases[0];
-  return first !== undefined && first in DISPLAY ? DISPLAY[first] : null;
+  if (first === undefined) return null;
+  if (first in DISPLAY) return DISPLAY[first];
+  // tonal's bare "M" before a seventh, ninth or thirteenth reads as "maj" on a lead sheet.
+  return /^M(7|9|13)/.test(first) ? `maj${first.slice(1)}` : null;
 }
