@@ -17,19 +17,25 @@ import {
 } from "~/db/schema";
 import { mailDir } from "~/lib/mail.server";
 import { deleteStoredMailTo } from "~/lib/mailStore.server";
-import { readTakeFile, removeTakeFile } from "~/lib/takeFiles.server";
+import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
 
-/** Deletes the matching take rows (analysis rows cascade) and their files. */
+/**
+ * Deletes the matching take rows (analysis rows cascade) in one transaction, then
+ * their files: a crash in between leaves files without rows (the orphan sweep
+ * removes them), never rows that pages would list without a file.
+ */
 export async function removeTakesWithFiles(where: SQL) {
-  const rows = db().select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
-  if (rows.length === 0) return 0;
-  // Export and deletion go through the same file store as uploads.
-  for (const row of rows) await removeTakeFile(row.fileKey);
-  db()
-    .delete(takes)
-    .where(inArray(takes.id, rows.map((r) => r.id)))
-    .run();
-  return rows.length;
+  const fileKeys = db().transaction((tx) => {
+    const rows = tx.select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
+    for (let i = 0; i < rows.length; i += 500) {
+      tx.delete(takes)
+        .where(inArray(takes.id, rows.slice(i, i + 500).map((r) => r.id)))
+        .run();
+    }
+    return rows.map((r) => r.fileKey);
+  });
+  await removeTakeFilesAfterRows(fileKeys);
+  return fileKeys.length;
 }
 
 function commentsOnTake(takeId: string) {
@@ -153,18 +159,22 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
 }
 
 /**
- * Removes a person: their takes and files first, then the user row (sessions,
- * memberships, tokens, comments, reports and analysis rows cascade). Invitations
- * and stored mail to their address go too, since they hold the address.
+ * Removes a person: their take rows, invitations and the user row in one
+ * transaction (sessions, memberships, tokens, comments, reports and analysis rows
+ * cascade), then their take files. Invitations and stored mail to their address
+ * go too, since they hold the address.
  */
 export async function deletePersonData(userId: string) {
   const user = db().select().from(users).where(eq(users.id, userId)).get();
   if (!user) return;
-  await removeTakesWithFiles(eq(takes.studentId, userId));
-  db().transaction((tx) => {
+  const fileKeys = db().transaction((tx) => {
+    const keys = tx.select({ fileKey: takes.fileKey }).from(takes).where(eq(takes.studentId, userId)).all().map((r) => r.fileKey);
+    tx.delete(takes).where(eq(takes.studentId, userId)).run();
     tx.delete(invitations).where(eq(invitations.email, user.email)).run();
     tx.delete(users).where(eq(users.id, userId)).run();
+    return keys;
   });
+  await removeTakeFilesAfterRows(fileKeys);
   // Mail kept on disk (no SMTP configured, or the demo's catcher) names them too.
   for (const dir of new Set([mailDir(), process.env.MAIL_CATCHER_DIR].filter((d): d is string => !!d))) {
     deleteStoredMailTo(dir, user.email);

@@ -1,5 +1,6 @@
 import { sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
+import { takesFolderWritable } from "~/lib/takeFiles.server";
 import { appVersion } from "~/lib/version.server";
 
 export async function loader() {
@@ -9,8 +10,11 @@ export async function loader() {
   } catch {
     database = "unavailable";
   }
+  // Uploads need to write take files: a read-only or missing volume is not healthy.
+  const storage: "ok" | "not-writable" = (await takesFolderWritable()) ? "ok" : "not-writable";
+  const ok = database === "ok" && storage === "ok";
   return Response.json(
-    { app: "nearnote", version: appVersion(), database },
-    { status: database === "ok" ? 200 : 503, headers: { "Cache-Control": "no-store" } },
+    { app: "nearnote", version: appVersion(), database, storage },
+    { status: ok ? 200 : 503, headers: { "Cache-Control": "no-store" } },
   );
 }
