@@ -126,8 +126,9 @@ export function readRoman(token: string, key: Key, fail: (why?: string) => Error
   if (figure && bassDegree) throw fail("a figure already names the bass");
 
   let alter = accidental === "b" || accidental === "♭" ? -1 : accidental === "#" || accidental === "♯" ? 1 : 0;
-  // Common practice: in minor, vii° and viiø sit on the raised seventh (the leading tone).
-  if (key.mode === "minor" && degree === 6 && triad === "diminished" && alter === 0) alter = 1;
+  // Common practice: in minor, vii° and viiø sit on the raised seventh (the leading tone), so
+  // a diminished chord on the natural seventh is written bvii°.
+  if (key.mode === "minor" && degree === 6 && triad === "diminished") alter += 1;
   const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
   const root = pc(key.tonic + scale[degree] + alter);
   let bass: number | null = null;
@@ -202,7 +203,7 @@ export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">
     ({ degree, alter } = degreeInKey(rootSpelling, key));
   }
   // The parser puts vii° and viiø in minor on the raised seventh without an accidental.
-  if (key.mode === "minor" && degree === 6 && alter === 1 && chord.triad === "diminished") alter = 0;
+  if (key.mode === "minor" && degree === 6 && chord.triad === "diminished") alter -= 1;
   const numeral = chord.triad === "minor" || chord.triad === "diminished" ? NUMERALS[degree].toLowerCase() : NUMERALS[degree];
   const accidental = alter < 0 ? "b".repeat(-alter) : "#".repeat(alter);
   const { text, seventh } = qualityText(chord.triad, chord.required);

@@ -1,0 +1,181 @@
+// RULES.md rule 21: chords spelled from their own root, roots spelled for their function, and
+// Roman numerals with quality, extensions and figures. Examples are worked by hand from
+// RULES.md rule 21 unless marked; each is checked in its key and transposed into two others.
+// tonal (general-purpose music-theory library on npm, 6.5.1) checks that every spelled name
+// is the pitch it stands for and what a symbol means.
+import fc from "fast-check";
+import { Chord, Note } from "tonal";
+import { describe, expect, it } from "vitest";
+import { chordNoteNames, nameChord, romanOf, rootName, spelledSymbol } from "../../../app/analysis/naming";
+import { parseKey, pc } from "../../../app/analysis/pitch";
+import { parseProgression, targetPcs } from "../../../app/analysis/progression";
+
+const KEYS = ["C", "G", "D", "A", "E", "B", "F#", "C#", "F", "Bb", "Eb", "Ab", "Db", "Gb", "Cb"];
+const MINOR_KEYS = ["Am", "Em", "Bm", "F#m", "C#m", "G#m", "Dm", "Gm", "Cm", "Fm", "Bbm", "Ebm"];
+
+function names(pitches: number[], key: string | null, ctx?: { nextBassPc?: number; nextRootPc?: number }) {
+  const k = key ? parseKey(key) : null;
+  const name = nameChord(pitches, pitches[0]);
+  return {
+    notes: chordNoteNames(pitches, name, k, ctx),
+    root: rootName(name, k, ctx),
+    symbol: spelledSymbol(name, pitches[0], k, ctx),
+    roman: k ? romanOf(name, k, pitches[0], ctx) : null,
+  };
+}
+
+describe("a chord's notes are spelled from its own root", () => {
+  it("D major is D F# A and A major is A C# E in every key, never D Gb A or Bbb", () => {
+    for (const k of [...KEYS, ...MINOR_KEYS, null]) {
+      expect(names([62, 66, 69], k).notes, `D in ${k}`).toEqual(["D4", "F#4", "A4"]);
+      expect(names([57, 61, 64], k).notes, `A in ${k}`).toEqual(["A3", "C#4", "E4"]);
+    }
+  });
+
+  it("E7 is E G# B D wherever E is foreign, and the #9 of E7#9 is F## (one letter per chord tone)", () => {
+    for (const k of ["C", "F", "Bb", "Eb", "Ab", "Dm", "Gm", "Cm"]) {
+      expect(names([52, 56, 59, 62], k).notes, `E7 in ${k}`).toEqual(["E3", "G#3", "B3", "D4"]);
+    }
+    expect(names([52, 56, 62, 67], "A").notes).toEqual(["E3", "G#3", "D4", "F##4"]);
+  });
+
+  it("a foreign root takes the spelling with fewer accidentals: A major in Gb is #II, not bbIII", () => {
+    expect(names([57, 61, 64], "Gb")).toMatchObject({ root: "A", roman: "#II", symbol: "A" });
+    // transposed: E major in Db, D major in Fb's enharmonic Cb
+    expect(names([52, 56, 59], "Db")).toMatchObject({ root: "E", roman: "#II" });
+    expect(names([50, 54, 57], "Cb")).toMatchObject({ root: "D", roman: "#II" });
+  });
+
+  it("of two foreign spellings with equally few accidentals, the flat one: bII, not #I", () => {
+    expect(names([61, 65, 68], "C")).toMatchObject({ root: "Db", roman: "bII", notes: ["Db4", "F4", "Ab4"] });
+    expect(names([56, 60, 63], "G")).toMatchObject({ root: "Ab", roman: "bII", notes: ["Ab3", "C4", "Eb4"] });
+    expect(names([54, 58, 61], "F")).toMatchObject({ root: "Gb", roman: "bII", notes: ["Gb3", "Bb3", "Db4"] });
+  });
+
+  it("borrowed chords take the flat degree: bVII and iv", () => {
+    for (const [k, bVII, iv] of [
+      ["C", [58, 62, 65], [53, 56, 60]],
+      ["D", [60, 64, 67], [55, 58, 62]],
+      ["Ab", [54, 58, 61], [49, 52, 56]],
+    ] as Array<[string, number[], number[]]>) {
+      expect(names(bVII, k).roman, k).toBe("bVII");
+      expect(names(iv, k).roman, k).toBe("iv");
+    }
+    expect(names([58, 62, 65], "C").root).toBe("Bb");
+    expect(names([54, 58, 61], "Ab").root).toBe("Gb");
+    expect(names([49, 52, 56], "Ab").notes).toEqual(["Db3", "Fb3", "Ab3"]);
+  });
+
+  it("every chord tone takes its own letter and names its own pitch (tonal's Note.midi), in every key", () => {
+    const shapes = [[0, 4, 7], [0, 3, 7], [0, 3, 6, 9], [0, 4, 7, 10], [0, 4, 10], [0, 4, 10, 21], [0, 3, 6, 10], [0, 4, 7, 11, 14]];
+    for (const k of [...KEYS, ...MINOR_KEYS]) {
+      for (let root = 48; root < 60; root++) {
+        for (const shape of shapes) {
+          const pitches = shape.map((s) => root + s);
+          const spelled = names(pitches, k).notes;
+          expect(spelled.map((n) => Note.midi(n)), `${pitches} in ${k}`).toEqual(pitches);
+          const letters = new Set(spelled.map((n) => n[0]));
+          expect(letters.size, `${spelled} in ${k}`).toBe(new Set(pitches.map(pc)).size);
+        }
+      }
+    }
+  });
+});
+
+describe("a diminished seventh is spelled by the note it leads to", () => {
+  it.each([
+    // E G Bb Db between Eb and Fm is E°7, #i°7, not Fb°7
+    ["Eb", [52, 55, 58, 61], 5, "E", ["E3", "G3", "Bb3", "Db4"]],
+    // transposed: D# F# A C between D and Em; A C Eb Gb between Ab and Bbm
+    ["D", [51, 54, 57, 60], 4, "D#", ["D#3", "F#3", "A3", "C4"]],
+    ["Ab", [57, 60, 63, 66], 10, "A", ["A3", "C4", "Eb4", "Gb4"]],
+  ])("in %s, %j before a bass on pitch class %i is %s°7", (k, pitches, nextBass, root, spelled) => {
+    const n = names(pitches, k, { nextBassPc: nextBass });
+    expect(n.root).toBe(root);
+    expect(n.roman).toBe("#i°7");
+    expect(n.notes).toEqual(spelled);
+    expect(n.symbol).toBe(`${root}dim7`);
+  });
+
+  it("the next chord's bass decides the root even when another tone is in the bass", () => {
+    // Db E G Bb (Db in the bass) before Fm in Eb: still E°7, now over its 7th
+    const n = names([49, 52, 55, 58], "Eb", { nextBassPc: 5 });
+    expect(n.root).toBe("E");
+    expect(n.symbol).toBe("Edim7/Db");
+    expect(n.roman).toBe("#i°42");
+  });
+
+  it("without a fitting bass, the next chord's root: E°7 before F/A", () => {
+    expect(names([52, 55, 58, 61], "Eb", { nextBassPc: 9, nextRootPc: 5 }).root).toBe("E");
+    // no context: the root the naming gives, spelled with fewer accidentals
+    expect(names([52, 55, 58, 61], "Eb").root).toBe("E");
+  });
+});
+
+describe("Roman numerals as teachers write them", () => {
+  // [pitches in C, numeral]; each is also checked a tone and a fifth higher, in D and G
+  const cases: Array<[number[], string]> = [
+    [[62, 65, 69, 72], "ii7"],
+    [[55, 59, 65, 76], "V13"], // shell 13: root, 3rd, 7th, 13th
+    [[48, 52, 55, 59, 62], "Imaj9"],
+    [[55, 59, 62, 65, 70], "V7#9"],
+    [[53, 57, 60, 62], "IVadd6"],
+    [[43, 53, 57, 60], "IV/5"], // F/G: the bass an added tone, shown as its degree
+    [[59, 62, 65, 69], "viiø7"],
+    [[59, 62, 65, 68], "vii°7"],
+    // figures, common practice (S. Kostka & D. Payne, Tonal Harmony, from memory)
+    [[52, 55, 60], "I6"],
+    [[55, 60, 64], "I64"],
+    [[55, 59, 62, 65], "V7"],
+    [[59, 62, 65, 67], "V65"],
+    [[62, 65, 67, 71], "V43"],
+    [[53, 55, 59, 62], "V42"],
+    [[52, 55, 59, 60], "Imaj65"],
+    [[65, 69, 71, 74], "viiø43"],
+  ];
+
+  it.each(cases)("%j in C is %s, and the same a tone and a fifth higher in D and G", (pitches, roman) => {
+    for (const [k, t] of [["C", 0], ["D", 2], ["G", 7]] as Array<[string, number]>) {
+      expect(names(pitches.map((p) => p + t), k).roman, k).toBe(roman);
+    }
+  });
+
+  it.each(cases)("%j read back from %s names the same notes (tonal's Chord.get for the symbol)", (pitches, roman) => {
+    const [target] = parseProgression(roman, parseKey("C"));
+    expect(target.bass ?? target.root).toBe(pc(pitches[0]));
+    // the target's tones are those of its lead-sheet symbol to tonal, and hold what was played
+    const symbol = target.symbol.replace(/\/[A-G][#b]?$/, "");
+    expect(targetPcs({ ...target, bass: null })).toEqual([...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b));
+  });
+
+  it("minor keys: the leading-tone seventh chord and V7 in A minor, D minor and F# minor", () => {
+    for (const [k, t] of [["Am", 0], ["Dm", 5], ["F#m", -3]] as Array<[string, number]>) {
+      expect(names([56, 59, 62, 65].map((p) => p + t), k).roman, k).toBe("vii°7");
+      expect(names([52, 56, 59, 62].map((p) => p + t), k).roman, k).toBe("V7");
+      expect(names([57, 60, 64].map((p) => p + t), k).roman, k).toBe("i");
+    }
+  });
+
+  it("whatever numeral is printed reads back as the same root, triad and bass, never as an interval list", () => {
+    const keys = [...KEYS, ...MINOR_KEYS];
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(fc.integer({ min: 0, max: 11 }), { minLength: 3, maxLength: 5 }),
+        fc.integer({ min: 0, max: keys.length - 1 }),
+        (pcs, ki) => {
+          const pitches = pcs.map((p) => 48 + p);
+          const key = parseKey(keys[ki]);
+          const name = nameChord(pitches, pitches[0]);
+          const roman = romanOf(name, key, pitches[0]);
+          if (roman === null) return;
+          expect(roman).not.toMatch(/[(),]/);
+          const [target] = parseProgression(roman, key);
+          expect(target.root, `${roman} in ${key.name}`).toBe(name.rootPc);
+          expect(target.triad, `${roman} in ${key.name}`).toBe(name.triad);
+          expect(target.bass ?? target.root, `${roman} in ${key.name}`).toBe(pc(pitches[0]));
+        },
+      ),
+      { numRuns: 2000, seed: 21 },
+    );
+  });
+});
