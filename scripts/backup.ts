@@ -9,4 +9,5 @@ const config = loadEnvOrExit();
 const stamp = new Date().toISOString().replace(/[-:]/g, "").replace(/\..*/, "").replace("T", "-");
 const destination = path.resolve(process.argv[2] ?? path.join(config.storageDir, "backups", `nearnote-${stamp}.zip`));
 const result = await writeBackup(db().$client, config.storageDir, destination);
-console.log(`Backup written: ${result.destination} (database + ${result.takeFiles} take files)`);
+const skipped = result.skipped.length ? `; ${result.skipped.length} takes deleted while it ran were skipped` : "";
+console.log(`Backup written: ${result.destination} (database + ${result.takeFiles} take files${skipped})`);
