@@ -33,3 +33,23 @@ export async function sendMail(mail: OutgoingMail): Promise<void> {
     `[nearnote] SMTP_URL is not set: mail "${mail.subject}" was written to ${path.join(mailDir(), stored.id)}.eml instead of being sent`,
   );
 }
+
+const inFlight = new Set<Promise<void>>();
+
+/**
+ * Sends a mail after the current request has been answered. Pages that must answer the
+ * same way and in the same time whether or not an account exists (password reset, sign-up)
+ * use this, so the answer never waits for the mail server. A failure is logged.
+ */
+export function sendMailLater(mail: OutgoingMail): void {
+  const job: Promise<void> = new Promise<void>((resolve) => setImmediate(resolve))
+    .then(() => sendMail(mail))
+    .catch((error) => console.error(`[nearnote] mail "${mail.subject}" failed:`, error))
+    .finally(() => inFlight.delete(job));
+  inFlight.add(job);
+}
+
+/** Resolves once every mail handed to `sendMailLater` so far has been sent or has failed. */
+export async function mailSettled(): Promise<void> {
+  while (inFlight.size) await Promise.all([...inFlight]);
+}

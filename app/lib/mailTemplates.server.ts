@@ -61,3 +61,41 @@ export function resetPasswordMail(to: string, name: string, token: string): Outg
     ].join("\n"),
   };
 }
+
+export function confirmSignupMail(to: string, signup: { name: string; studioName: string; token: string }): OutgoingMail {
+  return {
+    to,
+    subject: "Confirm your e-mail address for Nearnote",
+    text: [
+      `Hello ${signup.name},`,
+      "",
+      `Please confirm that this is your e-mail address by opening the link below. Your studio, ${signup.studioName}, is created when you do.`,
+      "",
+      link(`/verify?token=${encodeURIComponent(signup.token)}`),
+      "",
+      "The link works once and expires in 24 hours. If you did not sign up for Nearnote, ignore this message: nothing is created.",
+    ].join("\n"),
+  };
+}
+
+/** Sent instead of a confirmation link when someone starts a studio with an address that already has an account. */
+export function existingAccountMail(to: string): OutgoingMail {
+  return {
+    to,
+    subject: "You already have a Nearnote account",
+    text: [
+      "Hello,",
+      "",
+      "Someone (hopefully you) tried to start a new studio on Nearnote with this address, which already has an account.",
+      "Sign in with it here:",
+      "",
+      link("/login"),
+      "",
+      "Forgot the password? Choose a new one here:",
+      "",
+      link("/forgot-password"),
+      "",
+      "If this was not you, ignore this message: nothing has changed.",
+    ].join("\n"),
+  };
+}

@@ -1,11 +1,12 @@
-import { and, eq, gt, ne } from "drizzle-orm";
+import { and, eq, lt, ne } from "drizzle-orm";
 import { z } from "zod";
 import { hashPassword, spendPasswordCheck, verifyPassword } from "~/auth/password.server";
-import { consumeUserToken, issueUserToken } from "~/auth/tokens.server";
+import { accountKey, addressKey, claimAccountMail, type MailClaim } from "~/auth/mailLimits.server";
+import { consumeUserToken, DAY_MS, hashToken, issueUserToken, newToken } from "~/auth/tokens.server";
 import { db } from "~/db/client.server";
-import { memberships, sessions, studios, userTokens, users, type User } from "~/db/schema";
-import { sendMail } from "~/lib/mail.server";
-import { resetPasswordMail, verifyEmailMail } from "~/lib/mailTemplates.server";
+import { memberships, pendingSignups, sessions, studios, users, type User } from "~/db/schema";
+import { sendMail, sendMailLater } from "~/lib/mail.server";
+import { confirmSignupMail, existingAccountMail, resetPasswordMail, verifyEmailMail } from "~/lib/mailTemplates.server";
 
 export const emailSchema = z
   .string({ error: "Enter your e-mail address" })
@@ -43,31 +44,84 @@ export async function checkCredentials(email: string, password: string): Promise
   return (await verifyPassword(password, user.passwordHash)) ? user : null;
 }
 
-/** A new teacher and the studio they own. The e-mail is unverified until the mailed link is opened. */
-export async function createTeacherWithStudio(input: {
-  name: string;
-  email: string;
-  password: string;
-  studioName: string;
-}): Promise<{ user: User; studioId: string }> {
+export const SIGNUP_TTL_MS = DAY_MS;
+
+export type SignupInput = { name: string; email: string; password: string; studioName: string };
+
+/**
+ * Starts a studio sign-up. Nothing is created yet: a new address gets a link that creates
+ * the account and studio when opened; an address that already has an account gets a
+ * "you already have an account" mail instead. Either way the same work is done before the
+ * caller answers (one bcrypt hash) and the mail goes out afterwards, so neither the answer
+ * nor its timing tells whether the address is taken.
+ */
+export async function startSignup(input: SignupInput, now = new Date()): Promise<void> {
+  const email = normaliseEmail(input.email);
   const passwordHash = await hashPassword(input.password);
-  const result = db().transaction((tx) => {
-    const user = tx
-      .insert(users)
-      .values({ name: input.name, email: normaliseEmail(input.email), passwordHash })
-      .returning()
-      .get();
-    const studio = tx.insert(studios).values({ name: input.studioName }).returning().get();
-    tx.insert(memberships).values({ userId: user.id, studioId: studio.id, role: "owner" }).run();
-    return { user, studioId: studio.id };
+  // Limited per address whether or not it has an account, so the limit reveals nothing either.
+  if (!claimAccountMail("signup", addressKey(email), now).ok) return;
+  if (findUserByEmail(email)) {
+    sendMailLater(existingAccountMail(email));
+    return;
+  }
+  const token = newToken();
+  db().transaction((tx) => {
+    tx.delete(pendingSignups).where(lt(pendingSignups.expiresAt, now)).run();
+    tx.insert(pendingSignups)
+      .values({
+        email,
+        name: input.name,
+        passwordHash,
+        studioName: input.studioName,
+        tokenHash: hashToken(token),
+        expiresAt: new Date(now.getTime() + SIGNUP_TTL_MS),
+        createdAt: now,
+      })
+      .run();
   });
-  await sendVerificationMail(result.user);
-  return result;
+  sendMailLater(confirmSignupMail(email, { name: input.name, studioName: input.studioName, token }));
 }
 
-export async function sendVerificationMail(user: Pick<User, "id" | "email" | "name">) {
-  const token = issueUserToken(user.id, "verify-email");
+export type SignupConfirmation = { kind: "created"; user: User; studioId: string } | { kind: "taken" } | { kind: "invalid" };
+
+/**
+ * Opening a sign-up link: the address is proven, so the teacher, their studio and the owner
+ * membership are created verified. Only now may we say the address is taken (another
+ * sign-up or an invitation got there first). A link works once.
+ */
+export function confirmSignup(token: string, now = new Date()): SignupConfirmation {
+  return db().transaction(
+    (tx) => {
+      const pending = tx.select().from(pendingSignups).where(eq(pendingSignups.tokenHash, hashToken(token))).get();
+      if (!pending) return { kind: "invalid" as const };
+      tx.delete(pendingSignups).where(eq(pendingSignups.id, pending.id)).run();
+      if (pending.expiresAt.getTime() <= now.getTime()) return { kind: "invalid" as const };
+      if (findUserByEmail(pending.email)) return { kind: "taken" as const };
+      // Other sign-ups for this address could only ever say "taken" now.
+      tx.delete(pendingSignups).where(eq(pendingSignups.email, pending.email)).run();
+      const user = tx
+        .insert(users)
+        .values({ name: pending.name, email: pending.email, passwordHash: pending.passwordHash, emailVerifiedAt: now })
+        .returning()
+        .get();
+      const studio = tx.insert(studios).values({ name: pending.studioName }).returning().get();
+      tx.insert(memberships).values({ userId: user.id, studioId: studio.id, role: "owner" }).run();
+      return { kind: "created" as const, user, studioId: studio.id };
+    },
+    { behavior: "immediate" },
+  );
+}
+
+/**
+ * Mails a fresh confirmation link to the person's current address, within the account mail
+ * limits (one a minute, a few a day per account, however often the address changes).
+ */
+export async function sendVerificationMail(user: Pick<User, "id" | "email" | "name">, now = new Date()): Promise<MailClaim> {
+  const claim = claimAccountMail("verify-email", accountKey(user.id), now);
+  if (!claim.ok) return claim;
+  const token = issueUserToken(user.id, "verify-email", now);
   await sendMail(verifyEmailMail(user.email, user.name, token));
+  return claim;
 }
 
 /** Marks the address verified when the token is good; returns the user id or null. */
@@ -78,27 +132,16 @@ export function verifyEmailToken(token: string): string | null {
   return check.userId;
 }
 
-export const RESET_MAIL_INTERVAL_MS = 60 * 1000;
-
-/** Mails a reset link when the address is known; the caller answers the same way either way. */
-export async function requestPasswordReset(email: string, now = new Date()) {
+/**
+ * Mails a reset link when the address is known, within the account mail limits. The mail
+ * goes out after the caller has answered, so a known address answers as fast as an unknown one.
+ */
+export function requestPasswordReset(email: string, now = new Date()): void {
   const user = findUserByEmail(email);
   if (!user) return;
-  // One reset mail a minute per person: the form cannot be used to flood an inbox.
-  const recent = db()
-    .select({ id: userTokens.id })
-    .from(userTokens)
-    .where(
-      and(
-        eq(userTokens.userId, user.id),
-        eq(userTokens.purpose, "reset-password"),
-        gt(userTokens.createdAt, new Date(now.getTime() - RESET_MAIL_INTERVAL_MS)),
-      ),
-    )
-    .get();
-  if (recent) return;
-  const token = issueUserToken(user.id, "reset-password");
-  await sendMail(resetPasswordMail(user.email, user.name, token));
+  if (!claimAccountMail("reset-password", accountKey(user.id), now).ok) return;
+  const token = issueUserToken(user.id, "reset-password", now);
+  sendMailLater(resetPasswordMail(user.email, user.name, token));
 }
 
 /** Sets a new password and ends every session of that person except `keepSessionId`. */
@@ -121,16 +164,15 @@ export function updateMailPreferences(userId: string, prefs: { mailOnFeedback: b
 }
 
 /** A new address must be confirmed again before it counts as verified. */
-export async function changeEmail(userId: string, email: string): Promise<"taken" | "changed"> {
+export async function changeEmail(userId: string, email: string): Promise<{ kind: "taken" } | { kind: "changed"; mail: MailClaim }> {
   const normalised = normaliseEmail(email);
   const other = findUserByEmail(normalised);
-  if (other && other.id !== userId) return "taken";
+  if (other && other.id !== userId) return { kind: "taken" };
   const user = db()
     .update(users)
     .set({ email: normalised, emailVerifiedAt: null })
     .where(eq(users.id, userId))
     .returning()
     .get();
-  await sendVerificationMail(user);
-  return "changed";
+  return { kind: "changed", mail: await sendVerificationMail(user) };
 }

@@ -16,12 +16,15 @@ export async function loader() {
 
 const schema = z.object({ email: emailSchema });
 
-/** Same answer whether or not the address has an account, so the page cannot be used to find out. */
+/**
+ * Same answer, in the same time, whether or not the address has an account, so the page
+ * cannot be used to find out: the mail is sent after answering.
+ */
 export async function action({ request }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = parseForm(schema, form);
   if (!parsed.ok) return parsed.response;
-  await requestPasswordReset(parsed.data.email);
+  requestPasswordReset(parsed.data.email);
   return { ok: true as const, email: parsed.data.email };
 }
 

@@ -9,6 +9,7 @@ import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { applyOwnershipPlan, planOwnershipOnLeave } from "~/models/studios.server";
+import { mailRetryMessage } from "~/auth/mailLimits.server";
 import { changeEmail, emailSchema, getUser, nameSchema, setPassword, updateMailPreferences, updateName } from "~/models/users.server";
 import { AccountSections } from "./settings.parts";
 
@@ -68,7 +69,10 @@ export async function action({ request }: Route.ActionArgs) {
       return saved("Your mail preferences are saved.");
     case "email": {
       const result = await changeEmail(user.id, String(values.email));
-      if (result === "taken") return formFailure(form, { email: ["Another account uses this address"] }, undefined, intent);
+      if (result.kind === "taken") return formFailure(form, { email: ["Another account uses this address"] }, undefined, intent);
+      if (!result.mail.ok) {
+        return saved(`Your e-mail is now ${values.email}. No link was sent: ${mailRetryMessage(result.mail)} Then ask for one with "Send a new link".`);
+      }
       return saved(`Your e-mail is now ${values.email}. Open the link we sent there to confirm it.`);
     }
     case "password": {

@@ -3,14 +3,12 @@ import { z } from "zod";
 import type { Route } from "./+types/signup";
 import { requireAnonymous } from "~/auth/access.server";
 import { passwordSchema } from "~/auth/password.server";
-import { createUserSession } from "~/auth/session.server";
-import { formFailure, parseForm } from "~/auth/validate.server";
+import { parseForm } from "~/auth/validate.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
 import { FlashMessage } from "~/components/FlashMessage";
-import { flashHeader } from "~/lib/flash.server";
-import { createTeacherWithStudio, emailSchema, findUserByEmail, nameSchema } from "~/models/users.server";
+import { emailSchema, nameSchema, startSignup } from "~/models/users.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Start a studio · Nearnote" }];
 
@@ -31,24 +29,17 @@ export async function action({ request }: Route.ActionArgs) {
   const form = await request.formData();
   const parsed = parseForm(signupSchema, form);
   if (!parsed.ok) return parsed.response;
-  if (findUserByEmail(parsed.data.email)) {
-    return formFailure(form, {
-      email: ["An account with this e-mail already exists. Sign in, or reset the password if you forgot it."],
-    });
-  }
-  const { user } = await createTeacherWithStudio(parsed.data);
-  const flash = await flashHeader(request, {
-    tone: "info",
-    message: `Welcome! We sent a link to ${user.email}: open it to confirm your address before inviting anyone.`,
-  });
-  return createUserSession(user.id, "/home", { "Set-Cookie": flash });
+  // The same answer whether or not the address has an account: the mail says which.
+  await startSignup(parsed.data);
+  return { ok: true as const, email: parsed.data.email };
 }
 
 export default function Signup() {
   const actionData = useActionData<typeof action>();
   const navigation = useNavigation();
-  const errors = actionData?.errors ?? {};
-  const values = actionData?.values ?? {};
+  const failed = actionData && !actionData.ok ? actionData : null;
+  const errors = failed?.errors ?? {};
+  const values = failed?.values ?? {};
   return (
     <div className="mx-auto flex max-w-md flex-col gap-6">
       <div>
@@ -56,8 +47,18 @@ export default function Signup() {
         <p className="mt-1 text-ink-soft">For teachers. Students join through an invitation from you.</p>
       </div>
       <Card>
+        {actionData?.ok ? (
+          <div className="flex flex-col gap-3">
+            <h2 className="text-lg font-semibold">Check your inbox</h2>
+            <p>
+              We sent a link to <strong>{actionData.email}</strong>. Open it to confirm your address: your studio is created
+              then, and you are signed in. The link works for 24 hours.
+            </p>
+            <p className="text-sm text-ink-soft">Nothing there after a few minutes? Look in the spam folder, or fill in the form again.</p>
+          </div>
+        ) : (
         <Form method="post" className="flex flex-col gap-4" noValidate>
-          {actionData?.formError ? <FlashMessage tone="error">{actionData.formError}</FlashMessage> : null}
+          {failed?.formError ? <FlashMessage tone="error">{failed.formError}</FlashMessage> : null}
           <Field label="Your name" name="name" autoComplete="name" required defaultValue={values.name ?? ""} error={errors.name} />
           <Field label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={values.email ?? ""} error={errors.email} />
           <Field
@@ -74,6 +75,7 @@ export default function Signup() {
             Create studio
           </Button>
         </Form>
+        )}
       </Card>
       <p className="text-sm text-ink-soft">
         Already have an account?{" "}

@@ -7,6 +7,7 @@ import { afterEach, beforeEach } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, memberships, studios, takes, users, type MembershipRole } from "~/db/schema";
 import { resetEnvForTests } from "~/lib/env.server";
+import { mailSettled } from "~/lib/mail.server";
 import { readCaughtMail, startMailCatcher, type CaughtMail } from "~/lib/mailCatcher.server";
 import type { FreshApp } from "../support/setup";
 
@@ -22,7 +23,10 @@ export type Outcome = {
 
 type Handler = (args: { request: Request; params: Record<string, string>; context: RouterContextProvider }) => unknown;
 
-/** Runs a loader or action as React Router would and reports what came back, thrown or returned. */
+/**
+ * Runs a loader or action as React Router would and reports what came back, thrown or
+ * returned. Mail the handler left to send after answering has been sent by then too.
+ */
 export async function call(handler: unknown, request: Request, params: Record<string, string> = {}): Promise<Outcome> {
   let value: unknown;
   let thrown = false;
@@ -32,6 +36,7 @@ export async function call(handler: unknown, request: Request, params: Record<st
     value = error;
     thrown = true;
   }
+  await mailSettled();
   if (value instanceof Response) {
     const type = value.headers.get("content-type") ?? "";
     const data = type.includes("json") ? await value.clone().json() : type.startsWith("text") ? await value.clone().text() : value;

@@ -4,14 +4,14 @@ import { describe, expect, it } from "vitest";
 import { getSessionUser } from "~/auth/session.server";
 import { MAX_FAILURES_PER_EMAIL } from "~/auth/throttle.server";
 import { db } from "~/db/client.server";
-import { memberships, sessions, signInFailures, users } from "~/db/schema";
+import { accountMailSends, memberships, pendingSignups, sessions, signInFailures, studios, users } from "~/db/schema";
 import * as login from "~/routes/login";
 import * as logout from "~/routes/logout";
 import * as signup from "~/routes/signup";
 import * as students from "~/routes/students";
 import * as verify from "~/routes/verify";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, linkIn, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
+import { call, CookieJar, get, join, linkIn, makeStudio, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
@@ -19,50 +19,79 @@ const mail = useMailCatcher(app);
 const teacherForm = { name: "Ines Marlowe", email: "Ines@Tidewater.example", password: "tidewater-keys", studioName: "Tidewater Keys" };
 
 describe("teacher sign-up and e-mail verification", () => {
-  it("creates the teacher unverified, owner of the studio, signs them in and mails a link", async () => {
+  it("creates nothing until the mailed link is opened; the link creates the verified owner and studio and signs them in", async () => {
     const result = await call(signup.action, post("/signup", teacherForm));
-    expect(result.status).toBe(302);
-    expect(result.location).toBe("/home");
-    const user = db().select().from(users).where(eq(users.email, "ines@tidewater.example")).get()!;
-    expect(user.name).toBe("Ines Marlowe");
-    expect(user.emailVerifiedAt).toBeNull();
+    expect(result.status).toBe(200);
+    expect(result.data).toEqual({ ok: true, email: "ines@tidewater.example" });
+    expect(result.headers.getSetCookie()).toHaveLength(0);
+    expect(db().select().from(users).all()).toHaveLength(0);
+    // Only the pending sign-up is stored, with a bcrypt hash of the password and a hash of the link's token.
+    const pending = db().select().from(pendingSignups).get()!;
     // bcrypt with cost 10: the "$2b$10$" prefix carries the cost (bcrypt's modular crypt format).
-    expect(user.passwordHash).toMatch(/^\$2[aby]\$1\d\$/);
-    expect(await bcrypt.compare("tidewater-keys", user.passwordHash)).toBe(true);
-    const membership = db().select().from(memberships).where(eq(memberships.userId, user.id)).get()!;
-    expect(membership.role).toBe("owner");
+    expect(pending.passwordHash).toMatch(/^\$2[aby]\$1\d\$/);
+    expect(await bcrypt.compare("tidewater-keys", pending.passwordHash)).toBe(true);
 
-    const jar = new CookieJar().take(result.headers);
-    const me = await getSessionUser(get("/home", jar));
-    expect(me?.email).toBe("ines@tidewater.example");
-    expect(me?.emailVerified).toBe(false);
-
-    // Unverified: the studio cannot invite anyone yet.
-    const refused = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
-    expect(refused.status).toBe(403);
-    expect(mail.all().filter((m) => m.to.includes("dara@tidewater.example"))).toHaveLength(0);
-
-    // The mailed link verifies the address, once.
+    // The mailed link creates the account (verified), the studio and the owner membership, and signs in, once.
     const message = mail.latestTo("ines@tidewater.example");
     expect(message.subject).toMatch(/confirm/i);
     const link = linkIn(message);
     expect(link).toMatch(/^\/verify\?token=/);
+    expect(pending.tokenHash).not.toContain(new URL("http://x" + link).searchParams.get("token"));
     const opened = await call(verify.loader, get(link));
     expect(opened.status).toBe(302);
     expect(opened.location).toBe("/home");
-    expect((await getSessionUser(get("/home", jar)))?.emailVerified).toBe(true);
+    const user = db().select().from(users).where(eq(users.email, "ines@tidewater.example")).get()!;
+    expect(user.name).toBe("Ines Marlowe");
+    expect(user.emailVerifiedAt).not.toBeNull();
+    expect(db().select().from(memberships).where(eq(memberships.userId, user.id)).get()!.role).toBe("owner");
+    const jar = new CookieJar().take(opened.headers);
+    const me = await getSessionUser(get("/home", jar));
+    expect(me).toMatchObject({ email: "ines@tidewater.example", emailVerified: true, active: { studioName: "Tidewater Keys", role: "owner" } });
     expect((await call(verify.loader, get(link))).status).toBe(410);
+    expect(db().select().from(pendingSignups).all()).toHaveLength(0);
 
     const invited = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     expect(invited.status).toBe(200);
     expect(mail.latestTo("dara@tidewater.example").subject).toContain("Tidewater Keys");
   });
 
-  it("refuses a taken e-mail and keeps the typed values, with an error beside each bad field", async () => {
+  it("answers a taken address exactly as a new one, and mails its owner instead of saying so", async () => {
+    const existing = makeUser("ines@tidewater.example", "Ines Marlowe");
+    const taken = await call(signup.action, post("/signup", { ...teacherForm, password: "someone-elses-guess" }));
+    const fresh = await call(signup.action, post("/signup", { ...teacherForm, email: "felix@tidewater.example" }));
+    expect(taken.status).toBe(fresh.status);
+    expect(taken.data).toEqual({ ok: true, email: "ines@tidewater.example" });
+    expect(Object.keys(taken.data as object)).toEqual(Object.keys(fresh.data as object));
+    expect([...taken.headers.keys()]).toEqual([...fresh.headers.keys()]);
+    const notice = mail.latestTo("ines@tidewater.example");
+    expect(notice.subject).toBe("You already have a Nearnote account");
+    expect(notice.text).not.toMatch(/token=/);
+    // Nothing changed for the existing account, and nothing new was created for it.
+    expect(db().select().from(users).where(eq(users.email, existing.email)).get()!.passwordHash).toBe(existing.passwordHash);
+    expect(db().select().from(pendingSignups).all().map((p) => p.email)).toEqual(["felix@tidewater.example"]);
+    expect((await call(login.action, post("/login", { email: existing.email, password: "someone-elses-guess" }))).status).toBe(401);
+  });
+
+  it("says an address is taken only when a sign-up link is opened: one link wins, a link for an address taken since says so", async () => {
     await call(signup.action, post("/signup", teacherForm));
-    const again = await call(signup.action, post("/signup", { ...teacherForm, email: "ines@tidewater.example" }));
-    expect(again.status).toBe(400);
-    expect(again.data).toMatchObject({ errors: { email: [expect.stringMatching(/already exists/)] }, values: { name: "Ines Marlowe" } });
+    const first = linkIn(mail.latestTo("ines@tidewater.example"));
+    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
+    await call(signup.action, post("/signup", { ...teacherForm, studioName: "Tidewater Keys Evenings" }));
+    const second = linkIn(mail.latestTo("ines@tidewater.example"));
+    expect(second).not.toBe(first);
+    expect((await call(verify.loader, get(second))).status).toBe(302);
+    expect((await call(verify.loader, get(first))).status).toBe(410);
+    expect(db().select().from(studios).all().map((st) => st.name)).toEqual(["Tidewater Keys Evenings"]);
+    // A sign-up still waiting when someone else (here an invitation) took the address says so when opened.
+    await call(signup.action, post("/signup", { ...teacherForm, email: "dara@tidewater.example" }));
+    const late = linkIn(mail.latestTo("dara@tidewater.example"));
+    makeUser("dara@tidewater.example");
+    const refused = await call(verify.loader, get(late));
+    expect(refused.status).toBe(409);
+    expect(refused.data).toEqual({ state: "taken" });
+  });
+
+  it("keeps the typed values on a bad form, with an error beside each bad field", async () => {
     const bad = await call(signup.action, post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }));
     expect(bad.status).toBe(400);
     const body = bad.data as { errors: Record<string, string[]>; values: Record<string, string> };
@@ -142,9 +171,15 @@ describe("sessions and verification links", () => {
   });
 
   it("sends a fresh verification link on request; the older one stops working", async () => {
-    await call(signup.action, post("/signup", teacherForm));
-    const jar = new CookieJar().take((await call(login.action, post("/login", { email: teacherForm.email, password: teacherForm.password }))).headers);
+    const user = makeUser("ines@tidewater.example", "Ines Marlowe", false);
+    join(makeStudio("Tidewater Keys").id, user.id, "owner");
+    const jar = await signIn(login, user.email);
+    // Unverified (say, after changing the address): the studio cannot invite anyone.
+    const refused = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    expect(refused.status).toBe(403);
+    expect((await call(verify.action, post("/verify", {}, jar))).location).toBe("/settings");
     const first = linkIn(mail.latestTo("ines@tidewater.example"));
+    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
     const resent = await call(verify.action, post("/verify", {}, jar));
     expect(resent.location).toBe("/settings");
     const second = linkIn(mail.latestTo("ines@tidewater.example"));
@@ -152,6 +187,7 @@ describe("sessions and verification links", () => {
     expect((await call(verify.loader, get(first))).status).toBe(410);
     expect((await call(verify.loader, get(second))).status).toBe(302);
     expect((await getSessionUser(get("/home", jar)))?.emailVerified).toBe(true);
+    expect((await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar))).status).toBe(200);
   });
 });
 
