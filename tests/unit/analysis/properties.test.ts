@@ -62,15 +62,28 @@ describe("motion and best motion properties", () => {
     );
   });
 
-  it("best voicing keeps B's pitch classes (and B's bass when both chords have a left-hand bass)", () => {
+  it("best voicing keeps B's pitch classes (and B's bass when both chords are two-hand voicings)", () => {
     fc.assert(
       fc.property(chord, chord, (a, b) => {
         const r = bestMotion(a, b)!;
         const pcs = (v: number[]) => v.map((x) => x % 12).sort((x, y) => x - y);
         expect(pcs(r.voicing)).toEqual(pcs(b));
         expect(new Set(r.voicing).size).toBe(r.voicing.length);
-        const detached = (v: number[]) => v.length >= 3 && v[1] - v[0] >= 7;
-        if (detached(a) && detached(b)) expect(r.voicing[0]).toBe(b[0]);
+        // RULES.md terms: a detached bass, or a span of more than 16 semitones
+        const twoHand = (v: number[]) => (v.length >= 3 && v[1] - v[0] >= 7) || v[v.length - 1] - v[0] > 16;
+        if (twoHand(a) && twoHand(b)) expect(r.voicing[0]).toBe(b[0]);
+      }),
+      RUNS,
+    );
+  });
+
+  it("with the tune kept (rule 8), best motion keeps B's top note and never exceeds the motion", () => {
+    fc.assert(
+      fc.property(chord, chord, (a, b) => {
+        const r = bestMotion(a, b, { keepTop: true })!;
+        expect(r.voicing[r.voicing.length - 1]).toBe(b[b.length - 1]);
+        expect(r.motion).toBeLessThanOrEqual(motion(a, b));
+        expect(r.motion).toBeGreaterThanOrEqual(bestMotion(a, b)!.motion);
       }),
       RUNS,
     );
