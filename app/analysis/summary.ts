@@ -46,6 +46,28 @@ function reportedOnsets(input: Pick<SummaryInput, "chords" | "melodyNotes">): nu
   return out;
 }
 
+/**
+ * The top line (RULES.md terms): the melody where the take has one, else the top notes of the
+ * voicings in order. Voicing tops and melody notes are merged by onset; notes begun within
+ * 80 ms of each other count once, the highest (a melody note struck with its chord).
+ */
+export function topLineNotes(chords: readonly Pick<ChordReport, "startSec" | "topNote">[], melody: readonly Pick<MelodyNote, "startSec" | "note">[]): number[] {
+  if (melody.length === 0) return chords.map((c) => c.topNote);
+  const events = [...chords.map((c) => ({ t: c.startSec, note: c.topNote })), ...melody.map((m) => ({ t: m.startSec, note: m.note }))];
+  events.sort((x, y) => x.t - y.t || y.note - x.note);
+  const out: number[] = [];
+  let lastT = -Infinity;
+  for (const e of events) {
+    if (out.length > 0 && e.t - lastT <= STRIKE_GAP_SEC) {
+      out[out.length - 1] = Math.max(out[out.length - 1], e.note);
+      continue;
+    }
+    out.push(e.note);
+    lastT = e.t;
+  }
+  return out;
+}
+
 export type SummaryInput = {
   chords: ChordReport[];
   melodyNotes: MelodyNote[];
@@ -78,7 +100,7 @@ export function summarise(input: SummaryInput): Summary {
     for (const t of c.techniques) techniques[t]++;
   }
   for (const c of changes) for (const f of c.flags) flags[f]++;
-  const topNotes = chords.map((c) => c.topNote);
+  const topNotes = topLineNotes(chords, input.melodyNotes);
   if (hasSmoothTopLine(topNotes)) techniques["smooth-top-line"] = 1;
   const share = smoothTopLineShare(topNotes);
   const tempo = tempoSteadiness(input.strikeOnsets ?? reportedOnsets(input), input.tempos ?? []);

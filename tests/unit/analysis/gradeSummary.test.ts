@@ -12,7 +12,7 @@ import { estimateKey } from "../../../app/analysis/key";
 import { parseKey } from "../../../app/analysis/pitch";
 import { score, scoreParts } from "../../../app/analysis/score";
 import type { Strike } from "../../../app/analysis/strikes";
-import { smoothnessOf, summarise, tempoSteadiness } from "../../../app/analysis/summary";
+import { smoothnessOf, summarise, tempoSteadiness, topLineNotes } from "../../../app/analysis/summary";
 import { ANALYSIS_VERSION } from "../../../app/analysis/version";
 
 const key = parseKey("C");
@@ -176,5 +176,17 @@ describe("key estimate (Krumhansl–Schmuckler)", () => {
     const c = [60, 64, 67, 60, 62, 64, 65, 67, 69, 71, 72, 60, 64, 67];
     expect(estimateKey(notesOf(c)).key.name).toBe("C");
     expect(estimateKey(notesOf(c.map((n) => n + 8))).key.name).toBe("Ab");
+  });
+});
+
+describe("top line (RULES.md terms: the melody where the take has one)", () => {
+  const chordAt = (top: number, startSec: number) => ({ startSec, topNote: top });
+  const tune = (note: number, startSec: number) => ({ startSec, note });
+  it("is the voicings' top notes without a melody, and follows the melody with one", () => {
+    expect(topLineNotes([chordAt(64, 0), chordAt(65, 1)], [])).toEqual([64, 65]);
+    // C3 G3 E4 under melody G5 (struck with it) and E5, then F3 A3 E4 under F5 (worked by hand from RULES.md rule 18)
+    for (const t of [0, 2, -3]) {
+      expect(topLineNotes([chordAt(79 + t, 0), chordAt(77 + t, 2)], [tune(79 + t, 0.01), tune(76 + t, 1), tune(77 + t, 2)])).toEqual([79 + t, 76 + t, 77 + t]);
+    }
   });
 });
