@@ -190,3 +190,84 @@ describe("bad input", () => {
     expect(() => parseProgression(Array(200).fill("C").join(" "), parseKey("C"))).toThrow(/at most/);
   });
 });
+
+describe("Roman numerals with figures, extensions and a bass degree (RULES.md rule 21)", () => {
+  // Figures are common practice (S. Kostka & D. Payne, Tonal Harmony, from memory); the symbols
+  // they stand for are checked against tonal's Chord.get (tonic, bass and notes).
+  const cases: Array<[string, string]> = [
+    ["I6", "C/E"],
+    ["I64", "C/G"],
+    ["V65", "G7/B"],
+    ["V43", "G7/D"],
+    ["V42", "G7/F"],
+    ["Imaj65", "Cmaj7/E"],
+    ["viiø65", "Bm7b5/D"],
+    ["vii°43", "Bdim7/F"],
+    ["IV6", "F/A"],
+    ["IV/5", "F/G"],
+    ["IVadd6", "F6"],
+    ["V13", "G13"],
+    ["Imaj9", "Cmaj9"],
+    ["V7#9", "G7#9"],
+    ["V7b9", "G7b9"],
+    ["ii7", "Dm7"],
+    ["iiø7", "Dm7b5"],
+    ["vii°7", "Bdim7"],
+    ["I69", "C6/9"],
+  ];
+
+  it.each(cases)("%s in C is %s, and moves with the key to D and Bb", (roman, symbol) => {
+    const [inC] = parseProgression(roman, parseKey("C"));
+    expect(inC.symbol).toBe(symbol);
+    const reference = Chord.get(symbol); // tonal: `tonic` the root, `bass` the slash note
+    expect(inC.root).toBe(pcOf(reference.tonic!));
+    expect(inC.bass).toBe(reference.bass ? pcOf(reference.bass) : null);
+    expect(targetPcs(inC)).toEqual([...new Set(reference.notes.map(pcOf))].sort((x, y) => x - y));
+    for (const [k, shift] of [["D", 2], ["Bb", 10]] as Array<[string, number]>) {
+      const [moved] = parseProgression(roman, parseKey(k));
+      expect([moved.root, moved.bass, moved.triad, moved.required], k).toEqual([
+        (inC.root + shift) % 12,
+        inC.bass === null ? null : (inC.bass + shift) % 12,
+        inC.triad,
+        inC.required,
+      ]);
+    }
+  });
+
+  it("a bare 6 is a figure, never an added sixth: IV6 is F/A, IVadd6 is F6", () => {
+    const [fig, add6] = parseProgression("IV6 IVadd6", parseKey("C"));
+    expect([fig.bass, fig.required]).toEqual([9, []]);
+    expect([add6.bass, add6.required]).toEqual([null, [9]]);
+  });
+
+  it("in minor, vii°7 is on the leading tone and bvii° on the natural seventh", () => {
+    const [lt, natural] = parseProgression("vii°7 bvii°", parseKey("Am"));
+    expect(lt.symbol).toBe("G#dim7");
+    expect(natural.root).toBe(7);
+    expect(romanFor(natural, parseKey("Am"))).toBe("bvii°");
+    expect(romanFor(lt, parseKey("Am"))).toBe("vii°7");
+  });
+
+  it.each([
+    ["I iiø6", 2, "iiø6"],
+    ["I I6/5", 2, "I6/5"],
+    ["V/8", 1, "V/8"],
+    ["I Imaj64", 2, "Imaj64"],
+  ])("%s is refused at token %i (%s)", (text, position, token) => {
+    expect(() => parseProgression(text, parseKey("C"))).toThrow(ProgressionError);
+    try {
+      parseProgression(text, parseKey("C"));
+    } catch (e) {
+      expect((e as ProgressionError).position).toBe(position);
+      expect((e as ProgressionError).token).toBe(token);
+    }
+  });
+
+  it("romanFor prints figures and a bass degree when given the bass, and reads back the same", () => {
+    const key = parseKey("Eb");
+    for (const roman of ["I6", "V65", "V43", "V42", "IV/5", "ii7", "V13", "Imaj9", "IVadd6", "vi42"]) {
+      const [t] = parseProgression(roman, key);
+      expect(romanFor(t, key, { bass: t.bass ?? t.root })).toBe(roman);
+    }
+  });
+});
