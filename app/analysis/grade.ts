@@ -22,6 +22,8 @@ export type ChangeContext = {
   previousTop?: number;
   /** The whole take's budget; without one, each search has a hang guard of its own. */
   budget?: Budget;
+  /** Notes the pedal carried into B that are not its chord tones (rule 19): flagged `pedal-blur`. */
+  blurredNotes?: readonly number[];
 };
 
 /** What grading a take needs besides its harmonies. */
@@ -31,6 +33,8 @@ export type TakeContext = {
   melodyNotes?: readonly MelodyNote[];
   /** One budget for the whole take (budget.ts); a fresh one when not given. */
   budget?: Budget;
+  /** Per harmony index i, the blurred notes of the change into it (rule 19); none when absent. */
+  blurredNotes?: readonly (readonly number[] | undefined)[];
 };
 
 const EPS = 1e-9;
@@ -111,10 +115,11 @@ export function gradeChange(from: number, to: number, a: ChordReport, b: ChordRe
     to,
     bassMotion: vb[0] - va[0],
     topVoiceInterval: vb[vb.length - 1] - va[va.length - 1],
-    blurredNotes: [] as number[],
+    blurredNotes: [...(ctx.blurredNotes ?? [])].sort((x, y) => x - y),
   };
   if (va.length > MAX_GRADED_PITCHES || vb.length > MAX_GRADED_PITCHES) {
-    // Rule 8: chords of more than 8 distinct pitches are not graded.
+    // Rule 8: chords of more than 8 distinct pitches are not graded (the pedal is still heard).
+    if (base.blurredNotes.length > 0) flags.push("pedal-blur");
     return {
       ...base,
       graded: false,
@@ -133,6 +138,7 @@ export function gradeChange(from: number, to: number, a: ChordReport, b: ChordRe
   const pairs = voiceLeadingPairs(va, vb);
   if (isRootPositionLeap(va, vb, a.inversion, b.inversion, rootPcOf(a), rootPcOf(b))) flags.push("root-position-leap");
   if (isTopLineLeap(ctx.previousTop ?? va[va.length - 1], vb[vb.length - 1])) flags.push("top-line-leap");
+  if (base.blurredNotes.length > 0) flags.push("pedal-blur");
   return {
     ...base,
     graded: true,
@@ -187,13 +193,14 @@ export function gradeChanges(chords: ChordReport[], key: Key | null, ctx: TakeCo
     const a = chords[i - 1];
     const b = chords[i];
     const previousTop = previousTopNote(a, b, melody);
-    const id = `${a.notes.join(",")}>${b.notes.join(",")}|${previousTop}|${rootPcOf(a)},${rootPcOf(b)}|${a.inversion},${b.inversion}`;
+    const blurredNotes = ctx.blurredNotes?.[i] ?? [];
+    const id = `${a.notes.join(",")}>${b.notes.join(",")}|${previousTop}|${rootPcOf(a)},${rootPcOf(b)}|${a.inversion},${b.inversion}|${blurredNotes.join(",")}`;
     const known = seen.get(id);
     if (known) {
-      out.push({ ...known, from: i - 1, to: i, blurredNotes: [] });
+      out.push({ ...known, from: i - 1, to: i });
       continue;
     }
-    const graded = gradeChange(i - 1, i, a, b, key, { hasMelody, previousTop, budget });
+    const graded = gradeChange(i - 1, i, a, b, key, { hasMelody, previousTop, budget, blurredNotes });
     seen.set(id, graded);
     out.push(graded);
   }

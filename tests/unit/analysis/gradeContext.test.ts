@@ -152,3 +152,14 @@ describe("the whole-take budget", () => {
     expect(graded[3]).toEqual({ ...graded[0], from: 3, to: 4 });
   });
 });
+
+describe("pedal blur handed in by the segmentation (RULES.md rule 19 worked example)", () => {
+  it.each([0, 2, -5])("C3 E4 G4 C5 pedalled into D3 F4 A4 D5 is flagged with the carried notes, transposed %i", (t) => {
+    const a = harmony(shift([48, 64, 67, 72], t), t, 0, 0);
+    const b = harmony(shift([50, 65, 69, 74], t), 2 + t, 0, 1);
+    const [change] = gradeChanges([a, b], key, { blurredNotes: [undefined, shift([72, 48, 64, 67], t)] });
+    expect(change.flags).toContain("pedal-blur");
+    expect(change.blurredNotes).toEqual(shift([48, 64, 67, 72], t));
+    expect(gradeChanges([a, b], key)[0].flags).not.toContain("pedal-blur");
+  });
+});
