@@ -96,8 +96,8 @@ function suggestions(a: number[], b: number[], key: Key | null, played: number, 
   const bestServes =
     best !== null && (!keepTop || best[best.length - 1] === top) && (!keepBass || startsWith(best, bassHead)) && raisesNoChordFlag(best.slice());
   const smoothest = bestServes ? { motion: motion(a, best!), voicing: best! } : search({});
-  // Nothing cleaner moves less than played: a narrower search finds nothing either.
-  if (!smoothest) return out;
+  // Nothing clean moves less than played: a narrower search finds nothing either.
+  if (!smoothest || smoothest.motion >= played) return out;
   offer("smoothest", smoothest);
   // A constraint already met by the smoothest voicing (or already imposed) gives it again.
   if (!keepTop && smoothest.voicing[smoothest.voicing.length - 1] !== top) offer("keep-top", search({ keepTop: true }));
