@@ -1,24 +1,10 @@
 // Target progressions as teachers write them (RULES.md "Progressions as teachers write them"):
 // space-separated lead-sheet symbols ("Eb Bb/D Cm Cm/Bb Ab") or Roman numerals ("iiø7 V7 i").
 // Both parsers are ours: tonal's Progression makes lower-case "vi" major and reads "V/7" as a
-// slash chord, and its chord symbols need normalising anyway.
+// slash chord, and its chord symbols need normalising anyway. Roman numerals are read and
+// printed by roman.ts.
 
-import {
-  degreeInKey,
-  type Key,
-  LETTER_PC,
-  LETTERS,
-  MAJOR_SCALE,
-  NATURAL_MINOR_SCALE,
-  parseNoteName,
-  pc,
-  ProgressionError,
-  onLetter,
-  spellDegree,
-  type Spelled,
-  spellPc,
-  spellRoot,
-} from "./pitch";
+import { type Key, LETTER_PC, LETTERS, parseNoteName, pc, ProgressionError, spellPc } from "./pitch";
 
 import { readRoman, romanFor, TRIAD_INTERVALS, type Triad } from "./roman";
 
