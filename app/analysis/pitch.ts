@@ -169,7 +169,7 @@ export function onLetter(pitchClass: number, letter: number): Spelled {
 }
 
 /** Pitch classes that belong to the key: its scale, and in minor the raised 6th and 7th too. */
-function inKey(p: number, key: Key): boolean {
+export function inKey(p: number, key: Key): boolean {
   const scale = key.mode === "major" ? MAJOR_SCALE : NATURAL_MINOR_SCALE;
   if (scale.some((s) => pc(key.tonic + s) === p)) return true;
   return key.mode === "minor" && (pc(key.tonic + 9) === p || pc(key.tonic + 11) === p);

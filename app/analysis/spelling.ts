@@ -1,7 +1,7 @@
 // RULES.md rule 21: a chord's notes spelled from its own root, one letter per chord tone, the
 // root spelled for its function in the key, and the chord's Roman numeral as teachers write it.
 import type { Key, Spelled } from "./pitch";
-import { noteName, onLetter, parseNoteName, pc, spellPc, spellRoot, spelledText } from "./pitch";
+import { inKey, noteName, onLetter, parseNoteName, pc, spellPc, spellRoot, spelledText } from "./pitch";
 import { romanFor, TRIAD_INTERVALS } from "./progression";
 import type { ChordName } from "./types";
 
@@ -44,7 +44,32 @@ function rootSpelling(name: ChordName, key: Key | null, ctx?: SpellingContext): 
     if (Math.abs(s.alter) <= 1) return s;
     return spellRoot(target - 1, key);
   }
-  return spellRoot(name.rootPc!, key);
+  return foreignRoot(name, key) ?? spellRoot(name.rootPc!, key);
+}
+
+/** Double sharps and flats among the chord's tones when spelled from this root. */
+function doubles(name: ChordName, root: Spelled): number {
+  let n = Math.abs(root.alter) > 1 ? 1 : 0;
+  for (const i of name.intervals) {
+    const s = toneSpelling(name, root, name.rootPc! + i);
+    if (!s || Math.abs(s.alter) > 1) n++;
+  }
+  return n;
+}
+
+/**
+ * A root foreign to the key (rule 21): the spelling with fewer accidentals, and of two with
+ * equally few the flat one (bII, not #I), unless the flat one would spell its chord with
+ * double flats that the sharp one avoids (F#°7 in C is F# A C Eb, not Gb Bbb Dbb Fbb: the
+ * same reason as A, not Bbb). Null when the root belongs to the key or there is no key.
+ */
+function foreignRoot(name: ChordName, key: Key | null): Spelled | null {
+  if (!key || inKey(name.rootPc!, key)) return null;
+  const flat = spellRoot(name.rootPc!, key);
+  if (flat.alter !== -1) return null; // a natural, or no tie
+  const sharp = onLetter(name.rootPc!, flat.letter - 1);
+  if (sharp.alter !== 1) return null;
+  return doubles(name, flat) > doubles(name, sharp) ? sharp : null;
 }
 
 /** A chord tone spelled on its own letter above the root (3rd two letters up, 9th one). */

@@ -52,6 +52,15 @@ describe("a chord's notes are spelled from its own root", () => {
     expect(names([54, 58, 61], "F")).toMatchObject({ root: "Gb", roman: "bII", notes: ["Gb3", "Bb3", "Db4"] });
   });
 
+  it("the flat one, unless it would spell the chord with double flats: F#°7 in C, not Gb Bbb Dbb Fbb", () => {
+    // worked by hand from RULES.md rule 21 (fewer accidentals: the reason A is not Bbb)
+    expect(names([54, 57, 60, 63], "C")).toMatchObject({ root: "F#", roman: "#iv°7", notes: ["F#3", "A3", "C4", "Eb4"] });
+    expect(names([61, 64, 67, 70], "G")).toMatchObject({ root: "C#", roman: "#iv°7", notes: ["C#4", "E4", "G4", "Bb4"] });
+    expect(names([56, 59, 62, 65], "D")).toMatchObject({ root: "G#", roman: "#iv°7", notes: ["G#3", "B3", "D4", "F4"] });
+    // a tie with no double flat stays flat: Gb major in C is bV
+    expect(names([54, 58, 61], "C")).toMatchObject({ root: "Gb", roman: "bV" });
+  });
+
   it("borrowed chords take the flat degree: bVII and iv", () => {
     for (const [k, bVII, iv] of [
       ["C", [58, 62, 65], [53, 56, 60]],
