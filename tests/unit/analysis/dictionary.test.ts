@@ -54,6 +54,20 @@ describe("rule 4's tie-break, worked by hand from RULES.md rule 4", () => {
     expectNamed(pitches, symbol);
   });
 
+  it.each([
+    // rule 4's lead-sheet symbols
+    [[53, 57, 60], "F"],
+    [[58, 61, 65, 68], "Bbm7"],
+    [[57, 60, 65, 67], "Fadd9/A"],
+    [[48, 53, 55, 58], "C7sus4"],
+    [[59, 62, 65], "Bdim"],
+    [[52, 55, 58, 62], "Em7b5"],
+    [[52, 56, 59, 62, 67], "E7#9"],
+    [[57, 61, 64, 67, 71, 66], "A13"],
+  ])("%j is %s in three keys", (pitches, symbol) => {
+    expectNamed(pitches, symbol);
+  });
+
   it("the shells that lose to a whole triad are in the dictionary all the same (tonal's ChordType.get)", () => {
     expect(ChordType.get("6no5").intervals).toEqual(["1P", "3M", "6M"]);
     expect(ChordType.get("m6no5").intervals).toEqual(["1P", "3m", "6M"]);

@@ -4,7 +4,7 @@
 // hand from RULES.md rule 20, each in its key and transposed into two others.
 import { describe, expect, it } from "vitest";
 import { isRootlessOf, matchProgression, type PlayedIdentity, rootlessReading, rootlessSymbol } from "../../../app/analysis/matching";
-import { nameChord, spelledSymbol } from "../../../app/analysis/naming";
+import { nameChord, romanOf, spelledSymbol } from "../../../app/analysis/naming";
 import { type Key, parseKey, pc } from "../../../app/analysis/pitch";
 import { parseProgression } from "../../../app/analysis/progression";
 
@@ -60,6 +60,7 @@ describe("B D F# A, on its own and against Imaj7 in G", () => {
     const alone = nameChord(voicing, voicing[0]);
     expect(alone.rootPc).toBe(pc(key.tonic + 4));
     expect(alone.suffix).toBe("m7");
+    expect(romanOf(alone, key, voicing[0])).toBe("iii7");
     const [imaj7] = parseProgression("Imaj7", key);
     expect(matchProgression([played(voicing)], [imaj7])).toMatchObject({ accuracy: 1, rootless: [{ playedIndex: 0, targetIndex: 0 }] });
     const reading = rootlessReading(voicing.map(pc), imaj7)!;
