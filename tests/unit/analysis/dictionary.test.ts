@@ -3,6 +3,7 @@
 // others; symbols are compared by pitch class (root, suffix, bass) where spelling is not the
 // point. tonal (general-purpose music-theory library on npm, 6.5.1) is the outside reference
 // for what a symbol means.
+import fc from "fast-check";
 import { Chord, ChordType, Note } from "tonal";
 import { describe, expect, it } from "vitest";
 import { displaySuffix, registerTradeChords } from "../../../app/analysis/chordDictionary";
@@ -177,5 +178,25 @@ describe("rule 20: added through tonal's own dictionary", () => {
     expect(displaySuffix(["13no5"])).toBe("13");
     expect(displaySuffix(["M7b9"])).toBe("maj7b9");
     expect(displaySuffix(["m7"])).toBeNull();
+  });
+});
+
+describe("transposition renames consistently (rule 4 with rule 20's dictionary)", () => {
+  it("any set of 2 to 6 pitch classes over any bass, moved by any interval, keeps its suffix and moves its root", () => {
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(fc.integer({ min: 0, max: 11 }), { minLength: 2, maxLength: 6 }),
+        fc.integer({ min: 1, max: 11 }),
+        (pcs, t) => {
+          const pitches = [48 + pcs[0], ...pcs.slice(1).map((p) => 60 + p)];
+          const a = nameChord(pitches, pitches[0]);
+          const b = nameChord(pitches.map((p) => p + t), pitches[0] + t);
+          expect(b.suffix).toBe(a.suffix);
+          expect(b.triad).toBe(a.triad);
+          expect(b.rootPc).toBe(a.rootPc === null ? null : pc(a.rootPc + t));
+        },
+      ),
+      { numRuns: 3000, seed: 20 },
+    );
   });
 });
