@@ -36,13 +36,17 @@ export async function sendMail(mail: OutgoingMail): Promise<void> {
 
 const inFlight = new Set<Promise<void>>();
 
+/** How long `sendMailLater` waits: long enough for the page to have been answered and sent. */
+export const MAIL_LATER_DELAY_MS = 250;
+
 /**
  * Sends a mail after the current request has been answered. Pages that must answer the
  * same way and in the same time whether or not an account exists (password reset, sign-up)
- * use this, so the answer never waits for the mail server. A failure is logged.
+ * use this, so neither the wait for the mail server nor the work of building the message
+ * (which runs on the same thread as page rendering) lands in the answer. A failure is logged.
  */
 export function sendMailLater(mail: OutgoingMail): void {
-  const job: Promise<void> = new Promise<void>((resolve) => setImmediate(resolve))
+  const job: Promise<void> = new Promise<void>((resolve) => setTimeout(resolve, MAIL_LATER_DELAY_MS))
     .then(() => sendMail(mail))
     .catch((error) => console.error(`[nearnote] mail "${mail.subject}" failed:`, error))
     .finally(() => inFlight.delete(job));

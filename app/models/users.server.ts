@@ -137,9 +137,11 @@ export function verifyEmailToken(token: string): string | null {
  * goes out after the caller has answered, so a known address answers as fast as an unknown one.
  */
 export function requestPasswordReset(email: string, now = new Date()): void {
+  // Claimed per address before the lookup, so a known and an unknown address do the same
+  // database write (and the limit behaves the same for both).
+  if (!claimAccountMail("reset-password", addressKey(normaliseEmail(email)), now).ok) return;
   const user = findUserByEmail(email);
   if (!user) return;
-  if (!claimAccountMail("reset-password", accountKey(user.id), now).ok) return;
   const token = issueUserToken(user.id, "reset-password", now);
   sendMailLater(resetPasswordMail(user.email, user.name, token));
 }
