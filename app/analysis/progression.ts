@@ -63,17 +63,39 @@ const SUFFIXES: Suffix[] = [
   { names: ["7#9"], triad: "major", required: [10, 3] },
   { names: ["7#11"], triad: "major", required: [10, 6] },
   { names: ["7b13"], triad: "major", required: [10, 8] },
+  // Extensions a Roman numeral can name (roman.ts), so every target has a lead-sheet symbol.
+  { names: ["maj13", "M13"], triad: "major", required: [11, 2, 9] },
+  { names: ["m13", "min13", "-13"], triad: "minor", required: [10, 2, 9] },
+  { names: ["mMaj9", "mM9"], triad: "minor", required: [11, 2] },
+  { names: ["maj7#11", "M7#11"], triad: "major", required: [11, 6] },
+  { names: ["9#11"], triad: "major", required: [10, 2, 6] },
+  { names: ["maj9#11"], triad: "major", required: [11, 2, 6] },
+  { names: ["13#11"], triad: "major", required: [10, 2, 6, 9] },
+  { names: ["9b13"], triad: "major", required: [10, 2, 8] },
+  { names: ["7b9b13"], triad: "major", required: [10, 1, 8] },
+  { names: ["7#9b13"], triad: "major", required: [10, 3, 8] },
+  { names: ["13b9"], triad: "major", required: [10, 1, 9] },
+  { names: ["13#9"], triad: "major", required: [10, 3, 9] },
+  { names: ["13sus4", "13sus"], triad: "sus4", required: [10, 2, 9] },
+  { names: ["7b9sus4", "7b9sus"], triad: "sus4", required: [10, 1] },
 ];
 const SUFFIX_BY_NAME = new Map<string, Suffix>(SUFFIXES.flatMap((s) => s.names.map((n) => [n, s] as [string, Suffix])));
 
 const sameSet = (x: number[], y: number[]) => x.length === y.length && x.every((v) => y.includes(v));
 
-/** The printed lead-sheet suffix for a triad with named extra intervals ("m7", "add9", "7sus4"). */
+/**
+ * The printed lead-sheet suffix for a triad with named extra intervals ("m7", "add9", "7sus4").
+ * A combination no suffix names exactly takes the suffix naming most of its tones and nothing
+ * else: raw interval lists are never printed (RULES.md rule 21).
+ */
 export function suffixFor(triad: Triad, required: number[]): string {
   const found = SUFFIXES.find((s) => s.triad === triad && sameSet(s.required, required));
   if (found) return found.names[0];
-  const base = SUFFIXES.find((s) => s.triad === triad && s.required.length === 0)!.names[0];
-  return `${base}(${required.map((r) => `+${r}`).join(",")})`;
+  let best = SUFFIXES.find((s) => s.triad === triad && s.required.length === 0)!;
+  for (const s of SUFFIXES) {
+    if (s.triad === triad && s.required.every((r) => required.includes(r)) && s.required.length > best.required.length) best = s;
+  }
+  return best.names[0];
 }
 
 /** Pitch classes the target names: triad, extra intervals and slash bass, ascending. */

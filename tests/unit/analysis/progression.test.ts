@@ -271,3 +271,23 @@ describe("Roman numerals with figures, extensions and a bass degree (RULES.md ru
     }
   });
 });
+
+describe("every extension a Roman numeral names has a lead-sheet symbol", () => {
+  it("the symbols name the same pitch classes as tonal's Chord.get, in C, E and Ab, and never an interval list", () => {
+    const numerals = "V7#9b13 V13#11 Imaj13 ii13 V13sus4 V7b9sus4 imaj9 Imaj7#11 V9#11 Imaj9#11 V9b13 V7b9b13 V13b9 V13#9 ii11 i69 ivadd6";
+    for (const k of ["C", "E", "Ab"]) {
+      for (const chord of parseProgression(numerals, parseKey(k))) {
+        expect(chord.symbol, `${chord.roman} in ${k}`).not.toMatch(/[(),]/);
+        const reference = Chord.get(chord.symbol); // tonal, general-purpose music-theory library
+        expect(reference.empty, chord.symbol).toBe(false);
+        // tonal leaves the 5th out of a few of these (its 9b13 has none); the 5th is the tone
+        // a voicing may always omit (RULES.md rule 20), so ours may hold it on top of tonal's
+        const theirs = new Set(reference.notes.map(pcOf));
+        const ours = targetPcs(chord);
+        const fifth = (chord.root + (chord.triad === "sus4" || chord.triad === "major" || chord.triad === "minor" ? 7 : 6)) % 12;
+        expect(ours.filter((p) => !theirs.has(p) && p !== fifth), `${chord.roman} = ${chord.symbol} in ${k}`).toEqual([]);
+        expect([...theirs].filter((p) => !ours.includes(p)), `${chord.roman} = ${chord.symbol} in ${k}`).toEqual([]);
+      }
+    }
+  });
+});
