@@ -278,7 +278,8 @@ describe("every extension a Roman numeral names has a lead-sheet symbol", () => 
     for (const k of ["C", "E", "Ab"]) {
       for (const chord of parseProgression(numerals, parseKey(k))) {
         expect(chord.symbol, `${chord.roman} in ${k}`).not.toMatch(/[(),]/);
-        const reference = Chord.get(chord.symbol); // tonal, general-purpose music-theory library
+        // tonal, general-purpose music-theory library (it spells the minor 6/9 only as m69)
+        const reference = Chord.get(chord.symbol.replace("m6/9", "m69"));
         expect(reference.empty, chord.symbol).toBe(false);
         // tonal leaves the 5th out of a few of these (its 9b13 has none); the 5th is the tone
         // a voicing may always omit (RULES.md rule 20), so ours may hold it on top of tonal's
