@@ -8,7 +8,16 @@ import { displaySuffix, tradeIntervals } from "./chordDictionary";
 import { pc } from "./pitch";
 import type { ChordName, Triad } from "./types";
 
-export { chordNoteNames, type SpellingContext, requiredIntervals, romanOf, rootName, spelledSymbol } from "./spelling";
+export {
+  chordNoteNames,
+  inContext,
+  needsContext,
+  requiredIntervals,
+  romanOf,
+  rootName,
+  type SpellingContext,
+  spelledSymbol,
+} from "./spelling";
 
 const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#", "B"];
 

@@ -15,6 +15,14 @@ function isDiminishedSeventh(name: ChordName): boolean {
 }
 
 /**
+ * Whether the chord's spelling can depend on what follows (only a diminished seventh's does),
+ * so a caller caching spelled chords by voicing knows when to key the cache on the context.
+ */
+export function needsContext(name: ChordName): boolean {
+  return name.rootPc !== null && isDiminishedSeventh(name);
+}
+
+/**
  * The tone a diminished seventh leads to by half step: the next chord's bass, else its root,
  * when the note a half step below it is in the chord (E G Bb Db before F is E°7, not Fb°7).
  * Any of a diminished seventh's four tones can be its root; its intervals stay 1P 3m 5d 7d.

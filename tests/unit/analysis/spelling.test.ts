@@ -6,7 +6,7 @@
 import fc from "fast-check";
 import { Chord, Note } from "tonal";
 import { describe, expect, it } from "vitest";
-import { chordNoteNames, nameChord, romanOf, rootName, spelledSymbol } from "../../../app/analysis/naming";
+import { chordNoteNames, nameChord, needsContext, romanOf, rootName, spelledSymbol } from "../../../app/analysis/naming";
 import { parseKey, pc } from "../../../app/analysis/pitch";
 import { parseProgression, targetPcs } from "../../../app/analysis/progression";
 
@@ -112,6 +112,15 @@ describe("a diminished seventh is spelled by the note it leads to", () => {
     expect(n.root).toBe("E");
     expect(n.symbol).toBe("Edim7/Db");
     expect(n.roman).toBe("#i°42");
+  });
+
+  it("only a diminished seventh's spelling depends on what follows", () => {
+    expect(needsContext(nameChord([52, 55, 58, 61], 52))).toBe(true);
+    expect(needsContext(nameChord([52, 55, 58, 62], 52))).toBe(false); // Em7b5
+    expect(needsContext(nameChord([55, 59, 62, 65], 55))).toBe(false);
+    // and any other chord is spelled the same whatever follows
+    const g7 = nameChord([55, 59, 62, 65], 55);
+    expect(chordNoteNames([55, 59, 62, 65], g7, null, { nextBassPc: 0 })).toEqual(chordNoteNames([55, 59, 62, 65], g7, null));
   });
 
   it("without a fitting bass, the next chord's root: E°7 before F/A", () => {
