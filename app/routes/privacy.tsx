@@ -22,6 +22,10 @@ export default function Privacy() {
           <li>Exercises your teacher sets and comments they write about your takes.</li>
           <li>Your mail preferences, and while you are signed in, a session so you stay signed in (up to 30 days).</li>
           <li>Failed sign-in attempts for 30 minutes, to slow down password guessing.</li>
+          <li>
+            A studio sign-up not yet confirmed (name, e-mail, scrambled password, studio name) until its link is opened or expires
+            after 24 hours, and when we mailed you confirmation or reset links for two days, to limit how many we send.
+          </li>
         </ul>
         <p className="mt-3 text-ink-soft">We do not record audio or video, show adverts, or sell or share data with anyone.</p>
       </Card>
