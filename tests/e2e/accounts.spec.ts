@@ -3,8 +3,12 @@ import { expect, test } from "./fixtures";
 
 /** Opens the newest caught message to `to` with this subject, through /dev/mail as a person would. */
 async function openMail(page: Page, to: string, subject: RegExp) {
-  await page.goto("/dev/mail");
   const row = page.getByRole("row").filter({ hasText: to }).filter({ hasText: subject }).first();
+  // Some mail leaves a moment after the page answered: look again until it is listed.
+  await expect(async () => {
+    await page.goto("/dev/mail");
+    await expect(row).toBeVisible({ timeout: 1000 });
+  }).toPass();
   await row.getByRole("link").click();
   await expect(page.getByRole("heading", { name: subject })).toBeVisible();
 }
