@@ -1,14 +1,26 @@
 // Turns strikes into the chords and melody notes a take reports (names, shape, flags,
 // techniques). Spelling depends on the key, so it is applied here, after the key is known.
 import { chordFlags } from "./chordFlags";
-import { addedTones, inversionOf, nameChord, romanOf, rootName, spelledSymbol, voicingOf } from "./naming";
+import {
+  addedTones,
+  chordNoteNames,
+  inversionOf,
+  nameChord,
+  needsContext,
+  romanOf,
+  rootName,
+  spelledSymbol,
+  voicingOf,
+  type SpellingContext,
+} from "./naming";
 import type { Key } from "./pitch";
 import { noteName, pc, spellPc } from "./pitch";
-import type { Harmony } from "./harmonies";
+import type { Budget } from "./budget";
+import { NAMING_STEPS, type Harmony } from "./harmonies";
 import { pedalDuring } from "./sounding";
 import type { Strike } from "./strikes";
 import { chordTechniques } from "./techniques";
-import type { ChordReport, MelodyNote, NoteEvent, PedalSpan } from "./types";
+import type { ChordName, ChordReport, MelodyNote, NoteEvent, PedalSpan } from "./types";
 import { detachedBass, upperStructure } from "./voiceLeading";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
@@ -27,20 +39,21 @@ export function isChordStrike(s: Strike): boolean {
 type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "bassLine" | "nonChordTones" | "pedal" | "techniques">;
 type VoicingFacts = { name: ReturnType<typeof nameChord>; shown: Shown; techniquesWithoutGraces: ChordReport["techniques"] };
 
-function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
+/** Names, spelling (rule 21: from the chord's root, in the key) and shape of one voicing. */
+export function voicingFacts(notes: number[], key: Key | null, ctx?: SpellingContext, named?: ChordName): VoicingFacts {
   const bassMidi = notes[0];
-  const name = nameChord(notes, bassMidi);
+  const name = named ?? nameChord(notes, bassMidi);
   const detached = detachedBass(notes);
   const upper = upperStructure(notes);
   const inversion = inversionOf(name, bassMidi);
   const top = notes[notes.length - 1];
   const shown: Shown = {
     notes,
-    noteNames: notes.map((n) => noteName(n, key)),
-    root: rootName(name, key),
-    bass: spellPc(pc(bassMidi), key),
-    symbol: spelledSymbol(name, pc(bassMidi), key),
-    roman: key ? romanOf(name, key) : null,
+    noteNames: name.rootPc === null ? notes.map((n) => noteName(n, key)) : chordNoteNames(notes, name, key, ctx),
+    root: rootName(name, key, ctx),
+    bass: name.rootPc === null ? spellPc(pc(bassMidi), key) : chordNoteNames([bassMidi], name, key, ctx)[0].replace(/-?\d+$/, ""),
+    symbol: spelledSymbol(name, pc(bassMidi), key, ctx),
+    roman: key ? romanOf(name, key, pc(bassMidi), ctx) : null,
     triad: name.triad,
     quality: name.quality,
     inversion,
@@ -49,7 +62,7 @@ function voicingFacts(notes: number[], key: Key | null): VoicingFacts {
     voicing: voicingOf(upper, new Set(notes.map(pc))),
     addedTones: addedTones(name),
     topNote: top,
-    topNoteName: noteName(top, key),
+    topNoteName: name.rootPc === null ? noteName(top, key) : chordNoteNames([top], name, key, ctx)[0],
     flags: chordFlags(notes, name),
   };
   return { name, shown, techniquesWithoutGraces: techniquesOf(name, shown, []) };
@@ -71,13 +84,27 @@ function techniquesOf(name: VoicingFacts["name"], shown: Shown, graces: Array<{ 
  * the key) lets repeated voicings skip naming and spelling; reports of the same voicing then
  * share their arrays, so treat a report as read-only.
  */
-export function harmonyReport(h: Harmony, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
-  const notes = [...new Set(h.voicing.map((n) => n.midi))].sort((a, b) => a - b);
-  const id = notes.join(",");
+export function harmonyReport(
+  h: Harmony,
+  key: Key | null,
+  pedal: PedalSpan[],
+  cache?: Map<string, VoicingFacts>,
+  budget?: Budget,
+  ctx?: SpellingContext,
+): ChordReport {
+  const notes = voicingPitches(h);
+  let id = notes.join(",");
   let facts = cache?.get(id);
-  if (!facts) {
-    facts = voicingFacts(notes, key);
-    cache?.set(id, facts);
+  if (!facts || needsContext(facts.name)) {
+    // A diminished seventh is spelled by where it leads (rule 21): cache it with its context.
+    const name = nameChord(notes, notes[0]);
+    if (needsContext(name)) id += `|${ctx?.nextBassPc ?? ""},${ctx?.nextRootPc ?? ""}`;
+    facts = cache?.get(id);
+    if (!facts) {
+      budget?.spend(NAMING_STEPS);
+      facts = voicingFacts(notes, key, ctx, name);
+      cache?.set(id, facts);
+    }
   }
   let start = h.start;
   for (const g of h.graces) if (g.note.start < start) start = g.note.start;
@@ -102,6 +129,11 @@ export function harmonyReport(h: Harmony, key: Key | null, pedal: PedalSpan[], c
     pedal: pedalDuring(pedal, h.start, h.end),
     techniques: graces.length === 0 ? facts.techniquesWithoutGraces : techniquesOf(facts.name, facts.shown, graces),
   };
+}
+
+/** A harmony's voicing as reported: distinct pitches, ascending. */
+export function voicingPitches(h: Harmony): number[] {
+  return [...new Set(h.voicing.map((n) => n.midi))].sort((a, b) => a - b);
 }
 
 /** The report of one strike read as a harmony on its own (block chords; tools and tests). */

@@ -2,7 +2,9 @@
 // then, within it, which notes form its voicing, which are its bass line, its melody, its
 // non-chord tones, and which notes the pedal carried in from before.
 import { pc } from "./pitch";
-import { MIN_HARMONY_SEC, HELD_FOR, segment, TEMPLATES, type Segment } from "./segment";
+import type { Budget } from "./budget";
+import { nameChord } from "./naming";
+import { boundaryRules, HELD_FOR, lowestSounding, MIN_HARMONY_SEC, segment, TEMPLATES, type BoundaryRules, type Segment } from "./segment";
 import type { Sounding } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NonChordToneKind, NoteEvent } from "./types";
@@ -10,6 +12,8 @@ import type { NonChordToneKind, NoteEvent } from "./types";
 const EPS = 1e-9;
 /** Rule 18: a take has a melody when at least this share of its harmonies has top notes of their own. */
 export const MELODY_SHARE = 0.25;
+/** Budget steps charged for naming a chord (about a quarter of a millisecond, like 300 search steps). */
+export const NAMING_STEPS = 300;
 /** Rule 15: a non-chord tone is approached or left "by step": one or two semitones. */
 const STEP = 2;
 /** How far back and ahead (seconds) a step to or from a non-chord tone is looked for. */
@@ -46,6 +50,7 @@ export type Harmony = {
 };
 
 export type ReadInput = {
+  budget?: Budget;
   strikes: Strike[];
   sounding: ReadonlyMap<NoteEvent, Sounding>;
   endTime: number;
@@ -69,30 +74,19 @@ function earlierNotes(strikes: readonly Strike[], i: number): NoteEvent[] {
   return out;
 }
 
-/** The lowest note sounding 150 ms after each strike begins (a sweep over the take). */
-function lowestSounding(strikes: readonly Strike[], sounding: ReadInput["sounding"]): Array<NoteEvent | null> {
-  const active: NoteEvent[] = [];
-  return strikes.map((s, k) => {
-    const t = s.start + HELD_FOR;
-    active.push(...s.notes);
-    let low: NoteEvent | null = null;
-    let kept = 0;
-    for (const n of active) {
-      if (heardEnd(sounding, n) <= s.start + EPS) continue;
-      active[kept++] = n;
-      if (heardEnd(sounding, n) > t + EPS && (!low || n.midi < low.midi)) low = n;
-    }
-    active.length = kept;
-    return k >= 0 ? low : null;
-  });
-}
-
 /**
  * Rule 15, first point: a new bass pitch class struck with an upper note, which then stays
  * until the harmony ends, starts a harmony even on the same chord (C → C/E). A bass that
  * moves on under the same chord is a bass line instead.
  */
-function splitOnBassChange(segs: Segment[], strikes: readonly Strike[], sounding: ReadInput["sounding"], endTime: number, minSec: number): Segment[] {
+function splitOnBassChange(
+  segs: Segment[],
+  strikes: readonly Strike[],
+  sounding: ReadInput["sounding"],
+  forced: readonly boolean[],
+  endTime: number,
+  minSec: number,
+): Segment[] {
   const lowest = lowestSounding(strikes, sounding);
   const struckLow = (k: number) => {
     const l = lowest[k];
@@ -110,18 +104,91 @@ function splitOnBassChange(segs: Segment[], strikes: readonly Strike[], sounding
     }
     let cur: Segment = { ...seg };
     let bassPc = lowest[seg.first] ? pc(lowest[seg.first]!.midi) : null;
+    let bassMidi = lowest[seg.first] ? lowest[seg.first]!.midi : null;
     const nextStart = seg.end < strikes.length ? strikes[seg.end].start : endTime;
     for (let k = seg.first + 1; k < seg.end; k++) {
       const low = struckLow(k);
       if (!low) continue;
       const p = pc(low.midi);
-      const chordStrike = new Set(strikes[k].notes.map((n) => n.midi)).size >= 2;
+      const pitches = [...new Set(strikes[k].notes.map((n) => n.midi))].sort((a, b) => a - b);
+      // A bass: set apart from the notes struck with it, or lower than the bass before.
+      const isBass = pitches.length >= 2 && (pitches[1] - pitches[0] >= 7 || (bassMidi !== null && pitches[0] < bassMidi));
       const stays = later[k - seg.first].every((q) => q === p);
-      if (chordStrike && p !== bassPc && stays && strikes[k].start - strikes[cur.first].start >= minSec - EPS && nextStart - strikes[k].start >= minSec - EPS) {
-        out.push({ ...cur, end: k });
-        cur = { ...cur, first: k };
+      if (isBass && p !== bassPc && stays && nextStart - strikes[k].start >= minSec - EPS) {
+        const lead = strikes.slice(cur.first, k);
+        const onlySingles = lead.every((x) => new Set(x.notes.map((n) => n.midi)).size < 2);
+        if (onlySingles && out.length > 0 && !forced[cur.first]) {
+          // Single notes before the chord arrives walked on from the harmony before.
+          out[out.length - 1] = { ...out[out.length - 1], end: k };
+          cur = { ...cur, first: k };
+        } else if (strikes[k].start - strikes[cur.first].start >= minSec - EPS) {
+          out.push({ ...cur, end: k });
+          cur = { ...cur, first: k };
+        }
       }
       bassPc = p;
+      bassMidi = low.midi;
+    }
+    out.push(cur);
+  }
+  return out;
+}
+
+/** A chord's identity for rule 15: its name by rule 4 (root, symbol suffix) and its bass. */
+function identity(pitches: readonly number[], budget?: Budget): string {
+  const sorted = [...new Set(pitches)].sort((a, b) => a - b);
+  if (sorted.length === 0) return "";
+  // Naming a chord not seen before is the costliest step here (tonal's detection).
+  budget?.spend(NAMING_STEPS);
+  const name = nameChord(sorted, sorted[0]);
+  return name.rootPc === null ? `?${[...new Set(sorted.map(pc))].sort((a, b) => a - b).join(",")}/${pc(sorted[0])}` : `${name.rootPc}${name.suffix}/${pc(sorted[0])}`;
+}
+
+function sameSet(a: readonly number[], b: readonly number[]): boolean {
+  const x = new Set(a);
+  const y = new Set(b);
+  return x.size === y.size && [...x].every((v) => y.has(v));
+}
+
+/** Pitches sounding by key 150 ms into strike k: its own notes and keys held into it. */
+function struckChord(strikes: readonly Strike[], k: number): number[] {
+  const t = strikes[k].start + HELD_FOR;
+  const out = strikes[k].notes.map((n) => n.midi);
+  for (let q = Math.max(0, k - 64); q < k; q++) for (const n of strikes[q].notes) if (n.end > t + EPS) out.push(n.midi);
+  return out;
+}
+
+/**
+ * Rule 15: inside a span the templates heard as one chord, a strike of three or more pitches
+ * whose notes (with the keys held into it) name a different chord, which lasts, begins a
+ * harmony: block chords change at every strike, and rootless voicings that share most of
+ * their notes (F A C E, then F A B E) are still two chords. Comping re-strikes never do.
+ */
+function splitOnNewChord(segs: Segment[], strikes: readonly Strike[], rules: BoundaryRules, endTime: number, minSec: number, budget?: Budget): Segment[] {
+  const out: Segment[] = [];
+  for (const seg of segs) {
+    let cur: Segment = { ...seg };
+    // The chord so far: a broken chord builds up until it has three pitches.
+    let sofar = struckChord(strikes, seg.first);
+    const nextStart = seg.end < strikes.length ? strikes[seg.end].start : endTime;
+    for (let k = seg.first + 1; k < seg.end; k++) {
+      if (rules.barred[k]) continue;
+      const chord = struckChord(strikes, k);
+      if (new Set(sofar).size < 3) {
+        sofar = [...sofar, ...chord];
+        continue;
+      }
+      if (new Set(chord).size < 3) continue;
+      // Over a separate bass (7 or more below), upper notes re-struck keep that bass.
+      const bass = Math.min(...sofar);
+      const low = Math.min(...chord);
+      const heard = low - bass >= 7 ? [bass, ...chord] : chord;
+      if (sameSet(heard, sofar) || identity(heard, budget) === identity(sofar, budget)) continue;
+      if (strikes[k].start - strikes[cur.first].start >= minSec - EPS && nextStart - strikes[k].start >= minSec - EPS) {
+        out.push({ ...cur, end: k });
+        cur = { ...cur, first: k };
+        sofar = heard;
+      }
     }
     out.push(cur);
   }
@@ -284,14 +351,30 @@ export function readHarmonies(input: ReadInput): Reading {
   const { strikes, sounding, endTime } = input;
   const minSec = input.minHarmonySec ?? MIN_HARMONY_SEC;
   if (strikes.length === 0) return { harmonies: [], melody: [], hasMelody: false };
-  const raw = segment({ strikes, sounding, endTime, minHarmonySec: minSec });
-  const segs = splitOnBassChange(raw, strikes, sounding, endTime, minSec);
-  const silenceStarts = new Set(raw.map((s) => s.first));
-  const all = segs.map((seg, i) => {
-    const nextStart = i + 1 < segs.length ? strikes[segs[i + 1].first].start : endTime;
-    const prevEnd = seg.first > 0 ? Math.max(...earlierNotes(strikes, seg.first).map((n) => soundEnd(sounding, n))) : -Infinity;
-    return readHarmony(seg, input, nextStart, silenceStarts.has(seg.first) && strikes[seg.first].start - prevEnd >= 0.25 - EPS);
+  const segInput = { strikes, sounding, endTime, minHarmonySec: minSec, budget: input.budget };
+  const rules = boundaryRules(segInput);
+  const raw = segment(segInput, rules);
+  let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec), strikes, rules, endTime, minSec, input.budget);
+  const read = (list: Segment[]) =>
+    list.map((seg, i) => readHarmony(seg, input, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[seg.first]));
+  let all = read(segs);
+  // Neighbours that name the same chord on the same bass are one harmony (a re-struck chord),
+  // unless a silence divides them.
+  const merged: Segment[] = [];
+  const ids: string[] = [];
+  segs.forEach((seg, i) => {
+    const id = identity(all[i].voicing.map((n) => n.midi), input.budget);
+    if (merged.length > 0 && !rules.forced[seg.first] && ids[ids.length - 1] === id && !all[i].solo && !all[i - 1].solo) {
+      merged[merged.length - 1] = { ...merged[merged.length - 1], end: seg.end };
+    } else {
+      merged.push({ ...seg });
+      ids.push(id);
+    }
   });
+  if (merged.length !== segs.length) {
+    segs = merged;
+    all = read(segs);
+  }
   // A tune played alone is listed as melody and never graded as chords (rule 18).
   const harmonies = all.filter((h) => !h.solo);
   const solo = all.filter((h) => h.solo).flatMap((h) => strikes.slice(h.firstStrike, h.endStrike).flatMap((s) => s.notes));

@@ -8,6 +8,7 @@
 // under held notes can never start a harmony, and notes the pedal carried in from before a
 // span never count in it. The weights are our own, tuned on the takes `npm run samples`
 // writes (see RULES.md, "How Nearnote implements rule 15").
+import type { Budget } from "./budget";
 import { pc } from "./pitch";
 import type { Sounding } from "./sounding";
 import type { Strike } from "./strikes";
@@ -46,6 +47,16 @@ const MISSING_CHARGE = 0.6;
 const SEVENTH_CHARGE = 0.5;
 /** Cost of a change, in weighted seconds. */
 const CHANGE_COST = 0.08;
+/**
+ * Extra cost of a harmony beginning where the bass did not change (the lowest note sounding
+ * is not struck there): harmonies change with the bass far more often than over it
+ * (Temperley 2001, ch. 6).
+ */
+const SAME_BASS_COST = 0.3;
+/** Rule 15: comping re-struck within this long counts as the same chord re-struck. */
+const RESTRIKE_WITHIN_SEC = 3;
+/** A melody note this short that leaves by step is a passing or neighbour note. */
+const SHORT_NOTE_SEC = 0.75;
 /** Extra weight of the first strike's notes and of the bass, to choose the chord of a span (not its length). */
 const FIRST_STRIKE_BONUS = 0.5;
 const BASS_BONUS = 0.5;
@@ -53,6 +64,8 @@ const BASS_BONUS = 0.5;
 const MAX_SPAN_STRIKES = 20;
 const MAX_SPAN_SEC = 8;
 const TOO_SHORT = 1000;
+/** Budget steps for scoring one span against every template (about as long as 4 search steps). */
+export const SPAN_STEPS = 4;
 const EPS = 1e-9;
 
 export type Template = { rootPc: number; template: number };
@@ -67,6 +80,8 @@ export type Segment = {
 };
 
 export type SegmentInput = {
+  /** the take's budget: each span scored spends SPAN_STEPS */
+  budget?: Budget;
   strikes: readonly Strike[];
   sounding: ReadonlyMap<NoteEvent, Sounding>;
   /** end of the take (the last sound) */
@@ -85,41 +100,123 @@ function keyHeldAt(strikes: readonly Strike[], i: number, t: number): NoteEvent[
   return out;
 }
 
-/** Boundaries a harmony must start at (silence before the strike) and strikes that can never start one. */
-export function boundaryRules(input: SegmentInput): { forced: boolean[]; barred: boolean[] } {
+/** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
+export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap<NoteEvent, Sounding>): Array<NoteEvent | null> {
+  const heard = (n: NoteEvent) => sounding.get(n)?.heardEnd ?? n.end;
+  const active: NoteEvent[] = [];
+  return strikes.map((s) => {
+    const t = s.start + HELD_FOR;
+    active.push(...s.notes);
+    let low: NoteEvent | null = null;
+    let kept = 0;
+    for (const n of active) {
+      if (heard(n) <= s.start + EPS) continue;
+      active[kept++] = n;
+      if (heard(n) > t + EPS && (!low || n.midi < low.midi)) low = n;
+    }
+    active.length = kept;
+    return low;
+  });
+}
+
+/** A strike's notes above its bass when the bass is detached (7 or more semitones below the next). */
+function upperNotes(s: Strike): number[] {
+  const pitches = [...new Set(s.notes.map((n) => n.midi))].sort((a, b) => a - b);
+  return pitches.length >= 3 && pitches[1] - pitches[0] >= 7 ? pitches.slice(1) : pitches;
+}
+
+/**
+ * Pitch classes of a strike's upper part (what comping re-strikes), or "" when fewer than two
+ * remain: a bass and one note are no comping chord.
+ */
+function upperPcs(s: Strike): string {
+  const upper = [...new Set(upperNotes(s).map(pc))].sort((a, b) => a - b);
+  return upper.length >= 2 ? upper.join(",") : "";
+}
+
+export type BoundaryRules = {
+  /** a silence ends just before the strike: a harmony must begin there */
+  forced: boolean[];
+  /** the strike can never begin a harmony (it is charged heavily) */
+  barred: boolean[];
+  /** the strike brings a new lowest note */
+  newBass: boolean[];
+};
+
+/**
+ * Where harmonies must, may and may not begin (rule 15): after a silence they must; a note
+ * struck alone in the bass under held notes, or between two strikes of the same comping
+ * chord, a re-strike of the comping chord, and a short melody note that leaves by step may
+ * not.
+ */
+export function boundaryRules(input: SegmentInput): BoundaryRules {
   const { strikes, sounding } = input;
   const forced = strikes.map(() => false);
   const barred = strikes.map(() => false);
+  const lowest = lowestSounding(strikes, sounding);
+  const newBass = strikes.map((s, i) => !!lowest[i] && s.notes.includes(lowest[i]!));
+  const multi = strikes.map((s) => new Set(s.notes.map((n) => n.midi)).size >= 2);
+  const nextMulti = new Int32Array(strikes.length + 1).fill(-1);
+  for (let i = strikes.length - 1; i >= 0; i--) nextMulti[i] = multi[i + 1] ? i + 1 : nextMulti[i + 1];
   let lastSound = -Infinity;
+  let prevMulti = -1;
   for (let i = 0; i < strikes.length; i++) {
-    const t = strikes[i].start;
+    const s = strikes[i];
+    const t = s.start;
     if (i > 0 && t - lastSound >= SILENCE_SEC - EPS) forced[i] = true;
-    const pitches = new Set(strikes[i].notes.map((n) => n.midi));
-    if (i > 0 && pitches.size === 1) {
-      // A note struck alone in the bass under held upper notes never starts a harmony.
-      const p = strikes[i].notes[0].midi;
-      const held = keyHeldAt(strikes, i, t + HELD_FOR).filter((n) => n.midi !== p);
-      if (held.length > 0 && held.every((n) => n.midi > p)) barred[i] = true;
+    if (i > 0 && !multi[i]) {
+      const n = s.notes[0];
+      // A note struck alone in the bass under held upper notes.
+      const held = keyHeldAt(strikes, i, t + HELD_FOR).filter((h) => h.midi !== n.midi);
+      if (held.length > 0 && held.every((h) => h.midi > n.midi)) barred[i] = true;
+      // A walking note between two strikes of the same comping chord, below both.
+      const q = nextMulti[i];
+      if (prevMulti >= 0 && q >= 0 && !forced[i] && strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC) {
+        const below = (k: number) => upperNotes(strikes[k]).every((x) => x > n.midi);
+        const comp = upperPcs(strikes[q]);
+        if (comp && below(prevMulti) && below(q) && upperPcs(strikes[prevMulti]) === comp) barred[i] = true;
+      }
+      // A short melody note over other notes that leaves by step: passing or neighbour.
+      const next = strikes[i + 1];
+      const over = keyHeldAt(strikes, i, t).some((h) => h.midi < n.midi);
+      if (over && next && n.end - n.start <= SHORT_NOTE_SEC && next.start <= n.end + 0.1) {
+        if (next.notes.some((x) => x.midi !== n.midi && Math.abs(x.midi - n.midi) <= 2)) barred[i] = true;
+      }
     }
-    for (const n of strikes[i].notes) lastSound = Math.max(lastSound, sounding.get(n)?.soundEnd ?? n.end);
+    if (multi[i]) {
+      // Comping re-struck (its upper notes again, perhaps over a walking bass note).
+      const comp = upperPcs(s);
+      if (comp && prevMulti >= 0 && !forced[i] && t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC && comp === upperPcs(strikes[prevMulti])) {
+        barred[i] = true;
+      }
+      prevMulti = i;
+    }
+    for (const n of s.notes) lastSound = Math.max(lastSound, sounding.get(n)?.soundEnd ?? n.end);
   }
-  return { forced, barred };
+  return { forced, barred, newBass };
 }
 
 type Live = { p: number; from: number; to: number };
 
-/** Best template for a weight vector; `score` uses `w`, the choice uses `w` plus `bonus`. */
+/**
+ * Best template for a weight vector. The score (what the division maximises) is matched
+ * minus unmatched weight, less the charges, less the first strike's weight that the template
+ * does not explain (a harmony should begin with notes of its chord). The chord chosen weighs
+ * the first strike and the bass up (`bonus`), and prefers the bass as root on a tie.
+ */
 export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: number | null): { score: number; chord: Template | null } {
   let total = 0;
   let present = 0;
-  let totalB = 0;
+  let bonusTotal = 0;
   for (let p = 0; p < 12; p++) {
     total += w[p];
-    totalB += w[p] + bonus[p];
+    bonusTotal += bonus[p];
     if (w[p] > EPS) present++;
   }
   if (present === 0) return { score: 0, chord: null };
   const unit = total / present;
+  // One pitch class is no chord (rule 15: the notes must fit a chord).
+  const lone = present < 2 ? TOO_SHORT : 0;
   let bestScore = -Infinity;
   let choice: Template | null = null;
   let choiceScore = -Infinity;
@@ -132,14 +229,13 @@ export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: numbe
       for (const i of iv) {
         const p = (r + i) % 12;
         inW += w[p];
-        inB += w[p] + bonus[p];
+        inB += bonus[p];
         if (w[p] <= EPS) missing++;
       }
       const charge = unit * (MISSING_CHARGE * missing + (iv.length > 3 ? SEVENTH_CHARGE : 0));
-      const score = 2 * inW - total - charge;
+      const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
       if (score > bestScore) bestScore = score;
-      // The root in the bass breaks ties (rule 15: the bass weighted up).
-      const chosen = 2 * inB - totalB - charge + (r === bassPc ? 1e-6 : 0);
+      const chosen = 2 * (inW + inB) - total - bonusTotal - charge + (r === bassPc ? 1e-6 : 0);
       if (chosen > choiceScore + EPS) {
         choiceScore = chosen;
         choice = { rootPc: r, template: t };
@@ -159,11 +255,11 @@ function sameTemplate(a: Template | null, b: Template | null): boolean {
 }
 
 /** Rule 15: the division of the strikes into harmonies with the best total score. */
-export function segment(input: SegmentInput): Segment[] {
-  const { strikes, sounding, endTime, minHarmonySec } = input;
+export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRules(input)): Segment[] {
+  const { strikes, sounding, endTime, minHarmonySec, budget } = input;
   const n = strikes.length;
   if (n === 0) return [];
-  const { forced, barred } = boundaryRules(input);
+  const { forced, barred, newBass } = rules;
   const T = strikes.map((s) => s.start);
   T.push(Math.max(endTime, T[n - 1]));
   const best = new Float64Array(n + 1).fill(-Infinity);
@@ -175,7 +271,7 @@ export function segment(input: SegmentInput): Segment[] {
   for (let i = 0; i < n; i++) {
     if (best[i] === -Infinity) continue;
     // A barred start is charged rather than refused, so every strike stays reachable.
-    const barredCost = i > 0 && barred[i] && !forced[i] ? TOO_SHORT : 0;
+    const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
     const t0 = T[i];
     w.fill(0);
     bonus.fill(0);
@@ -211,6 +307,7 @@ export function segment(input: SegmentInput): Segment[] {
         if (l.to > b + EPS) live[k++] = l;
       }
       live.length = k;
+      budget?.spend(SPAN_STEPS);
       const { score, chord } = bestTemplate(w, bonus, bassPc);
       const short = b - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
       const total = best[i] + score - (i > 0 ? CHANGE_COST : 0) - short - barredCost;

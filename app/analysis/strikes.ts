@@ -1,12 +1,14 @@
 // RULES.md rules 1–3: notes begun together form strikes; quick grace notes travel with the
 // note they resolve to; keys still held join later strikes; a lone bass played a little
 // early or late joins the chord above it.
+import { bpmAt } from "./tempo";
 import type { NoteEvent, TempoPoint } from "./types";
 
 export const STRIKE_GAP = 0.08; // rule 1: within 80 ms of the previous onset
 export const STRIKE_SPAN = 0.3; // rule 1: within 300 ms of the strike's first onset
 export const GRACE_MAX = 0.15; // rule 2: lasting at most 150 ms (or a sixteenth, if longer)
-export const GRACE_RELEASE = 0.03; // rule 2: release within 30 ms of the resolution's onset
+export const GRACE_RELEASE = 0.03; // rule 2: released at most 30 ms before the resolution's onset
+export const GRACE_OVERLAP = 0.1; // rule 2: or held at most 100 ms into it (a crushed note)
 export const HELD_FOR = 0.15; // rule 3: still held 150 ms after the strike begins
 export const BASS_MERGE = 0.15; // rule 3: a lone bass within 150 ms of the chord
 const EPS = 1e-9;
@@ -21,15 +23,6 @@ export type Strike = {
   /** notes struck earlier and still held by the key (rule 3) */
   held: NoteEvent[];
 };
-
-function bpmAt(tempos: TempoPoint[], time: number): number {
-  let bpm = 120; // Standard MIDI File 1.0: 120 bpm until a tempo event says otherwise
-  for (const t of tempos) {
-    if (t.time <= time + EPS) bpm = t.bpm;
-    else break;
-  }
-  return bpm;
-}
 
 function firstAtOrAfter(list: NoteEvent[], time: number): number {
   let lo = 0;
@@ -62,7 +55,7 @@ export function findGraces(notes: NoteEvent[], tempos: TempoPoint[] = []): Map<N
       if (!list) continue;
       // Lists are in onset order: jump to the first onset inside the release window and stop
       // after a handful, so a crafted file of same-instant notes cannot make this quadratic.
-      let i = firstAtOrAfter(list, g.end - GRACE_RELEASE - EPS);
+      let i = firstAtOrAfter(list, g.end - GRACE_OVERLAP - EPS);
       for (let seen = 0; i < list.length && seen < 16; i++, seen++) {
         const t = list[i];
         if (t.start > g.end + GRACE_RELEASE + EPS) break;

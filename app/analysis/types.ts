@@ -136,13 +136,18 @@ export type ChangeReport = {
 /** One difference between a take and its target progression (VL's matching.ts owns the shape). */
 export type { Mismatch };
 
+/** Steady time (rule 22): how evenly the strikes fall on the beat. */
 export type TempoSteadiness = {
-  /** median time between chord changes, seconds (null with fewer than two chords) */
+  /** median time between strikes, seconds (null with fewer than two strikes) */
   medianGapSec: number | null;
-  /** coefficient of variation of those gaps (standard deviation / mean), 0 = perfectly even */
+  /** how far the intervals between strikes lie from whole or half beats, against random timing (0 = on the grid) */
   spread: number | null;
   /** 1 − spread, clipped to 0..1 (1 when it cannot be measured) */
   steadiness: number;
+  /** the beat the intervals were compared with, seconds */
+  beatSec?: number | null;
+  /** where the beat came from: the file's tempo map, or the commonest interval between strikes */
+  beatFrom?: "tempo-map" | "strikes" | null;
 };
 
 export type Summary = {

@@ -37,18 +37,38 @@ describe("analyseMidi output shape (the issue's JSON contract)", () => {
   });
 
   it("names the D exercise I IV V I twice, matching the target fully", () => {
-    expect(a.chords.map((c) => c.roman)).toEqual(["I", "IV", "V", "I", "I", "IV", "V", "I"]);
+    // The I that ends the first time through and the I that begins the second are one chord
+    // re-struck: one harmony (RULES.md rule 15). The right hand's inversions over the left
+    // hand's roots take no figures: the bass is the root.
+    expect(a.chords.map((c) => c.roman)).toEqual(["I", "IV", "V", "I", "IV", "V", "I"]);
     expect(a.summary.accuracy).toBe(1);
     expect(a.summary.mismatches).toEqual([]);
     expect(a.summary.key).toBe("D");
     expect(a.summary.keySource).toBe("given");
   });
 
-  it("reports melody notes apart from chords", () => {
+  it("reports a tune over held chords as melody notes apart from the chords (rule 18)", () => {
+    // C3 G3 E4 held under E5 D5 C5, then F3 A3 C4 under F5 (RULES.md rule 15's worked example, extended).
+    const lh = (keys: number[], length: number) => chordEvents(0, keys, length);
+    const bytes = smf(
+      480,
+      trackChunk([...lh([48, 55, 64], 960)]),
+      trackChunk([...noteOn(0, 76), ...noteOff(240, 76), ...noteOn(0, 74), ...noteOff(120, 74), ...noteOn(0, 72), ...noteOff(600, 72)]),
+      trackChunk([...noteOn(960, 53), ...noteOn(0, 57), ...noteOn(0, 60), ...noteOn(0, 77), ...noteOff(960, 53), ...noteOff(0, 57), ...noteOff(0, 60), ...noteOff(0, 77)]),
+    );
+    const r = analyseMidi(bytes);
+    expect(r.chords.map((c) => c.symbol)).toEqual(["C", "F"]);
+    expect(r.chords[0].notes).toEqual([48, 55, 64, 76]);
+    expect(r.melodyNotes.map((m) => m.note)).toEqual([76, 74, 72, 77]);
+    expect(r.chords[0].nonChordTones.map((t) => [t.note, t.kind])).toEqual([[74, "passing"]]);
+    expect(r.changes).toHaveLength(1);
+  });
+
+  it("a single note between chords, with nothing under it, is no chord of its own", () => {
     const bytes = smf(480, trackChunk([...chordEvents(0, [60, 64, 67], 400), ...noteOn(80, 72), ...noteOff(200, 72), ...chordEvents(200, [60, 65, 69], 400)]));
     const r = analyseMidi(bytes);
-    expect(r.chords).toHaveLength(2);
-    expect(r.melodyNotes.map((m) => m.note)).toEqual([72]);
+    // C4 F4 A4 has C in the bass: F/C.
+    expect(r.chords.map((c) => c.symbol)).toEqual(["C", "F/C"]);
     expect(r.changes).toHaveLength(1);
     expect(r.changes[0].motion).toBe(3);
   });

@@ -93,8 +93,10 @@ describe("rule 4: naming", () => {
 describe("Roman numerals in the key", () => {
   it.each([
     ["D", [62, 66, 69], "I"],
-    ["D", [62, 67, 71], "IV"],
-    ["D", [61, 64, 69], "V"],
+    // Inversions take figured-bass figures (RULES.md rule 21; Kostka & Payne, from memory):
+    // G/D is IV64, A/C♯ is V6.
+    ["D", [62, 67, 71], "IV64"],
+    ["D", [61, 64, 69], "V6"],
     ["Ab", [53, 60, 68], "vi"],
     ["Gm", [57, 60, 63, 67], "iiø7"],
     ["Gm", [62, 66, 69, 72], "V7"],
