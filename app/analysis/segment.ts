@@ -134,12 +134,25 @@ function upperPcs(s: Strike): string {
   return upper.length >= 2 ? upper.join(",") : "";
 }
 
+/**
+ * Whether strike i is a single note with a lower note struck right after it: a harmony that
+ * began there would have a bass above its chord (rule 16), so it is charged like a start
+ * over an unchanged bass. A broken chord begins on its bass, below what follows.
+ */
+function loneAbove(strikes: readonly Strike[], i: number): boolean {
+  const s = strikes[i];
+  const next = strikes[i + 1];
+  if (!next || new Set(s.notes.map((n) => n.midi)).size !== 1) return false;
+  const end = Math.max(...s.notes.map((n) => n.end));
+  return next.start <= end + 0.5 && next.notes.some((n) => n.midi < s.notes[0].midi);
+}
+
 export type BoundaryRules = {
   /** a silence ends just before the strike: a harmony must begin there */
   forced: boolean[];
   /** the strike can never begin a harmony (it is charged heavily) */
   barred: boolean[];
-  /** the strike brings a new lowest note */
+  /** the strike brings a new lowest note (and is not a lone note above the chord that follows) */
   newBass: boolean[];
 };
 
@@ -154,7 +167,7 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
   const forced = strikes.map(() => false);
   const barred = strikes.map(() => false);
   const lowest = lowestSounding(strikes, sounding);
-  const newBass = strikes.map((s, i) => !!lowest[i] && s.notes.includes(lowest[i]!));
+  const newBass = strikes.map((s, i) => !!lowest[i] && s.notes.includes(lowest[i]!) && !loneAbove(strikes, i));
   const multi = strikes.map((s) => new Set(s.notes.map((n) => n.midi)).size >= 2);
   const nextMulti = new Int32Array(strikes.length + 1).fill(-1);
   for (let i = strikes.length - 1; i >= 0; i--) nextMulti[i] = multi[i + 1] ? i + 1 : nextMulti[i + 1];
