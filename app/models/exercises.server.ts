@@ -6,7 +6,8 @@ import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, memberships, takeMetrics, takes, users, type Exercise } from "~/db/schema";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
 import { AnalysisError, readMidi } from "~/analysis";
-import { newFileKey, readTakeFile, removeTakeFile, takeStorage } from "~/lib/takeFiles.server";
+import { readNotesInWorker } from "~/lib/analysisPool.server";
+import { newFileKey, readTakeFile, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
 import { parseFormData, type FileUpload } from "@remix-run/form-data-parser";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
@@ -207,8 +208,13 @@ export function listExercisesForTeacher(studioId: string) {
 
 /** Drops the teacher's model take (file and columns). */
 export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFileKey">) {
-  if (exercise.modelFileKey) await removeTakeFile(exercise.modelFileKey);
-  db().update(exercises).set({ modelFileKey: null, modelOriginalName: null }).where(eq(exercises.id, exercise.id)).run();
+  // The row first, then the file (a file without a row is swept; a row without its file is a broken page).
+  const previous = db().transaction((tx) => {
+    const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exercise.id)).get();
+    tx.update(exercises).set({ modelFileKey: null, modelOriginalName: null }).where(eq(exercises.id, exercise.id)).run();
+    return row?.key ?? null;
+  });
+  if (previous) await removeTakeFilesAfterRows([previous]);
 }
 
 const MODEL_MAX_BYTES = 2 * 1024 * 1024;
@@ -233,17 +239,25 @@ export async function storeModelTake(request: Request, exercise: Pick<Exercise, 
   }
   const saved = stored as { fileKey: string; name: string } | null;
   if (!saved) return "Choose a MIDI file to attach.";
-  const bytes = await readTakeFile(saved.fileKey);
   try {
-    if (!bytes || readMidi(bytes).notes.length === 0) throw new AnalysisError("no-notes");
+    const bytes = await readTakeFile(saved.fileKey);
+    const checked = bytes ? await readNotesInWorker(bytes) : ({ ok: false, error: new AnalysisError("no-notes").message } as const);
+    if (!checked.ok) {
+      await removeTakeFile(saved.fileKey);
+      return `This is not a MIDI take Nearnote can play: ${checked.error}`;
+    }
+    // Swap in one statement-pair: of two uploads racing, each removes the file it displaced.
+    const previous = db().transaction((tx) => {
+      const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exercise.id)).get();
+      tx.update(exercises).set({ modelFileKey: saved.fileKey, modelOriginalName: saved.name }).where(eq(exercises.id, exercise.id)).run();
+      return row?.key ?? null;
+    });
+    if (previous) await removeTakeFilesAfterRows([previous]);
+    return null;
   } catch (e) {
-    await removeTakeFile(saved.fileKey);
-    if (e instanceof AnalysisError) return `This is not a MIDI take Nearnote can play: ${e.message}`;
+    await removeTakeFile(saved.fileKey).catch(() => {});
     throw e;
   }
-  if (exercise.modelFileKey) await removeTakeFile(exercise.modelFileKey);
-  db().update(exercises).set({ modelFileKey: saved.fileKey, modelOriginalName: saved.name }).where(eq(exercises.id, exercise.id)).run();
-  return null;
 }
 
 /** The model take's notes for playing in the browser, or null when there is none. */

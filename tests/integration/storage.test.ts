@@ -1,12 +1,13 @@
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, rmSync, utimesSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { count, eq } from "drizzle-orm";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
 import { ConfigError, env, resetEnvForTests } from "~/lib/env.server";
-import { listStoredTakeFiles, takeStorage } from "~/lib/takeFiles.server";
+import { listStoredTakeFiles, takeFileNames, takeStorage } from "~/lib/takeFiles.server";
+import { storeModelTake } from "~/models/exercises.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { deleteStudentData } from "~/models/studios.server";
@@ -109,6 +110,31 @@ describe("sweeping orphan files", () => {
     expect(run.stdout).toContain("Orphan take files removed: 1.");
     expect(storedFiles()).toHaveLength(1);
   }, 60_000);
+});
+
+describe("model takes", () => {
+  it("two uploaded at once leave one model take and one file; a file that is not MIDI leaves none", async () => {
+    const studio = makeStudio("Harbour Lane");
+    const exercise = makeExercise(studio.id);
+    const upload = (name: string, bytes: Uint8Array) => {
+      const form = new FormData();
+      form.append("file", new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
+      return new Request(`${ORIGIN}/exercises/${exercise.id}`, { method: "POST", body: form });
+    };
+    const sample = (name: string) => new Uint8Array(readFileSync(path.resolve("samples", name)));
+    const results = await Promise.all([
+      storeModelTake(upload("one.mid", sample("held-bass-d.mid")), exercise),
+      storeModelTake(upload("two.mid", sample("minor-colour-g.mid")), exercise),
+    ]);
+    expect(results).toEqual([null, null]);
+    expect(storedFiles()).toHaveLength(1);
+    const row = db().select().from(exercises).where(eq(exercises.id, exercise.id)).get()!;
+    expect(storedFiles()[0]).toContain(takeFileNames(row.modelFileKey!).hash);
+
+    const refused = await storeModelTake(upload("notes.mid", new TextEncoder().encode("not a MIDI file")), row);
+    expect(refused).toMatch(/not a MIDI take/);
+    expect(storedFiles()).toHaveLength(1);
+  });
 });
 
 describe("the storage folder", () => {

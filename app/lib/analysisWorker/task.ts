@@ -1,10 +1,12 @@
 // What one analysis worker does with one take. Runs inside a worker thread
 // (see entry.mjs), so it imports the engine by relative path only.
 import type { MessagePort } from "node:worker_threads";
-import { analyseMidi, AnalysisError, ProgressionError } from "../../analysis/index";
+import { analyseMidi, AnalysisError, ProgressionError, readMidi } from "../../analysis/index";
 import type { TakeAnalysis } from "../../analysis/types";
 
 export type AnalysisTask = {
+  /** "analyse" (the default) grades a take; "notes" only reads a model take's notes to check it is playable. */
+  kind?: "analyse" | "notes";
   bytes: Uint8Array;
   key?: string | null;
   target?: string;
@@ -33,8 +35,22 @@ export function analyseTake(bytes: Uint8Array, options: { key?: string | null; t
   }
 }
 
-export default function runTask(task: AnalysisTask): AnalysisOutcome {
+export type NotesOutcome = { ok: true; noteCount: number } | { ok: false; error: string; code?: string };
+
+/** Reads a model take: how many notes it has, or the engine's reason it cannot be read. */
+export function readTakeNotes(bytes: Uint8Array): NotesOutcome {
+  try {
+    const { notes } = readMidi(bytes);
+    if (notes.length === 0) throw new AnalysisError("no-notes");
+    return { ok: true, noteCount: notes.length };
+  } catch (e) {
+    if (e instanceof AnalysisError) return { ok: false, error: e.message, code: e.code };
+    throw e;
+  }
+}
+
+export default function runTask(task: AnalysisTask): AnalysisOutcome | NotesOutcome {
   task.started?.postMessage("started");
   task.started?.close();
-  return analyseTake(task.bytes, task);
+  return task.kind === "notes" ? readTakeNotes(task.bytes) : analyseTake(task.bytes, task);
 }
