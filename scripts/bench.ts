@@ -51,4 +51,5 @@ main();
 for (const line of (await import("./bench/fuzz")).benchFuzz()) console.log(line);
 for (const line of await (await import("./bench/board")).benchProgressBoard()) console.log(line);
 for (const line of await (await import("./bench/takePage")).benchTakePage()) console.log(line);
+for (const line of await (await import("./bench/workerPool")).benchWorkerPool()) console.log(line);
 process.exit(0);
