@@ -70,16 +70,23 @@ describe("B D F# A, on its own and against Imaj7 in G", () => {
 });
 
 describe("what is not a rootless voicing of the target", () => {
-  const key = parseKey("C");
-  const [dm7, g7, cmaj7] = parseProgression("ii7 V7 Imaj7", key);
-  const [iv] = parseProgression("IV", key);
+  // Parsed inside each test, never at collection, so that a mutation run knows which tests
+  // reach the parser.
+  const targets = () => {
+    const key = parseKey("C");
+    const [dm7, g7, cmaj7] = parseProgression("ii7 V7 Imaj7", key);
+    const [iv] = parseProgression("IV", key);
+    return { key, dm7, g7, cmaj7, iv };
+  };
 
   it("a triad target that names no 7th: A C E G does not pass for F", () => {
+    const { iv } = targets();
     expect(isRootlessOf([9, 0, 4, 7], iv)).toBe(false);
     expect(matchProgression([played([57, 60, 64, 67])], [iv]).accuracy).toBe(0);
   });
 
   it("no 3rd, or no 7th, or a note the target does not explain", () => {
+    const { dm7, g7, cmaj7 } = targets();
     expect(isRootlessOf([2, 5, 9, 0], g7)).toBe(false); // D F A C: no B
     expect(isRootlessOf([4, 7, 11, 2], dm7)).toBe(false); // E G B D: no F, no C
     expect(isRootlessOf([4, 7, 11, 1], cmaj7)).toBe(false); // C# is no tension of Cmaj7
@@ -87,16 +94,19 @@ describe("what is not a rootless voicing of the target", () => {
   });
 
   it("a voicing that holds the root is not rootless", () => {
+    const { cmaj7 } = targets();
     expect(isRootlessOf([0, 4, 7, 11], cmaj7)).toBe(false);
   });
 
   it("a dominant explains its altered 9ths and flat 13th (common practice): B Eb F Ab is a rootless G7", () => {
+    const { g7, cmaj7 } = targets();
     // B (3rd) Eb (b13) F (7th) Ab (b9)
     expect(isRootlessOf([11, 3, 5, 8], g7)).toBe(true);
     expect(isRootlessOf([11, 3, 5, 8], cmaj7)).toBe(false);
   });
 
   it("a target with a slash still asks for its bass", () => {
+    const { key } = targets();
     const [slash] = parseProgression("G7/D", key);
     const r = matchProgression([played(G13)], [slash]);
     expect(r.mismatches.map((m) => m.kind)).toEqual(["wrong-bass"]);
