@@ -8,6 +8,7 @@ import { exercises, takes } from "~/db/schema";
 import { ConfigError, env, resetEnvForTests } from "~/lib/env.server";
 import { listStoredTakeFiles, takeFileNames, takeStorage } from "~/lib/takeFiles.server";
 import { storeModelTake } from "~/models/exercises.server";
+import { startBackgroundWork } from "~/lib/startup.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { deleteStudentData } from "~/models/studios.server";
@@ -96,6 +97,16 @@ describe("sweeping orphan files", () => {
     const left = storedFiles();
     expect(left).toHaveLength(4); // two takes, the model take, the upload in progress
     expect(await sweepOrphanTakeFiles(new Date(Date.now() - 3_600_000))).toBe(0);
+  });
+
+  it("runs when the server starts, for files left by an earlier process", async () => {
+    await studentWithTakes(1);
+    await putFile("left-by-a-crash");
+    await age(2); // written before this process started
+    const log = vi.spyOn(console, "log").mockImplementation(() => {});
+    startBackgroundWork();
+    await expect.poll(() => storedFiles().length, { timeout: 10_000 }).toBe(1);
+    await expect.poll(() => log.mock.calls.flat().join("\n"), { timeout: 5_000 }).toContain("orphan take files removed at start-up: 1");
   });
 
   it("runs in npm run reanalyse, which prints the count", async () => {
