@@ -10,6 +10,7 @@ import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { ServerBuild } from "react-router";
 import { BASE_HEADERS, contentSecurityPolicy } from "~/lib/securityHeaders.server";
+import { loadEnvOrExit } from "./lib/runApp";
 
 export async function createApp(buildDir: string) {
   const build = (await import(pathToFileURL(path.join(buildDir, "server/index.js")).href)) as ServerBuild;
@@ -36,6 +37,8 @@ export async function createApp(buildDir: string) {
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1]).href) {
+  // A malformed setting or a missing storage folder stops the server here, not at the first request.
+  loadEnvOrExit();
   const buildDir = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
   const host = process.env.HOST ?? "127.0.0.1";
   const port = Number(process.env.PORT ?? 3000);
