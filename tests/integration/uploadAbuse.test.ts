@@ -75,6 +75,19 @@ describe("abusive uploads against the running server", () => {
     expect(r4.status).toBe(400);
     expect((await r4.json()).error).toMatch(/could not be read|Choose a MIDI file/);
 
+    // A part header that is not UTF-8 (RFC 3629): the client's error (400), not the server's.
+    const badHeader = Buffer.concat([
+      Buffer.from('--x\r\nContent-Disposition: form-data; name="file"; filename="'),
+      Buffer.from([0xff, 0xfe, 0xc3, 0x28]),
+      Buffer.from('.mid"\r\nContent-Type: audio/midi\r\n\r\nMThd\r\n--x--\r\n'),
+    ]);
+    const r4b = await fetch(`${base}/api/takes`, {
+      method: "POST",
+      body: badHeader,
+      headers: { Cookie: cookie, Origin: base, "Content-Type": "multipart/form-data; boundary=x" },
+    });
+    expect(r4b.status).toBe(400);
+
     // A header chunk declaring absurd sizes: a MIDI file, but a broken one — kept as failed.
     const absurd = sample();
     new DataView(absurd.buffer).setUint32(4, 0xffffffff);
