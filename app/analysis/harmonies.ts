@@ -174,11 +174,19 @@ function splitOnNewChord(segs: Segment[], strikes: readonly Strike[], rules: Bou
     for (let k = seg.first + 1; k < seg.end; k++) {
       if (rules.barred[k]) continue;
       const chord = struckChord(strikes, k);
-      if (new Set(sofar).size < 3) {
+      if (new Set(sofar.map(pc)).size < 3) {
         sofar = [...sofar, ...chord];
         continue;
       }
-      if (new Set(chord).size < 3) continue;
+      if (new Set(chord.map(pc)).size < 3) continue;
+      // One note added over everything still sounding builds the chord up; it changes nothing.
+      const struck = new Set(strikes[k].notes.map((n) => n.midi)).size;
+      const sofarPcs = new Set(sofar.map(pc));
+      const chordPcs = new Set(chord.map(pc));
+      if (struck === 1 && [...sofarPcs].every((p) => chordPcs.has(p))) {
+        sofar = [...sofar, ...chord];
+        continue;
+      }
       // Over a separate bass (7 or more below), upper notes re-struck keep that bass.
       const bass = Math.min(...sofar);
       const low = Math.min(...chord);
@@ -220,9 +228,13 @@ function readHarmony(seg: Segment, input: ReadInput, nextStart: number, afterSil
   const voicing: NoteEvent[] = [...first.notes, ...held];
   const chordPcs = new Set<number>([...tmpl, ...voicing.map((n) => pc(n.midi))]);
   const pcsOf = (v: NoteEvent[]) => new Set(v.map((n) => pc(n.midi)));
+  // A harmony that begins with fewer than three pitch classes is a broken chord: it is
+  // complete once every pitch class of its chord has sounded (rule 17).
+  const broken = pcsOf(voicing).size < 3;
   const complete = () => {
     const have = pcsOf(voicing);
-    return have.size >= 3 || tmpl.every((p) => have.has(p));
+    if (tmpl.every((p) => have.has(p))) return true;
+    return have.size >= 3 && !broken;
   };
 
   const bassLine: NoteEvent[] = [];

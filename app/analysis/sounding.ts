@@ -6,6 +6,8 @@
 import type { NoteEvent, PedalSpan } from "./types";
 
 const EPS = 1e-9;
+/** How long before a key's release the pedal must be down to carry the note on (our tolerance for timing noise). */
+export const PEDAL_CATCH = 0.03;
 
 /** The pedal span that is down at `time` (start ≤ time < end), or null. Spans are sorted and disjoint. */
 export function pedalSpanAt(pedal: readonly PedalSpan[], time: number): PedalSpan | null {
@@ -60,7 +62,9 @@ export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpa
   }
   const out = new Map<NoteEvent, Sounding>();
   for (const n of sorted) {
-    const span = pedalSpanAt(pedal, n.end);
+    // The pedal catches a note only when it is down a moment before the key comes up: a pedal
+    // pressed as the hand lets go (within PEDAL_CATCH) is the change of pedal itself.
+    const span = pedalSpanAt(pedal, n.end - PEDAL_CATCH);
     let soundEnd = span ? Math.max(n.end, span.end) : n.end;
     const again = firstOnsetAfter(byPitch.get(n.midi)!, n.start);
     if (again < soundEnd) soundEnd = again;

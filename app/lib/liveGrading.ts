@@ -3,6 +3,7 @@
 import { analyseNotes } from "~/analysis";
 import { AnalysisError } from "~/analysis/errors";
 import { BASS_MERGE, GRACE_MAX, GRACE_RELEASE, STRIKE_SPAN } from "~/analysis/strikes";
+import { MIN_HARMONY_SEC } from "~/analysis/segment";
 import type { ChangeReport, ChordReport, NoteList, TakeAnalysis } from "~/analysis/types";
 import { clampBpm } from "./midiEncode";
 
@@ -41,6 +42,14 @@ export function settleSeconds(bpm?: number): number {
   return BASS_MERGE + STRIKE_SPAN + grace + GRACE_RELEASE + grace;
 }
 
+/**
+ * How long after the next harmony begins a harmony is final: the strike windows, plus the
+ * shortest a harmony may be (a beat at the recording's tempo, or 250 ms), plus a margin.
+ */
+export function harmonySettleSeconds(bpm?: number): number {
+  return settleSeconds(bpm) + Math.max(MIN_HARMONY_SEC, 60 / clampBpm(bpm)) + 0.1;
+}
+
 /** The take exactly as the encoder writes it: one tempo from the start (see midiEncode.ts). */
 export function asRecordedTake(list: NoteList, bpm?: number): NoteList {
   return { notes: list.notes, pedal: list.pedal ?? [], tempos: [{ time: 0, bpm: clampBpm(bpm) }] };
@@ -56,9 +65,21 @@ export function gradeSoFar(list: NoteList, nowSec: number, options: LiveOptions 
     if (e instanceof AnalysisError) return { ...EMPTY, noteCount: list.notes.length };
     throw e;
   }
-  const window = settleSeconds(options.bpm);
+  // A harmony is final once the next one has begun and lasted long enough to be one (rule 15:
+  // at least a beat in a take made to a metronome), beyond the strike windows; the last one
+  // once every key is up that long.
+  const lag = harmonySettleSeconds(options.bpm);
+  const chords = analysis.chords;
+  let lastEnd = 0;
+  for (const n of list.notes) lastEnd = Math.max(lastEnd, Math.min(n.end, nowSec));
+  const anyDown = list.notes.some((n) => n.end >= nowSec);
   let settled = 0;
-  while (settled < analysis.chords.length && analysis.chords[settled].startSec <= nowSec - window) settled++;
+  while (settled < chords.length) {
+    const next = chords[settled + 1];
+    const final = next ? next.startSec <= nowSec - lag : !anyDown && lastEnd <= nowSec - lag;
+    if (!final) break;
+    settled++;
+  }
   return {
     chords: analysis.chords,
     settled,

@@ -118,10 +118,11 @@ export const TEXTURE_TAKES: TextureTake[] = [
     seed: 103,
     notes: bars(4, (b) => {
       const root = [C3, A2, F2, G2][b];
+      // Inversions keep the hand near C4–C5 (no block leaps between the patterns).
       const up = [
         [C4, E4, G4, C5],
-        [A3, C4, E4, A4],
-        [A3, C4, F4, A4],
+        [C4, E4, A4, C5],
+        [C4, F4, A4, C5],
         [B3, D4, G4, B4],
       ][b];
       const run = [...up, up[2], up[1], up[0], up[1]];
@@ -186,7 +187,7 @@ export const TEXTURE_TAKES: TextureTake[] = [
       ...chord(12, 3.9, [G2, D3, B3], "lh"),
       ...line(0, [[E5, 1], [D5, 0.5], [C5, 1.5], [B4, 0.5], [C5, 0.5]]),
       ...line(4, [[C5, 1], [D5, 0.5], [C5, 1], [B4, 0.5], [A4, 1]]),
-      ...line(8, [[A4, 1], [G4, 0.5], [F4, 2.5]]),
+      ...line(8, [[A4, 1], [G4, 0.5], [F4, 1.5], [A4, 1]]),
       ...line(12, [[D5, 1], [C5, 0.5], [B4, 2.5]]),
     ],
     expect: { symbols: ["C", "Am", "F", "G"], basses: ["C", "A", "F", "G"], melody: true, nonChordTones: ["passing", "neighbour"], accuracy: 1 },
@@ -304,7 +305,7 @@ export const TEXTURE_TAKES: TextureTake[] = [
       ...chord(0, 1.9, [D3, A3 - 1, C4, F4]),
       ...chord(2, 1.9, [G2, F3, B3, A4 - 1]),
       ...chord(4, 1.9, [C3, B3 - 1, E4 - 1, G4]),
-      ...chord(6, 1.9, [B2, D3, F3, A3 - 1]),
+      ...chord(6, 1.9, [B3, D4, F4, A4 - 1]),
       ...chord(8, 1.9, [E2, D3, G3 + 1, G4]),
       ...chord(10, 1.9, [A2, G3, C4 + 1, F4 + 1]),
     ],

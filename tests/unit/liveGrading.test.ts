@@ -5,7 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";
-import { asRecordedTake, GradeThrottle, gradeSoFar, settleSeconds } from "~/lib/liveGrading";
+import { asRecordedTake, GradeThrottle, gradeSoFar, harmonySettleSeconds, settleSeconds } from "~/lib/liveGrading";
 
 /** The take as the recorder sees it at `now`: later notes not played yet, keys still down end at now. */
 function asOf(notes: NoteEvent[], now: number): NoteEvent[] {
@@ -24,14 +24,19 @@ describe("gradeSoFar", () => {
   });
 
   it("names each chord and grades each change once it has settled", () => {
-    const early = gradeSoFar({ notes: asOf(PROGRESSION, 0.9) }, 0.9, { key: "D", bpm: 120 });
-    // 0.9 s: the first chord has settled; the second (struck at 0.5 s) is shown, still forming.
-    expect(early.settled).toBe(1);
-    expect(early.chords.map((c) => c.symbol)).toEqual(["D", "G/D"]);
-    expect(early.changes.map((c) => c.motion)).toEqual([3]);
+    // A harmony is final once the next has begun and lasted a beat (rule 15), beyond the
+    // strike windows: 0.78 + 0.5 + 0.1 s at 120 bpm.
+    expect(harmonySettleSeconds(120)).toBeCloseTo(1.38, 10);
+    const early = gradeSoFar({ notes: asOf(PROGRESSION, 1.5) }, 1.5, { key: "D", bpm: 120 });
+    // 1.5 s: the second chord began only 1.0 s ago, so every chord is shown, still forming.
+    expect(early.settled).toBe(0);
+    const settledOne = gradeSoFar({ notes: asOf(PROGRESSION, 1.9) }, 1.9, { key: "D", bpm: 120 });
+    expect(settledOne.settled).toBe(1);
+    expect(settledOne.chords.map((c) => c.symbol).slice(0, 2)).toEqual(["D", "G/D"]);
+    expect(settledOne.changes[0].motion).toBe(3);
 
-    const later = gradeSoFar({ notes: asOf(PROGRESSION, 2.2) }, 2.2, { key: "D", bpm: 120 });
-    expect(later.settled).toBe(3);
+    const later = gradeSoFar({ notes: asOf(PROGRESSION, 3.7) }, 3.7, { key: "D", bpm: 120 });
+    expect(later.settled).toBe(4);
     expect(later.chords.map((c) => c.symbol)).toEqual(["D", "G/D", "A/C#", "D"]);
     // Rule 7 by hand: D F# A → D G B moves 0+1+2 = 3;
     // D4 G4 B4 → C#4 E4 A4 moves 1+3+2 = 6 (sorted voices), A/C# → D moves 1+2+0 = 3.
@@ -66,11 +71,11 @@ describe("gradeSoFar", () => {
     ].sort((a, b) => a.start - b.start);
     const bpm = 96;
     const final = analyseNotes(asRecordedTake({ notes }, bpm), { key: "D" });
-    expect(final.chords.length).toBe(7);
-    expect(final.chords[4].graceNotes.map((g) => g.note)).toEqual([64]);
-    expect(final.chords[4].notes).toContain(66);
+    // The D re-struck over the held D3 is the same harmony as the D before it (rule 15).
+    expect(final.chords.map((c) => c.symbol)).toEqual(["D", "G/D", "A/C#", "D", "G/D", "G"]);
+    expect(final.chords[3].graceNotes.map((g) => g.note)).toEqual([64]);
     let lastSettled = 0;
-    for (let now = 0; now <= 5; now += 0.02) {
+    for (let now = 0; now <= 6; now += 0.02) {
       const live = gradeSoFar({ notes: asOf(notes, now) }, now, { key: "D", bpm });
       expect(live.settled, `settled count never goes back (at ${now.toFixed(2)} s)`).toBeGreaterThanOrEqual(lastSettled);
       lastSettled = live.settled;
@@ -100,8 +105,10 @@ describe("gradeSoFar", () => {
     const notes = chord(0, [62, 66, 69], 2);
     const at = (now: number) => gradeSoFar({ notes: asOf(notes, now) }, now, { bpm: 120 });
     expect(at(0.05).chords.map((c) => c.symbol)).toEqual(["D"]); // shown at once, forming
-    expect(at(0.77).settled).toBe(0);
-    expect(at(0.79).settled).toBe(1);
+    // Held for 2 s: final once every key has been up for the settling time.
+    expect(at(1.9).settled).toBe(0);
+    expect(at(2 + harmonySettleSeconds(120) - 0.01).settled).toBe(0);
+    expect(at(2 + harmonySettleSeconds(120) + 0.01).settled).toBe(1);
   });
 
   it("estimates the key from the notes so far when none is given", () => {
