@@ -28,8 +28,8 @@ test("an unknown address shows the friendly not-found page", async ({ page, cons
   consoleErrors.length = 0;
 });
 
-test("healthz reports the version and the database", async ({ request }) => {
+test("healthz reports the version, the database and the storage", async ({ request }) => {
   const r = await request.get("/healthz");
   expect(r.status()).toBe(200);
-  expect(await r.json()).toMatchObject({ app: "nearnote", version: expect.any(String), database: "ok" });
+  expect(await r.json()).toMatchObject({ app: "nearnote", version: expect.any(String), database: "ok", storage: "ok" });
 });
