@@ -34,6 +34,15 @@ describe("configuration", () => {
     expect(error?.message).toMatch(/SMTP_URL must start with smtp/);
   });
 
+  it("takes the analysis time limit and the storage-creation switch, refusing malformed ones", () => {
+    expect(parseEnv({}).analysisTimeLimitMs).toBe(15_000);
+    expect(parseEnv({}).createStorage).toBe(false);
+    expect(parseEnv({ ANALYSIS_TIME_LIMIT_MS: "2500", STORAGE_CREATE: "1" })).toMatchObject({ analysisTimeLimitMs: 2500, createStorage: true });
+    expect(() => parseEnv({ ANALYSIS_TIME_LIMIT_MS: "soon" })).toThrow(/ANALYSIS_TIME_LIMIT_MS/);
+    expect(() => parseEnv({ ANALYSIS_TIME_LIMIT_MS: "5" })).toThrow(/at least 100/);
+    expect(() => parseEnv({ STORAGE_CREATE: "yes" })).toThrow(/STORAGE_CREATE must be 0 or 1/);
+  });
+
   it("generates a secret once, keeps it owner-only and says so", () => {
     const dir = mkdtempSync(path.join(tmpdir(), "nearnote-env-"));
     const log = vi.fn();
