@@ -67,13 +67,6 @@ function templatePcs(seg: Segment): number[] {
   return TEMPLATES[seg.chord.template].intervals.map((i) => (seg.chord!.rootPc + i) % 12);
 }
 
-/** Notes struck in the 64 strikes before `i` (enough for any held or pedal-carried note). */
-function earlierNotes(strikes: readonly Strike[], i: number): NoteEvent[] {
-  const out: NoteEvent[] = [];
-  for (let k = Math.max(0, i - 64); k < i; k++) out.push(...strikes[k].notes);
-  return out;
-}
-
 /**
  * Rule 15, first point: a new bass pitch class struck with an upper note, which then stays
  * until the harmony ends, starts a harmony even on the same chord (C → C/E). A bass that
@@ -203,45 +196,67 @@ function splitOnNewChord(segs: Segment[], strikes: readonly Strike[], rules: Bou
   return out;
 }
 
+/**
+ * Notes struck before each strike that still sound 150 ms into it (held by key or carried by
+ * the pedal): one sweep over the take, so reading a harmony never looks far back.
+ */
+function reachingNotes(strikes: readonly Strike[], sounding: ReadInput["sounding"]): NoteEvent[][] {
+  let active: NoteEvent[] = [];
+  return strikes.map((s, i) => {
+    // A new array each time: the one returned for a strike is kept as it is.
+    const t = s.start + HELD_FOR - EPS;
+    active = (i > 0 ? [...active, ...strikes[i - 1].notes] : active).filter((n) => soundEnd(sounding, n) >= t);
+    return active;
+  });
+}
+
+const bit = (n: NoteEvent) => 1 << pc(n.midi);
+const maskOf = (notes: readonly NoteEvent[]) => notes.reduce((m, n) => m | bit(n), 0);
+const bits = (m: number) => {
+  let c = 0;
+  for (let x = m; x; x &= x - 1) c++;
+  return c;
+};
+
 /** Rule 17 and friends: what each note of one harmony is. */
-function readHarmony(seg: Segment, input: ReadInput, nextStart: number, afterSilence: boolean): Harmony {
+function readHarmony(seg: Segment, input: ReadInput, reaching: readonly NoteEvent[][], nextStart: number, afterSilence: boolean): Harmony {
   const { strikes, sounding } = input;
   const first = strikes[seg.first];
   const t0 = first.start;
-  const before = earlierNotes(strikes, seg.first);
+  const before = reaching[seg.first];
   const tmpl = templatePcs(seg);
-  const firstPcs = new Set(first.notes.map((n) => pc(n.midi)));
-  const laterNotes: NoteEvent[] = [];
-  for (let k = seg.first + 1; k < seg.end; k++) laterNotes.push(...strikes[k].notes);
+  const tmplMask = tmpl.reduce((m, p) => m | (1 << p), 0);
+  const firstMask = maskOf(first.notes);
 
   // Held by key into the harmony, and carried by the pedal only.
-  const keyHeld = before.filter((n) => n.end >= t0 + HELD_FOR - EPS);
-  const carried = before.filter((n) => n.end < t0 + HELD_FOR - EPS && soundEnd(sounding, n) >= t0 + HELD_FOR - EPS);
-  const fits = new Set([...tmpl, ...firstPcs]);
+  const keyHeld: NoteEvent[] = [];
+  const carried: NoteEvent[] = [];
+  for (const n of before) (n.end >= t0 + HELD_FOR - EPS ? keyHeld : carried).push(n);
+  const fits = tmplMask | firstMask;
   const nonChordTones: HarmonyNote[] = [];
   const held: NoteEvent[] = [];
   for (const h of keyHeld) {
-    const resolves = laterNotes.some((n) => n.start >= t0 - EPS && Math.abs(n.midi - h.midi) >= 1 && Math.abs(n.midi - h.midi) <= STEP);
-    if (!fits.has(pc(h.midi)) && resolves) nonChordTones.push({ note: h, kind: "suspension" });
+    let resolves = false;
+    for (let k = seg.first + 1; k < seg.end && !resolves; k++) {
+      for (const n of strikes[k].notes) if (Math.abs(n.midi - h.midi) >= 1 && Math.abs(n.midi - h.midi) <= STEP) resolves = true;
+    }
+    if (!(fits & bit(h)) && resolves) nonChordTones.push({ note: h, kind: "suspension" });
     else held.push(h);
   }
   const voicing: NoteEvent[] = [...first.notes, ...held];
-  const chordPcs = new Set<number>([...tmpl, ...voicing.map((n) => pc(n.midi))]);
-  const pcsOf = (v: NoteEvent[]) => new Set(v.map((n) => pc(n.midi)));
+  let have = maskOf(voicing);
+  const chordMask = tmplMask | have;
+  const chordPcs = new Set<number>();
+  for (let p = 0; p < 12; p++) if (chordMask & (1 << p)) chordPcs.add(p);
   // A harmony that begins with fewer than three pitch classes is a broken chord: it is
   // complete once every pitch class of its chord has sounded (rule 17).
-  const broken = pcsOf(voicing).size < 3;
-  const complete = () => {
-    const have = pcsOf(voicing);
-    if (tmpl.every((p) => have.has(p))) return true;
-    return have.size >= 3 && !broken;
-  };
+  const broken = bits(have) < 3;
+  const complete = () => (tmplMask & have) === tmplMask || (bits(have) >= 3 && !broken);
 
   const bassLine: NoteEvent[] = [];
   const topNotes: NoteEvent[] = [];
   const graces = [...first.graces];
   const within = [...keyHeld, ...carried, ...first.notes];
-  const soundingAt = (t: number) => within.filter((n) => n.start <= t + EPS && heardEnd(sounding, n) > t + EPS);
   for (let k = seg.first + 1; k < seg.end; k++) {
     const s = strikes[k];
     graces.push(...s.graces);
@@ -250,31 +265,46 @@ function readHarmony(seg: Segment, input: ReadInput, nextStart: number, afterSil
     for (const n of within) if (heardEnd(sounding, n) > s.start + EPS) within[kept++] = n;
     within.length = kept;
     within.push(...s.notes);
-    const distinct = new Set(s.notes.map((n) => n.midi));
     if (!complete()) {
       // A broken chord: the strikes that complete it belong to the voicing.
       for (const n of s.notes) {
-        if (chordPcs.has(pc(n.midi))) voicing.push(n);
-        else nonChordTones.push({ note: n, kind: null });
+        if (chordMask & bit(n)) {
+          voicing.push(n);
+          have |= bit(n);
+        } else nonChordTones.push({ note: n, kind: null });
       }
       continue;
     }
-    const bass = Math.min(...voicing.map((n) => n.midi));
-    const upperLow = Math.min(...voicing.filter((n) => n.midi > bass).map((n) => n.midi), Infinity);
+    const single = s.notes.every((n) => n.midi === s.notes[0].midi);
+    let bass = Infinity;
+    for (const v of voicing) if (v.midi < bass) bass = v.midi;
+    let upperLow = Infinity;
+    for (const v of voicing) if (v.midi > bass && v.midi < upperLow) upperLow = v.midi;
     for (const n of s.notes) {
-      const after = soundingAt(n.start + HELD_FOR).filter((x) => x !== n);
-      const lowest = after.every((x) => x.midi > n.midi) && heardEnd(sounding, n) > n.start + HELD_FOR - EPS;
+      // Sounding 150 ms on (for the bass line) and just after the onset (for the top).
+      const later = n.start + HELD_FOR;
+      const soon = n.start + 0.05;
+      let lowest = heardEnd(sounding, n) > later - EPS;
+      let under = 0;
+      let onTop = true;
+      for (const x of within) {
+        if (x === n) continue;
+        if (lowest && x.start <= later + EPS && heardEnd(sounding, x) > later + EPS && x.midi <= n.midi) lowest = false;
+        if (x.start <= soon + EPS && heardEnd(sounding, x) > soon + EPS) {
+          if (x.midi < n.midi) under++;
+          else onTop = false;
+        }
+      }
       if (lowest && n.midi !== bass && n.midi < upperLow) {
         bassLine.push(n);
         continue;
       }
-      const under = soundingAt(n.start + 0.05).filter((x) => x !== n);
-      if (distinct.size === 1 && under.length > 0 && under.every((x) => x.midi < n.midi)) {
+      if (single && under > 0 && onTop) {
         topNotes.push(n);
-        if (!chordPcs.has(pc(n.midi))) nonChordTones.push({ note: n, kind: null });
+        if (!(chordMask & bit(n))) nonChordTones.push({ note: n, kind: null });
         continue;
       }
-      if (!chordPcs.has(pc(n.midi))) nonChordTones.push({ note: n, kind: null });
+      if (!(chordMask & bit(n))) nonChordTones.push({ note: n, kind: null });
     }
   }
   for (const g of graces) nonChordTones.push({ note: g.note, kind: "grace" });
@@ -293,15 +323,14 @@ function readHarmony(seg: Segment, input: ReadInput, nextStart: number, afterSil
     carried,
     chordPcs,
     afterSilence,
-    solo: isSolo(strikes.slice(seg.first, seg.end), keyHeld.length + carried.length, sounding),
+    solo: keyHeld.length + carried.length === 0 && isSolo(strikes.slice(seg.first, seg.end), sounding),
   };
 }
 
 /** A tune played alone: one note at a time, nothing under it, and some steps between notes. */
-function isSolo(span: readonly Strike[], underneath: number, sounding: ReadInput["sounding"]): boolean {
-  if (underneath > 0) return false;
+function isSolo(span: readonly Strike[], sounding: ReadInput["sounding"]): boolean {
+  if (span.some((s) => s.notes.some((n) => n.midi !== s.notes[0].midi))) return false;
   const line = span.flatMap((s) => s.notes);
-  if (span.some((s) => new Set(s.notes.map((n) => n.midi)).size > 1)) return false;
   for (let i = 1; i < line.length; i++) if (heardEnd(sounding, line[i - 1]) > line[i].start + HELD_FOR) return false;
   return line.some((n, i) => i > 0 && Math.abs(n.midi - line[i - 1].midi) <= STEP && n.midi !== line[i - 1].midi);
 }
@@ -367,25 +396,31 @@ export function readHarmonies(input: ReadInput): Reading {
   const rules = boundaryRules(segInput);
   const raw = segment(segInput, rules);
   let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec), strikes, rules, endTime, minSec, input.budget);
-  const read = (list: Segment[]) =>
-    list.map((seg, i) => readHarmony(seg, input, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[seg.first]));
-  let all = read(segs);
+  const reaching = reachingNotes(strikes, sounding);
+  const readOne = (list: Segment[], i: number) =>
+    readHarmony(list[i], input, reaching, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[list[i].first]);
+  let all = segs.map((_, i) => readOne(segs, i));
   // Neighbours that name the same chord on the same bass are one harmony (a re-struck chord),
   // unless a silence divides them.
   const merged: Segment[] = [];
-  const ids: string[] = [];
+  const kept: Array<Harmony | null> = [];
+  let lastId = "";
   segs.forEach((seg, i) => {
     const id = identity(all[i].voicing.map((n) => n.midi), input.budget);
-    if (merged.length > 0 && !rules.forced[seg.first] && ids[ids.length - 1] === id && !all[i].solo && !all[i - 1].solo) {
+    if (merged.length > 0 && !rules.forced[seg.first] && lastId === id && !all[i].solo && !all[i - 1].solo) {
       merged[merged.length - 1] = { ...merged[merged.length - 1], end: seg.end };
+      kept[kept.length - 1] = null; // read again below
     } else {
       merged.push({ ...seg });
-      ids.push(id);
+      kept.push(all[i]);
+      lastId = id;
     }
   });
   if (merged.length !== segs.length) {
     segs = merged;
-    all = read(segs);
+    // Only merged harmonies are read again; the others keep their reading (and their end,
+    // the unchanged start of the harmony after them).
+    all = segs.map((_, i) => kept[i] ?? readOne(segs, i));
   }
   // A tune played alone is listed as melody and never graded as chords (rule 18).
   const harmonies = all.filter((h) => !h.solo);

@@ -29,6 +29,31 @@ export const TEMPLATES: ReadonlyArray<{ name: string; intervals: readonly number
   { name: "seventh suspended fourth", intervals: [0, 5, 7, 10] },
 ];
 
+/** Sum of the four largest of twelve weights (a template has at most four tones). */
+function heaviestFour(w: Float64Array): number {
+  let a = 0;
+  let b = 0;
+  let c = 0;
+  let d = 0;
+  for (let p = 0; p < 12; p++) {
+    const x = w[p];
+    if (x > d) {
+      if (x > a) [a, b, c, d] = [x, a, b, c];
+      else if (x > b) [b, c, d] = [x, b, c];
+      else if (x > c) [c, d] = [x, c];
+      else d = x;
+    }
+  }
+  return a + b + c + d;
+}
+
+/** Population count of a 12-bit mask. */
+const POPCOUNT = Uint8Array.from({ length: 4096 }, (_, m) => {
+  let c = 0;
+  for (let x = m; x; x &= x - 1) c++;
+  return c;
+});
+
 /** Rule 15: a harmony lasts at least this long. */
 export const MIN_HARMONY_SEC = 0.25;
 /** Rule 15: a strike after this long with nothing sounding starts a harmony. */
@@ -61,7 +86,7 @@ const SHORT_NOTE_SEC = 0.75;
 const FIRST_STRIKE_BONUS = 0.5;
 const BASS_BONUS = 0.5;
 /** A span no longer than this many strikes, or this many seconds, is considered (longer harmonies are joined after). */
-const MAX_SPAN_STRIKES = 20;
+const MAX_SPAN_STRIKES = 16;
 const MAX_SPAN_SEC = 8;
 const TOO_SHORT = 1000;
 /** Budget steps for scoring one span against every template (about as long as 4 search steps). */
@@ -209,7 +234,22 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
   return { forced, barred, newBass };
 }
 
-type Live = { p: number; from: number; to: number };
+// Every template on every root, flattened for the inner loop of the search: its pitch-class
+// mask, its tones (padded to four), their count, and which template and root it is.
+const FLAT_COUNT = TEMPLATES.length * 12;
+const FLAT_MASK = new Int32Array(FLAT_COUNT);
+const FLAT_TONES = new Int32Array(FLAT_COUNT * 4);
+const FLAT_SIZE = new Int32Array(FLAT_COUNT);
+TEMPLATES.forEach((t, ti) => {
+  for (let r = 0; r < 12; r++) {
+    const f = ti * 12 + r;
+    FLAT_SIZE[f] = t.intervals.length;
+    t.intervals.forEach((iv, k) => {
+      FLAT_TONES[f * 4 + k] = (r + iv) % 12;
+      FLAT_MASK[f] |= 1 << ((r + iv) % 12);
+    });
+  }
+});
 
 /**
  * Best template for a weight vector. The score (what the division maximises) is matched
@@ -221,41 +261,46 @@ export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: numbe
   let total = 0;
   let present = 0;
   let bonusTotal = 0;
+  let presentMask = 0;
   for (let p = 0; p < 12; p++) {
     total += w[p];
     bonusTotal += bonus[p];
-    if (w[p] > EPS) present++;
+    if (w[p] > EPS) {
+      present++;
+      presentMask |= 1 << p;
+    }
   }
   if (present === 0) return { score: 0, chord: null };
   const unit = total / present;
   // One pitch class is no chord (rule 15: the notes must fit a chord).
   const lone = present < 2 ? TOO_SHORT : 0;
   let bestScore = -Infinity;
-  let choice: Template | null = null;
+  let choice = -1;
   let choiceScore = -Infinity;
-  for (let t = 0; t < TEMPLATES.length; t++) {
-    const iv = TEMPLATES[t].intervals;
-    for (let r = 0; r < 12; r++) {
-      let inW = 0;
-      let inB = 0;
-      let missing = 0;
-      for (const i of iv) {
-        const p = (r + i) % 12;
-        inW += w[p];
-        inB += bonus[p];
-        if (w[p] <= EPS) missing++;
-      }
-      const charge = unit * (MISSING_CHARGE * missing + (iv.length > 3 ? SEVENTH_CHARGE : 0));
-      const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
-      if (score > bestScore) bestScore = score;
-      const chosen = 2 * (inW + inB) - total - bonusTotal - charge + (r === bassPc ? 1e-6 : 0);
-      if (chosen > choiceScore + EPS) {
-        choiceScore = chosen;
-        choice = { rootPc: r, template: t };
-      }
+  for (let f = 0; f < FLAT_COUNT; f++) {
+    // A template sharing fewer than two tones with the span cannot be its chord.
+    if (POPCOUNT[presentMask & FLAT_MASK[f]] < 2) continue;
+    const size = FLAT_SIZE[f];
+    let inW = 0;
+    let inB = 0;
+    for (let k = 0; k < size; k++) {
+      const p = FLAT_TONES[f * 4 + k];
+      inW += w[p];
+      inB += bonus[p];
+    }
+    const missing = size - POPCOUNT[presentMask & FLAT_MASK[f]];
+    const charge = unit * (MISSING_CHARGE * missing + (size > 3 ? SEVENTH_CHARGE : 0));
+    const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
+    if (score > bestScore) bestScore = score;
+    const chosen = 2 * (inW + inB) - total - bonusTotal - charge + (f % 12 === bassPc ? 1e-6 : 0);
+    if (chosen > choiceScore + EPS) {
+      choiceScore = chosen;
+      choice = f;
     }
   }
-  return { score: bestScore, chord: choice };
+  // Nothing fits (one pitch class alone): a span that is no chord at all.
+  if (bestScore === -Infinity) return { score: -total - TOO_SHORT, chord: null };
+  return { score: bestScore, chord: { rootPc: choice % 12, template: Math.floor(choice / 12) } };
 }
 
 function sameTemplate(a: Template | null, b: Template | null): boolean {
@@ -275,61 +320,84 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
   const { forced, barred, newBass } = rules;
   const T = strikes.map((s) => s.start);
   T.push(Math.max(endTime, T[n - 1]));
+  // Flat arrays of every struck note (strike order): pitch class, onset, heard end, key release.
+  const off = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) off[k + 1] = off[k] + strikes[k].notes.length;
+  const P = new Int32Array(off[n]);
+  const MIDI = new Int32Array(off[n]);
+  const START = new Float64Array(off[n]);
+  const HEARD = new Float64Array(off[n]);
+  const KEYEND = new Float64Array(off[n]);
+  strikes.forEach((s, k) =>
+    s.notes.forEach((note, q) => {
+      const x = off[k] + q;
+      P[x] = pc(note.midi);
+      MIDI[x] = note.midi;
+      START[x] = note.start;
+      HEARD[x] = sounding.get(note)?.heardEnd ?? note.end;
+      KEYEND[x] = note.end;
+    }),
+  );
+  // Per strike: the notes struck before it whose key is still down (held into a span that
+  // starts there), and the extra weight its first strike and bass get when choosing a chord.
+  const downAt: Int32Array[] = [];
+  const bonusAt: Float64Array[] = [];
+  const bassAt = new Int32Array(n).fill(-1);
+  let down: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t0 = T[i];
+    if (i > 0) for (let x = off[i - 1]; x < off[i]; x++) down.push(x);
+    down = down.filter((x) => KEYEND[x] > t0 + EPS);
+    downAt.push(Int32Array.from(down));
+    const bonus = new Float64Array(12);
+    let bass = Infinity;
+    for (const x of down) if (KEYEND[x] >= t0 + HELD_FOR - EPS && MIDI[x] < bass) bass = MIDI[x];
+    for (let x = off[i]; x < off[i + 1]; x++) {
+      bonus[P[x]] += FIRST_STRIKE_BONUS * Math.min(HEARD[x] - START[x], 1);
+      if (MIDI[x] < bass) bass = MIDI[x];
+    }
+    if (bass !== Infinity) {
+      bassAt[i] = pc(bass);
+      bonus[bassAt[i]] += BASS_BONUS;
+    }
+    bonusAt.push(bonus);
+  }
+
+  // For each span end j, the starts i are tried from j − 1 back: the weights of the notes
+  // struck in the span grow one strike at a time, the keys held into it are added per start.
   const best = new Float64Array(n + 1).fill(-Infinity);
   const from = new Int32Array(n + 1).fill(-1);
   const chordOf: Array<Template | null> = new Array(n + 1).fill(null);
   best[0] = 0;
+  const struck = new Float64Array(12);
   const w = new Float64Array(12);
-  const bonus = new Float64Array(12);
-  for (let i = 0; i < n; i++) {
-    if (best[i] === -Infinity) continue;
-    // A barred start is charged rather than refused, so every strike stays reachable.
-    const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
-    const t0 = T[i];
-    w.fill(0);
-    bonus.fill(0);
-    // Keys held into the span count while they stay down; pedal-carried notes do not count.
-    const held = keyHeldAt(strikes, i, t0);
-    const live: Live[] = held.map((h) => ({ p: pc(h.midi), from: t0, to: h.end }));
-    let bassPc: number | null = null;
-    let bass = Infinity;
-    for (const h of held) if (h.end >= t0 + HELD_FOR - EPS && h.midi < bass) bass = h.midi;
-    for (const note of strikes[i].notes) {
-      const s = sounding.get(note);
-      const dur = (s?.heardEnd ?? note.end) - note.start;
-      bonus[pc(note.midi)] += FIRST_STRIKE_BONUS * Math.min(dur, 1);
-      if (note.midi < bass) bass = note.midi;
-    }
-    if (bass !== Infinity) {
-      bassPc = pc(bass);
-      bonus[bassPc] += BASS_BONUS;
-    }
-    for (let j = i + 1; j <= n && j - i <= MAX_SPAN_STRIKES; j++) {
-      if (j - 1 > i && forced[j - 1]) break; // a silence lies inside the span
-      if (j - 1 > i && T[j - 1] - t0 > MAX_SPAN_SEC) break;
-      for (const note of strikes[j - 1].notes) {
-        const s = sounding.get(note);
-        live.push({ p: pc(note.midi), from: note.start, to: s?.heardEnd ?? note.end });
-      }
-      const a = T[j - 1];
-      const b = T[j];
-      let k = 0;
-      for (const l of live) {
-        const d = Math.min(l.to, b) - Math.max(l.from, a);
-        if (d > 0) w[l.p] += d;
-        if (l.to > b + EPS) live[k++] = l;
-      }
-      live.length = k;
+  for (let j = 1; j <= n; j++) {
+    struck.fill(0);
+    const tj = T[j];
+    for (let i = j - 1; i >= 0 && j - i <= MAX_SPAN_STRIKES; i--) {
+      if (i < j - 1 && (forced[i + 1] || T[j - 1] - T[i] > MAX_SPAN_SEC)) break;
+      for (let x = off[i]; x < off[i + 1]; x++) struck[P[x]] += Math.max(0, Math.min(HEARD[x], tj) - START[x]);
+      if (best[i] === -Infinity) continue;
+      const t0 = T[i];
+      w.set(struck);
+      // Keys held into the span count while they stay down; pedal-carried notes do not count.
+      for (const x of downAt[i]) w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - t0);
+      let total = 0;
+      for (let p = 0; p < 12; p++) total += w[p];
+      const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
+      const short = tj - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
+      const charges = (i > 0 ? CHANGE_COST : 0) + short + barredCost;
+      // No template matches more than the span's four heaviest pitch classes: skip starts
+      // whose best possible score cannot win.
+      if (best[j] !== -Infinity && best[i] + 2 * heaviestFour(w) - total - charges <= best[j] + EPS) continue;
       budget?.spend(SPAN_STEPS);
-      const { score, chord } = bestTemplate(w, bonus, bassPc);
-      const short = b - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
-      const total = best[i] + score - (i > 0 ? CHANGE_COST : 0) - short - barredCost;
-      if (total > best[j] + EPS) {
-        best[j] = total;
+      const { score, chord } = bestTemplate(w, bonusAt[i], bassAt[i] < 0 ? null : bassAt[i]);
+      const sum = best[i] + score - charges;
+      if (sum > best[j] + EPS) {
+        best[j] = sum;
         from[j] = i;
         chordOf[j] = chord;
       }
-      if (j < n && forced[j]) break; // the next strike must start a harmony
     }
   }
   const spans: Segment[] = [];
