@@ -275,7 +275,9 @@ function readHarmony(seg: Segment, input: ReadInput, reaching: readonly NoteEven
       }
       continue;
     }
-    const single = s.notes.every((n) => n.midi === s.notes[0].midi);
+    // The top note of a later strike may carry a tune, struck alone or over accompaniment.
+    let topOfStrike = s.notes[0];
+    for (const n of s.notes) if (n.midi > topOfStrike.midi) topOfStrike = n;
     let bass = Infinity;
     for (const v of voicing) if (v.midi < bass) bass = v.midi;
     let upperLow = Infinity;
@@ -290,16 +292,16 @@ function readHarmony(seg: Segment, input: ReadInput, reaching: readonly NoteEven
       for (const x of within) {
         if (x === n) continue;
         if (lowest && x.start <= later + EPS && heardEnd(sounding, x) > later + EPS && x.midi <= n.midi) lowest = false;
-        if (x.start <= soon + EPS && heardEnd(sounding, x) > soon + EPS) {
-          if (x.midi < n.midi) under++;
-          else onTop = false;
-        }
+        // Under it, anything still sounding; over it, only keys still down (a tune's previous
+        // note rings on under the pedal in the same voice).
+        if (x.start <= soon + EPS && heardEnd(sounding, x) > soon + EPS && x.midi < n.midi) under++;
+        if (x.start <= soon + EPS && x.end > soon + EPS && x.midi >= n.midi) onTop = false;
       }
       if (lowest && n.midi !== bass && n.midi < upperLow) {
         bassLine.push(n);
         continue;
       }
-      if (single && under > 0 && onTop) {
+      if (n === topOfStrike && under > 0 && onTop) {
         topNotes.push(n);
         if (!(chordMask & bit(n))) nonChordTones.push({ note: n, kind: null });
         continue;

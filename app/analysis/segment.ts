@@ -86,7 +86,7 @@ const SHORT_NOTE_SEC = 0.75;
 const FIRST_STRIKE_BONUS = 0.5;
 const BASS_BONUS = 0.5;
 /** A span no longer than this many strikes, or this many seconds, is considered (longer harmonies are joined after). */
-const MAX_SPAN_STRIKES = 16;
+const MAX_SPAN_STRIKES = 12;
 const MAX_SPAN_SEC = 8;
 const TOO_SHORT = 1000;
 /** Budget steps for scoring one span against every template (about as long as 4 search steps). */
@@ -196,6 +196,8 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
   const multi = strikes.map((s) => new Set(s.notes.map((n) => n.midi)).size >= 2);
   const nextMulti = new Int32Array(strikes.length + 1).fill(-1);
   for (let i = strikes.length - 1; i >= 0; i--) nextMulti[i] = multi[i + 1] ? i + 1 : nextMulti[i + 1];
+  // Comping parts once per strike (compared with their neighbours below).
+  const comps = strikes.map((s, i) => (multi[i] ? upperPcs(s) : ""));
   let lastSound = -Infinity;
   let prevMulti = -1;
   for (let i = 0; i < strikes.length; i++) {
@@ -211,8 +213,8 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
       const q = nextMulti[i];
       if (prevMulti >= 0 && q >= 0 && !forced[i] && strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC) {
         const below = (k: number) => upperNotes(strikes[k]).every((x) => x > n.midi);
-        const comp = upperPcs(strikes[q]);
-        if (comp && below(prevMulti) && below(q) && upperPcs(strikes[prevMulti]) === comp) barred[i] = true;
+        const comp = comps[q];
+        if (comp && comps[prevMulti] === comp && below(prevMulti) && below(q)) barred[i] = true;
       }
       // A short melody note over other notes that leaves by step: passing or neighbour.
       const next = strikes[i + 1];
@@ -223,8 +225,8 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
     }
     if (multi[i]) {
       // Comping re-struck (its upper notes again, perhaps over a walking bass note).
-      const comp = upperPcs(s);
-      if (comp && prevMulti >= 0 && !forced[i] && t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC && comp === upperPcs(strikes[prevMulti])) {
+      const comp = comps[i];
+      if (comp && prevMulti >= 0 && !forced[i] && t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC && comp === comps[prevMulti]) {
         barred[i] = true;
       }
       prevMulti = i;

@@ -384,3 +384,46 @@ export function writeTexture(t: TextureTake): Uint8Array {
   }
   return midi.toArray();
 }
+
+/**
+ * About ten minutes of a realistic texture for the benchmark: left-hand broken chords in
+ * eighths under the pedal, changed each bar, and a right-hand tune in quarters and eighths
+ * with passing notes, through I vi IV V in four keys.
+ */
+export function longTextureTake(minutes = 10, seed = 43): TextureTake {
+  const bpm = 100;
+  const barsNeeded = Math.round((minutes * 60 * bpm) / 60 / 4);
+  const notes: BeatNote[] = [];
+  const pedal: Array<[number, number]> = [];
+  const roots = [0, 9, 5, 7]; // I vi IV V
+  const thirds = [4, 3, 4, 4];
+  for (let bar = 0; bar < barsNeeded; bar++) {
+    const key = [0, 5, -2, 3][Math.floor(bar / 16) % 4];
+    const k = bar % 4;
+    const root = 36 + ((roots[k] + key + 12) % 12);
+    const pattern = [root, root + 7, root + 12, root + 12 + thirds[k]];
+    for (let half = 0; half < 2; half++) {
+      pattern.forEach((m, q) => notes.push({ midi: m, at: bar * 4 + half * 2 + q * 0.5, len: 0.45, hand: "lh" }));
+    }
+    // The tune: chord tones on the beat, a passing note between the third and the fifth.
+    const third = root + 24 + thirds[k];
+    const fifth = root + 31;
+    notes.push(
+      { midi: fifth, at: bar * 4, len: 1, hand: "rh" },
+      { midi: third + 1 + (thirds[k] === 3 ? 1 : 0), at: bar * 4 + 1, len: 0.5, hand: "rh" },
+      { midi: third, at: bar * 4 + 1.5, len: 1.5, hand: "rh" },
+      { midi: root + 24, at: bar * 4 + 3, len: 1, hand: "rh" },
+    );
+    pedal.push([bar * 4 + 0.15, bar * 4 + 3.9]);
+  }
+  return {
+    file: "benchmark-texture.mid",
+    about: "Ten minutes of pedalled broken chords under a tune",
+    key: "C",
+    bpm,
+    seed,
+    notes,
+    pedal,
+    expect: { symbols: [] },
+  };
+}
