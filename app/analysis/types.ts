@@ -29,14 +29,15 @@ export type NoteList = {
   pedal?: PedalSpan[];
 };
 
-export type ChordFlag = "doubled-bass-third" | "muddy-low-interval" | "too-many-notes";
-export type ChangeFlag = "root-position-leap" | "top-line-leap" | "pedal-blur";
+/** Flags a chord can carry, and flags a change between two chords can carry: each name is written only here. */
+export const CHORD_FLAGS = ["doubled-bass-third", "muddy-low-interval", "too-many-notes"] as const;
+export const CHANGE_FLAGS = ["root-position-leap", "top-line-leap", "pedal-blur"] as const;
+export type ChordFlag = (typeof CHORD_FLAGS)[number];
+export type ChangeFlag = (typeof CHANGE_FLAGS)[number];
 export type FlagName = ChordFlag | ChangeFlag;
 export type ChordTechnique = "added-second" | "inversion" | "open-voicing" | "slash-bass" | "grace-to-third";
 export type TechniqueName = ChordTechnique | "smooth-top-line";
 
-export const CHORD_FLAGS: readonly ChordFlag[] = ["doubled-bass-third", "muddy-low-interval", "too-many-notes"];
-export const CHANGE_FLAGS: readonly ChangeFlag[] = ["root-position-leap", "top-line-leap", "pedal-blur"];
 export const CHORD_TECHNIQUES: readonly ChordTechnique[] = [
   "added-second",
   "inversion",

@@ -109,13 +109,14 @@ export function explainChangeFlag(
   return { flag, title: FLAG_TITLES[flag], text };
 }
 
+const CHORD_FLAG_TEXT: Record<ChordFlag, (chord: ChordReport, key: Key | null) => string> = {
+  "doubled-bass-third": doubledBassThird,
+  "muddy-low-interval": muddyLowInterval,
+  "too-many-notes": tooManyNotes,
+};
+
 export function explainChordFlag(flag: ChordFlag, chord: ChordReport, key: Key | null): FlagExplanation {
-  const text =
-    flag === "doubled-bass-third"
-      ? doubledBassThird(chord, key)
-      : flag === "muddy-low-interval"
-        ? muddyLowInterval(chord, key)
-        : tooManyNotes(chord);
+  const text = CHORD_FLAG_TEXT[flag](chord, key);
   return { flag, title: FLAG_TITLES[flag], text };
 }
 

@@ -26,7 +26,7 @@ export const commentSchema = z.object({
 export const intendSchema = z.object({
   on: z.enum(["chord", "change"]),
   idx: z.coerce.number().int().min(0),
-  flag: z.enum([...CHORD_FLAGS, ...CHANGE_FLAGS] as [string, ...string[]]),
+  flag: z.enum([...CHORD_FLAGS, ...CHANGE_FLAGS]),
   reason: z.string().trim().min(1, "Say why it was intended, e.g. “I asked for a jump here”.").max(300),
 });
 
