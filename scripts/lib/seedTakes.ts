@@ -9,8 +9,20 @@ import { newFileKey, takeStorage } from "~/lib/takeFiles.server";
 import { analyseTakeBytes } from "~/models/takeAnalysis.server";
 import { createTakeRecord } from "~/models/takes.server";
 import { EXERCISES, generateTake, seededRandom } from "./takeGenerator";
+import { TEXTURE_TAKES, writeTexture } from "./textureTakes";
 
 const WEEKS = 12;
+
+/**
+ * Takes in the textures of real playing, so the demo shows what the engine hears beyond block
+ * chords: who played which texture, for which exercise (null: free practice), how long ago.
+ */
+const TEXTURED: Array<{ email: string; file: string; exercise: string | null; weeksAgo: number }> = [
+  { email: "lena@tidewater.example", file: "texture-pedalled-ballad-ab.mid", exercise: "Sunday ballad in A♭", weeksAgo: 1 },
+  { email: "dara@tidewater.example", file: "texture-broken-chords-d.mid", exercise: null, weeksAgo: 0 },
+  { email: "yuki@tidewater.example", file: "texture-shells-melody-bb.mid", exercise: null, weeksAgo: 1 },
+  { email: "felix@tidewater.example", file: "texture-melody-over-chords-c.mid", exercise: null, weeksAgo: 2 },
+];
 const DAY = 86_400_000;
 
 /** How each invented student practises: starting skill, weekly gain, takes a week, weeks since they stopped. */
@@ -48,23 +60,45 @@ export async function seedDemoTakes(database: Db, studioId: string, now = new Da
         const bytes = generateTake({ exercise: plan, skill, seed: si * 1000 + week * 10 + t, loops: 3 });
         const recordedAt = new Date(now.getTime() - weeksAgo * 7 * DAY - Math.floor(rand() * 6) * DAY - 3_600_000 * (1 + rand() * 5));
         const fileKey = newFileKey();
-        await takeStorage().put(fileKey, new File([new Uint8Array(bytes)], `${plan.id}-week${week + 1}.mid`, { type: "audio/midi" }));
-        createTakeRecord({
-          studentId: student.id,
-          studioId,
-          exerciseId: exercise?.id ?? null,
-          key: exercise ? plan.key : null,
-          note: "",
-          fileKey,
-          originalName: `${plan.id}-week${week + 1}.mid`,
-          size: bytes.length,
-          contentHash: createHash("sha256").update(bytes).digest("hex"),
-          recordedAt,
-          outcome: analyseTakeBytes(bytes, { key: exercise ? plan.key : null, target: exercise?.progression }),
-        });
+        await storeTake(studioId, student.id, exercise, exercise ? plan.key : null, bytes, `${plan.id}-week${week + 1}.mid`, recordedAt);
         made++;
       }
     }
   }
+  for (const t of TEXTURED) {
+    const student = students.find((s) => s.email === t.email);
+    const texture = TEXTURE_TAKES.find((x) => x.file === t.file)!;
+    if (!student) continue;
+    const exercise = studioExercises.find((e) => e.title === t.exercise) ?? null;
+    const recordedAt = new Date(now.getTime() - t.weeksAgo * 7 * DAY - 2 * 3_600_000);
+    await storeTake(studioId, student.id, exercise, texture.key, writeTexture(texture), t.file, recordedAt);
+    made++;
+  }
   return made;
+}
+
+async function storeTake(
+  studioId: string,
+  studentId: string,
+  exercise: { id: string; progression: string } | null,
+  key: string | null,
+  bytes: Uint8Array,
+  originalName: string,
+  recordedAt: Date,
+) {
+  const fileKey = newFileKey();
+  await takeStorage().put(fileKey, new File([new Uint8Array(bytes)], originalName, { type: "audio/midi" }));
+  createTakeRecord({
+    studentId,
+    studioId,
+    exerciseId: exercise?.id ?? null,
+    key,
+    note: "",
+    fileKey,
+    originalName,
+    size: bytes.length,
+    contentHash: createHash("sha256").update(bytes).digest("hex"),
+    recordedAt,
+    outcome: analyseTakeBytes(bytes, { key, target: exercise?.progression }),
+  });
 }

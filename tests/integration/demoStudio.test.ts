@@ -65,5 +65,20 @@ describe("the demo takes", () => {
     const samir = weekly("samir@tidewater.example");
     expect(samir.at(-1)!.week < dara.at(-1)!.week).toBe(true);
     expect(db().select({ n: count() }).from(takes).where(eq(takes.status, "failed")).get()!.n).toBe(0);
+    // Felix plateaus: his last four weeks are no smoother than his first four by much.
+    const felix = weekly("felix@tidewater.example");
+    expect(Math.abs(smoothness(felix.slice(-4)) - smoothness(felix.slice(0, 4)))).toBeLessThan(0.15);
+    // Some takes are played in the textures of real playing, and read as such (RULES.md rules 15–18).
+    const ballad = db()
+      .select({ analysis: takeMetrics.analysis })
+      .from(takes)
+      .innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+      .where(eq(takes.originalName, "texture-pedalled-ballad-ab.mid"))
+      .get()!;
+    const reading = ballad.analysis as { chords: Array<{ symbol: string }>; summary: { accuracy: number } };
+    expect(reading.chords.map((c) => c.symbol)).toEqual(["Fm", "Db", "Ab", "Eb"]);
+    expect(reading.summary.accuracy).toBe(1);
+    const shells = db().select({ analysis: takeMetrics.analysis }).from(takes).innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id)).where(eq(takes.originalName, "texture-shells-melody-bb.mid")).get()!;
+    expect((shells.analysis as { melodyNotes: unknown[] }).melodyNotes.length).toBeGreaterThan(0);
   }, 60_000);
 });
