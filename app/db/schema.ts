@@ -186,57 +186,9 @@ export const takeMetrics = sqliteTable("take_metrics", {
   topLine: text("top_line", { mode: "json" }).$type<number[]>().notNull(),
   mismatches: text("mismatches", { mode: "json" }).$type<unknown[]>(),
   // The engine's whole result as `npm run analyse -- --json` prints it, so the take page
-  // and the API return exactly what the engine said; the rows above and below are for queries.
+  // and the API return exactly what the engine said; the columns above are for queries.
   analysis: text("analysis", { mode: "json" }).$type<TakeAnalysis>().notNull(),
 });
-
-export const chordEvents = sqliteTable(
-  "chord_events",
-  {
-    takeId: text("take_id")
-      .notNull()
-      .references(() => takes.id, { onDelete: "cascade" }),
-    idx: integer("idx").notNull(),
-    startSec: real("start_sec").notNull(),
-    endSec: real("end_sec").notNull(),
-    notes: text("notes", { mode: "json" }).$type<number[]>().notNull(),
-    graceNotes: text("grace_notes", { mode: "json" }).$type<number[]>().notNull(),
-    root: text("root"),
-    bass: text("bass").notNull(),
-    symbol: text("symbol"),
-    roman: text("roman"),
-    quality: text("quality"),
-    inversion: integer("inversion"),
-    upperInversion: integer("upper_inversion"),
-    voicing: text("voicing", { enum: ["close", "open"] }).notNull(),
-    topNote: integer("top_note").notNull(),
-    flags: text("flags", { mode: "json" }).$type<string[]>().notNull(),
-    techniques: text("techniques", { mode: "json" }).$type<string[]>().notNull(),
-  },
-  (t) => [primaryKey({ columns: [t.takeId, t.idx] })],
-);
-
-export const changeResults = sqliteTable(
-  "change_results",
-  {
-    takeId: text("take_id")
-      .notNull()
-      .references(() => takes.id, { onDelete: "cascade" }),
-    idx: integer("idx").notNull(),
-    fromIdx: integer("from_idx").notNull(),
-    toIdx: integer("to_idx").notNull(),
-    motion: integer("motion"),
-    bestMotion: integer("best_motion"),
-    bestVoicing: text("best_voicing", { mode: "json" }).$type<number[]>(),
-    suggestions: text("suggestions", { mode: "json" }).$type<unknown[]>().notNull(),
-    flags: text("flags", { mode: "json" }).$type<string[]>().notNull(),
-    bassMotion: integer("bass_motion"),
-    topInterval: integer("top_interval"),
-    commonTones: integer("common_tones"),
-    largestMove: integer("largest_move"),
-  },
-  (t) => [primaryKey({ columns: [t.takeId, t.idx] })],
-);
 
 export type User = typeof users.$inferSelect;
 export type Studio = typeof studios.$inferSelect;

@@ -23,7 +23,7 @@ function snapshot() {
     content_hash: string;
   }[];
   const metrics = db().$client.prepare("select take_id, total_motion, best_total_motion, score from take_metrics order by take_id").all();
-  const chords = (db().$client.prepare("select count(*) n from chord_events").get() as { n: number }).n;
+  const chords = (db().$client.prepare("select sum(json_array_length(analysis, '$.chords')) n from take_metrics").get() as { n: number }).n;
   return { rows, metrics, chords };
 }
 

@@ -1,0 +1,2 @@
+DROP TABLE `change_results`;--> statement-breakpoint
+DROP TABLE `chord_events`;
