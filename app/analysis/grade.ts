@@ -115,6 +115,7 @@ export function gradeChange(from: number, to: number, a: ChordReport, b: ChordRe
     to,
     bassMotion: vb[0] - va[0],
     topVoiceInterval: vb[vb.length - 1] - va[va.length - 1],
+    topLineFrom: ctx.previousTop ?? va[va.length - 1],
     blurredNotes: [...(ctx.blurredNotes ?? [])].sort((x, y) => x - y),
   };
   if (va.length > MAX_GRADED_PITCHES || vb.length > MAX_GRADED_PITCHES) {

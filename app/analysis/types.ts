@@ -127,6 +127,8 @@ export type ChangeReport = {
   bassMotion: number;
   /** signed semitones, top note to top note */
   topVoiceInterval: number;
+  /** the top-voice note a top-line leap is measured from: the last melody note before the change, else the previous top note (rule 10) */
+  topLineFrom: number;
   commonTones: number;
   largestVoiceMove: number | null;
   flags: ChangeFlag[];

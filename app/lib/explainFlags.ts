@@ -43,15 +43,17 @@ function rootPositionLeap(change: ChangeReport, from: ChordReport, to: ChordRepo
 
 /** Rule 10 in words, with where the smoothest voicing would have put the top note. */
 function topLineLeap(change: ChangeReport, from: ChordReport, to: ChordReport, key: Key | null): string {
-  const leap = to.topNote - from.topNote;
-  let text = `The top note leapt ${semitones(leap)} ${direction(leap)}, from ${noteLabel(from.topNote, key)} to ${noteLabel(
+  // With a melody, the leap is measured from its last note before the change (rule 10).
+  const fromTop = change.topLineFrom ?? from.topNote;
+  const leap = to.topNote - fromTop;
+  let text = `The top note leapt ${semitones(leap)} ${direction(leap)}, from ${noteLabel(fromTop, key)} to ${noteLabel(
     to.topNote,
     key,
   )}; more than ${TOP_LINE_LEAP_MAX} breaks the tune your top notes make.`;
   const best = change.bestVoicing;
   if (best && best.length) {
     const bestTop = best[best.length - 1];
-    const move = bestTop - from.topNote;
+    const move = bestTop - fromTop;
     if (Math.abs(move) < Math.abs(leap)) {
       text += ` With ${voicingLabel(best, key)} the top would move ${move === 0 ? "not at all" : `${semitones(move)} ${direction(move)}`}.`;
     }

@@ -223,3 +223,18 @@ describe("rule 22: steady time is measured on the beat", () => {
     expect(every.summary.tempo.steadiness).toBeGreaterThanOrEqual(0.8);
   });
 });
+
+describe("rule 10 with a melody: a top-line leap is measured from the tune's last note", () => {
+  // C4 E4 G4 held 0–1 s with a tune G5 (0–0.5), A5 (0.5–1) on top; then F4 A4 C5 at 1 s.
+  // From A5 to C5 is 9 semitones (a leap); from the chord's own top G4 it would be 5.
+  const ex: Example = {
+    key: "C",
+    notes: [note(60, 0, 1), note(64, 0, 1), note(67, 0, 1), note(79, 0, 0.5), note(81, 0.5, 1), note(65, 1, 2), note(69, 1, 2), note(72, 1, 2)],
+  };
+  it.each(SHIFTS)("shifted %i: flagged, from A5", (by) => {
+    const a = play(ex, by);
+    expect(a.melodyNotes.map((m) => m.note)).toContain(81 + by);
+    expect(a.changes[0].topLineFrom).toBe(81 + by);
+    expect(a.changes[0].flags).toContain("top-line-leap");
+  });
+});
