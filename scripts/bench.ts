@@ -77,9 +77,12 @@ function main() {
   for (const line of benchAnalysisEngine()) console.log(line);
 }
 
-main();
-for (const line of (await import("./bench/fuzz")).benchFuzz()) console.log(line);
-for (const line of await (await import("./bench/board")).benchProgressBoard()) console.log(line);
-for (const line of await (await import("./bench/takePage")).benchTakePage()) console.log(line);
-for (const line of await (await import("./bench/workerPool")).benchWorkerPool()) console.log(line);
+// `npm run bench` runs every section; `npm run bench -- engine board` only those named.
+const only = process.argv.slice(2);
+const wanted = (name: string) => only.length === 0 || only.includes(name);
+if (wanted("engine")) main();
+if (wanted("fuzz")) for (const line of (await import("./bench/fuzz")).benchFuzz()) console.log(line);
+if (wanted("board")) for (const line of await (await import("./bench/board")).benchProgressBoard()) console.log(line);
+if (wanted("take-page")) for (const line of await (await import("./bench/takePage")).benchTakePage()) console.log(line);
+if (wanted("pool")) for (const line of await (await import("./bench/workerPool")).benchWorkerPool()) console.log(line);
 process.exit(0);

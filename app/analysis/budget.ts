@@ -11,11 +11,13 @@ import { AnalysisError } from "./errors";
  * column of rule 7's dynamic programme, at most eight additions); a chord-flag check of a
  * finished candidate counts 8 and the rest of grading a change 100 (grade.ts). On the
  * project's 2-core machine the worst case (random eight-note chords) runs at 700 to 1,400
- * steps per millisecond, so grading any take stops within about 1 to 2 seconds. Real takes
- * spend far less: a change between four- or five-note voicings costs 100 to 150 steps, so
- * 10,000 distinct changes fit.
+ * steps per millisecond. Segmentation spends from it too (4 steps a span scored, 300 a chord
+ * named for the first time; RULES.md, rule 15's implementation), so the worst file is refused
+ * in about a second on a quiet machine, leaving room for reading it inside the 2-second aim.
+ * Real takes spend far less: a change between four- or five-note voicings costs 100 to 150
+ * steps, so several thousand distinct changes fit; a 10-minute take spends about 150,000.
  */
-export const TAKE_BUDGET_STEPS = 1_500_000;
+export const TAKE_BUDGET_STEPS = 1_000_000;
 
 /** What a single search may spend when its caller gives no budget: a hang guard for tools and tests. */
 export const CALL_BUDGET_STEPS = 1_000_000;
