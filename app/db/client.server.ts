@@ -7,6 +7,8 @@ import { env } from "~/lib/env.server";
 import * as schema from "./schema";
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
+/** The handle `db().transaction(...)` passes to its callback. */
+export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 export const MIGRATIONS_DIR = path.resolve(process.env.MIGRATIONS_DIR ?? "drizzle");
 

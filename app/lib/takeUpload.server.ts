@@ -18,12 +18,11 @@ import { takes, type Take } from "~/db/schema";
 import { targetTextForKey } from "~/lib/exerciseProgression";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
+import { MAX_FILES, MAX_TAKE_BYTES } from "~/lib/uploadLimits";
 import { createTakeRecord, exerciseForStudent, replaceTakeRecord } from "~/models/takes.server";
 
 // One module for every way a take arrives: the API route, the upload page's
-// no-JavaScript form, and "replace this take".
-export const MAX_TAKE_BYTES = 2 * 1024 * 1024; // 2,097,152 bytes
-export const MAX_FILES = 10;
+// no-JavaScript form, "replace this take", and the teacher's model take of an exercise.
 const MIDI_SIGNATURE = [0x4d, 0x54, 0x68, 0x64]; // "MThd", Standard MIDI File 1.0 header chunk
 
 export type UploadBody = {
@@ -34,9 +33,10 @@ export type UploadBody = {
 };
 export type UploadResult = { status: number; body: UploadBody; fileName: string };
 
-type Stored = { fieldName: string; fileKey: string; originalName: string; lastModified: number };
+export type Stored = { fieldName: string; fileKey: string; originalName: string; lastModified: number };
 
-class UploadRefused extends Error {
+/** A refused upload: the HTTP status and the words to show; nothing of the request is kept. */
+export class UploadRefused extends Error {
   constructor(
     readonly status: number,
     message: string,
@@ -54,24 +54,28 @@ const fieldsSchema = z.object({
 type UploadFields = z.infer<typeof fieldsSchema>;
 
 /**
- * Parses the multipart body, storing each file under storage/takes/ by a random key.
- * On any refusal every file already stored from this request is removed.
+ * Parses the multipart body, storing each file under storage/takes/ by a random key
+ * (at most `maxFiles`, each up to MAX_TAKE_BYTES). On any refusal it throws
+ * `UploadRefused` after removing every file already stored from this request.
  */
-async function parseUpload(request: Request): Promise<{ form: FormData; files: Stored[] }> {
+export async function receiveUpload(
+  request: Request,
+  { maxFiles = MAX_FILES, defaultName = "take.mid" }: { maxFiles?: number; defaultName?: string } = {},
+): Promise<{ form: FormData; files: Stored[] }> {
   const type = request.headers.get("content-type") ?? "";
   if (!type.startsWith("multipart/form-data")) {
     throw new UploadRefused(400, "Send the take as a multipart/form-data upload with a file field.");
   }
   const declared = Number(request.headers.get("content-length") ?? "0");
-  if (declared > MAX_FILES * MAX_TAKE_BYTES + 1024 * 1024) {
+  if (declared > maxFiles * MAX_TAKE_BYTES + 1024 * 1024) {
     throw new UploadRefused(413, tooBig());
   }
   const files: Stored[] = [];
   try {
-    const form = await parseFormData(request, { maxFileSize: MAX_TAKE_BYTES, maxFiles: MAX_FILES }, async (file: FileUpload) => {
+    const form = await parseFormData(request, { maxFileSize: MAX_TAKE_BYTES, maxFiles }, async (file: FileUpload) => {
       if (!file.name && file.size === 0) return null; // an empty file input
       const fileKey = newFileKey();
-      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name), lastModified: file.lastModified });
+      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name, defaultName), lastModified: file.lastModified });
       await takeStorage().put(fileKey, file);
       return fileKey;
     });
@@ -79,7 +83,7 @@ async function parseUpload(request: Request): Promise<{ form: FormData; files: S
   } catch (e) {
     await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
     if (e instanceof MaxFileSizeExceededError || e instanceof MaxTotalSizeExceededError) throw new UploadRefused(413, tooBig());
-    if (e instanceof MaxFilesExceededError) throw new UploadRefused(413, `Send at most ${MAX_FILES} files at once.`);
+    if (e instanceof MaxFilesExceededError) throw new UploadRefused(413, `Send at most ${maxFiles} files at once.`);
     if (e instanceof FormDataParseError || e instanceof MultipartParseError || isMalformedText(e)) {
       throw new UploadRefused(400, "The upload could not be read; try sending the file again.");
     }
@@ -97,10 +101,10 @@ function tooBig() {
 }
 
 /** Keeps the client's name for display only: no path, no control characters. */
-export function cleanName(name: string): string {
+export function cleanName(name: string, fallback = "take.mid"): string {
   const base = name.split(/[\\/]/).pop() ?? "";
   const clean = base.replace(/[\u0000-\u001f\u007f]/g, "").trim().slice(0, 200);
-  return clean || "take.mid";
+  return clean || fallback;
 }
 
 function parseRecordedAt(value: string | undefined, fallback: number | undefined): Date {
@@ -218,7 +222,7 @@ function refusal(e: unknown, fileName = ""): UploadResult {
 /** POST /api/takes: exactly one file in the field `file`. */
 export async function uploadOneTake(request: Request, user: SessionUser): Promise<UploadResult> {
   try {
-    const { form, files } = await parseUpload(request);
+    const { form, files } = await receiveUpload(request);
     const fields = await readFields(form, files);
     const mine = files.filter((f) => f.fieldName === "file");
     if (mine.length !== 1 || files.length !== 1) {
@@ -234,7 +238,7 @@ export async function uploadOneTake(request: Request, user: SessionUser): Promis
 /** The upload page without JavaScript: up to ten files in the field `files`, one result each. */
 export async function uploadTakesFromForm(request: Request, user: SessionUser): Promise<UploadResult[]> {
   try {
-    const { form, files } = await parseUpload(request);
+    const { form, files } = await receiveUpload(request);
     const fields = await readFields(form, files);
     if (files.length === 0) throw new UploadRefused(400, "Choose one or more MIDI files to upload.");
     const results: UploadResult[] = [];
@@ -261,7 +265,7 @@ export async function uploadTakesFromForm(request: Request, user: SessionUser): 
  */
 export async function replaceTakeFromForm(request: Request, user: SessionUser, take: Take): Promise<UploadResult> {
   try {
-    const { form, files } = await parseUpload(request);
+    const { form, files } = await receiveUpload(request);
     const fields = await readFields(form, files);
     if (files.length !== 1) {
       await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));

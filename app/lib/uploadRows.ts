@@ -2,9 +2,7 @@
 // shapes describe a row updated by the browser's own request and a row the page's
 // no-JavaScript action answered. Pure, so every answer the API gives is tested.
 import type { TakeAnalysis } from "~/analysis/types";
-
-export const MAX_UPLOAD_BYTES = 2 * 1024 * 1024; // the server's limit (2,097,152 bytes)
-export const MAX_FORM_FILES = 10; // the no-JavaScript form's limit per post
+import { MAX_TAKE_BYTES } from "./uploadLimits";
 
 export type UploadStage = "ready" | "uploading" | "analysing" | "analysed" | "failed" | "refused" | "duplicate";
 
@@ -27,7 +25,7 @@ export type UploadAnswer = { id?: string; status?: string; error?: string; analy
 /** Refuses in the browser what the server would refuse anyway, before sending a byte. */
 export function precheck(file: { name: string; size: number }): string | null {
   if (!/\.midi?$/i.test(file.name)) return "Only MIDI files (.mid or .midi) can be uploaded.";
-  if (file.size > MAX_UPLOAD_BYTES) return "This file is over 2 MiB; split it into shorter takes.";
+  if (file.size > MAX_TAKE_BYTES) return "This file is over 2 MiB; split it into shorter takes.";
   if (file.size === 0) return "This file is empty.";
   return null;
 }

@@ -62,14 +62,7 @@ export function boardRows(studioId: string, now = new Date(), chosenWeek?: strin
   const fromWeek = shiftWeek(week, -(TREND_WEEKS - 1));
   const sums = weeklySums(studioId, { fromWeek, toWeek: week });
   const last = lastTakeDates(studioId, students.map((s) => s.id));
-  const reminded = new Set(
-    db()
-      .select({ studentId: practiceReminders.studentId })
-      .from(practiceReminders)
-      .where(and(eq(practiceReminders.studioId, studioId), eq(practiceReminders.weekKey, week)))
-      .all()
-      .map((r) => r.studentId),
-  );
+  const reminded = remindedStudentIds(studioId, week, students.map((s) => s.id));
   const trendWeeks = weeksBetween(fromWeek, week);
   const rows = students.map((s) => {
     const weeks = sums.get(s.id) ?? new Map<string, WeekSums>();
@@ -128,6 +121,7 @@ export function pickStudents(studioId: string, ids: string[]): StudentRef[] {
     .all();
 }
 
+/** Which of these students were sent a practice reminder in the studio week `week`. */
 export function remindedStudentIds(studioId: string, week: string, ids: string[]): Set<string> {
   if (!ids.length) return new Set();
   return new Set(

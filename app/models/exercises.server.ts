@@ -3,12 +3,13 @@ import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
 import { db } from "~/db/client.server";
-import { exerciseAssignees, exercises, memberships, takeMetrics, takes, users, type Exercise } from "~/db/schema";
+import { exerciseAssignees, exercises, takeMetrics, takes, users, type Exercise } from "~/db/schema";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
 import { AnalysisError, readMidi } from "~/analysis";
 import { readNotesInWorker } from "~/lib/analysisPool.server";
-import { newFileKey, readTakeFile, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
-import { parseFormData, type FileUpload } from "@remix-run/form-data-parser";
+import { readTakeFile, removeTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
+import { receiveUpload, UploadRefused } from "~/lib/takeUpload.server";
+import { studioStudents } from "./progress.server";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
 // each side sees (the teacher every exercise with hand-in figures, a student theirs by key).
@@ -87,16 +88,6 @@ export function readExerciseForm(form: FormData, studioStudentIds: readonly stri
   };
 }
 
-export function activeStudentsOfStudio(studioId: string) {
-  return db()
-    .select({ id: users.id, name: users.name, email: users.email })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(and(eq(memberships.studioId, studioId), eq(memberships.role, "student"), eq(memberships.status, "active")))
-    .orderBy(users.name)
-    .all();
-}
-
 export function createExercise(studioId: string, teacherId: string, input: ExerciseInput): string {
   const { students, ...fields } = input;
   return db().transaction((tx) => {
@@ -125,7 +116,7 @@ export function assigneeIds(exerciseId: string): string[] {
 
 /** The students an exercise is set for: every active student of the studio, or the chosen ones. */
 export function studentsOfExercise(exercise: Pick<Exercise, "id" | "studioId" | "assignedTo">) {
-  const all = activeStudentsOfStudio(exercise.studioId);
+  const all = studioStudents(exercise.studioId);
   if (exercise.assignedTo === "studio") return all;
   const chosen = new Set(assigneeIds(exercise.id));
   return all.filter((s) => chosen.has(s.id));
@@ -206,39 +197,44 @@ export function listExercisesForTeacher(studioId: string) {
     .sort((a, b) => Number(a.archived) - Number(b.archived));
 }
 
-/** Drops the teacher's model take (file and columns). */
-export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFileKey">) {
-  // The row first, then the file (a file without a row is swept; a row without its file is a broken page).
+/**
+ * Points the exercise at another model file (or none), then removes the file it displaced:
+ * the row first, then the file (a file without a row is swept; a row without its file is a
+ * broken page). Of two uploads racing, each removes the file it displaced.
+ */
+async function swapModelFile(exerciseId: string, next: { fileKey: string; name: string } | null) {
   const previous = db().transaction((tx) => {
-    const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exercise.id)).get();
-    tx.update(exercises).set({ modelFileKey: null, modelOriginalName: null }).where(eq(exercises.id, exercise.id)).run();
+    const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exerciseId)).get();
+    tx.update(exercises)
+      .set({ modelFileKey: next?.fileKey ?? null, modelOriginalName: next?.name ?? null })
+      .where(eq(exercises.id, exerciseId))
+      .run();
     return row?.key ?? null;
   });
   if (previous) await removeTakeFilesAfterRows([previous]);
 }
 
-const MODEL_MAX_BYTES = 2 * 1024 * 1024;
+/** Drops the teacher's model take (file and columns). */
+export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFileKey">) {
+  await swapModelFile(exercise.id, null);
+}
 
 /**
  * Stores the teacher's model take from a multipart upload (field `file`), replacing the one
  * before. Returns an error message for the teacher, or null when it was saved.
  */
 export async function storeModelTake(request: Request, exercise: Pick<Exercise, "id" | "modelFileKey">): Promise<string | null> {
-  let stored: { fileKey: string; name: string } | null = null;
+  let files;
   try {
-    await parseFormData(request, { maxFileSize: MODEL_MAX_BYTES, maxFiles: 1 }, async (file: FileUpload) => {
-      if (file.fieldName !== "file" || (!file.name && file.size === 0)) return null;
-      const fileKey = newFileKey();
-      await takeStorage().put(fileKey, file);
-      stored = { fileKey, name: (file.name.split(/[\\/]/).pop() ?? "model.mid").slice(0, 200) || "model.mid" };
-      return fileKey;
-    });
-  } catch {
-    if (stored) await removeTakeFile((stored as { fileKey: string }).fileKey);
-    return "The file could not be read: choose one MIDI file under 2 MiB.";
+    ({ files } = await receiveUpload(request, { maxFiles: 1, defaultName: "model.mid" }));
+  } catch (e) {
+    if (e instanceof UploadRefused) return "The file could not be read: choose one MIDI file under 2 MiB.";
+    throw e;
   }
-  const saved = stored as { fileKey: string; name: string } | null;
-  if (!saved) return "Choose a MIDI file to attach.";
+  const [file, ...others] = files.filter((f) => f.fieldName === "file");
+  await Promise.all([...files.filter((f) => f.fieldName !== "file"), ...others].map((f) => removeTakeFile(f.fileKey)));
+  if (!file) return "Choose a MIDI file to attach.";
+  const saved = { fileKey: file.fileKey, name: file.originalName };
   try {
     const bytes = await readTakeFile(saved.fileKey);
     const checked = bytes ? await readNotesInWorker(bytes) : ({ ok: false, error: new AnalysisError("no-notes").message } as const);
@@ -246,13 +242,7 @@ export async function storeModelTake(request: Request, exercise: Pick<Exercise, 
       await removeTakeFile(saved.fileKey);
       return `This is not a MIDI take Nearnote can play: ${checked.error}`;
     }
-    // Swap in one statement-pair: of two uploads racing, each removes the file it displaced.
-    const previous = db().transaction((tx) => {
-      const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exercise.id)).get();
-      tx.update(exercises).set({ modelFileKey: saved.fileKey, modelOriginalName: saved.name }).where(eq(exercises.id, exercise.id)).run();
-      return row?.key ?? null;
-    });
-    if (previous) await removeTakeFilesAfterRows([previous]);
+    await swapModelFile(exercise.id, saved);
     return null;
   } catch (e) {
     await removeTakeFile(saved.fileKey).catch(() => {});

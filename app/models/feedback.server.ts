@@ -137,12 +137,22 @@ export function unmarkIntended(takeId: string, markId: string) {
   rescore(takeId);
 }
 
-export function reviewTake(takeId: string, teacherId: string, at = new Date()) {
-  db().insert(takeReviews).values({ takeId, reviewedById: teacherId, reviewedAt: at }).onConflictDoNothing().run();
-}
+/** The two review actions a teacher can post, from the review queue or the take page. */
+export const reviewIntentSchema = z.enum(["review", "unreview"]);
+export type ReviewIntent = z.infer<typeof reviewIntentSchema>;
 
-export function unreviewTake(takeId: string) {
+/**
+ * Marks the take reviewed by this teacher ("review") or puts it back in the review queue
+ * ("unreview"); the caller has checked that the teacher teaches the take's studio.
+ * Returns the words for the flash message.
+ */
+export function applyReviewIntent(intent: ReviewIntent, takeId: string, teacherId: string, at = new Date()): string {
+  if (intent === "review") {
+    db().insert(takeReviews).values({ takeId, reviewedById: teacherId, reviewedAt: at }).onConflictDoNothing().run();
+    return "Marked as reviewed.";
+  }
   db().delete(takeReviews).where(eq(takeReviews.takeId, takeId)).run();
+  return "Back in the review queue.";
 }
 
 export function reviewOf(takeId: string) {

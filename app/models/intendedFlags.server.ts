@@ -1,10 +1,8 @@
 import { eq } from "drizzle-orm";
 import type { TakeAnalysis } from "~/analysis/types";
-import type { Db } from "~/db/client.server";
+import type { Db, Tx } from "~/db/client.server";
 import { intendedFlags, takeMetrics } from "~/db/schema";
 import { scoreWithIntended, type IntendedMark } from "~/lib/intendedScore";
-
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 export function intendedMarks(database: Db | Tx, takeId: string): IntendedMark[] {
   return database

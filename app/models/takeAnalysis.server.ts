@@ -1,12 +1,10 @@
 import { eq } from "drizzle-orm";
 import type { TakeAnalysis } from "~/analysis";
-import type { Db } from "~/db/client.server";
+import type { Db, Tx } from "~/db/client.server";
 import { exercises, takeMetrics } from "~/db/schema";
 import { analyseTake, type AnalysisOutcome } from "~/lib/analysisWorker/task";
 import { targetTextForKey } from "~/lib/exerciseProgression";
 import { applyIntendedFlags } from "./intendedFlags.server";
-
-type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
 export type { AnalysisOutcome };
 

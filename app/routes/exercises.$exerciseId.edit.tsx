@@ -5,7 +5,8 @@ import { Card } from "~/components/Card";
 import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
-import { activeStudentsOfStudio, assigneeIds, exerciseFields, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
+import { assigneeIds, exerciseFields, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
+import { studioStudents } from "~/models/progress.server";
 import { reanalyseTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.exercise.title} · Nearnote` : "Edit exercise · Nearnote" }];
@@ -14,13 +15,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { exercise } = await requireExerciseEdit(request, params.exerciseId);
   return {
     exercise: { ...exerciseFields(exercise), students: assigneeIds(exercise.id) },
-    students: activeStudentsOfStudio(exercise.studioId).map((s) => ({ id: s.id, name: s.name })),
+    students: studioStudents(exercise.studioId).map((s) => ({ id: s.id, name: s.name })),
   };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { exercise } = await requireExerciseEdit(request, params.exerciseId);
-  const students = activeStudentsOfStudio(exercise.studioId).map((s) => s.id);
+  const students = studioStudents(exercise.studioId).map((s) => s.id);
   const read = readExerciseForm(await request.formData(), students);
   if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
   updateExercise(exercise.id, read.input);

@@ -5,18 +5,19 @@ import { Card } from "~/components/Card";
 import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/lib/flash.server";
-import { activeStudentsOfStudio, createExercise, readExerciseForm } from "~/models/exercises.server";
+import { createExercise, readExerciseForm } from "~/models/exercises.server";
+import { studioStudents } from "~/models/progress.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "New exercise · Nearnote" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireTeacher(request);
-  return { students: activeStudentsOfStudio(user.active.studioId).map((s) => ({ id: s.id, name: s.name })) };
+  return { students: studioStudents(user.active.studioId).map((s) => ({ id: s.id, name: s.name })) };
 }
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireTeacher(request);
-  const students = activeStudentsOfStudio(user.active.studioId).map((s) => s.id);
+  const students = studioStudents(user.active.studioId).map((s) => s.id);
   const read = readExerciseForm(await request.formData(), students);
   if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
   const id = createExercise(user.active.studioId, user.id, read.input);

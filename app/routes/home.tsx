@@ -1,4 +1,3 @@
-import { eq } from "drizzle-orm";
 import type { Route } from "./+types/home";
 import { requireUser } from "~/auth/access.server";
 import { Card } from "~/components/Card";
@@ -6,20 +5,12 @@ import { StudentHome } from "~/components/home/StudentHome";
 import { ButtonLink } from "~/components/Button";
 import { UnreadFeedback } from "~/components/feedback/UnreadFeedback";
 import { PageHeader } from "~/components/PageHeader";
-import { db } from "~/db/client.server";
-import { studios } from "~/db/schema";
-import { localDate } from "~/lib/weeks";
 import { reviewQueueCount, unreadFeedback } from "~/models/feedback.server";
+import { studioTimeZone } from "~/models/progress.server";
+import { todayIn } from "~/models/progressQuery.server";
 import { listExercisesForStudent, listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Home · Nearnote" }];
-
-/** Today's date (YYYY-MM-DD) where the studio is, so "due today" means the studio's today. */
-function studioToday(studioId: string): string {
-  const timeZone = db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()?.tz ?? "UTC";
-  const d = localDate(new Date(), timeZone);
-  return `${d.year}-${String(d.month).padStart(2, "0")}-${String(d.day).padStart(2, "0")}`;
-}
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -30,7 +21,8 @@ export async function loader({ request }: Route.LoaderArgs) {
           exercises: listExercisesForStudent(user.id, active.studioId),
           takes: listTakesForStudent(user.id, { studioId: active.studioId, limit: 50 }),
           weeks: weeklyFiguresForStudent(user.id, active.studioId),
-          today: studioToday(active.studioId),
+          // The studio's today (YYYY-MM-DD), so "due today" means the same day for everyone in it.
+          today: todayIn(studioTimeZone(active.studioId)),
           unread: unreadFeedback(user.id, active.studioId),
         }
       : null;

@@ -9,7 +9,7 @@ import { FLAG_TITLES } from "~/lib/explainFlags";
 import { flashHeader } from "~/lib/flash.server";
 import { pretty, timeLabel } from "~/lib/noteText";
 import type { FlagName } from "~/analysis/types";
-import { reviewQueue, reviewQueueCount, reviewTake, unreviewTake } from "~/models/feedback.server";
+import { applyReviewIntent, reviewIntentSchema, reviewQueue, reviewQueueCount } from "~/models/feedback.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Review · Nearnote" }];
 
@@ -22,20 +22,16 @@ export async function loader({ request }: Route.LoaderArgs) {
 export async function action({ request }: Route.ActionArgs) {
   await requireTeacher(request);
   const form = await request.formData();
-  const intent = String(form.get("intent") ?? "");
+  const intent = reviewIntentSchema.safeParse(form.get("intent"));
   const takeId = String(form.get("takeId") ?? "");
-  if (!takeId || (intent !== "review" && intent !== "unreview")) return data({ error: "Choose a take." }, { status: 400 });
+  if (!takeId || !intent.success) return data({ error: "Choose a take." }, { status: 400 });
   const { user, take } = await requireTakeAccess(request, takeId);
   if (!isTeacherOfTake(user, take)) deny("page", "This take is not from your studio.");
-  if (intent === "review") {
-    reviewTake(take.id, user.id);
-    // The undo button stays on the page until the next action.
-    return redirect(`/review?undo=${take.id}`, {
-      headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message: "Marked as reviewed." }) },
-    });
-  }
-  unreviewTake(take.id);
-  return redirect("/review", { headers: { "Set-Cookie": await flashHeader(request, { tone: "info", message: "Back in the queue." }) } });
+  const message = applyReviewIntent(intent.data, take.id, user.id);
+  // After "review" the undo button stays on the page until the next action.
+  return redirect(intent.data === "review" ? `/review?undo=${take.id}` : "/review", {
+    headers: { "Set-Cookie": await flashHeader(request, { tone: intent.data === "review" ? "success" : "info", message }) },
+  });
 }
 
 function flagList(flags: Record<string, number> | null) {

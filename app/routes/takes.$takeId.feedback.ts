@@ -9,13 +9,12 @@ import { flashHeader } from "~/lib/flash.server";
 import { sendFeedbackNotice } from "~/models/digest.server";
 import {
   addComment,
+  applyReviewIntent,
   commentSchema,
   FeedbackRefused,
   intendSchema,
   markIntended,
-  reviewTake,
   unmarkIntended,
-  unreviewTake,
 } from "~/models/feedback.server";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -66,15 +65,10 @@ export async function action({ request, params }: Route.ActionArgs) {
         unmarkIntended(take.id, String(form.get("markId") ?? ""));
         return done("The flag counts again.");
       }
-      case "review": {
-        teacherOnly();
-        reviewTake(take.id, user.id);
-        return done("Marked as reviewed.");
-      }
+      case "review":
       case "unreview": {
         teacherOnly();
-        unreviewTake(take.id);
-        return done("Back in the review queue.");
+        return done(applyReviewIntent(intent, take.id, user.id));
       }
       default:
         return fail("Unknown action.");

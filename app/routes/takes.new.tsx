@@ -10,7 +10,8 @@ import { RecordPanel } from "~/components/record/RecordPanel";
 import { ExerciseKeyFields } from "~/components/take/ExerciseKeyFields";
 import { UploadRows } from "~/components/take/UploadRows";
 import { uploadTakesFromForm } from "~/lib/takeUpload.server";
-import { isFinished, MAX_FORM_FILES, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
+import { MAX_FILES } from "~/lib/uploadLimits";
+import { isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
 import { sendTake } from "~/lib/uploadTake.client";
 import { listExercisesForStudent } from "~/models/takes.server";
 
@@ -149,7 +150,7 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                 ))}
               </svg>
               <span className="font-semibold">Choose MIDI files, or drop them here</span>
-              <span className="text-sm text-ink-soft">.mid or .midi, up to 2 MiB each; up to {MAX_FORM_FILES} at a time without JavaScript</span>
+              <span className="text-sm text-ink-soft">.mid or .midi, up to 2 MiB each; up to {MAX_FILES} at a time without JavaScript</span>
               <span className={`${hydrated ? "" : "hidden"} mt-2 rounded-md border border-line bg-card px-3 py-2 text-sm font-semibold`} aria-hidden="true">
                 Choose files
               </span>
