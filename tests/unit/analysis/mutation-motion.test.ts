@@ -33,7 +33,7 @@ function literalMotion(a: readonly number[], b: readonly number[]): number {
   return best;
 }
 
-const voicing = (max: number) => fc.uniqueArray(fc.integer({ min: 40, max: 90 }), { minLength: 1, maxLength: max });
+const voicing = (max: number, min = 40, top = 90) => fc.uniqueArray(fc.integer({ min, max: top }), { minLength: 1, maxLength: max });
 
 describe("motion against rule 7 read literally (fast-check)", () => {
   it("equals the cheapest non-crossing joins, for every pair of sizes from 1 to 6", () => {
@@ -62,6 +62,37 @@ describe("motion against rule 7 read literally (fast-check)", () => {
       }),
       { numRuns: 400, seed: 11 },
     );
+  });
+
+  it("also among neighbouring keys, where many joins cost the same", () => {
+    fc.assert(
+      fc.property(voicing(5, 58, 66), voicing(5, 58, 66), (a, b) => {
+        expect(motion(a, b)).toBe(literalMotion(a, b));
+        const pairs = voiceLeadingPairs(a, b);
+        expect(pairs.reduce((s, [x, y]) => s + Math.abs(x - y), 0)).toBe(motion(a, b));
+        expect(pairs).toHaveLength(Math.max(a.length, b.length));
+        expect(new Set(pairs.map((p) => p[0]))).toEqual(new Set(a));
+        expect(new Set(pairs.map((p) => p[1]))).toEqual(new Set(b));
+      }),
+      { numRuns: 400, seed: 13 },
+    );
+  });
+
+  it("one note splitting into its neighbour and itself, and the reverse merge", () => {
+    // Worked by hand from RULES.md rule 7: C4 → C4 C#4 is C4 staying and C4 going up 1.
+    expect(voiceLeadingPairs([60], [60, 61])).toEqual([
+      [60, 60],
+      [60, 61],
+    ]);
+    expect(voiceLeadingPairs([60, 61], [60])).toEqual([
+      [60, 60],
+      [61, 60],
+    ]);
+    expect(voiceLeadingPairs([60], [57, 60, 64])).toEqual([
+      [60, 57],
+      [60, 60],
+      [60, 64],
+    ]);
   });
 });
 
