@@ -294,3 +294,45 @@ describe("change flags at their exact thresholds", () => {
     expect(isTopLineLeap([60, 64, 67], [])).toBe(false);
   });
 });
+
+describe("rules 1–3: which notes pair up", () => {
+  // Worked by hand from RULES.md rules 2 and 3.
+  const graces = (notes: NoteEvent[]) => findStrikes(notes).flatMap((s) => s.graces.map((g) => [g.note.midi, g.target.midi]));
+
+  it("a resolution held no longer than the grace note is no resolution", () => {
+    expect(graces([note(63, 0, 0.09), note(64, 0.09, 0.18)])).toEqual([]);
+    expect(graces([note(63, 0, 0.09), note(64, 0.09, 0.19)])).toEqual([[63, 64]]);
+  });
+
+  it("of two possible resolutions, the one beginning nearest the release is taken", () => {
+    // D#4 released at 0.1 s; E4 begins 50 ms later, F4 right at the release.
+    expect(graces([note(63, 0, 0.1), note(64, 0.15, 1), note(65, 0.1, 1)])).toEqual([[63, 65]]);
+    expect(graces([note(63, 0, 0.1), note(64, 0.1, 1), note(65, 0.15, 1)])).toEqual([[63, 64]]);
+  });
+
+  it("a resolution struck before its grace note still takes it into its strike", () => {
+    // E4 from 0.02 s, D#4 from 0.05 to 0.1 s: released 80 ms after E4 began (rule 2's 100 ms).
+    const strikes = findStrikes([note(64, 0.02, 1), note(63, 0.05, 0.1), note(60, 0.02, 1)]);
+    expect(strikes).toHaveLength(1);
+    expect(strikes[0].notes.map((n) => n.midi).sort((a, b) => a - b)).toEqual([60, 64]);
+    expect(strikes[0].graces.map((g) => [g.note.midi, g.target.midi])).toEqual([[63, 64]]);
+  });
+
+  it("a bass approached by a grace note is two keys struck, not a lone bass (rule 3)", () => {
+    // B2 → C3 grace, then C4 E4 G4 150 ms after: the C3 strike holds two pitches and stays apart.
+    const strikes = findStrikes([note(47, 0, 0.05), note(48, 0.05, 1), note(60, 0.15, 1), note(64, 0.15, 1), note(67, 0.15, 1)]);
+    expect(strikes.map((s) => s.notes.map((n) => n.midi).sort((a, b) => a - b))).toEqual([[48], [60, 64, 67]]);
+    expect(strikes[0].graces).toHaveLength(1);
+  });
+
+  it("two lone notes never pair up, and a lone note on the chord's own bass key does not merge", () => {
+    expect(shape([note(48, 2, 3), note(60, 2.1, 3)])).toEqual([
+      [2, [48]],
+      [2.1, [60]],
+    ]);
+    expect(shape([note(48, 2, 2.05), note(48, 2.1, 3), note(52, 2.1, 3), note(55, 2.1, 3)])).toEqual([
+      [2, [48]],
+      [2.1, [48, 52, 55]],
+    ]);
+  });
+});
