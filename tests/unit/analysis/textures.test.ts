@@ -40,6 +40,7 @@ describe.each(TEXTURE_TAKES.map((t) => [t.file, t] as const))("%s", (file, t) =>
     const kinds = new Set(a.chords.flatMap((c) => c.nonChordTones.map((n) => n.kind)));
     for (const k of t.expect.nonChordTones ?? []) expect(kinds, k).toContain(k);
     for (const tech of t.expect.notTechniques ?? []) expect(a.summary.techniques[tech as keyof typeof a.summary.techniques], tech).toBe(0);
+    for (const tech of t.expect.techniques ?? []) expect(a.summary.techniques[tech as keyof typeof a.summary.techniques], tech).toBeGreaterThan(0);
     if (t.expect.accuracy !== undefined) expect(a.summary.accuracy).toBe(t.expect.accuracy);
   });
 
