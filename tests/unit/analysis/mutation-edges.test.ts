@@ -14,7 +14,7 @@ import { parseKey } from "../../../app/analysis/pitch";
 import { parseProgression, type Triad } from "../../../app/analysis/progression";
 import { score, scoreParts, SCORE_WEIGHTS } from "../../../app/analysis/score";
 import { findGraces, findStrikes } from "../../../app/analysis/strikes";
-import { beatAt, bpmAt, tempoMap } from "../../../app/analysis/tempo";
+import { beatAt, bpmAt, commonestInterval, tempoMap, tempoSteadiness } from "../../../app/analysis/tempo";
 import type { NoteEvent, TempoPoint } from "../../../app/analysis/types";
 import { motion, voiceLeadingPairs } from "../../../app/analysis/voiceLeading";
 
@@ -334,5 +334,33 @@ describe("rules 1–3: which notes pair up", () => {
       [2, [48]],
       [2.1, [48, 52, 55]],
     ]);
+  });
+});
+
+describe("steady time worked through by hand (rule 22)", () => {
+  it("the commonest interval is the median of the largest cluster within 5% + 30 ms", () => {
+    // By hand: around 0.5 s the window 0.445–0.555 holds 0.5, 0.5, 0.52 (three); median 0.5.
+    expect(commonestInterval([0.5, 0.5, 0.52, 1.0, 1.5])).toBe(0.5);
+    // Intervals shorter than half the 300 bpm beat (0.1 s) are not beats.
+    expect(commonestInterval([0.05, 0.05, 0.05, 0.5])).toBe(0.5);
+    expect(commonestInterval([0.05])).toBeNull();
+    // An even cluster: the mean of its middle two.
+    expect(commonestInterval([0.5, 0.52])).toBeCloseTo(0.51, 12);
+  });
+
+  it("one late strike on a 120 bpm map: spread 0.68, steadiness 0.32", () => {
+    // Worked by hand from RULES.md rule 22 as tempo.ts states it (its tuning constants are our
+    // own): onsets 0, 0.5, 1, 1.5, 2.1 s; four of five lie on the half-beat grid (80%), so the
+    // map's beat (0.5 s) is used, and since 120 ms of tolerance is under half of a 250 ms half
+    // beat, it is used whatever the strikes' own beat. Only the 0.6 s interval is off the grid:
+    // 0.1 s from 0.5, less 20 ms unnoticed = 0.08. Chance per interval: (0.125 − 0.02)² / 0.25 =
+    // 0.0441, four intervals 0.1764; spread = 0.08 / (2/3 × 0.1764) = 0.680.
+    expect(tempoSteadiness([0, 0.5, 1, 1.5, 2.1], [{ time: 0, bpm: 120 }])).toEqual({
+      medianGapSec: 0.5,
+      spread: 0.68,
+      steadiness: 0.32,
+      beatSec: 0.5,
+      beatFrom: "tempo-map",
+    });
   });
 });
