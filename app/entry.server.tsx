@@ -6,7 +6,7 @@ import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { NonceContext } from "~/lib/nonce";
-import { nonceContext } from "~/lib/securityHeaders.server";
+import { nonceRouterContext } from "~/lib/securityHeaders.server";
 import { startBackgroundWork } from "~/lib/startup.server";
 
 export const streamTimeout = 5_000;
@@ -20,7 +20,7 @@ export default function handleRequest(
   routerContext: EntryContext,
   loadContext: RouterContextProvider,
 ) {
-  const nonce = loadContext.get(nonceContext) || undefined;
+  const nonce = loadContext.get(nonceRouterContext) || undefined;
   if (request.method.toUpperCase() === "HEAD") {
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }

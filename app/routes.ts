@@ -5,7 +5,7 @@ export default [
   route("home", "routes/home.tsx"),
   route("logout", "routes/logout.tsx"),
   route("healthz", "routes/healthz.ts"),
-  // Accounts: sign-in, invitations, settings, privacy (issue 4)
+  // Accounts: sign-in, invitations, settings, privacy
   route("login", "routes/login.tsx"),
   route("signup", "routes/signup.tsx"),
   route("verify", "routes/verify.tsx"),
@@ -23,17 +23,17 @@ export default [
   route("api/takes", "routes/api.takes.ts"),
   route("api/takes/:takeId", "routes/api.takes.$takeId.ts"),
   route("api/takes/:takeId/file", "routes/api.takes.$takeId.file.ts"),
-  // Takes: upload and the take page (issue 5)
+  // Takes: upload and the take page
   route("takes/new", "routes/takes.new.tsx"),
   route("takes/:takeId", "routes/takes.$takeId.tsx"),
-  // Progress board: compare students, reports, CSV export (issue 7)
+  // Progress board: compare students, reports, CSV export
   route("board", "routes/board.tsx"),
   route("students/:studentId", "routes/students.$studentId.tsx"),
   route("reports/:studentId", "routes/reports.$studentId.tsx"),
   route("studio/settings", "routes/studio.settings.tsx"),
   route("api/progress", "routes/api.progress.ts"),
   route("api/export/progress.csv", "routes/api.export.progress[.]csv.ts"),
-  // Exercises, review queue and feedback (issue 6)
+  // Exercises, review queue and feedback
   route("exercises", "routes/exercises.tsx"),
   route("exercises/new", "routes/exercises.new.tsx"),
   route("exercises/:exerciseId", "routes/exercises.$exerciseId.tsx"),

@@ -2,7 +2,7 @@
 // start the local mail catcher and serve on http://127.0.0.1:3000.
 import { count } from "drizzle-orm";
 import path from "node:path";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { users } from "~/db/schema";
 import { startMailCatcher } from "~/lib/mailCatcher.server";
 import { buildIfNeeded, loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
@@ -19,7 +19,7 @@ buildIfNeeded();
 const empty = db().select({ n: count() }).from(users).get()!.n === 0;
 if (empty) await seed();
 else console.log("Using the existing database (not seeding again).");
-closeDatabaseForTests();
+closeDatabase();
 
 const extraEnv: Record<string, string> = { HOST: config.host, PORT: String(config.port) };
 const mailDir = path.join(config.storageDir, "mail");

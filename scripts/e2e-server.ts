@@ -3,7 +3,7 @@
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { startMailCatcher } from "~/lib/mailCatcher.server";
 import { seedDemoStudio } from "~/models/demoStudio.server";
 import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
@@ -20,7 +20,7 @@ const config = loadEnvOrExit();
 
 const { studioId } = await seedDemoStudio(db());
 await seedDemoTakes(db(), studioId);
-closeDatabaseForTests();
+closeDatabase();
 
 const extraEnv: Record<string, string> = { HOST: config.host, PORT: String(config.port), NODE_ENV: "production" };
 const mailDir = path.join(storageDir, "mail");

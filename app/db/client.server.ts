@@ -33,8 +33,12 @@ export function db(): Db {
   return instance;
 }
 
-/** Tests swap in a freshly migrated file. */
-export function closeDatabaseForTests() {
+/**
+ * Closes the process's connection; the next `db()` opens it again. Commands close it
+ * before handing the database to the server they start, and tests before swapping in a
+ * freshly migrated file.
+ */
+export function closeDatabase() {
   instance?.$client.close();
   instance = undefined;
 }

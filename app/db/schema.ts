@@ -310,7 +310,7 @@ export const accountMailSends = sqliteTable(
 
 export type Invitation = typeof invitations.$inferSelect;
 
-// --- Progress board: saved reports and practice reminders (issue 7) -----------
+// --- Progress board: saved reports and practice reminders ---------------------
 
 // A printable report the teacher wrote for one student and period, so it can be reopened.
 export const progressReports = sqliteTable(
@@ -345,14 +345,15 @@ export const practiceReminders = sqliteTable(
       .references(() => users.id, { onDelete: "cascade" }),
     weekKey: text("week_key").notNull(),
     sentById: text("sent_by_id").references(() => users.id, { onDelete: "set null" }),
-    sentAt: createdAt(),
+    // Written just before the reminder mail is sent.
+    createdAt: createdAt(),
   },
   (t) => [uniqueIndex("practice_reminders_week_unique").on(t.studioId, t.studentId, t.weekKey)],
 );
 
 export type ProgressReport = typeof progressReports.$inferSelect;
 
-// --- Exercises and feedback: comments, reads, intended flags, reviews, sent mail (issue 6) ---
+// --- Exercises and feedback: comments, reads, intended flags, reviews, sent mail ---
 
 // A teacher's or student's comment on a take: on the whole take (changeIdx null) or pinned to one
 // chord change; a reply names its parent (replies are one level deep).

@@ -38,12 +38,13 @@ export function applySecurityHeaders(headers: Headers, nonce: string | null) {
   headers.set("Content-Security-Policy", contentSecurityPolicy(nonce));
 }
 
-export const nonceContext = createContext<string>("");
+/** The router-context key under which the middleware leaves this request's script nonce. */
+export const nonceRouterContext = createContext<string>("");
 
 /** Root middleware: a fresh nonce per request, and the headers on whatever comes back. */
 export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ context }, next) => {
   const nonce = randomBytes(16).toString("base64");
-  context.set(nonceContext, nonce);
+  context.set(nonceRouterContext, nonce);
   let response = await next();
   try {
     applySecurityHeaders(response.headers, nonce);

@@ -19,7 +19,8 @@ import { targetTextForKey } from "~/lib/exerciseProgression";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
 import { MAX_FILES, MAX_TAKE_BYTES } from "~/lib/uploadLimits";
-import { createTakeRecord, exerciseForStudent, replaceTakeRecord } from "~/models/takes.server";
+import { exerciseForStudent } from "~/models/exercises.server";
+import { createTakeRecord, replaceTakeRecord } from "~/models/takes.server";
 
 // One module for every way a take arrives: the API route, the upload page's
 // no-JavaScript form, "replace this take", and the teacher's model take of an exercise.

@@ -1,14 +1,10 @@
 import type { ExerciseFormValues } from "~/components/exercises/ExerciseForm";
-import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull, or } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics, takes, users, type Exercise } from "~/db/schema";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
-import { AnalysisError, readMidi } from "~/analysis";
-import { readNotesInWorker } from "~/lib/analysisPool.server";
-import { readTakeFile, removeTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
-import { receiveUpload, UploadRefused } from "~/lib/takeUpload.server";
 import { studioStudents } from "./progress.server";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
@@ -197,67 +193,44 @@ export function listExercisesForTeacher(studioId: string) {
     .sort((a, b) => Number(a.archived) - Number(b.archived));
 }
 
-/**
- * Points the exercise at another model file (or none), then removes the file it displaced:
- * the row first, then the file (a file without a row is swept; a row without its file is a
- * broken page). Of two uploads racing, each removes the file it displaced.
- */
-async function swapModelFile(exerciseId: string, next: { fileKey: string; name: string } | null) {
-  const previous = db().transaction((tx) => {
-    const row = tx.select({ key: exercises.modelFileKey }).from(exercises).where(eq(exercises.id, exerciseId)).get();
-    tx.update(exercises)
-      .set({ modelFileKey: next?.fileKey ?? null, modelOriginalName: next?.name ?? null })
-      .where(eq(exercises.id, exerciseId))
-      .run();
-    return row?.key ?? null;
-  });
-  if (previous) await removeTakeFilesAfterRows([previous]);
+export type ExerciseOption = {
+  id: string;
+  title: string;
+  keys: string[];
+  dueDate: string | null;
+  progression: string;
+  tempo: number | null;
+  focusTechniques: string[];
+};
+
+/** Exercises of the studio that are set for the whole studio or for this student, not archived. */
+export function listExercisesForStudent(studentId: string, studioId: string): ExerciseOption[] {
+  const assigned = db()
+    .select({ id: exerciseAssignees.exerciseId })
+    .from(exerciseAssignees)
+    .where(eq(exerciseAssignees.userId, studentId));
+  return db()
+    .select({
+      id: exercises.id,
+      title: exercises.title,
+      keys: exercises.keys,
+      dueDate: exercises.dueDate,
+      progression: exercises.progression,
+      tempo: exercises.tempo,
+      focusTechniques: exercises.focusTechniques,
+    })
+    .from(exercises)
+    .where(
+      and(
+        eq(exercises.studioId, studioId),
+        isNull(exercises.archivedAt),
+        or(eq(exercises.assignedTo, "studio"), inArray(exercises.id, assigned)),
+      ),
+    )
+    .orderBy(exercises.dueDate)
+    .all();
 }
 
-/** Drops the teacher's model take (file and columns). */
-export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFileKey">) {
-  await swapModelFile(exercise.id, null);
-}
-
-/**
- * Stores the teacher's model take from a multipart upload (field `file`), replacing the one
- * before. Returns an error message for the teacher, or null when it was saved.
- */
-export async function storeModelTake(request: Request, exercise: Pick<Exercise, "id" | "modelFileKey">): Promise<string | null> {
-  let files;
-  try {
-    ({ files } = await receiveUpload(request, { maxFiles: 1, defaultName: "model.mid" }));
-  } catch (e) {
-    if (e instanceof UploadRefused) return "The file could not be read: choose one MIDI file under 2 MiB.";
-    throw e;
-  }
-  const [file, ...others] = files.filter((f) => f.fieldName === "file");
-  await Promise.all([...files.filter((f) => f.fieldName !== "file"), ...others].map((f) => removeTakeFile(f.fileKey)));
-  if (!file) return "Choose a MIDI file to attach.";
-  const saved = { fileKey: file.fileKey, name: file.originalName };
-  try {
-    const bytes = await readTakeFile(saved.fileKey);
-    const checked = bytes ? await readNotesInWorker(bytes) : ({ ok: false, error: new AnalysisError("no-notes").message } as const);
-    if (!checked.ok) {
-      await removeTakeFile(saved.fileKey);
-      return `This is not a MIDI take Nearnote can play: ${checked.error}`;
-    }
-    await swapModelFile(exercise.id, saved);
-    return null;
-  } catch (e) {
-    await removeTakeFile(saved.fileKey).catch(() => {});
-    throw e;
-  }
-}
-
-/** The model take's notes for playing in the browser, or null when there is none. */
-export async function modelTakeNotes(exercise: Pick<Exercise, "modelFileKey" | "modelOriginalName">) {
-  if (!exercise.modelFileKey) return null;
-  const bytes = await readTakeFile(exercise.modelFileKey);
-  if (!bytes) return null;
-  try {
-    return { name: exercise.modelOriginalName ?? "model.mid", notes: readMidi(bytes).notes };
-  } catch {
-    return null;
-  }
+export function exerciseForStudent(studentId: string, studioId: string, exerciseId: string) {
+  return listExercisesForStudent(studentId, studioId).find((e) => e.id === exerciseId) ?? null;
 }

@@ -132,7 +132,7 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
             .where(eq(comments.authorId, userId))
             .all(),
           practiceReminders: db()
-            .select({ weekKey: practiceReminders.weekKey, sentAt: practiceReminders.sentAt })
+            .select({ weekKey: practiceReminders.weekKey, sentAt: practiceReminders.createdAt })
             .from(practiceReminders)
             .where(eq(practiceReminders.studentId, userId))
             .all(),

@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, isNull, lt, or, sql } from "drizzle-orm";
 import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
 import { db } from "~/db/client.server";
-import { exerciseAssignees, exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
+import { exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
 import { weekKey } from "~/lib/weeks";
@@ -183,48 +183,6 @@ export function weeklyFiguresForStudent(studentId: string, studioId: string) {
       smoothness: w.totalMotion === 0 ? 1 : w.bestTotalMotion / w.totalMotion,
       score: w.score === null ? null : Math.round(w.score * 10) / 10,
     }));
-}
-
-export type ExerciseOption = {
-  id: string;
-  title: string;
-  keys: string[];
-  dueDate: string | null;
-  progression: string;
-  tempo: number | null;
-  focusTechniques: string[];
-};
-
-/** Exercises of the studio that are set for the whole studio or for this student, not archived. */
-export function listExercisesForStudent(studentId: string, studioId: string): ExerciseOption[] {
-  const assigned = db()
-    .select({ id: exerciseAssignees.exerciseId })
-    .from(exerciseAssignees)
-    .where(eq(exerciseAssignees.userId, studentId));
-  return db()
-    .select({
-      id: exercises.id,
-      title: exercises.title,
-      keys: exercises.keys,
-      dueDate: exercises.dueDate,
-      progression: exercises.progression,
-      tempo: exercises.tempo,
-      focusTechniques: exercises.focusTechniques,
-    })
-    .from(exercises)
-    .where(
-      and(
-        eq(exercises.studioId, studioId),
-        isNull(exercises.archivedAt),
-        or(eq(exercises.assignedTo, "studio"), inArray(exercises.id, assigned)),
-      ),
-    )
-    .orderBy(exercises.dueDate)
-    .all();
-}
-
-export function exerciseForStudent(studentId: string, studioId: string, exerciseId: string) {
-  return listExercisesForStudent(studentId, studioId).find((e) => e.id === exerciseId) ?? null;
 }
 
 /** Removes the take and its rows (by cascade) first, then its file. */

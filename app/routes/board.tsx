@@ -6,7 +6,7 @@ import { BoardTable } from "~/components/board/BoardTable";
 import { ChartPanel } from "~/components/board/ChartPanel";
 import { ReminderCard } from "~/components/board/ReminderCard";
 import { WeekPicker } from "~/components/board/WeekPicker";
-import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { ButtonLink } from "~/components/Button";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";

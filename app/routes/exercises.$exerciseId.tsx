@@ -18,14 +18,12 @@ import { pretty } from "~/lib/noteText";
 import {
   exerciseFields,
   isDone,
-  modelTakeNotes,
   progressByKey,
-  removeModelTake,
   setArchived,
-  storeModelTake,
   studentsOfExercise,
   takesOfExercise,
 } from "~/models/exercises.server";
+import { modelTakeNotes, removeModelTake, storeModelTake } from "~/models/modelTakes.server";
 import { db } from "~/db/client.server";
 import { exercises } from "~/db/schema";
 import { eq } from "drizzle-orm";
@@ -156,7 +154,7 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
             </div>
           ) : null}
         </Card>
-        {/* Record straight from a MIDI keyboard, graded live (issue 9); the table above refreshes after an upload. */}
+        {/* Record straight from a MIDI keyboard, graded live; the table above refreshes after an upload. */}
         {!exercise.archived ? (
           <RecordPanel
             exerciseId={exercise.id}

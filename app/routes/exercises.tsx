@@ -7,8 +7,7 @@ import { EmptyState } from "~/components/EmptyState";
 import { StudentExerciseCard } from "~/components/exercises/StudentExerciseCard";
 import { PageHeader } from "~/components/PageHeader";
 import { pretty } from "~/lib/noteText";
-import { isDone, listExercisesForTeacher, progressByKey, takesOfExercise } from "~/models/exercises.server";
-import { listExercisesForStudent } from "~/models/takes.server";
+import { isDone, listExercisesForStudent, listExercisesForTeacher, progressByKey, takesOfExercise } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Exercises · Nearnote" }];
 

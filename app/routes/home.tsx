@@ -8,7 +8,8 @@ import { PageHeader } from "~/components/PageHeader";
 import { reviewQueueCount, unreadFeedback } from "~/models/feedback.server";
 import { studioTimeZone } from "~/models/progress.server";
 import { todayIn } from "~/models/progressQuery.server";
-import { listExercisesForStudent, listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.server";
+import { listExercisesForStudent } from "~/models/exercises.server";
+import { listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Home · Nearnote" }];
 

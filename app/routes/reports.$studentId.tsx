@@ -6,7 +6,7 @@ import { requireStudentOfTeacher } from "~/auth/access.server";
 import { PeriodForm } from "~/components/board/PeriodForm";
 import { ReportControls } from "~/components/board/ReportControls";
 import { ReportSheet } from "~/components/board/ReportSheet";
-import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import "~/components/board/report.css";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";

@@ -11,7 +11,7 @@ import { deletePersonData } from "~/models/personalData.server";
 import { applyOwnershipPlan, planOwnershipOnLeave } from "~/models/studios.server";
 import { mailRetryMessage } from "~/auth/mailLimits.server";
 import { changeEmail, emailSchema, getUser, nameSchema, setPassword, updateMailPreferences, updateName } from "~/models/users.server";
-import { AccountSections } from "./settings.parts";
+import { AccountSections } from "~/components/settings/AccountSections";
 
 export const meta: Route.MetaFunction = () => [{ title: "Settings · Nearnote" }];
 

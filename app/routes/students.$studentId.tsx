@@ -4,7 +4,7 @@ import type { Route } from "./+types/students.$studentId";
 import { requireStudentOfTeacher } from "~/auth/access.server";
 import { PeriodForm } from "~/components/board/PeriodForm";
 import { ChartTable, ProgressLines } from "~/components/board/ProgressChart";
-import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { TechniqueTable } from "~/components/board/TechniqueTable";
 import { WeeklyFiguresTable } from "~/components/board/WeeklyFiguresTable";
 import { ButtonLink } from "~/components/Button";

@@ -20,7 +20,7 @@ import {
 } from "~/models/invitations.server";
 import { deleteStudentData, removeMember, studioRoster } from "~/models/studios.server";
 import { emailSchema } from "~/models/users.server";
-import { InviteForm, RosterRow, PendingRow } from "./students.parts";
+import { InviteForm, RosterRow, PendingRow } from "~/components/students/Roster";
 
 export const meta: Route.MetaFunction = () => [{ title: "Students · Nearnote" }];
 

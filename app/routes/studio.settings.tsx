@@ -2,7 +2,7 @@ import { data, redirect, useActionData, useNavigation, Form } from "react-router
 import { z } from "zod";
 import type { Route } from "./+types/studio.settings";
 import { requireOwner, requireTeacher } from "~/auth/access.server";
-import { RouteErrorBoundary } from "~/components/board/RouteErrorBoundary";
+import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";

@@ -22,7 +22,8 @@ import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
 import { packNotes, unpackNotes } from "~/lib/packNotes";
 import { formatBytes } from "~/lib/uploadRows";
-import { deleteTake, exerciseForStudent, getTakeView, listExercisesForStudent, moveTake } from "~/models/takes.server";
+import { exerciseForStudent, listExercisesForStudent } from "~/models/exercises.server";
+import { deleteTake, getTakeView, moveTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
@@ -33,7 +34,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const view = await getTakeView(take.id);
   if (!view) throw data("There is no such take.", { status: 404 });
   const isOwner = user.id === take.studentId;
-  // Comments, intended flags and review state (issue 6); opening the page reads the comments.
+  // Comments, intended flags and review state; opening the page reads the comments.
   const feedback = takePageFeedback(user, take, isTeacherOfTake(user, take));
   // The score shown leaves out the flags the teacher marked as intended.
   if (view.analysis) view.analysis = withIntendedMarks(view.analysis, feedback.intended);

@@ -13,7 +13,7 @@ import { uploadTakesFromForm } from "~/lib/takeUpload.server";
 import { MAX_FILES } from "~/lib/uploadLimits";
 import { isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
 import { sendTake } from "~/lib/uploadTake.client";
-import { listExercisesForStudent } from "~/models/takes.server";
+import { listExercisesForStudent } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Upload takes · Nearnote" }];
 

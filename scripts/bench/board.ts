@@ -35,7 +35,7 @@ export async function benchProgressBoard(): Promise<string[]> {
   process.env.SESSION_SECRET ??= "bench-secret-0123456789abcdef0123456789abcdef";
   process.env.APP_URL ??= "http://127.0.0.1:3000";
   // Imported here, after the environment points at the scratch database.
-  const { db, closeDatabaseForTests } = await import("~/db/client.server");
+  const { db, closeDatabase } = await import("~/db/client.server");
   const { memberships, studios, takeMetrics, takes, users } = await import("~/db/schema");
   const { createUserSession } = await import("~/auth/session.server");
   const { weekKey } = await import("~/lib/weeks");
@@ -122,7 +122,7 @@ export async function benchProgressBoard(): Promise<string[]> {
       `full-year CSV export (${rowsOut} rows), median of ${RUNS}: ${csvTime.median.toFixed(1)} ms, max ${csvTime.max.toFixed(1)} ms  (target < 1 s: ${csvTime.median < 1000 ? "met" : "NOT met"})`,
     ];
   } finally {
-    closeDatabaseForTests();
+    closeDatabase();
     rmSync(dir, { recursive: true, force: true });
   }
 }

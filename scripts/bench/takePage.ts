@@ -23,11 +23,11 @@ export function useScratchStorage(label: string) {
 export async function benchTakePage(): Promise<string[]> {
   useScratchStorage("take");
   buildIfNeeded();
-  const { db, closeDatabaseForTests } = await import("~/db/client.server");
+  const { db, closeDatabase } = await import("~/db/client.server");
   const { resetEnvForTests } = await import("~/lib/env.server");
   const { resetSessionCookieForTests } = await import("~/auth/session.server");
   // Another section may have pointed the app at its own scratch database first.
-  closeDatabaseForTests();
+  closeDatabase();
   resetEnvForTests();
   resetSessionCookieForTests();
   const { memberships, sessions, studios, users } = await import("~/db/schema");

@@ -67,16 +67,16 @@ const EXPECTED: Record<string, Expectation> = {
   "dev/mail/:id": { GET: everyone(200) },
   "api/me/export": { GET: row(401, 200, 200, 200, 200, 200) },
   "api/students/:studentId/export": { GET: row(401, 403, 403, 200, 200, 403) },
-  // Takes API (issue: takes): `?student=:studentId` names student A.
+  // Takes API: `?student=:studentId` names student A.
   "api/takes": { GET: ownedByA(401), query: "?student=:studentId", POST: row(401, 400, 400, 403, 403, 403) },
   "api/takes/:takeId": { GET: ownedByA(401), POST: row(401, 204, 403, 403, 403, 403), actionMethod: "DELETE" },
   // The fixture take has no file on disk: whoever may see it is told the file is missing.
   "api/takes/:takeId/file": { GET: ownedByA(401, 404) },
-  // Take pages (issue 5): uploading is for students; a take's page for its student and the studio's teachers,
+  // Take pages: uploading is for students; a take's page for its student and the studio's teachers,
   // changing it (move, replace, delete) for its student only.
   "takes/new": { GET: row("login", 200, 200, 403, 403, 403), POST: row("login", 200, 200, 403, 403, 403) },
   "takes/:takeId": { GET: ownedByA(), POST: row("login", 400, 403, 403, 403, 403) },
-  // Progress board (issue 7): teachers of the studio only; :studentId is student A (a student does not open the teacher pages about themself).
+  // Progress board: teachers of the studio only; :studentId is student A (a student does not open the teacher pages about themself).
   board: { GET: teachers(), POST: teachers(400) },
   "students/:studentId": { GET: row("login", 403, 403, 200, 200, 403) },
   "reports/:studentId": { GET: row("login", 403, 403, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
@@ -84,7 +84,7 @@ const EXPECTED: Record<string, Expectation> = {
   "studio/settings": { GET: teachers(), POST: row("login", 403, 403, 400, 403, 400) },
   "api/progress": { GET: row(401, 403, 403, 200, 200, 200) },
   "api/export/progress.csv": { GET: row(401, 403, 403, 200, 200, 200), query: "?from=2026-01-05&to=2026-03-29" },
-  // Exercises, review queue, feedback, unsubscribe (issue 6). :exerciseId is set for the whole studio.
+  // Exercises, review queue, feedback, unsubscribe. :exerciseId is set for the whole studio.
   exercises: { GET: signedIn() },
   "exercises/new": { GET: teachers(), POST: teachers(400) },
   "exercises/:exerciseId": { GET: row("login", 200, 200, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },

@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, readdirSync, readFileSync, statSync } from "node
 import { strToU8, unzipSync, zipSync } from "fflate";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { takes } from "~/db/schema";
 import { restoreBackup, writeBackup } from "~/lib/backup.server";
 import { env } from "~/lib/env.server";
@@ -46,7 +46,7 @@ describe("backup and restore", () => {
     expect(snapshot().rows.length).toBe(before.rows.length - 5);
 
     // …then restore with the app stopped.
-    closeDatabaseForTests();
+    closeDatabase();
     restoreBackup(new Uint8Array(readFileSync(archive)), env().databasePath, env().storageDir);
     const after = snapshot();
     expect(after).toEqual(before);
@@ -73,7 +73,7 @@ describe("backup and restore", () => {
     const b = run("backup", archive);
     expect(b.status, b.stderr).toBe(0);
     expect(b.stdout).toContain("Backup written");
-    closeDatabaseForTests();
+    closeDatabase();
     const r = run("restore", archive);
     expect(r.status, r.stderr).toBe(0);
     const bad = run("restore", path.resolve("package.json"));
@@ -138,7 +138,7 @@ describe("backup and restore", () => {
     await takesWithFiles(2);
     const dbBytes = readFileSync(env().databasePath);
     const evilArchive = (name: string) => zipSync({ "nearnote.db": new Uint8Array(dbBytes), [name]: strToU8("x") });
-    closeDatabaseForTests();
+    closeDatabase();
     const dbBefore = statSync(env().databasePath).mtimeMs;
     for (const name of ["takes/../../escaped", "takes/ab/../../../escaped", "takes/..\\..\\escaped", "other/file", "/etc/escaped"]) {
       expect(() => restoreBackup(evilArchive(name), env().databasePath, env().storageDir), name).toThrow(/Nothing was changed/);

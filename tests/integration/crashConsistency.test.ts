@@ -1,7 +1,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { takes } from "~/db/schema";
 import { readTakeFile, takeFileNames } from "~/lib/takeFiles.server";
 import { denseChordTake } from "../../scripts/lib/denseTake";
@@ -51,7 +51,7 @@ describe("a crash during uploads", () => {
     const studio = makeStudio("Harbour Lane");
     const student = makeUser("dara@harbour.example");
     join(studio.id, student.id, "student");
-    closeDatabaseForTests(); // the server owns the database from here
+    closeDatabase(); // the server owns the database from here
 
     let orphans = 0;
     const first = startServer();
@@ -93,7 +93,7 @@ describe("a crash during uploads", () => {
       // Uploads that were waiting for the worker had stored their files, not yet their rows.
       orphans = storedTakeFiles(app.storageDir).length - rows().length;
       expect(orphans).toBeGreaterThan(0);
-      closeDatabaseForTests();
+      closeDatabase();
     } finally {
       first.child.kill("SIGKILL");
     }
@@ -110,7 +110,7 @@ describe("a crash during uploads", () => {
       expect(files).toHaveLength(referenced.size);
     } finally {
       second.child.kill("SIGTERM");
-      closeDatabaseForTests();
+      closeDatabase();
     }
   }, 120_000);
 });

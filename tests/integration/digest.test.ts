@@ -4,7 +4,7 @@ import { spawn } from "node:child_process";
 import path from "node:path";
 import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { exercises, sentMails, takes, users } from "~/db/schema";
 import { readCaughtMail } from "~/lib/mailCatcher.server";
 import { tick } from "~/lib/scheduler.server";
@@ -72,7 +72,7 @@ describe("daily digest", () => {
     await takeAt("2026-12-01T19:30:00Z", [[62, 66, 69], [64, 67, 71]]);
     expect(await runDigests(at("2026-12-01T20:00:00Z"))).toBe(0);
     // A restart: the process loses everything but the database file.
-    closeDatabaseForTests();
+    closeDatabase();
     db();
     expect(await runDigests(at("2026-12-01T21:00:00Z"))).toBe(0);
     expect(await tick(at("2026-12-01T22:00:00Z"))).toEqual({ digests: 0, reminders: 0 });
@@ -104,7 +104,7 @@ describe("daily digest", () => {
 
   it("npm run digest sends by hand, at any hour, and only once", async () => {
     await takeAt(new Date(Date.now() - 3_600_000).toISOString());
-    closeDatabaseForTests();
+    closeDatabase();
     // Run asynchronously: the mail catcher in this process must keep answering meanwhile.
     const run = () =>
       new Promise<string>((resolve) => {

@@ -7,7 +7,7 @@ import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
 import { ConfigError, env, resetEnvForTests } from "~/lib/env.server";
 import { listStoredTakeFiles, takeFileNames, takeStorage } from "~/lib/takeFiles.server";
-import { storeModelTake } from "~/models/exercises.server";
+import { storeModelTake } from "~/models/modelTakes.server";
 import { startBackgroundWork } from "~/lib/startup.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { deletePersonData } from "~/models/personalData.server";

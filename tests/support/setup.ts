@@ -2,7 +2,7 @@ import { existsSync, mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
-import { closeDatabaseForTests, db } from "~/db/client.server";
+import { closeDatabase, db } from "~/db/client.server";
 import { resetEnvForTests } from "~/lib/env.server";
 import { resetSessionCookieForTests } from "~/auth/session.server";
 
@@ -20,13 +20,13 @@ export function useFreshApp(): FreshApp {
     process.env.DATABASE_PATH = path.join(state.storageDir, "test.db");
     process.env.SESSION_SECRET = "test-secret-0123456789abcdef0123456789abcdef";
     process.env.APP_URL = "http://127.0.0.1:3000";
-    closeDatabaseForTests();
+    closeDatabase();
     resetEnvForTests();
     resetSessionCookieForTests();
     db(); // migrate now, so a broken migration fails here
   });
   afterEach(() => {
-    closeDatabaseForTests();
+    closeDatabase();
     rmSync(state.storageDir, { recursive: true, force: true });
   });
   return state;

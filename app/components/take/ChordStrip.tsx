@@ -37,7 +37,7 @@ export function ChordStrip({
   selected: number | null;
   sounding: number | null;
   onSelect: (change: number | null) => void;
-  /** Differences from the exercise by chord index: wrong on the chord, missing just before it (issue 6). */
+  /** Differences from the exercise by chord index: wrong on the chord, missing just before it. */
   marks?: Record<number, { on: string[]; before: string[] }>;
 }) {
   const scroller = useRef<HTMLDivElement>(null);

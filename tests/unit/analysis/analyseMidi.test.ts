@@ -12,7 +12,7 @@ import { chordEvents, noteOff, noteOn, smf, trackChunk } from "./helpers/smf";
 
 const sample = (file: string) => new Uint8Array(readFileSync(join(__dirname, "../../../samples", file)));
 
-describe("analyseMidi output shape (the issue's JSON contract)", () => {
+describe("analyseMidi output shape (the JSON contract of npm run analyse -- --json)", () => {
   // Analysed inside each test, never at collection: a mutation run then knows which tests
   // reach which code, instead of treating the whole engine as run by every test.
   const analyseD = () => analyseMidi(sample("three-chord-smoothing-d.mid"), { key: "D", target: "I IV V I" });

@@ -1,5 +1,5 @@
 // The engine must run in the browser too: no Node-only, React or database imports anywhere in
-// app/analysis (the rule), checked on the source text of every module.
+// app/analysis (see DEVELOPERS.md), checked on the source text of every module.
 import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";

@@ -1,6 +1,6 @@
 import { isRouteErrorResponse, Link, useRouteError } from "react-router";
 
-/** The board's pages keep the navigation when something fails, and say where to go next. */
+/** The teacher pages (board, students, reports, studio settings) keep the navigation when something fails, and say where to go next. */
 export function RouteErrorBoundary() {
   const error = useRouteError();
   const status = isRouteErrorResponse(error) ? error.status : 500;
