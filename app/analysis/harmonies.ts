@@ -5,7 +5,7 @@ import { pc } from "./pitch";
 import type { Budget } from "./budget";
 import { nameChord } from "./naming";
 import { boundaryRules, HELD_FOR, lowestSounding, MIN_HARMONY_SEC, segment, TEMPLATES, type BoundaryRules, type Segment } from "./segment";
-import type { Sounding } from "./sounding";
+import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NonChordToneKind, NoteEvent } from "./types";
 
@@ -59,8 +59,8 @@ export type ReadInput = {
 
 export type Reading = { harmonies: Harmony[]; melody: NoteEvent[]; hasMelody: boolean };
 
-const soundEnd = (s: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent) => s.get(n)?.soundEnd ?? n.end;
-const heardEnd = (s: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent) => s.get(n)?.heardEnd ?? n.end;
+const soundEnd = soundEndOf;
+const heardEnd = heardEndOf;
 
 function templatePcs(seg: Segment): number[] {
   if (!seg.chord) return [];
@@ -79,8 +79,9 @@ function splitOnBassChange(
   forced: readonly boolean[],
   endTime: number,
   minSec: number,
+  precomputed?: Array<NoteEvent | null>,
 ): Segment[] {
-  const lowest = lowestSounding(strikes, sounding);
+  const lowest = precomputed ?? lowestSounding(strikes, sounding);
   const struckLow = (k: number) => {
     const l = lowest[k];
     return l && strikes[k].notes.includes(l) ? l : null;
@@ -397,7 +398,7 @@ export function readHarmonies(input: ReadInput): Reading {
   const segInput = { strikes, sounding, endTime, minHarmonySec: minSec, budget: input.budget };
   const rules = boundaryRules(segInput);
   const raw = segment(segInput, rules);
-  let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec), strikes, rules, endTime, minSec, input.budget);
+  let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec, rules.lowest), strikes, rules, endTime, minSec, input.budget);
   const reaching = reachingNotes(strikes, sounding);
   const readOne = (list: Segment[], i: number) =>
     readHarmony(list[i], input, reaching, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[list[i].first]);

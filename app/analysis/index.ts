@@ -13,7 +13,7 @@ import { parseKey, pc } from "./pitch";
 import { parseProgression, type TargetChord } from "./progression";
 import { readMidi } from "./readMidi";
 import { MIN_HARMONY_SEC } from "./segment";
-import { soundings } from "./sounding";
+import { heardEndOf, soundings } from "./sounding";
 import { findStrikes } from "./strikes";
 import { summarise } from "./summary";
 import { bpmAt, followsTempoGrid, GRID_TOLERANCE_SEC } from "./tempo";
@@ -29,6 +29,7 @@ export { ProgressionError } from "./pitch";
 export { readMidi } from "./readMidi";
 export type * from "./types";
 
+/** The notes the engine can use, as its own copies (it writes how long each sounds on them). */
 function validNotes(notes: NoteEvent[]): NoteEvent[] {
   return notes.filter(
     (n) =>
@@ -38,7 +39,7 @@ function validNotes(notes: NoteEvent[]): NoteEvent[] {
       Number.isFinite(n.start) &&
       Number.isFinite(n.end) &&
       n.end >= n.start,
-  );
+  ).map((n) => ({ ...n }));
 }
 
 function identity(c: ChordReport): PlayedIdentity {
@@ -110,9 +111,9 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
   const budget = new Budget();
   const strikes = findStrikes(notes, tempos);
   const sorted = [...notes].sort((a, b) => a.start - b.start || a.midi - b.midi);
-  const sounding = soundings(sorted, pedal);
+  const sounding = soundings(sorted, pedal, true);
   let endTime = 0;
-  for (const n of notes) endTime = Math.max(endTime, sounding.get(n)?.heardEnd ?? n.end);
+  for (const n of notes) endTime = Math.max(endTime, heardEndOf(sounding, n));
   const onsets = strikes.map((s) => s.start);
   // Rule 15: in a take made to a metronome a harmony lasts about a beat at least.
   const beat = followsTempoGrid(onsets, tempos) ? 60 / bpmAt(tempos, onsets[0] ?? 0) : 0;

@@ -10,7 +10,7 @@
 // writes (see RULES.md, "How Nearnote implements rule 15").
 import type { Budget } from "./budget";
 import { pc } from "./pitch";
-import type { Sounding } from "./sounding";
+import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NoteEvent } from "./types";
 
@@ -127,7 +127,7 @@ function keyHeldAt(strikes: readonly Strike[], i: number, t: number): NoteEvent[
 
 /** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
 export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap<NoteEvent, Sounding>): Array<NoteEvent | null> {
-  const heard = (n: NoteEvent) => sounding.get(n)?.heardEnd ?? n.end;
+  const heard = (n: NoteEvent) => heardEndOf(sounding, n);
   const active: NoteEvent[] = [];
   return strikes.map((s) => {
     const t = s.start + HELD_FOR;
@@ -179,6 +179,8 @@ export type BoundaryRules = {
   barred: boolean[];
   /** the strike brings a new lowest note (and is not a lone note above the chord that follows) */
   newBass: boolean[];
+  /** the lowest note sounding 150 ms after each strike begins */
+  lowest: Array<NoteEvent | null>;
 };
 
 /**
@@ -231,9 +233,9 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
       }
       prevMulti = i;
     }
-    for (const n of s.notes) lastSound = Math.max(lastSound, sounding.get(n)?.soundEnd ?? n.end);
+    for (const n of s.notes) lastSound = Math.max(lastSound, soundEndOf(sounding, n));
   }
-  return { forced, barred, newBass };
+  return { forced, barred, newBass, lowest };
 }
 
 // Every template on every root, flattened for the inner loop of the search: its pitch-class
@@ -336,7 +338,7 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
       P[x] = pc(note.midi);
       MIDI[x] = note.midi;
       START[x] = note.start;
-      HEARD[x] = sounding.get(note)?.heardEnd ?? note.end;
+      HEARD[x] = heardEndOf(sounding, note);
       KEYEND[x] = note.end;
     }),
   );
