@@ -53,6 +53,10 @@ test("a student uploads two takes, reads one change by change and plays it", asy
   await page.getByRole("group", { name: /^Piano roll/ }).focus();
   await page.keyboard.press("ArrowRight");
   await expect(page.getByRole("heading", { name: "Change 2: G → A" })).toBeVisible();
+  // G → A already moves as little as it can (6): no suggestion is offered (RULES.md rule 8).
+  await expect(page.getByTestId("suggestion")).toHaveCount(0);
+  await page.keyboard.press("ArrowLeft");
+  await expect(page.getByRole("heading", { name: "Change 1: D → G" })).toBeVisible();
 
   // Playback in the browser's own Web Audio.
   const play = page.getByRole("button", { name: "Play take" });
