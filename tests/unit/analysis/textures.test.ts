@@ -71,6 +71,17 @@ const voicing = fc
   });
 
 describe("properties of the reading (fast-check)", () => {
+  it("each texture reads the same whoever plays it: other timing wobble and tempos from 0.85× to 1.2×", () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...TEXTURE_TAKES), fc.integer({ min: 1, max: 100_000 }), fc.double({ min: 0.85, max: 1.2, noNaN: true }), (t, seed, factor) => {
+        const played = { ...t, seed, bpm: Math.round(t.bpm * factor) };
+        const a = analyseMidi(writeTexture(played), { key: t.key, target: t.target });
+        expect(a.chords.map((c) => c.symbol)).toEqual(t.expect.symbols);
+      }),
+      { numRuns: 40 },
+    );
+  });
+
   it("a broken chord and the same notes struck together give the same harmony and name", () => {
     fc.assert(
       fc.property(voicing, (v) => {
