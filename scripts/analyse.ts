@@ -3,30 +3,33 @@
 // document on stdout (use `npm run -s` to keep npm's banner out); with several files, one JSON
 // array. Bad input: one line on stderr, exit code 1, no stack trace.
 import { readFileSync } from "node:fs";
+import { parseArgs } from "node:util";
 import { analyseMidi, AnalysisError, ProgressionError, type TakeAnalysis } from "../app/analysis/index";
 
 type Args = { json: boolean; key?: string; target?: string; files: string[] };
 
 const USAGE = 'usage: npm run analyse -- [--json] [--key D] [--target "I IV V I"] FILE...';
 
-function parseArgs(argv: string[]): Args {
-  const args: Args = { json: false, files: [] };
-  for (let i = 0; i < argv.length; i++) {
-    const a = argv[i];
-    if (a === "--json") args.json = true;
-    else if (a === "--key" || a === "--target") {
-      const value = argv[++i];
-      if (value === undefined) throw new UsageError(`${a} needs a value`);
-      if (a === "--key") args.key = value;
-      else args.target = value;
-    } else if (a.startsWith("--key=")) args.key = a.slice(6);
-    else if (a.startsWith("--target=")) args.target = a.slice(9);
-    else if (a === "--help" || a === "-h") throw new UsageError(USAGE);
-    else if (a.startsWith("--")) throw new UsageError(`unknown option ${a}`);
-    else args.files.push(a);
+function readArgs(argv: string[]): Args {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: {
+        json: { type: "boolean", default: false },
+        key: { type: "string" },
+        target: { type: "string" },
+        help: { type: "boolean", short: "h", default: false },
+      },
+    });
+  } catch (e) {
+    // Unknown options and options without their value: node's own message, on one line.
+    throw new UsageError(`${(e as Error).message.split("\n")[0]}\n${USAGE}`);
   }
-  if (args.files.length === 0) throw new UsageError(USAGE);
-  return args;
+  const { values, positionals } = parsed;
+  if (values.help || positionals.length === 0) throw new UsageError(USAGE);
+  return { json: values.json, key: values.key, target: values.target, files: positionals };
 }
 
 class UsageError extends Error {}
@@ -75,7 +78,7 @@ export function formatTable(file: string, a: TakeAnalysis): string {
 function main(): number {
   let args: Args;
   try {
-    args = parseArgs(process.argv.slice(2));
+    args = readArgs(process.argv.slice(2));
   } catch (e) {
     process.stderr.write(`${(e as Error).message}\n`);
     return 2;

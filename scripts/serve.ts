@@ -9,10 +9,13 @@ import morgan from "morgan";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { ServerBuild } from "react-router";
+import { env } from "~/lib/env.server";
 import { BASE_HEADERS, contentSecurityPolicy } from "~/lib/securityHeaders.server";
 import { loadEnvOrExit } from "./lib/runApp";
 
+/** The Express app over a build; its settings come from the checked configuration (`env()`). */
 export async function createApp(buildDir: string) {
+  const config = env();
   const build = (await import(pathToFileURL(path.join(buildDir, "server/index.js")).href)) as ServerBuild;
   const app = express();
   app.disable("x-powered-by");
@@ -23,10 +26,10 @@ export async function createApp(buildDir: string) {
   };
   app.use("/assets", express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }));
   app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }));
-  if (process.env.NEARNOTE_ACCESS_LOG !== "off") app.use(morgan("tiny"));
+  if (config.accessLog) app.use(morgan("tiny"));
   // Sign-in throttling keys on the client address. Unless a trusted proxy sets it
   // (TRUST_PROXY=1), the address is the socket's own, so a client cannot forge it.
-  if (process.env.TRUST_PROXY !== "1") {
+  if (!config.trustProxy) {
     app.use((req, _res, next) => {
       req.headers["x-forwarded-for"] = req.socket.remoteAddress ?? "unknown";
       next();
@@ -38,10 +41,8 @@ export async function createApp(buildDir: string) {
 
 if (import.meta.url === pathToFileURL(process.argv[1]).href) {
   // A malformed setting or a missing storage folder stops the server here, not at the first request.
-  loadEnvOrExit();
+  const { host, port } = loadEnvOrExit();
   const buildDir = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
-  const host = process.env.HOST ?? "127.0.0.1";
-  const port = Number(process.env.PORT ?? 3000);
   const app = await createApp(buildDir);
   const server = app.listen(port, host, () => console.log(`[nearnote] listening on http://${host}:${port}`));
   const stop = () => server.close(() => process.exit(0));

@@ -10,10 +10,8 @@ export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Data
 /** The handle `db().transaction(...)` passes to its callback. */
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 
-export const MIGRATIONS_DIR = path.resolve(process.env.MIGRATIONS_DIR ?? "drizzle");
-
-/** Opens a SQLite file with the pragmas Nearnote relies on and applies pending migrations. */
-export function openDatabase(file: string): Db {
+/** Opens a SQLite file with the pragmas Nearnote relies on and applies pending migrations (from MIGRATIONS_DIR). */
+export function openDatabase(file: string, migrationsDir = env().migrationsDir): Db {
   mkdirSync(path.dirname(file), { recursive: true });
   const sqlite = new Database(file);
   sqlite.pragma("journal_mode = WAL");
@@ -21,7 +19,7 @@ export function openDatabase(file: string): Db {
   sqlite.pragma("busy_timeout = 5000");
   sqlite.pragma("synchronous = NORMAL");
   const db = drizzle(sqlite, { schema }) as Db;
-  migrate(db, { migrationsFolder: MIGRATIONS_DIR });
+  migrate(db, { migrationsFolder: migrationsDir });
   return db;
 }
 

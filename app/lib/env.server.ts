@@ -28,6 +28,15 @@ const schema = z.object({
     .default(15_000),
   // A missing storage folder is created only when asked: an unmounted volume must not look like an empty studio.
   STORAGE_CREATE: z.enum(["0", "1"], { error: "STORAGE_CREATE must be 0 or 1" }).optional(),
+  // Only behind a reverse proxy that sets X-Forwarded-For: sign-in throttling then keys on the address it names.
+  TRUST_PROXY: z.enum(["0", "1"], { error: "TRUST_PROXY must be 0 or 1" }).optional(),
+  // One line per request on standard output (morgan's "tiny" format) unless "off".
+  NEARNOTE_ACCESS_LOG: z.enum(["on", "off"], { error: "NEARNOTE_ACCESS_LOG must be on or off" }).optional(),
+  // The start-up sweep of orphan take files, re-analysis of outdated takes and the daily mail scheduler, unless "off".
+  NEARNOTE_BACKGROUND: z.enum(["on", "off"], { error: "NEARNOTE_BACKGROUND must be on or off" }).optional(),
+  MIGRATIONS_DIR: z.string().min(1).default("drizzle"),
+  // The folder of the local mail catcher (the demo and the tests): /dev/mail lists it; unset, /dev/mail is a 404.
+  MAIL_CATCHER_DIR: z.string().min(1).optional(),
 });
 
 export type Env = {
@@ -41,6 +50,11 @@ export type Env = {
   port: number;
   analysisTimeLimitMs: number;
   createStorage: boolean;
+  trustProxy: boolean;
+  accessLog: boolean;
+  background: boolean;
+  migrationsDir: string;
+  mailCatcherDir: string | undefined;
 };
 
 export class ConfigError extends Error {}
@@ -67,6 +81,11 @@ export function parseEnv(source: NodeJS.ProcessEnv): Omit<Env, "sessionSecret"> 
     port: e.PORT,
     analysisTimeLimitMs: e.ANALYSIS_TIME_LIMIT_MS,
     createStorage: e.STORAGE_CREATE === "1",
+    trustProxy: e.TRUST_PROXY === "1",
+    accessLog: e.NEARNOTE_ACCESS_LOG !== "off",
+    background: e.NEARNOTE_BACKGROUND !== "off",
+    migrationsDir: path.resolve(e.MIGRATIONS_DIR),
+    mailCatcherDir: e.MAIL_CATCHER_DIR ? path.resolve(e.MAIL_CATCHER_DIR) : undefined,
   };
 }
 
@@ -115,7 +134,7 @@ export function env(): Env {
   return cached;
 }
 
-/** Tests point the app at a fresh storage folder and need the cache dropped. */
+/** Tests point the app at a fresh storage folder (or change another setting) and need the cache dropped. */
 export function resetEnvForTests() {
   cached = undefined;
 }

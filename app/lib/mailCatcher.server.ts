@@ -1,5 +1,6 @@
 import { data } from "react-router";
 import { SMTPServer } from "smtp-server";
+import { env } from "./env.server";
 import { storeMessage } from "./mailStore.server";
 
 export { readCaughtMail, readCaughtMessage, type CaughtMail } from "./mailStore.server";
@@ -56,7 +57,7 @@ export async function startMailCatcher({
  * catcher is in use (MAIL_CATCHER_DIR set by the demo and the tests); otherwise 404.
  */
 export function caughtMailDir(): string {
-  const dir = process.env.MAIL_CATCHER_DIR;
+  const dir = env().mailCatcherDir;
   if (!dir) throw data("Not found", { status: 404 });
   return dir;
 }

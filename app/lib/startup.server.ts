@@ -1,6 +1,7 @@
 import { db } from "~/db/client.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { reanalyseOutdated } from "~/models/takes.server";
+import { env } from "./env.server";
 import { startScheduler } from "./scheduler.server";
 
 let started = false;
@@ -12,7 +13,7 @@ let started = false;
  * weekly figures stay comparable.
  */
 export function startBackgroundWork() {
-  if (started || process.env.NEARNOTE_BACKGROUND === "off") return;
+  if (started || !env().background) return;
   started = true;
   db(); // migrate before the first request
   const timer = setTimeout(async () => {

@@ -15,6 +15,7 @@ import {
   takes,
   users,
 } from "~/db/schema";
+import { env } from "~/lib/env.server";
 import { mailDir } from "~/lib/mail.server";
 import { deleteStoredMailTo } from "~/lib/mailStore.server";
 import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
@@ -176,7 +177,7 @@ export async function deletePersonData(userId: string) {
   });
   await removeTakeFilesAfterRows(fileKeys);
   // Mail kept on disk (no SMTP configured, or the demo's catcher) names them too.
-  for (const dir of new Set([mailDir(), process.env.MAIL_CATCHER_DIR].filter((d): d is string => !!d))) {
+  for (const dir of new Set([mailDir(), env().mailCatcherDir].filter((d): d is string => !!d))) {
     deleteStoredMailTo(dir, user.email);
   }
 }

@@ -8,6 +8,7 @@ import { createUserSession } from "~/auth/session.server";
 import { hashToken } from "~/auth/tokens.server";
 import { db } from "~/db/client.server";
 import { invitations } from "~/db/schema";
+import { resetEnvForTests } from "~/lib/env.server";
 import { storeMessage } from "~/lib/mailStore.server";
 import { useFreshApp } from "../support/setup";
 import { call, CookieJar, join, makeExercise, makeStudio, makeTakeRow, makeUser, ORIGIN } from "./accountsKit";
@@ -215,9 +216,11 @@ async function seedFixtures() {
 
 beforeEach(async () => {
   process.env.MAIL_CATCHER_DIR = path.join(app.storageDir, "mail");
+  resetEnvForTests();
   await seedFixtures();
   return () => {
     delete process.env.MAIL_CATCHER_DIR;
+    resetEnvForTests();
   };
 });
 

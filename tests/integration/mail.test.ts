@@ -2,6 +2,7 @@ import { existsSync } from "node:fs";
 import path from "node:path";
 import nodemailer from "nodemailer";
 import { afterEach, describe, expect, it, vi } from "vitest";
+import { resetEnvForTests } from "~/lib/env.server";
 import { sendMail } from "~/lib/mail.server";
 import { readCaughtMail, startMailCatcher } from "~/lib/mailCatcher.server";
 import { decodeEncodedWords, decodeQuotedPrintable, parseMessage } from "~/lib/mailStore.server";
@@ -14,6 +15,7 @@ const app = useFreshApp();
 afterEach(() => {
   vi.restoreAllMocks();
   delete process.env.MAIL_CATCHER_DIR;
+  resetEnvForTests();
 });
 
 describe("the mailer without SMTP_URL", () => {
@@ -56,8 +58,10 @@ describe("the mail catcher", () => {
 
   it("is listed at /dev/mail only while MAIL_CATCHER_DIR is set", async () => {
     delete process.env.MAIL_CATCHER_DIR;
+    resetEnvForTests();
     expect((await call(devMail.loader, get("/dev/mail"))).status).toBe(404);
     process.env.MAIL_CATCHER_DIR = path.join(app.storageDir, "mail");
+    resetEnvForTests();
     expect((await call(devMail.loader, get("/dev/mail"))).data).toEqual({ messages: [] });
   });
 });

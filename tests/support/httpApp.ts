@@ -3,6 +3,7 @@ import type http from "node:http";
 import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
+import { resetEnvForTests } from "~/lib/env.server";
 import { createApp } from "../../scripts/serve";
 
 /**
@@ -16,6 +17,7 @@ export function useHttpApp() {
     if (!existsSync(path.join(build, "server/index.js"))) throw new Error(`Build the app first (npm run build): ${build}`);
     process.env.NEARNOTE_ACCESS_LOG = "off";
     process.env.NEARNOTE_BACKGROUND = "off";
+    resetEnvForTests(); // the settings above are read through the checked configuration
     const app = await createApp(build);
     state.server = await new Promise((resolve) => {
       const s = app.listen(0, "127.0.0.1", () => resolve(s));

@@ -43,6 +43,22 @@ describe("configuration", () => {
     expect(() => parseEnv({ STORAGE_CREATE: "yes" })).toThrow(/STORAGE_CREATE must be 0 or 1/);
   });
 
+  it("takes the server's switches and folders through the same checks", () => {
+    expect(parseEnv({})).toMatchObject({ trustProxy: false, accessLog: true, background: true, migrationsDir: path.resolve("drizzle"), mailCatcherDir: undefined });
+    expect(
+      parseEnv({ TRUST_PROXY: "1", NEARNOTE_ACCESS_LOG: "off", NEARNOTE_BACKGROUND: "off", MIGRATIONS_DIR: "db/migrations", MAIL_CATCHER_DIR: "storage/mail" }),
+    ).toMatchObject({
+      trustProxy: true,
+      accessLog: false,
+      background: false,
+      migrationsDir: path.resolve("db/migrations"),
+      mailCatcherDir: path.resolve("storage/mail"),
+    });
+    expect(() => parseEnv({ TRUST_PROXY: "yes" })).toThrow(/TRUST_PROXY must be 0 or 1/);
+    expect(() => parseEnv({ NEARNOTE_ACCESS_LOG: "0" })).toThrow(/NEARNOTE_ACCESS_LOG must be on or off/);
+    expect(() => parseEnv({ NEARNOTE_BACKGROUND: "no" })).toThrow(/NEARNOTE_BACKGROUND must be on or off/);
+  });
+
   it("generates a secret once, keeps it owner-only and says so", () => {
     const dir = mkdtempSync(path.join(tmpdir(), "nearnote-env-"));
     const log = vi.fn();
