@@ -58,7 +58,7 @@ export function TakeSummary({ summary, chords }: { summary: Summary; chords: Cho
           value={pretty(summary.key)}
           detail={summary.keySource === "given" ? "from the exercise" : "estimated from the notes"}
         />
-        <Figure label="Steady time" value={percent(summary.tempo.steadiness)} detail="how even the gaps between chords were" />
+        <Figure label="Steady time" value={percent(summary.tempo.steadiness)} detail="how evenly your notes fell on the beat" />
       </dl>
       <div className="grid gap-4 md:grid-cols-2">
         <section aria-labelledby="techniques-heading">
