@@ -115,16 +115,6 @@ export type SegmentInput = {
   minHarmonySec: number;
 };
 
-/** Notes struck before strike i whose key is down at its onset (held into it, rule 3). */
-function keyHeldAt(strikes: readonly Strike[], i: number, t: number): NoteEvent[] {
-  const out: NoteEvent[] = [];
-  // Looking back a bounded number of strikes keeps this linear; a key held longer than that
-  // many strikes is rare and is still caught by the strikes' own `held` lists.
-  for (let k = i - 1; k >= 0 && k >= i - 64; k--) for (const n of strikes[k].notes) if (n.end > t + EPS) out.push(n);
-  for (const n of strikes[i].held) if (!out.includes(n)) out.push(n);
-  return out;
-}
-
 /** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
 export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap<NoteEvent, Sounding>): Array<NoteEvent | null> {
   const heard = (n: NoteEvent) => heardEndOf(sounding, n);
@@ -202,14 +192,17 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
   const comps = strikes.map((s, i) => (multi[i] ? upperPcs(s) : ""));
   let lastSound = -Infinity;
   let prevMulti = -1;
+  // Notes struck before the current strike whose key is still down (held into it, rule 3).
+  let down: NoteEvent[] = [];
   for (let i = 0; i < strikes.length; i++) {
     const s = strikes[i];
     const t = s.start;
+    if (i > 0) down = [...down, ...strikes[i - 1].notes].filter((n) => n.end > t + EPS);
     if (i > 0 && t - lastSound >= SILENCE_SEC - EPS) forced[i] = true;
     if (i > 0 && !multi[i]) {
       const n = s.notes[0];
       // A note struck alone in the bass under held upper notes.
-      const held = keyHeldAt(strikes, i, t + HELD_FOR).filter((h) => h.midi !== n.midi);
+      const held = down.filter((h) => h.end > t + HELD_FOR + EPS && h.midi !== n.midi);
       if (held.length > 0 && held.every((h) => h.midi > n.midi)) barred[i] = true;
       // A walking note between two strikes of the same comping chord, below both.
       const q = nextMulti[i];
@@ -220,7 +213,7 @@ export function boundaryRules(input: SegmentInput): BoundaryRules {
       }
       // A short melody note over other notes that leaves by step: passing or neighbour.
       const next = strikes[i + 1];
-      const over = keyHeldAt(strikes, i, t).some((h) => h.midi < n.midi);
+      const over = down.some((h) => h.midi < n.midi);
       if (over && next && n.end - n.start <= SHORT_NOTE_SEC && next.start <= n.end + 0.1) {
         if (next.notes.some((x) => x.midi !== n.midi && Math.abs(x.midi - n.midi) <= 2)) barred[i] = true;
       }
