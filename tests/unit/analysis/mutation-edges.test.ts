@@ -14,7 +14,7 @@ import { parseKey } from "../../../app/analysis/pitch";
 import { parseProgression, type Triad } from "../../../app/analysis/progression";
 import { score, scoreParts, SCORE_WEIGHTS } from "../../../app/analysis/score";
 import { findGraces, findStrikes } from "../../../app/analysis/strikes";
-import { beatAt, bpmAt, commonestInterval, tempoMap, tempoSteadiness } from "../../../app/analysis/tempo";
+import { beatAt, bpmAt, commonestInterval, followsTempoGrid, tempoMap, tempoSteadiness } from "../../../app/analysis/tempo";
 import type { NoteEvent, TempoPoint } from "../../../app/analysis/types";
 import { motion, voiceLeadingPairs } from "../../../app/analysis/voiceLeading";
 
@@ -362,5 +362,68 @@ describe("steady time worked through by hand (rule 22)", () => {
       beatSec: 0.5,
       beatFrom: "tempo-map",
     });
+  });
+});
+
+describe("steady time: where the beat comes from (rule 22)", () => {
+  // Worked by hand from RULES.md rule 22 as tempo.ts states it. SMF 1.0: no tempo event is 120 bpm.
+  it("strikes every 0.7 s with no tempo map: the beat is read from the strikes", () => {
+    // 0.7 s is off the 120 bpm half-beat grid for 2 of 5 onsets (1.4 and 2.8 beats are 0.1 s
+    // away), so only the strikes' own beat counts: 0.7 s fits every interval exactly; halves
+    // and thirds fit no better, so the commonest interval stays the beat.
+    expect(tempoSteadiness([0, 0.7, 1.4, 2.1, 2.8])).toEqual({ medianGapSec: 0.7, spread: 0, steadiness: 1, beatSec: 0.7, beatFrom: "strikes" });
+  });
+
+  it("a dense map followed only by chance gives way to the strikes' own beat", () => {
+    // 240 bpm: a half beat of 125 ms, of which the ±60 ms tolerance covers 96%, so the map
+    // counts only if it fits about as well as the strikes. Strikes every 0.3 s sit 50 ms off its
+    // grid each time; the strikes' own 0.3 s beat fits exactly.
+    const r = tempoSteadiness([0, 0.3, 0.6, 0.9, 1.2], [{ time: 0, bpm: 240 }]);
+    expect(r).toMatchObject({ beatFrom: "strikes", beatSec: 0.3, steadiness: 1 });
+    // Strikes right on that grid: the map fits as well, and is taken.
+    expect(tempoSteadiness([0, 0.25, 0.5, 0.75, 1], [{ time: 0, bpm: 240 }])).toMatchObject({ beatFrom: "tempo-map", beatSec: 0.25, steadiness: 1 });
+  });
+
+  it("two strikes already give a beat; strikes too close for a beat give none", () => {
+    expect(tempoSteadiness([0, 0.5], [{ time: 0, bpm: 120 }])).toEqual({ medianGapSec: 0.5, spread: 0, steadiness: 1, beatSec: 0.5, beatFrom: "tempo-map" });
+    // 50 ms apart: shorter than half the 300 bpm beat, and off the 120 bpm grid (0.1 s at 0.1 s).
+    expect(tempoSteadiness([0, 0.05, 0.1])).toEqual({ medianGapSec: 0.05, spread: null, steadiness: 1, beatSec: null, beatFrom: null });
+    expect(followsTempoGrid([], [{ time: 0, bpm: 120 }])).toBe(false);
+  });
+
+  it("onsets in any order, repeated or not numbers, give the same answer", () => {
+    const clean = tempoSteadiness([0, 0.5, 1, 1.5, 2.1], [{ time: 0, bpm: 120 }]);
+    expect(tempoSteadiness([2.1, 1, 0, 1.5, 0.5, 1, Number.NaN], [{ time: 0, bpm: 120 }])).toEqual(clean);
+  });
+
+  it("the commonest interval: a single interval, and the first of two equal clusters", () => {
+    expect(commonestInterval([0.5])).toBe(0.5);
+    expect(commonestInterval([0.5, 0.5, 1, 1])).toBe(0.5);
+  });
+
+  it("a tempo point without a usable tempo is ignored", () => {
+    const map = tempoMap([
+      { time: 0, bpm: 120 },
+      { time: 1, bpm: 0 },
+      { time: 2, bpm: Number.NaN },
+    ]);
+    expect(beatAt(map, 3)).toEqual({ beat: 6, secPerBeat: 0.5 });
+  });
+});
+
+describe("rules 1–3 with notes out of pitch order", () => {
+  it("a chord struck top first: a lone note above its lowest note stays apart (rule 3)", () => {
+    // G4, C4, E4 struck top first, then D4 alone 100 ms after E4 (a strike of its own by rule
+    // 1) and 120 ms after the chord began: D4 is not below C4, so it does not merge.
+    expect(shape([note(67, 2, 3), note(60, 2.01, 3), note(64, 2.02, 3), note(62, 2.12, 3)])).toEqual([
+      [2, [60, 64, 67]],
+      [2.12, [62]],
+    ]);
+  });
+
+  it("a key struck again on another track while held is the new strike's own note, not a held one (rule 3)", () => {
+    const strikes = findStrikes([note(60, 0, 3), note(64, 0, 3), note(60, 1, 2), note(67, 1, 2)]);
+    expect(strikes).toHaveLength(2);
+    expect(strikes[1].held.map((n) => n.midi)).toEqual([64]);
   });
 });
