@@ -29,7 +29,6 @@ export { ProgressionError } from "./pitch";
 export { readMidi } from "./readMidi";
 export type * from "./types";
 
-/** The notes the engine can use, as its own copies (it writes how long each sounds on them). */
 function validNotes(notes: NoteEvent[]): NoteEvent[] {
   return notes.filter(
     (n) =>
@@ -39,7 +38,7 @@ function validNotes(notes: NoteEvent[]): NoteEvent[] {
       Number.isFinite(n.start) &&
       Number.isFinite(n.end) &&
       n.end >= n.start,
-  ).map((n) => ({ ...n }));
+  );
 }
 
 function identity(c: ChordReport): PlayedIdentity {
@@ -111,7 +110,7 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
   const budget = new Budget();
   const strikes = findStrikes(notes, tempos);
   const sorted = [...notes].sort((a, b) => a.start - b.start || a.midi - b.midi);
-  const sounding = soundings(sorted, pedal, true);
+  const sounding = soundings(sorted, pedal);
   let endTime = 0;
   for (const n of notes) endTime = Math.max(endTime, heardEndOf(sounding, n));
   const onsets = strikes.map((s) => s.start);

@@ -41,17 +41,14 @@ export type Sounding = {
   heardEnd: number;
 };
 
-/** A note with its sound and heard ends written on it (the engine's own copies of the notes). */
-export type SoundedNote = NoteEvent & Partial<Sounding>;
-
-/** The end of a note's sound, read from the note when `soundings` wrote it there. */
+/** The end of a note's sound (its key release when the map does not know it). */
 export function soundEndOf(sounding: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent): number {
-  return (n as SoundedNote).soundEnd ?? sounding.get(n)?.soundEnd ?? n.end;
+  return sounding.get(n)?.soundEnd ?? n.end;
 }
 
-/** The end of a note for reading harmonies, read from the note when `soundings` wrote it there. */
+/** The end of a note for reading harmonies (its key release when the map does not know it). */
 export function heardEndOf(sounding: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent): number {
-  return (n as SoundedNote).heardEnd ?? sounding.get(n)?.heardEnd ?? n.end;
+  return sounding.get(n)?.heardEnd ?? n.end;
 }
 
 function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
@@ -65,12 +62,8 @@ function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
   return lo < list.length ? list[lo].start : Infinity;
 }
 
-/**
- * Sound and heard ends of every note (notes sorted by onset). With `writeOnNotes`, they are
- * also written on the note objects (only on the engine's own copies), which the hot loops
- * read without a map look-up.
- */
-export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[], writeOnNotes = false): Map<NoteEvent, Sounding> {
+/** Sound and heard ends of every note (notes sorted by onset). */
+export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[]): Map<NoteEvent, Sounding> {
   const byPitch = new Map<number, NoteEvent[]>();
   for (const n of sorted) {
     const list = byPitch.get(n.midi);
@@ -96,10 +89,6 @@ export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpa
       }
     }
     out.set(n, { soundEnd, heardEnd });
-    if (writeOnNotes) {
-      (n as SoundedNote).soundEnd = soundEnd;
-      (n as SoundedNote).heardEnd = heardEnd;
-    }
   }
   return out;
 }
