@@ -6,7 +6,7 @@ import type { Budget } from "./budget";
 import { nameChord } from "./naming";
 import { boundaryRules, HELD_FOR, lowestSounding, MIN_HARMONY_SEC, segment, TEMPLATES, type BoundaryRules, type Segment } from "./segment";
 import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
-import type { Strike } from "./strikes";
+import { firstAtOrAfter, type Strike } from "./strikes";
 import type { NonChordToneKind, NoteEvent } from "./types";
 
 const EPS = 1e-9;
@@ -355,18 +355,6 @@ function isOwnLine(voicing: NoteEvent[], top: NoteEvent[], chordPcs: Set<number>
   return false;
 }
 
-/** First index of a note starting at or after `t` (notes sorted by onset). */
-function firstFrom(notes: readonly NoteEvent[], t: number): number {
-  let lo = 0;
-  let hi = notes.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (notes[mid].start < t) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
 /** Kinds of the non-chord tones left unnamed: passing, neighbour or anticipation (rule 15). */
 function nameKinds(h: Harmony, next: Harmony | undefined, sorted: readonly NoteEvent[]): void {
   for (const nct of h.nonChordTones) {
@@ -374,7 +362,7 @@ function nameKinds(h: Harmony, next: Harmony | undefined, sorted: readonly NoteE
     const x = nct.note;
     let before: NoteEvent | null = null;
     let after: NoteEvent | null = null;
-    for (let i = firstFrom(sorted, x.start - STEP_WINDOW); i < sorted.length && sorted[i].start <= x.start + STEP_WINDOW; i++) {
+    for (let i = firstAtOrAfter(sorted, x.start - STEP_WINDOW); i < sorted.length && sorted[i].start <= x.start + STEP_WINDOW; i++) {
       const n = sorted[i];
       const d = Math.abs(n.midi - x.midi);
       if (n === x || d < 1 || d > STEP) continue;

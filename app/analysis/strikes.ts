@@ -24,7 +24,8 @@ export type Strike = {
   held: NoteEvent[];
 };
 
-function firstAtOrAfter(list: NoteEvent[], time: number): number {
+/** First index of a note starting at or after `time` (notes sorted by onset). */
+export function firstAtOrAfter(list: readonly NoteEvent[], time: number): number {
   let lo = 0;
   let hi = list.length;
   while (lo < hi) {

@@ -64,6 +64,14 @@ const C3 = 48, D3 = 50, E3 = 52, F3 = 53, G3 = 55, A3 = 57, B3 = 59;
 const C4 = 60, D4 = 62, E4 = 64, F4 = 65, G4 = 67, A4 = 69, B4 = 71;
 const C5 = 72, D5 = 74, E5 = 76, F5 = 77, G5 = 79;
 
+/** F7 B♭7 F7 C7: a walking bass in quarters, by bar (shared by the two walking-bass takes). */
+const WALKING_BASS = [
+  [F2, G2, A2, C3],
+  [B2 - 1, A2 - 1, G2, G2 - 1],
+  [F2, A2, C3, E3],
+  [C3, B2 - 1, A2, G2],
+];
+
 export const TEXTURE_TAKES: TextureTake[] = [
   {
     file: "texture-pedalled-ballad-ab.mid",
@@ -138,12 +146,7 @@ export const TEXTURE_TAKES: TextureTake[] = [
     bpm: 120,
     seed: 104,
     notes: bars(4, (b) => {
-      const walk = [
-        [F2, G2, A2, C3],
-        [B2 - 1, A2 - 1, G2, G2 - 1],
-        [F2, A2, C3, E3],
-        [C3, B2 - 1, A2, G2],
-      ][b];
+      const walk = WALKING_BASS[b];
       const shell = [[A3, E4 - 1], [A3 - 1, D4], [A3, E4 - 1], [B3 - 1, E4]][b];
       return [...chord(b * 4, 3.9, shell), ...walk.map((m, k) => ({ midi: m, at: b * 4 + k, len: 0.95, hand: "lh" as const }))];
     }),
@@ -157,12 +160,7 @@ export const TEXTURE_TAKES: TextureTake[] = [
     bpm: 120,
     seed: 105,
     notes: bars(4, (b) => {
-      const walk = [
-        [F2, G2, A2, C3],
-        [B2 - 1, A2 - 1, G2, G2 - 1],
-        [F2, A2, C3, E3],
-        [C3, B2 - 1, A2, G2],
-      ][b];
+      const walk = WALKING_BASS[b];
       const comp = [[A3, C4, E4 - 1], [A3 - 1, D4, F4], [A3, C4, E4 - 1], [B3 - 1, E4, G4]][b];
       const second = b % 2 === 0 ? 2.5 : 2;
       return [
