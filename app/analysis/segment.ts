@@ -10,7 +10,8 @@
 // writes (see RULES.md, "How Nearnote implements rule 15").
 import type { Budget } from "./budget";
 import { pc } from "./pitch";
-import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
+import { boundaryRules, HELD_FOR, type BoundaryRules } from "./boundaries";
+import { heardEndOf, type Sounding } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NoteEvent } from "./types";
 
@@ -54,12 +55,10 @@ const POPCOUNT = Uint8Array.from({ length: 4096 }, (_, m) => {
   return c;
 });
 
+export { boundaryRules, HELD_FOR, lowestSounding, SILENCE_SEC, type BoundaryRules } from "./boundaries";
+
 /** Rule 15: a harmony lasts at least this long. */
 export const MIN_HARMONY_SEC = 0.25;
-/** Rule 15: a strike after this long with nothing sounding starts a harmony. */
-export const SILENCE_SEC = 0.25;
-/** Rule 3: a key still down this long after a strike sounds in it. */
-export const HELD_FOR = 0.15;
 
 // Our weights (tuned on the sample library; see RULES.md).
 /** Charge for a template tone that never sounds, as a share of the span's mean weight per sounding pitch class. */
@@ -78,10 +77,6 @@ const CHANGE_COST = 0.08;
  * (Temperley 2001, ch. 6).
  */
 const SAME_BASS_COST = 0.3;
-/** Rule 15: comping re-struck within this long counts as the same chord re-struck. */
-const RESTRIKE_WITHIN_SEC = 3;
-/** A melody note this short that leaves by step is a passing or neighbour note. */
-const SHORT_NOTE_SEC = 0.75;
 /** Extra weight of the first strike's notes and of the bass, to choose the chord of a span (not its length). */
 const FIRST_STRIKE_BONUS = 0.5;
 const BASS_BONUS = 0.5;
@@ -114,122 +109,6 @@ export type SegmentInput = {
   /** shortest harmony: MIN_HARMONY_SEC, or about a beat in a take that follows its tempo map */
   minHarmonySec: number;
 };
-
-/** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
-export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap<NoteEvent, Sounding>): Array<NoteEvent | null> {
-  const heard = (n: NoteEvent) => heardEndOf(sounding, n);
-  const active: NoteEvent[] = [];
-  return strikes.map((s) => {
-    const t = s.start + HELD_FOR;
-    active.push(...s.notes);
-    let low: NoteEvent | null = null;
-    let kept = 0;
-    for (const n of active) {
-      if (heard(n) <= s.start + EPS) continue;
-      active[kept++] = n;
-      if (heard(n) > t + EPS && (!low || n.midi < low.midi)) low = n;
-    }
-    active.length = kept;
-    return low;
-  });
-}
-
-/** A strike's notes above its bass when the bass is detached (7 or more semitones below the next). */
-function upperNotes(s: Strike): number[] {
-  const pitches = [...new Set(s.notes.map((n) => n.midi))].sort((a, b) => a - b);
-  return pitches.length >= 3 && pitches[1] - pitches[0] >= 7 ? pitches.slice(1) : pitches;
-}
-
-/**
- * Pitch classes of a strike's upper part (what comping re-strikes), or "" when fewer than two
- * remain: a bass and one note are no comping chord.
- */
-function upperPcs(s: Strike): string {
-  const upper = [...new Set(upperNotes(s).map(pc))].sort((a, b) => a - b);
-  return upper.length >= 2 ? upper.join(",") : "";
-}
-
-/**
- * Whether strike i is a single note with a lower note struck right after it: a harmony that
- * began there would have a bass above its chord (rule 16), so it is charged like a start
- * over an unchanged bass. A broken chord begins on its bass, below what follows.
- */
-function loneAbove(strikes: readonly Strike[], i: number): boolean {
-  const s = strikes[i];
-  const next = strikes[i + 1];
-  if (!next || new Set(s.notes.map((n) => n.midi)).size !== 1) return false;
-  const end = Math.max(...s.notes.map((n) => n.end));
-  return next.start <= end + 0.5 && next.notes.some((n) => n.midi < s.notes[0].midi);
-}
-
-export type BoundaryRules = {
-  /** a silence ends just before the strike: a harmony must begin there */
-  forced: boolean[];
-  /** the strike can never begin a harmony (it is charged heavily) */
-  barred: boolean[];
-  /** the strike brings a new lowest note (and is not a lone note above the chord that follows) */
-  newBass: boolean[];
-  /** the lowest note sounding 150 ms after each strike begins */
-  lowest: Array<NoteEvent | null>;
-};
-
-/**
- * Where harmonies must, may and may not begin (rule 15): after a silence they must; a note
- * struck alone in the bass under held notes, or between two strikes of the same comping
- * chord, a re-strike of the comping chord, and a short melody note that leaves by step may
- * not.
- */
-export function boundaryRules(input: SegmentInput): BoundaryRules {
-  const { strikes, sounding } = input;
-  const forced = strikes.map(() => false);
-  const barred = strikes.map(() => false);
-  const lowest = lowestSounding(strikes, sounding);
-  const newBass = strikes.map((s, i) => !!lowest[i] && s.notes.includes(lowest[i]!) && !loneAbove(strikes, i));
-  const multi = strikes.map((s) => new Set(s.notes.map((n) => n.midi)).size >= 2);
-  const nextMulti = new Int32Array(strikes.length + 1).fill(-1);
-  for (let i = strikes.length - 1; i >= 0; i--) nextMulti[i] = multi[i + 1] ? i + 1 : nextMulti[i + 1];
-  // Comping parts once per strike (compared with their neighbours below).
-  const comps = strikes.map((s, i) => (multi[i] ? upperPcs(s) : ""));
-  let lastSound = -Infinity;
-  let prevMulti = -1;
-  // Notes struck before the current strike whose key is still down (held into it, rule 3).
-  let down: NoteEvent[] = [];
-  for (let i = 0; i < strikes.length; i++) {
-    const s = strikes[i];
-    const t = s.start;
-    if (i > 0) down = [...down, ...strikes[i - 1].notes].filter((n) => n.end > t + EPS);
-    if (i > 0 && t - lastSound >= SILENCE_SEC - EPS) forced[i] = true;
-    if (i > 0 && !multi[i]) {
-      const n = s.notes[0];
-      // A note struck alone in the bass under held upper notes.
-      const held = down.filter((h) => h.end > t + HELD_FOR + EPS && h.midi !== n.midi);
-      if (held.length > 0 && held.every((h) => h.midi > n.midi)) barred[i] = true;
-      // A walking note between two strikes of the same comping chord, below both.
-      const q = nextMulti[i];
-      if (prevMulti >= 0 && q >= 0 && !forced[i] && strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC) {
-        const below = (k: number) => upperNotes(strikes[k]).every((x) => x > n.midi);
-        const comp = comps[q];
-        if (comp && comps[prevMulti] === comp && below(prevMulti) && below(q)) barred[i] = true;
-      }
-      // A short melody note over other notes that leaves by step: passing or neighbour.
-      const next = strikes[i + 1];
-      const over = down.some((h) => h.midi < n.midi);
-      if (over && next && n.end - n.start <= SHORT_NOTE_SEC && next.start <= n.end + 0.1) {
-        if (next.notes.some((x) => x.midi !== n.midi && Math.abs(x.midi - n.midi) <= 2)) barred[i] = true;
-      }
-    }
-    if (multi[i]) {
-      // Comping re-struck (its upper notes again, perhaps over a walking bass note).
-      const comp = comps[i];
-      if (comp && prevMulti >= 0 && !forced[i] && t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC && comp === comps[prevMulti]) {
-        barred[i] = true;
-      }
-      prevMulti = i;
-    }
-    for (const n of s.notes) lastSound = Math.max(lastSound, soundEndOf(sounding, n));
-  }
-  return { forced, barred, newBass, lowest };
-}
 
 // Every template on every root, flattened for the inner loop of the search: its pitch-class
 // mask, its tones (padded to four), their count, and which template and root it is.
