@@ -56,7 +56,7 @@ export function TakeSummary({ summary, chords }: { summary: Summary; chords: Cho
         <Figure
           label="Key"
           value={pretty(summary.key)}
-          detail={summary.keySource === "given" ? "from the exercise" : "estimated from the notes"}
+          detail={summary.keySource === "given" ? (summary.target ? "from the exercise" : "as given with the take") : "estimated from the notes"}
         />
         <Figure label="Steady time" value={percent(summary.tempo.steadiness)} detail="how evenly your notes fell on the beat" />
       </dl>
