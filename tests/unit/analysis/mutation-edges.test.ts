@@ -305,9 +305,10 @@ describe("rules 1–3: which notes pair up", () => {
   });
 
   it("of two possible resolutions, the one beginning nearest the release is taken", () => {
-    // D#4 released at 0.1 s; E4 begins 50 ms later, F4 right at the release.
-    expect(graces([note(63, 0, 0.1), note(64, 0.15, 1), note(65, 0.1, 1)])).toEqual([[63, 65]]);
-    expect(graces([note(63, 0, 0.1), note(64, 0.1, 1), note(65, 0.15, 1)])).toEqual([[63, 64]]);
+    // D#4 released at 0.1 s; both E4 and F4 begin inside the window (100 ms before to 30 ms
+    // after the release): the one 10 ms after the release wins over the one 80 ms before it.
+    expect(graces([note(63, 0, 0.1), note(64, 0.02, 1), note(65, 0.11, 1)])).toEqual([[63, 65]]);
+    expect(graces([note(63, 0, 0.1), note(64, 0.11, 1), note(65, 0.02, 1)])).toEqual([[63, 64]]);
   });
 
   it("a resolution struck before its grace note still takes it into its strike", () => {
