@@ -25,16 +25,6 @@ import { detachedBass, upperStructure } from "./voiceLeading";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
-/** Distinct pitches a strike sounds as a chord: struck and held notes, grace notes excluded. */
-export function strikeVoicing(s: Strike): number[] {
-  return [...new Set([...s.notes, ...s.held].map((n) => n.midi))].sort((a, b) => a - b);
-}
-
-/** A strike with two or more distinct struck pitches is a chord; one pitch is a melody note. */
-export function isChordStrike(s: Strike): boolean {
-  return new Set(s.notes.map((n) => n.midi)).size >= 2;
-}
-
 /** The parts of a chord report that depend only on its voicing (and the key). */
 type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "bassLine" | "nonChordTones" | "pedal" | "techniques">;
 type VoicingFacts = { name: ReturnType<typeof nameChord>; shown: Shown; techniquesWithoutGraces: ChordReport["techniques"] };

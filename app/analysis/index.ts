@@ -89,9 +89,9 @@ function nameRootless(chords: ChordReport[], match: MatchResult, target: TargetC
 }
 
 /** Rule 19: notes the pedal carried into a harmony that are not its chord tones. */
-function blurredNotes(h: Harmony, chord: ChordReport): number[] {
-  const tones = new Set(chord.notes.map(pc));
-  return [...new Set(h.carried.filter((n) => !tones.has(pc(n.midi)) && !h.chordPcs.has(pc(n.midi))).map((n) => n.midi))].sort((a, b) => a - b);
+function blurredNotes(h: Harmony): number[] {
+  // chordPcs holds every pitch class of the voicing, so one test covers both.
+  return [...new Set(h.carried.filter((n) => !h.chordPcs.has(pc(n.midi))).map((n) => n.midi))].sort((a, b) => a - b);
 }
 
 /**
@@ -129,7 +129,7 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
     hasMelody: reading.hasMelody,
     melodyNotes,
     budget,
-    blurredNotes: reading.harmonies.map((h, i) => (i === 0 ? [] : blurredNotes(h, chords[i]))),
+    blurredNotes: reading.harmonies.map((h, i) => (i === 0 ? [] : blurredNotes(h))),
   });
   let durationSec = 0;
   for (const n of notes) durationSec = Math.max(durationSec, n.end);

@@ -55,7 +55,18 @@ export type NewTake = {
   outcome: AnalysisOutcome;
 };
 
-/** Writes a take with its metric, chord and change rows in one transaction; returns its id. */
+/** The take columns an analysis outcome sets (a new take and a replaced one alike). */
+function outcomeColumns(outcome: AnalysisOutcome, studioId: string, recordedAt: Date) {
+  return {
+    status: outcome.ok ? ("analysed" as const) : ("failed" as const),
+    error: outcome.ok ? null : outcome.error,
+    weekKey: takeWeekKey(studioId, recordedAt),
+    durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
+    analysisVersion: ANALYSIS_VERSION,
+  };
+}
+
+/** Writes a take with its metric row in one transaction; returns its id. */
 export function createTakeRecord(t: NewTake): string {
   const { outcome, ...fields } = t;
   return db().transaction((tx) => {
@@ -63,11 +74,7 @@ export function createTakeRecord(t: NewTake): string {
       .insert(takes)
       .values({
         ...fields,
-        status: outcome.ok ? "analysed" : "failed",
-        error: outcome.ok ? null : outcome.error,
-        weekKey: takeWeekKey(t.studioId, t.recordedAt),
-        durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
-        analysisVersion: ANALYSIS_VERSION,
+        ...outcomeColumns(outcome, t.studioId, t.recordedAt),
       })
       .returning({ id: takes.id })
       .get();
@@ -238,11 +245,7 @@ export function replaceTakeRecord(takeId: string, expectedFileKey: string, r: Re
     tx.update(takes)
       .set({
         ...fields,
-        status: outcome.ok ? "analysed" : "failed",
-        error: outcome.ok ? null : outcome.error,
-        weekKey: takeWeekKey(take.studioId, r.recordedAt),
-        durationSec: outcome.ok ? outcome.analysis.summary.durationSec : 0,
-        analysisVersion: ANALYSIS_VERSION,
+        ...outcomeColumns(outcome, take.studioId, r.recordedAt),
       })
       .where(eq(takes.id, takeId))
       .run();
