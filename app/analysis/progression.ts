@@ -142,16 +142,69 @@ function parseRoman(token: string, position: number, key: Key): TargetChord {
   return chord;
 }
 
+/** A Roman numeral at the start of a chord (accidental, numeral, and no further letter). */
+const ROMAN_START = /^[b#]?(?:VII|VI|V|IV|III|II|I|vii|vi|v|iv|iii|ii|i)(?![a-z])/;
+
+/**
+ * The same chord written with the characters teachers type on different keyboards, in one
+ * spelling (common practice, lead-sheet notation): the math increment sign ∆ and the Greek Δ
+ * both mean major seventh, º ˚ ⁰ are the degree sign °, Ø is ø, a minus sign is a hyphen,
+ * and ♭ ♯ are b #.
+ */
+function normaliseSigns(text: string): string {
+  return text
+    .normalize("NFC")
+    .replace(/∆/g, "Δ")
+    .replace(/[º˚⁰]/g, "°")
+    .replace(/Ø/g, "ø")
+    .replace(/[−‐‑]/g, "-")
+    .replace(/♭/g, "b")
+    .replace(/♯/g, "#");
+}
+
+/**
+ * Roman numerals written with a minor mark ("II-7", "IIm7", "VIm", "ii-7"), as many jazz
+ * teachers write them (common practice, lead-sheet notation), become the lower-case numeral
+ * the parser reads ("ii7", "vi").
+ */
+function lowerMinorNumeral(token: string): string {
+  const m = /^([b#]?)(VII|VI|V|IV|III|II|I|vii|vi|v|iv|iii|ii|i)(?:-|min|mi|m)(?!aj|a7|M)(.*)$/.exec(token);
+  return m ? m[1] + m[2].toLowerCase() + m[3] : token;
+}
+
+/**
+ * Splits a progression into chord tokens. Spaces, commas, bar lines ("|", "||", "|:", ":|"),
+ * en and em dashes separate chords; a hyphen does too when a chord follows it ("ii-V-I",
+ * "Dm7-G7-C"), but not when it is the minor mark of a lead-sheet symbol ("D-7", "C-").
+ */
+export function progressionTokens(text: string): string[] {
+  const bars = normaliseSigns(text).replace(/\|:|:\|/g, "|");
+  const out: string[] = [];
+  for (const rough of bars.split(/[\s,|–—]+/)) {
+    let start = 0;
+    for (let i = 1; i < rough.length; i++) {
+      if (rough[i] !== "-") continue;
+      const rest = rough.slice(i + 1);
+      if (/^[A-G]/.test(rest) || ROMAN_START.test(rest)) {
+        out.push(rough.slice(start, i));
+        start = i + 1;
+      }
+    }
+    out.push(rough.slice(start));
+  }
+  return out.filter((t) => t.length > 0).map(lowerMinorNumeral);
+}
+
 /** Parses a target progression of chord symbols or Roman numerals; throws ProgressionError naming the bad token. */
 export function parseProgression(text: string, key: Key): TargetChord[] {
-  const tokens = text.trim().split(/[\s,|]+/).filter((t) => t.length > 0);
+  const tokens = progressionTokens(text);
   if (tokens.length === 0) throw new ProgressionError("The progression is empty: write chords like I IV V I or C F G C");
   if (tokens.length > MAX_PROGRESSION_CHORDS) {
     throw new ProgressionError(`The progression has ${tokens.length} chords; at most ${MAX_PROGRESSION_CHORDS} are allowed`);
   }
   return tokens.map((token, i) => {
     if (/^[A-G]/.test(token)) return parseChordSymbol(token, i + 1, key);
-    if (/^[b#♭♯]?[IViv]/.test(token)) return parseRoman(token, i + 1, key);
+    if (/^[b#]?[IViv]/.test(token)) return parseRoman(token, i + 1, key);
     throw badToken(i + 1, token);
   });
 }

@@ -5,7 +5,7 @@
 // Roman numerals are relative to the key, so they are read afresh in every key. Chord
 // symbols are absolute: they are written in the exercise's first key and moved to the others.
 import { parseKey, ProgressionError, type Key } from "~/analysis/pitch";
-import { parseProgression, transposeProgression, type TargetChord } from "~/analysis/progression";
+import { parseProgression, progressionTokens, transposeProgression, type TargetChord } from "~/analysis/progression";
 
 /** The twelve major keys as teachers usually spell them (common practice: the fewer accidentals). */
 export const ALL_MAJOR_KEYS = ["C", "Db", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
@@ -23,13 +23,9 @@ export function splitKeys(text: string): string[] {
   return [...new Set(text.split(/[\s,;]+/).filter((k) => k.length > 0))];
 }
 
-function tokens(progression: string): string[] {
-  return progression.trim().split(/[\s,|]+/).filter((t) => t.length > 0);
-}
-
 /** Whether any token is a chord symbol (absolute pitch), so the keys must be transposed to. */
 export function usesChordSymbols(progression: string): boolean {
-  return tokens(progression).some((t) => /^[A-G]/.test(t));
+  return progressionTokens(progression).some((t) => /^[A-G]/.test(t));
 }
 
 function readKey(name: string): Key {
