@@ -1,6 +1,6 @@
 import { and, eq, inArray, type SQL } from "drizzle-orm";
 import { strToU8, zipSync, type Zippable } from "fflate";
-import { db } from "~/db/client.server";
+import { db, type Tx } from "~/db/client.server";
 import {
   comments,
   invitations,
@@ -25,7 +25,7 @@ import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
  * their files: a crash in between leaves files without rows (the orphan sweep
  * removes them), never rows that pages would list without a file.
  */
-export async function removeTakesWithFiles(where: SQL) {
+export async function removeTakesWithFiles(where: SQL, alsoInTransaction?: (tx: Tx) => void) {
   const fileKeys = db().transaction((tx) => {
     const rows = tx.select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
     for (let i = 0; i < rows.length; i += 500) {
@@ -33,6 +33,7 @@ export async function removeTakesWithFiles(where: SQL) {
         .where(inArray(takes.id, rows.slice(i, i + 500).map((r) => r.id)))
         .run();
     }
+    alsoInTransaction?.(tx);
     return rows.map((r) => r.fileKey);
   });
   await removeTakeFilesAfterRows(fileKeys);

@@ -101,8 +101,10 @@ export function removeMember(studioId: string, userId: string, role: "student" |
 export async function deleteStudentData(studioId: string, studentId: string): Promise<{ accountDeleted: boolean }> {
   const membership = getMembership(studioId, studentId);
   if (!membership || membership.role !== "student") return { accountDeleted: false };
-  await removeTakesWithFiles(and(eq(takes.studioId, studioId), eq(takes.studentId, studentId))!);
-  db().delete(memberships).where(eq(memberships.id, membership.id)).run();
+  // The takes and the membership go in one transaction, the files only after it.
+  await removeTakesWithFiles(and(eq(takes.studioId, studioId), eq(takes.studentId, studentId))!, (tx) => {
+    tx.delete(memberships).where(eq(memberships.id, membership.id)).run();
+  });
   const others = db().select({ n: count() }).from(memberships).where(eq(memberships.userId, studentId)).get();
   if ((others?.n ?? 0) === 0) {
     await deletePersonData(studentId);

@@ -11,7 +11,7 @@ import { storeModelTake } from "~/models/modelTakes.server";
 import { startBackgroundWork } from "~/lib/startup.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { deletePersonData } from "~/models/personalData.server";
-import { deleteStudentData } from "~/models/studios.server";
+import { deleteStudentData, getMembership } from "~/models/studios.server";
 import * as login from "~/routes/login";
 import * as apiTakes from "~/routes/api.takes";
 import * as healthz from "~/routes/healthz";
@@ -69,6 +69,21 @@ describe("deleting a student's data", () => {
     await age(2);
     expect(await sweepOrphanTakeFiles(new Date())).toBe(1);
     expect(storedFiles()).toHaveLength(0);
+  });
+
+  it("removes the membership in the same transaction as the takes, before any file", async () => {
+    const { studio, dara } = await studentWithTakes(2);
+    const store = takeStorage();
+    // A crash at the first file: the rows must already be gone, membership included.
+    vi.spyOn(store, "remove").mockImplementation(async () => {
+      expect(takeRows()).toBe(0);
+      expect(getMembership(studio.id, dara.id)).toBeUndefined();
+      throw new Error("process killed");
+    });
+    vi.spyOn(console, "warn").mockImplementation(() => {});
+    await deleteStudentData(studio.id, dara.id).catch(() => {});
+    expect(getMembership(studio.id, dara.id)).toBeUndefined();
+    expect(store.remove).toHaveBeenCalled();
   });
 
   it("deletes an account's takes, invitations and user row in one go, then the files", async () => {
