@@ -1,4 +1,5 @@
 import { sql } from "drizzle-orm";
+import type { FitWarning } from "~/analysis/exerciseFit";
 import type { TakeAnalysis } from "~/analysis/types";
 import {
   type AnySQLiteColumn,
@@ -153,6 +154,9 @@ export const takes = sqliteTable(
     weekKey: text("week_key").notNull(),
     durationSec: real("duration_sec").notNull().default(0),
     analysisVersion: integer("analysis_version"),
+    // Set when the take was filed under an exercise it does not fit (another key, other
+    // chords): the key it sounds in and the exercise it likely belongs to. Cleared by a move.
+    exerciseFit: text("exercise_fit", { mode: "json" }).$type<FitWarning>(),
     createdAt: createdAt(),
   },
   (t) => [

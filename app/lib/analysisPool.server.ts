@@ -3,6 +3,7 @@ import path from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import { AnalysisError } from "~/analysis";
+import type { FitCandidate } from "~/analysis/exerciseFit";
 import { env } from "~/lib/env.server";
 import type { AnalysisOutcome, AnalysisTask, NotesOutcome } from "./analysisWorker/task";
 
@@ -63,10 +64,13 @@ async function runLimited<T extends AnalysisOutcome | NotesOutcome>(task: Analys
 /** Analyses a take's bytes on a worker thread, within the time limit. */
 export function analyseInWorker(
   bytes: Uint8Array,
-  options: { key?: string | null; target?: string },
+  options: { key?: string | null; target?: string; candidates?: FitCandidate[] },
   timeLimitMs = env().analysisTimeLimitMs,
 ): Promise<AnalysisOutcome> {
-  return runLimited<AnalysisOutcome>({ kind: "analyse", bytes, key: options.key ?? null, target: options.target }, timeLimitMs);
+  return runLimited<AnalysisOutcome>(
+    { kind: "analyse", bytes, key: options.key ?? null, target: options.target, candidates: options.candidates },
+    timeLimitMs,
+  );
 }
 
 /** Reads a model take's notes on a worker thread (to check it can be played), within the time limit. */

@@ -27,7 +27,7 @@ describe("separators between chords", () => {
     // tonal: step is the zero-based scale degree, major tells the numeral's case.
     expect(chords.map((c) => c.roman)).toEqual(tonal.map((t) => t.name));
     expect(chords.map((c) => c.triad === "major")).toEqual(tonal.map((t) => t.major));
-    expect(chords.map((c) => c.root)).toEqual(tonal.map((t) => [0, 2, 4, 5, 7, 9, 11][t.step]));
+    expect(chords.map((c) => c.root)).toEqual(tonal.map((t) => [0, 2, 4, 5, 7, 9, 11][t.step ?? 0]));
   });
 
   it("bar lines and repeat signs separate chords: | Dm7 | G7 | Cmaj7 | and |: … :|", () => {

@@ -1,0 +1,1 @@
+ALTER TABLE `takes` ADD `exercise_fit` text;
