@@ -7,7 +7,7 @@ import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import { analyseTake } from "../../app/lib/analysisWorker/task";
 import { denseChordTake } from "../lib/denseTake";
-import { buildIfNeeded } from "../lib/runApp";
+import { buildIfNeeded, serveCommand } from "../lib/runApp";
 import { median } from "./stats";
 
 const PORT = 3303;
@@ -34,7 +34,8 @@ export async function benchWorkerPool(): Promise<string[]> {
   const tsx = path.resolve("node_modules/.bin/tsx");
   const seeded = spawnSync(tsx, ["scripts/seed.ts"], { env, encoding: "utf8" });
   if (seeded.status !== 0) throw new Error(seeded.stderr);
-  const app = spawn(tsx, ["scripts/serve.ts"], { env, stdio: ["ignore", "ignore", "inherit"] });
+  const [serve, serveArgs] = serveCommand();
+  const app = spawn(serve, serveArgs, { env, stdio: ["ignore", "ignore", "inherit"] });
   try {
     for (let i = 0; ; i++) {
       try {

@@ -15,12 +15,16 @@ function newestMtime(dir: string): number {
 
 export const BUILD_DIR = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
 
+/** The bundled production server (`npm run build` writes it after the framework's build). */
+export const BUILT_SERVE = path.join(BUILD_DIR, "server/serve.js");
+
 export function buildIfNeeded() {
   const server = path.join(BUILD_DIR, "server/index.js");
-  const stale = !existsSync(server) || newestMtime(path.resolve("app")) > statSync(server).mtimeMs;
+  const stale =
+    !existsSync(server) || !existsSync(BUILT_SERVE) || newestMtime(path.resolve("app")) > statSync(server).mtimeMs;
   if (!stale) return;
   console.log("Building Nearnote (first run or changed sources)…");
-  const r = spawnSync(path.resolve("node_modules/.bin/react-router"), ["build"], { stdio: "inherit" });
+  const r = spawnSync("npm", ["run", "build"], { stdio: "inherit" });
   if (r.status !== 0) throw new Error("The build failed; see the messages above.");
 }
 
@@ -38,11 +42,18 @@ export function loadEnvOrExit() {
 }
 
 /**
- * Serves the built app (scripts/serve.ts) as a child process started from
- * node_modules/.bin, so that stopping this script stops the server.
+ * The command that serves the built app: plain node on the bundled server, or,
+ * when only the framework's build is there, scripts/serve.ts through tsx.
  */
+export function serveCommand(): [string, string[]] {
+  if (existsSync(BUILT_SERVE)) return [process.execPath, [BUILT_SERVE]];
+  return [path.resolve("node_modules/.bin/tsx"), [path.resolve("scripts/serve.ts")]];
+}
+
+/** Serves the built app as a child process, so that stopping this script stops the server. */
 export function serveBuiltApp(extraEnv: Record<string, string>) {
-  const child = spawn(path.resolve("node_modules/.bin/tsx"), [path.resolve("scripts/serve.ts")], {
+  const [command, args] = serveCommand();
+  const child = spawn(command, args, {
     stdio: "inherit",
     env: { NODE_ENV: "production", ...process.env, ...extraEnv, NEARNOTE_BUILD_DIR: BUILD_DIR },
   });

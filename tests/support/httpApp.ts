@@ -4,7 +4,7 @@ import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
 import { resetEnvForTests } from "~/lib/env.server";
-import { createApp } from "../../scripts/serve";
+import { createApp } from "../../scripts/lib/server";
 
 /**
  * Serves the built app (Express + React Router, as in production) on a free

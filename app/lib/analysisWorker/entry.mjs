@@ -1,6 +1,7 @@
-// Entry of an analysis worker thread. The engine is TypeScript and the server,
-// the scripts and vitest all run it from source, so the worker loads it through
-// tsx's scoped loader (which leaves any loader the parent process uses alone).
+// Entry of an analysis worker thread in dev, the scripts and vitest, which run the
+// TypeScript engine from source: the worker loads it through tsx's scoped loader
+// (which leaves any loader the parent process uses alone). The built server uses
+// build/server/analysis-worker.js instead, bundled by `npm run build`.
 import { tsImport } from "tsx/esm/api";
 
 const task = await tsImport("./task.ts", import.meta.url);

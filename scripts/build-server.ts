@@ -1,0 +1,33 @@
+// Second half of `npm run build`, after `react-router build`: bundles the Node
+// entry points (start, serve, the analysis worker) to plain JavaScript beside the
+// server build, so the production server never transpiles TypeScript at run time,
+// then prints the JavaScript each page loads against its budget.
+import { build } from "esbuild";
+import path from "node:path";
+import { bundleRows, builtGzipSize, formatBundleReport, readBuiltManifest } from "./lib/bundleReport";
+
+const buildDir = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
+
+await build({
+  entryPoints: {
+    start: "scripts/start.ts",
+    serve: "scripts/serve.ts",
+    "analysis-worker": "app/lib/analysisWorker/task.ts",
+  },
+  outdir: path.join(buildDir, "server"),
+  chunkNames: "node-chunks/[name]-[hash]",
+  bundle: true,
+  // Dynamic imports stay separate chunks, so NODE_ENV is set before React loads.
+  splitting: true,
+  platform: "node",
+  format: "esm",
+  target: "node20",
+  // Packages load from node_modules as they are (better-sqlite3 is native).
+  packages: "external",
+  sourcemap: true,
+  logLevel: "warning",
+});
+console.log(`Node entry points bundled: ${path.relative(process.cwd(), path.join(buildDir, "server"))}/{start,serve,analysis-worker}.js`);
+
+const clientDir = path.join(buildDir, "client");
+console.log(formatBundleReport(bundleRows(readBuiltManifest(clientDir), builtGzipSize(clientDir))));
