@@ -18,8 +18,25 @@ import { currentWeek, lastTakeDates, studioStudents, weeklySums, type StudentRef
 
 export const TREND_WEEKS = 8;
 
-/** Improving, holding level, slipping, or not practising: what a teacher scans for first. */
-export type StudentStatus = "improving" | "level" | "slipping" | "stopped" | "new";
+/**
+ * What a teacher scans for first. "improving", "level" and "slipping" compare two
+ * mean scores (see `StatusComparison`); "stopped" is a student with takes before
+ * but none this week, "new" one without any take, "early" one who practised this
+ * week but has no earlier weeks to compare with.
+ */
+export type StudentStatus = "improving" | "level" | "slipping" | "stopped" | "new" | "early";
+
+/** Weeks on each side of the status comparison. */
+export const STATUS_WEEKS = 3;
+/** Whole score points the two means must differ by before the status says "improving" or "slipping". */
+export const STATUS_BAND = 3;
+
+/**
+ * The two figures a trend status rests on, rounded as the board prints them:
+ * the mean score of the last three weeks (this one included) and of the three
+ * before. Null: no analysed take in those weeks.
+ */
+export type StatusComparison = { before: number | null; recent: number | null };
 
 export type BoardRow = {
   studentId: string;
@@ -30,24 +47,34 @@ export type BoardRow = {
   /** Mean score of each of the last TREND_WEEKS weeks, oldest first (null: no analysed take). */
   trend: (number | null)[];
   status: StudentStatus;
+  /** The mean scores the status compares (three weeks before → last three weeks). */
+  compare: StatusComparison;
   lastTakeAt: string | null;
   remindedThisWeek: boolean;
 };
 
 /**
- * Compares the mean score of the last three weeks with the three before (sums,
- * not means of means). Two silent weeks in a row read as "stopped". The 3-point
- * band is our own choice: smaller moves are week-to-week noise in the demo data.
+ * A student's status for the week `thisWeek` and the figures it compares. A
+ * student with no take this week gets no trend status, whatever older weeks
+ * say, so the status never contradicts an empty row. The decision uses the
+ * rounded means the page shows, so "78 → 76" can never read "slipping". The
+ * 3-point band is our own choice: smaller moves are week-to-week noise.
  */
-export function studentStatus(weeks: Map<string, WeekSums>, thisWeek: string): StudentStatus {
+export function studentStatus(
+  weeks: Map<string, WeekSums>,
+  thisWeek: string,
+  hasEarlierTakes = weeks.size > 0,
+): { status: StudentStatus; compare: StatusComparison } {
   const at = (n: number) => weeks.get(shiftWeek(thisWeek, -n)) ?? EMPTY_SUMS;
-  if (at(0).takes === 0 && at(1).takes === 0) return weeks.size ? "stopped" : "new";
-  const recent = figuresFrom(combineSums([at(0), at(1), at(2)])).score;
-  const before = figuresFrom(combineSums([at(3), at(4), at(5)])).score;
-  if (recent === null || before === null) return "level";
-  if (recent - before >= 3) return "improving";
-  if (before - recent >= 3) return "slipping";
-  return "level";
+  const mean = (from: number) => {
+    const score = figuresFrom(combineSums(Array.from({ length: STATUS_WEEKS }, (_, i) => at(from + i)))).score;
+    return score === null ? null : Math.round(score);
+  };
+  const compare = { recent: mean(0), before: mean(STATUS_WEEKS) };
+  if (at(0).takes === 0) return { status: hasEarlierTakes ? "stopped" : "new", compare };
+  if (compare.recent === null || compare.before === null) return { status: "early", compare };
+  const diff = compare.recent - compare.before;
+  return { status: diff >= STATUS_BAND ? "improving" : diff <= -STATUS_BAND ? "slipping" : "level", compare };
 }
 
 /**
@@ -67,6 +94,7 @@ export function boardRows(studioId: string, now = new Date(), chosenWeek?: strin
   const rows = students.map((s) => {
     const weeks = sums.get(s.id) ?? new Map<string, WeekSums>();
     const fig = (w: string) => figuresFrom(weeks.get(w) ?? EMPTY_SUMS);
+    const { status, compare } = studentStatus(weeks, week, last.has(s.id));
     return {
       studentId: s.id,
       name: s.name,
@@ -74,7 +102,8 @@ export function boardRows(studioId: string, now = new Date(), chosenWeek?: strin
       thisWeek: fig(week),
       lastWeek: fig(shiftWeek(week, -1)),
       trend: trendWeeks.map((w) => fig(w).score),
-      status: studentStatus(weeks, week),
+      status,
+      compare,
       lastTakeAt: last.get(s.id) ?? null,
       remindedThisWeek: reminded.has(s.id),
     };
@@ -103,10 +132,16 @@ export function chartData(studioId: string, metric: MetricId, students: StudentR
   };
 }
 
-/** Every (student, week) pair of the range with its figures, students by name, weeks in order. */
-export function exportRows(studioId: string, students: StudentRef[], fromWeek: string, toWeek: string) {
-  const weeks = weeksBetween(fromWeek, toWeek);
-  const sums = weeklySums(studioId, { fromWeek, toWeek, studentIds: students.map((s) => s.id) });
+/**
+ * Every (student, week) pair of the range with its figures, students by name,
+ * weeks in order. Weeks after `lastWeek` (the studio's current week) have not
+ * happened yet and are left out.
+ */
+export function exportRows(studioId: string, students: StudentRef[], fromWeek: string, toWeek: string, lastWeek = currentWeek(studioId)) {
+  const end = toWeek < lastWeek ? toWeek : lastWeek;
+  if (end < fromWeek) return [];
+  const weeks = weeksBetween(fromWeek, end);
+  const sums = weeklySums(studioId, { fromWeek, toWeek: end, studentIds: students.map((s) => s.id) });
   return students.flatMap((s) => weeks.map((week) => ({ student: s, week, figures: figuresFrom(sums.get(s.id)?.get(week) ?? EMPTY_SUMS) })));
 }
 

@@ -68,6 +68,10 @@ describe("board statuses and trend", () => {
     expect(byName["Lena Voss"].status).toBe("level");
     expect(byName["Samir Haddad"].status).toBe("stopped");
     expect(byName["Yuki Tanabe"].status).toBe("new");
+    // Each trend status carries the two rounded means it compares (three weeks before → the last three).
+    expect(byName["Dara Okafor"].compare).toEqual({ before: 50, recent: 60 });
+    expect(byName["Felix Brandt"].compare).toEqual({ before: 80, recent: 70 });
+    expect(byName["Lena Voss"].compare).toEqual({ before: 70, recent: 71 });
     // This week against last week, and eight weeks of mean score, oldest first (null: no takes that week).
     expect(byName["Felix Brandt"].thisWeek.score).toBe(70);
     expect(byName["Felix Brandt"].lastWeek.score).toBe(70);
@@ -77,6 +81,28 @@ describe("board statuses and trend", () => {
     expect(byName["Yuki Tanabe"].lastTakeAt).toBeNull();
     // Students by name, as the table starts out.
     expect(rows.map((r) => r.name)).toEqual(["Dara Okafor", "Felix Brandt", "Lena Voss", "Samir Haddad", "Yuki Tanabe"]);
+  });
+});
+
+describe("board status against its own row", () => {
+  const take = (studentId: string, n: number, score: number) => insertHandTake({ studentId, studioId: s.studio, at: weeksAgo(n), score, changes: 4, motion: 8, best: 4 });
+
+  it("gives a student without a take this week no trend status, however the weeks before went", () => {
+    // Falling from 80 to 60 over weeks 5..1, then silent this week: "slipping" would contradict an empty row.
+    for (const n of [5, 4, 3]) take(s.slider, n, 80);
+    for (const n of [2, 1]) take(s.slider, n, 60);
+    const row = boardRows(s.studio, NOW).rows.find((r) => r.studentId === s.slider)!;
+    expect(row.thisWeek.takes).toBe(0);
+    expect(row.status).toBe("stopped");
+  });
+
+  it("says 'too early' for a student whose first takes are this week, and decides on the rounded means it prints", () => {
+    take(s.fresh, 0, 75);
+    // 70.4 before and 72.6 now print as 70 → 73: three points up, so improving (not "level" from the raw 2.2).
+    for (const [n, score] of [[5, 70.4], [4, 70.4], [3, 70.4], [2, 72.6], [1, 72.6], [0, 72.6]] as const) take(s.steady, n, score);
+    const rows = boardRows(s.studio, NOW).rows;
+    expect(rows.find((r) => r.studentId === s.fresh)).toMatchObject({ status: "early", compare: { before: null, recent: 75 } });
+    expect(rows.find((r) => r.studentId === s.steady)).toMatchObject({ status: "improving", compare: { before: 70, recent: 73 } });
   });
 });
 
