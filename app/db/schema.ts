@@ -438,3 +438,21 @@ export const sentMails = sqliteTable(
 );
 
 export type Comment = typeof comments.$inferSelect;
+
+// When a teacher last opened their home page in a studio, so home can say what is
+// new since. `sinceAt` is the visit before the current sitting (a reload within
+// half an hour keeps it), null before the second visit.
+export const studioVisits = sqliteTable(
+  "studio_visits",
+  {
+    userId: text("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    studioId: text("studio_id")
+      .notNull()
+      .references(() => studios.id, { onDelete: "cascade" }),
+    lastVisitAt: integer("last_visit_at", { mode: "timestamp_ms" }).notNull(),
+    sinceAt: integer("since_at", { mode: "timestamp_ms" }),
+  },
+  (t) => [primaryKey({ columns: [t.userId, t.studioId] })],
+);
