@@ -11,15 +11,17 @@ import { createHash } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { z } from "zod";
 import { ProgressionError, type TakeAnalysis } from "~/analysis";
+import { fitWarning, type FitCandidate } from "~/analysis/exerciseFit";
 import { parseKey } from "~/analysis/pitch";
 import type { SessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { takes, type Take } from "~/db/schema";
 import { targetTextForKey } from "~/lib/exerciseProgression";
+import { fitNotice, type FitNotice } from "~/lib/exerciseFitText";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
 import { MAX_FILES, MAX_TAKE_BYTES } from "~/lib/uploadLimits";
-import { exerciseForStudent } from "~/models/exercises.server";
+import { listExercisesForStudent, type ExerciseOption } from "~/models/exercises.server";
 import { createTakeRecord, replaceTakeRecord } from "~/models/takes.server";
 
 // One module for every way a take arrives: the API route, the upload page's
@@ -31,6 +33,7 @@ export type UploadBody = {
   status?: "analysed" | "failed";
   error?: string;
   analysis?: TakeAnalysis;
+  fit?: FitNotice;
 };
 export type UploadResult = { status: number; body: UploadBody; fileName: string };
 
@@ -118,6 +121,11 @@ function parseRecordedAt(value: string | undefined, fallback: number | undefined
   return new Date(now);
 }
 
+/** Every open exercise of the student in each of its keys, as the engine compares a take with them. */
+function fitCandidatesOf(exercises: readonly ExerciseOption[]): FitCandidate[] {
+  return exercises.flatMap((e) => e.keys.map((key) => ({ exerciseId: e.id, key, target: targetTextForKey(e.progression, e.keys, key) })));
+}
+
 /** Where an ingested file goes: a new take in a studio, or in place of an existing take. */
 type Destination = { studioId: string; replacing?: { id: string; fileKey: string } };
 
@@ -145,12 +153,15 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
 
     let key = fields.key ?? null;
     let target: string | undefined;
+    let candidates: FitCandidate[] | undefined;
+    const open = fields.exerciseId ? listExercisesForStudent(user.id, studioId) : [];
     if (fields.exerciseId) {
-      const exercise = exerciseForStudent(user.id, studioId, fields.exerciseId);
+      const exercise = open.find((e) => e.id === fields.exerciseId);
       if (!exercise) return fail(400, "That exercise is not one of yours.");
       key ??= exercise.keys[0] ?? null;
       if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
       target = targetTextForKey(exercise.progression, exercise.keys, key);
+      candidates = fitCandidatesOf(open);
     }
     if (key) {
       try {
@@ -161,7 +172,8 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
       }
     }
 
-    const outcome = await analyseInWorker(bytes, { key, target });
+    const outcome = await analyseInWorker(bytes, { key, target, candidates });
+    const warning = outcome.ok && outcome.fit && fields.exerciseId ? fitWarning(outcome.fit, { exerciseId: fields.exerciseId, key }) : null;
     const record = {
       exerciseId: fields.exerciseId ?? null,
       key,
@@ -171,6 +183,7 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
       size: bytes.length,
       contentHash,
       recordedAt: parseRecordedAt(fields.recordedAt, file.lastModified),
+      exerciseFit: warning,
       outcome,
     };
     let id: string;
@@ -191,8 +204,10 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
       }
       throw e;
     }
+    const titles = new Map(open.map((e) => [e.id, e.title]));
+    const fit = fitNotice(warning, titles.get(fields.exerciseId ?? "") ?? "", titles);
     return outcome.ok
-      ? { status: 201, body: { id, status: "analysed", analysis: outcome.analysis }, fileName }
+      ? { status: 201, body: { id, status: "analysed", analysis: outcome.analysis, ...(fit ? { fit } : {}) }, fileName }
       : { status: 422, body: { id, status: "failed", error: outcome.error }, fileName };
   } catch (e) {
     // Nothing refers to the file yet: an unexpected error must not leave it behind.
@@ -236,16 +251,39 @@ export async function uploadOneTake(request: Request, user: SessionUser): Promis
   }
 }
 
-/** The upload page without JavaScript: up to ten files in the field `files`, one result each. */
+/** One file's own exercise: "exerciseId|key", "exerciseId", "free" (no exercise) or "" (the form's). */
+const fileExerciseSchema = z
+  .string()
+  .trim()
+  .max(80)
+  .regex(/^(|free|[^|]+(\|[^|]{1,8})?)$/, "Choose an exercise for each file from the list.");
+
+/** The form's exercise and key, overridden for one file by its own choice. */
+export function fieldsForFile(fields: UploadFields, choice: string | undefined): UploadFields {
+  if (!choice) return fields;
+  if (choice === "free") return { ...fields, exerciseId: undefined, key: undefined };
+  const [exerciseId, key] = choice.split("|");
+  return { ...fields, exerciseId, key: key || undefined };
+}
+
+/**
+ * The upload page's form: up to ten files in the field `files`, one result each. Each file may
+ * go to its own exercise: the n-th `fileExercise` value belongs to the n-th file.
+ */
 export async function uploadTakesFromForm(request: Request, user: SessionUser): Promise<UploadResult[]> {
   try {
     const { form, files } = await receiveUpload(request);
     const fields = await readFields(form, files);
     if (files.length === 0) throw new UploadRefused(400, "Choose one or more MIDI files to upload.");
+    const choices = z.array(fileExerciseSchema).max(files.length).safeParse(form.getAll("fileExercise").map(String));
+    if (!choices.success) {
+      await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
+      throw new UploadRefused(400, choices.error.issues[0].message);
+    }
     const results: UploadResult[] = [];
     for (const [i, f] of files.entries()) {
       try {
-        results.push(await ingest(user, f, fields, { studioId: user.active!.studioId }));
+        results.push(await ingest(user, f, fieldsForFile(fields, choices.data[i]), { studioId: user.active!.studioId }));
       } catch (e) {
         // The files not reached yet have no row either.
         await Promise.all(files.slice(i + 1).map((rest) => removeTakeFile(rest.fileKey).catch(() => {})));

@@ -1,9 +1,11 @@
 import { and, desc, eq, inArray, isNull, lt, or, sql } from "drizzle-orm";
+import type { FitWarning } from "~/analysis/exerciseFit";
 import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
 import { db } from "~/db/client.server";
 import { exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
+import { fitNotice, type FitNotice } from "~/lib/exerciseFitText";
 import { weekKey } from "~/lib/weeks";
 import { studioTimeZone } from "./progress.server";
 import {
@@ -52,6 +54,8 @@ export type NewTake = {
   size: number;
   contentHash: string;
   recordedAt: Date;
+  /** Set when the take does not fit the exercise it was filed under. */
+  exerciseFit?: FitWarning | null;
   outcome: AnalysisOutcome;
 };
 
@@ -255,9 +259,28 @@ export function replaceTakeRecord(takeId: string, expectedFileKey: string, r: Re
   });
 }
 
+/**
+ * The take's warning that it does not fit its exercise, with the titles of that exercise and of
+ * the likely one (offered only while that exercise is open), or null when it fits.
+ */
+export function fitNoticeForTake(takeId: string): FitNotice | null {
+  const row = db()
+    .select({ fit: takes.exerciseFit, title: exercises.title })
+    .from(takes)
+    .innerJoin(exercises, eq(exercises.id, takes.exerciseId))
+    .where(eq(takes.id, takeId))
+    .get();
+  if (!row?.fit) return null;
+  const likelyId = row.fit.likely?.exerciseId;
+  const likely = likelyId
+    ? db().select({ title: exercises.title }).from(exercises).where(and(eq(exercises.id, likelyId), isNull(exercises.archivedAt))).get()
+    : undefined;
+  return fitNotice(row.fit, row.title, new Map(likely && likelyId ? [[likelyId, likely.title]] : [])) ?? null;
+}
+
 /** Attaches a take to another exercise (or none) and grades it again against that target. */
 export async function moveTake(takeId: string, exerciseId: string | null, key: string | null) {
-  db().update(takes).set({ exerciseId, key }).where(eq(takes.id, takeId)).run();
+  db().update(takes).set({ exerciseId, key, exerciseFit: null }).where(eq(takes.id, takeId)).run();
   await reanalyseTake(takeId);
 }
 
