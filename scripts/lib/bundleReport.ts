@@ -71,11 +71,14 @@ export function pageScripts(manifest: BrowserManifest, id: string): string[] {
 
 export type PageRow = { id: string; url: string; files: number; gzipBytes: number; budget?: { label: string; bytes: number } };
 
-/** One row per page (a route with a component, below the root), heaviest first. */
+/**
+ * One row per page (a route below the root with a component and a path or an index;
+ * layouts without a path are counted in their pages), heaviest first.
+ */
 export function bundleRows(manifest: BrowserManifest, gzipSize: (file: string) => number): PageRow[] {
   const rows: PageRow[] = [];
   for (const r of Object.values(manifest.routes)) {
-    if (!r.parentId || r.hasDefaultExport === false) continue;
+    if (!r.parentId || r.hasDefaultExport === false || (r.path === undefined && !r.index)) continue;
     const files = pageScripts(manifest, r.id);
     rows.push({
       id: r.id,
