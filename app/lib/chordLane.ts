@@ -65,3 +65,57 @@ export function cellsInView(cells: readonly LaneCell[], left: number, right: num
   for (let i = lo; i < cells.length && cells[i].x <= right; i++) out.push(i);
   return out;
 }
+
+/** Short names for flags in the marks lane (the change list gives the full explanation). */
+export const FLAG_MARKS: Record<string, string> = {
+  "root-position-leap": "hand jump",
+  "top-line-leap": "top leap",
+  "pedal-blur": "pedal blur",
+  "doubled-bass-third": "doubled 3rd",
+  "muddy-low-interval": "low notes close",
+  "too-many-notes": "too many notes",
+};
+
+type MarkChord = { startSec: number; endSec: number; flags: readonly string[] };
+type MarkChange = { from: number; to: number; flags: readonly string[] };
+type MarkMismatch = { kind: "missing" | "extra" | "wrong-chord" | "wrong-bass"; expected: string | null };
+
+/**
+ * The marks under the roll, each at its time: a difference from the exercise on the chord
+ * played (or between two chords for a missing one), a change's flags where the change lands,
+ * a chord's flags on the chord, and a teacher's comment on its change.
+ */
+export function laneMarks(
+  chords: readonly MarkChord[],
+  changes: readonly MarkChange[],
+  placed: ReadonlyArray<{ mismatch: MarkMismatch; onChord: number | null; afterChord: number | null }>,
+  commented: ReadonlySet<number>,
+  pxPerSec: number,
+  pretty: (s: string) => string = (s) => s,
+): LaneMark[] {
+  const marks: LaneMark[] = [];
+  const mid = (k: number) => ((chords[k].startSec + Math.max(chords[k].endSec, chords[k].startSec)) / 2) * pxPerSec;
+  const changeTo = (k: number) => (changes.length === 0 ? null : Math.max(0, Math.min(changes.length - 1, k - 1)));
+  placed.forEach((p, i) => {
+    const expected = p.mismatch.expected ? pretty(p.mismatch.expected) : "";
+    if (p.onChord !== null && chords[p.onChord]) {
+      const label = p.mismatch.kind === "extra" ? "extra" : p.mismatch.kind === "wrong-bass" ? `bass: ${expected}` : `want ${expected}`;
+      marks.push({ key: `m${i}`, x: mid(p.onChord), label, tone: "mismatch", change: changeTo(p.onChord) });
+    } else if (p.afterChord !== null) {
+      const next = chords[p.afterChord + 1];
+      const last = chords[chords.length - 1];
+      const x = (next ? next.startSec : last ? Math.max(last.endSec, last.startSec) : 0) * pxPerSec;
+      marks.push({ key: `m${i}`, x, label: `${expected} missing`, tone: "mismatch", change: changeTo(p.afterChord + 1) });
+    }
+  });
+  chords.forEach((c, k) => {
+    if (c.flags.length) marks.push({ key: `cf${k}`, x: mid(k), label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "), tone: "flag", change: changeTo(k) });
+  });
+  changes.forEach((c, i) => {
+    const to = chords[c.to];
+    if (!to) return;
+    if (c.flags.length) marks.push({ key: `xf${i}`, x: to.startSec * pxPerSec, label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "), tone: "flag", change: i });
+    if (commented.has(i)) marks.push({ key: `cm${i}`, x: to.startSec * pxPerSec + 1, label: "comment", tone: "comment", change: i });
+  });
+  return marks;
+}

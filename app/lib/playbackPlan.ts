@@ -20,14 +20,22 @@ export function takePlan(notes: readonly NoteEvent[]): PlannedNote[] {
 }
 
 /**
+ * The voicing the take page suggests for a change and draws over it: the smoothest suggestion,
+ * else the best voicing (rule 8); null when there is none (an ungraded change).
+ */
+export function drawnVoicing(change: Pick<ChangeReport, "suggestions" | "bestVoicing">): number[] | null {
+  return change.suggestions.find((s) => s.kind === "smoothest")?.voicing ?? change.bestVoicing;
+}
+
+/**
  * The same chords at the same times, each chord after the first voiced as its change's
- * best voicing (rule 8); ungraded changes keep the chord as played. Melody notes stay.
+ * drawn voicing (drawnVoicing); ungraded changes keep the chord as played. Melody notes stay.
  */
 export function smootherPathPlan(chords: readonly ChordReport[], changes: readonly ChangeReport[], melody: readonly MelodyNote[] = []): PlannedNote[] {
   const out: PlannedNote[] = [];
   chords.forEach((c, k) => {
     const change = k > 0 ? changes.find((ch) => ch.to === k) : undefined;
-    const voicing = change?.bestVoicing ?? c.notes;
+    const voicing = (change && drawnVoicing(change)) ?? c.notes;
     const end = Math.max(c.endSec, c.startSec + 0.25);
     for (const midi of voicing) out.push({ midi, start: c.startSec, end, velocity: 0.7 });
   });
@@ -76,4 +84,23 @@ export function notesInWindow(plan: readonly PlannedNote[], cursor: number, from
     i++;
   }
   return { notes, cursor: i };
+}
+
+/** The plan at another speed: 0.5 takes twice as long (pitches unchanged). */
+export function scalePlan(plan: readonly PlannedNote[], speed: number): PlannedNote[] {
+  const k = speed > 0 ? 1 / speed : 1;
+  return plan.map((n) => ({ ...n, start: n.start * k, end: n.end * k }));
+}
+
+/**
+ * The notes of the take from `fromSec` to `toSec` (a change to loop), cut to that stretch and
+ * moved to start at 0; notes held into it from before are left out, as they were struck earlier.
+ */
+export function stretchPlan(notes: readonly NoteEvent[], fromSec: number, toSec: number): PlannedNote[] {
+  const EARLY = 0.05;
+  return takePlan(notes.filter((n) => n.start >= fromSec - EARLY && n.start < toSec)).map((n) => ({
+    ...n,
+    start: Math.max(0, n.start - fromSec),
+    end: Math.min(toSec, n.end) - fromSec,
+  })).map((n) => ({ ...n, end: Math.max(n.end, n.start + 0.06) }));
 }

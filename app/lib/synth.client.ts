@@ -1,6 +1,9 @@
-// Nearnote's own small keyboard synth on plain Web Audio: two oscillators and a gain
-// envelope per note, scheduled a little ahead of time. No library and no workers, so the
+// Playback on plain Web Audio, scheduled a little ahead of time. With `piano: true` the notes
+// are the recorded grand piano served from /piano/ (only the files a plan needs, fetched when
+// it starts); without it, or when a file cannot be had, Nearnote's own small synth plays (two
+// oscillators and a gain envelope per note). No library and no workers, so the
 // content-security policy stays strict. Browser only (`.client.ts`).
+import { filesFor, sampleFor } from "./pianoSamples";
 import { midiFrequency, notesInWindow, planEnd, type PlannedNote } from "./playbackPlan";
 
 const LOOKAHEAD_SEC = 0.6;
@@ -12,12 +15,75 @@ export type PlayOptions = {
   onTime?: (sec: number) => void;
   /** Called once when the plan has finished sounding (not when stopped). */
   onEnd?: () => void;
+  /** Play the recorded piano (falls back to the synth when its files cannot be loaded). */
+  piano?: boolean;
+  /** Told which sound is playing once the plan starts. */
+  onSound?: (sound: "piano" | "synth") => void;
 };
 
 export type Player = {
   play: (plan: PlannedNote[], options?: PlayOptions) => Promise<void>;
   stop: () => void;
+  /** Holds the sound where it is (the audio clock stops); resume goes on from there. */
+  pause: () => Promise<void>;
+  resume: () => Promise<void>;
 };
+
+/** Decoded piano files by name, shared by every player on the page; a failed file stays null. */
+const pianoBuffers = new Map<string, Promise<AudioBuffer | null>>();
+const PIANO_WAIT_MS = 8000;
+
+function loadPianoFile(ctx: AudioContext, file: string): Promise<AudioBuffer | null> {
+  let p = pianoBuffers.get(file);
+  if (!p) {
+    p = fetch(`/piano/${file}`)
+      .then((r) => (r.ok ? r.arrayBuffer() : Promise.reject(new Error(r.statusText))))
+      .then((bytes) => ctx.decodeAudioData(bytes))
+      .catch(() => null);
+    pianoBuffers.set(file, p);
+  }
+  return p;
+}
+
+/** The files a plan needs, or null when one is missing or they take too long to arrive. */
+async function pianoFor(ctx: AudioContext, plan: readonly PlannedNote[]): Promise<Map<string, AudioBuffer> | null> {
+  const files = filesFor(plan.map((n) => n.midi));
+  const timeout = new Promise<null>((resolve) => setTimeout(() => resolve(null), PIANO_WAIT_MS));
+  const loaded = await Promise.race([Promise.all(files.map((f) => loadPianoFile(ctx, f))), timeout]);
+  if (!loaded || loaded.some((b) => b === null)) return null;
+  return new Map(files.map((f, i) => [f, loaded[i]!]));
+}
+
+/** One note from the recorded piano: the nearest sampled key at the rate that makes its pitch. */
+function pianoVoice(
+  ctx: AudioContext,
+  out: AudioNode,
+  n: PlannedNote,
+  at: number,
+  buffers: Map<string, AudioBuffer>,
+  live: Set<AudioScheduledSourceNode>,
+) {
+  const { file, rate } = sampleFor(n.midi);
+  const buffer = buffers.get(file);
+  if (!buffer) return;
+  const src = ctx.createBufferSource();
+  src.buffer = buffer;
+  src.playbackRate.value = rate;
+  const env = ctx.createGain();
+  const level = 0.55 * (0.3 + 0.7 * Math.min(1, Math.max(0, n.velocity)));
+  const length = Math.max(0.06, n.end - n.start);
+  env.gain.setValueAtTime(level, at);
+  // Key released: the damper stops the string quickly.
+  env.gain.setTargetAtTime(0, at + length, 0.08);
+  src.connect(env).connect(out);
+  src.start(at);
+  src.stop(at + length + 0.6);
+  live.add(src);
+  src.onended = () => {
+    live.delete(src);
+    env.disconnect();
+  };
+}
 
 type AudioContextClass = typeof AudioContext;
 
@@ -31,7 +97,7 @@ export function webAudioAvailable(): boolean {
 }
 
 /** One note: a triangle wave with a quiet sine an octave up, through a piano-like envelope. */
-function voice(ctx: AudioContext, out: AudioNode, n: PlannedNote, at: number, live: Set<OscillatorNode>) {
+function voice(ctx: AudioContext, out: AudioNode, n: PlannedNote, at: number, live: Set<AudioScheduledSourceNode>) {
   const f = midiFrequency(n.midi);
   const peak = 0.16 * (0.35 + 0.65 * Math.min(1, Math.max(0, n.velocity)));
   const length = Math.max(0.06, n.end - n.start);
@@ -69,9 +135,12 @@ export function createPlayer(): Player {
   let master: GainNode | null = null;
   let timer: ReturnType<typeof setInterval> | null = null;
   let frame: number | null = null;
-  const live = new Set<OscillatorNode>();
+  const live = new Set<AudioScheduledSourceNode>();
+  // Each play gets a number, so a plan whose files arrive after a newer play started stays silent.
+  let generation = 0;
 
   function stop() {
+    generation++;
     if (timer !== null) clearInterval(timer);
     if (frame !== null) cancelAnimationFrame(frame);
     timer = null;
@@ -90,11 +159,15 @@ export function createPlayer(): Player {
 
   async function play(plan: PlannedNote[], options: PlayOptions = {}) {
     stop();
+    const mine = ++generation;
     const Ctor = audioContextClass();
     if (!Ctor) throw new Error("This browser cannot play sound (no Web Audio).");
     ctx ??= new Ctor();
     if (ctx.state === "suspended") await ctx.resume();
     const audio = ctx;
+    const buffers = options.piano ? await pianoFor(audio, plan) : null;
+    if (mine !== generation) return;
+    options.onSound?.(buffers ? "piano" : "synth");
     const compressor = audio.createDynamicsCompressor();
     master = audio.createGain();
     master.gain.value = 0.9;
@@ -108,7 +181,11 @@ export function createPlayer(): Player {
       const now = audio.currentTime - origin;
       const window = notesInWindow(plan, cursor, -Infinity, now + LOOKAHEAD_SEC);
       cursor = window.cursor;
-      for (const n of window.notes) voice(audio, out, n, origin + Math.max(n.start, now), live);
+      for (const n of window.notes) {
+        const at = origin + Math.max(n.start, now);
+        if (buffers) pianoVoice(audio, out, n, at, buffers, live);
+        else voice(audio, out, n, at, live);
+      }
     };
     tick();
     timer = setInterval(tick, TICK_MS);
@@ -126,5 +203,13 @@ export function createPlayer(): Player {
     frame = requestAnimationFrame(animate);
   }
 
-  return { play, stop };
+  async function pause() {
+    if (ctx && ctx.state === "running") await ctx.suspend();
+  }
+
+  async function resume() {
+    if (ctx && ctx.state === "suspended") await ctx.resume();
+  }
+
+  return { play, stop, pause, resume };
 }

@@ -24,20 +24,33 @@ export function inversionWords(chord: Pick<ChordReport, "inversion" | "upperInve
   return inv === null ? "other bass" : (words[inv] ?? "other bass");
 }
 
-/** One line per mismatch: "Chord 3: expected G, played Em." */
-export function mismatchWords(m: Mismatch, chords: ChordReport[]): string {
+const ORDINALS = ["first", "second", "third", "fourth", "fifth", "sixth", "seventh", "eighth", "ninth", "tenth"];
+
+/** Where a difference was played: "second time through, chord 3" when the take looped the exercise. */
+export function mismatchPlace(m: Pick<Mismatch, "targetIndex" | "playedIndex" | "pass">, loops = 1): string {
+  if (m.targetIndex === null) return `played chord ${(m.playedIndex ?? 0) + 1}`;
+  const chord = `chord ${m.targetIndex + 1}`;
+  if (loops <= 1) return `${chord} of the exercise`;
+  const pass = m.pass ?? 0;
+  return `${ORDINALS[pass] ?? `time ${pass + 1}`}${ORDINALS[pass] ? " time" : ""} through, ${chord}`;
+}
+
+const capital = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
+/** One line per mismatch: "Second time through, chord 3: played E♭, expected D♭." */
+export function mismatchWords(m: Mismatch, chords: ChordReport[], loops = 1): string {
   const expected = m.expected ? pretty(m.expected) : "a chord";
   const played = m.playedIndex !== null ? chords[m.playedIndex] : undefined;
   const playedName = played ? pretty(played.symbol ?? played.noteNames.join(" ")) : "another chord";
-  const where = m.playedIndex !== null ? `Chord ${m.playedIndex + 1}` : `Target chord ${(m.targetIndex ?? 0) + 1}`;
+  const where = capital(mismatchPlace(m, loops));
   switch (m.kind) {
     case "missing":
       return `${where}: ${expected} was not played.`;
     case "extra":
       return `${where}: ${playedName} is not in the exercise.`;
     case "wrong-chord":
-      return `${where}: expected ${expected}, played ${playedName}.`;
+      return `${where}: played ${playedName}, expected ${expected}.`;
     case "wrong-bass":
-      return `${where}: right chord, but the bass should make it ${expected} (played ${playedName}).`;
+      return `${where}: played ${playedName}, expected ${expected} (the right chord over another bass).`;
   }
 }

@@ -17,6 +17,7 @@ import { IntendedFlags } from "~/components/feedback/IntendedFlags";
 import { ReviewToggle } from "~/components/feedback/ReviewToggle";
 import { takePageFeedback } from "~/models/feedback.server";
 import { withIntendedMarks } from "~/lib/intendedScore";
+import { heardKey } from "~/lib/nextStep";
 import { flashHeader } from "~/lib/flash.server";
 import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
@@ -41,9 +42,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const exercises = isOwner
     ? listExercisesForStudent(user.id, take.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys }))
     : [];
+  // The key the notes suggest, for a take checked against an exercise ("this sounds like D major").
+  const heard = view.analysis?.summary.target !== undefined ? heardKey(view.notes, view.analysis.chords) : null;
   // The notes go as a flat number list (see packNotes); the page unpacks them once.
   const { notes, pedal: _pedal, ...rest } = view;
-  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback };
+  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback, heardKey: heard };
 }
 
 const moveSchema = z.object({
@@ -96,8 +99,10 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, packedNotes, isOwner, exercises, feedback } = loaderData;
+  const { view, packedNotes, isOwner, exercises, feedback, heardKey: heard } = loaderData;
   const notes = useMemo(() => unpackNotes(packedNotes), [packedNotes]);
+  // Changes a comment is pinned to carry a mark in the change list and under the roll.
+  const commented = useMemo(() => new Set(feedback.threads.flatMap((t) => (t.changeIdx === null ? [] : [t.changeIdx]))), [feedback.threads]);
   const { take, analysis } = view;
   const actionData = useActionData<typeof action>();
   const error = actionData && "error" in actionData ? actionData.error : null;
@@ -136,7 +141,7 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
 
       {take.status === "analysed" && analysis ? (
         // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.
-        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec}
+        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec} heardKey={heard} commented={commented}
           changeExtras={(i) => (
             <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
           )}

@@ -33,7 +33,7 @@ export function ExerciseGrading({ analysis, focusTechniques }: { analysis: Pick<
         Accuracy <strong data-testid="grading-accuracy">{percent(summary.accuracy)}</strong> of the target
         {summary.loops && summary.loops > 1 ? ` (played through ${summary.loops} times)` : ""} · {placed.length} difference{placed.length === 1 ? "" : "s"}
       </p>
-      <ol className="flex gap-1 overflow-x-auto pb-2" aria-label="Played chords with their differences from the exercise">
+      <ol className="flex gap-1 overflow-x-auto pb-2" tabIndex={0} aria-label="Played chords with their differences from the exercise">
         {chords.map((c, i) => {
           const here = on(i);
           return (

@@ -1,5 +1,4 @@
 import { describe, expect, it } from "vitest";
-import { visibleCells } from "../take/ChordStrip";
 import { dueWords } from "./StudentHome";
 import { weekLabel } from "./WeeklyChart";
 
@@ -21,12 +20,3 @@ describe("student home wording", () => {
   });
 });
 
-describe("chord strip window", () => {
-  it("draws only the visible chords and a margin on each side", () => {
-    expect(visibleCells(0, 960, 1250)).toEqual({ from: 0, to: 22 });
-    const mid = visibleCells(96 * 500, 960, 1250);
-    expect(mid.from).toBe(488);
-    expect(mid.to).toBe(522);
-    expect(visibleCells(96 * 1245, 960, 1250).to).toBe(1250);
-  });
-});

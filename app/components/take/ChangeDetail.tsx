@@ -1,10 +1,10 @@
 import type { Key } from "~/analysis/pitch";
 import type { ChangeReport, ChordReport, Suggestion } from "~/analysis/types";
 import { Button } from "~/components/Button";
-import { noteLabel, voicingLabel } from "~/lib/noteText";
+import { voicingLabel } from "~/lib/noteText";
 import { pairPlan, type PlannedNote } from "~/lib/playbackPlan";
 import { chordName } from "./ChangeList";
-import { keyboardRange, MiniKeyboard } from "./MiniKeyboard";
+import { VoiceLeadingDrawing } from "./VoiceLeadingDrawing";
 
 const SUGGESTION_WORDS: Record<Suggestion["kind"], string> = {
   smoothest: "Smoothest",
@@ -13,8 +13,9 @@ const SUGGESTION_WORDS: Record<Suggestion["kind"], string> = {
 };
 
 /**
- * The selected change up close: what was played, drawn on small keyboards with the chord
- * before outlined, and each suggestion drawn the same way with a button to hear it.
+ * The selected change up close: the change as played drawn as voice leading (a line from each
+ * note to the note it moved to, with its semitones), each suggestion drawn the same way beside
+ * it, and a button to hear each.
  */
 export function ChangeDetail({
   index,
@@ -34,13 +35,20 @@ export function ChangeDetail({
   const from = chords[change.from];
   const to = chords[change.to];
   if (!from || !to) return null;
-  const range = keyboardRange([...from.notes, ...to.notes, ...change.suggestions.flatMap((s) => s.voicing)]);
-  const names = (v: number[]) => v.map((n) => noteLabel(n, keyInfo)).join(" ");
+  // Without suggestions a change that still moved more than its best shows the best voicing (rule 8).
+  const suggestions: Suggestion[] =
+    change.suggestions.length === 0 && change.bestVoicing && change.motion !== null && change.bestMotion !== null && change.bestMotion < change.motion
+      ? [{ kind: "smoothest", voicing: change.bestVoicing, noteNames: [], motion: change.bestMotion }]
+      : change.suggestions;
+  const all = [...from.notes, ...to.notes, ...suggestions.flatMap((s) => s.voicing)];
+  const range = { lo: Math.min(...all), hi: Math.max(...all) };
+  const fromName = chordName(from);
+  const toName = chordName(to);
   return (
     <div className="flex flex-col gap-4" aria-live="polite">
       <div>
         <h3 className="font-semibold">
-          Change {index + 1}: {chordName(from)} → {chordName(to)}
+          Change {index + 1}: {fromName} → {toName}
         </h3>
         <p className="text-sm text-ink-soft">
           {change.graded
@@ -48,38 +56,35 @@ export function ChangeDetail({
             : "One of these chords has more than 8 different notes, so this change is not graded."}
         </p>
       </div>
-      <figure className="flex flex-col gap-1">
-        <figcaption className="text-sm">
-          <strong>As played:</strong> {names(to.notes)} <span className="text-ink-soft">(outlined: {names(from.notes)})</span>
-        </figcaption>
-        <div className="flex flex-wrap items-center gap-3">
-          <MiniKeyboard notes={to.notes} ghost={from.notes} range={range} label={`As played: ${names(from.notes)} to ${names(to.notes)}`} />
+      <div className="flex flex-wrap gap-x-6 gap-y-4">
+        <figure className="flex flex-col gap-2">
+          <figcaption className="text-sm">
+            <strong>As played</strong>, moves {change.motion ?? "–"}
+          </figcaption>
+          <VoiceLeadingDrawing from={from.notes} to={to.notes} fromName={fromName} toName={toName} keyInfo={keyInfo} range={range} label={`Change ${index + 1} as played`} />
           {canPlay ? (
-            <Button type="button" variant="secondary" onClick={() => onPlay(pairPlan(from.notes, to.notes), `change ${index + 1} as played`)}>
+            <Button type="button" variant="secondary" className="self-start" onClick={() => onPlay(pairPlan(from.notes, to.notes), `change ${index + 1} as played`)}>
               Play as played
             </Button>
           ) : null}
-        </div>
-      </figure>
-      {change.suggestions.length === 0 ? (
-        <p className="rounded-md bg-moss-pale px-3 py-2 text-sm text-moss">Nothing smoother to suggest: this is already the closest voicing.</p>
-      ) : (
-        change.suggestions.map((s) => (
-          <figure key={s.kind} className="flex flex-col gap-1" data-testid="suggestion">
+        </figure>
+        {suggestions.map((s) => (
+          <figure key={s.kind} className="flex flex-col gap-2" data-testid="suggestion">
             <figcaption className="text-sm">
-              <strong>{SUGGESTION_WORDS[s.kind]}:</strong> {voicingLabel(s.voicing, keyInfo)} ({names(s.voicing)}), moves {s.motion}
+              <strong>{SUGGESTION_WORDS[s.kind]}:</strong> {voicingLabel(s.voicing, keyInfo)}, moves {s.motion}
             </figcaption>
-            <div className="flex flex-wrap items-center gap-3">
-              <MiniKeyboard notes={s.voicing} ghost={from.notes} range={range} label={`${SUGGESTION_WORDS[s.kind]}: ${names(s.voicing)}`} />
-              {canPlay ? (
-                <Button type="button" variant="secondary" onClick={() => onPlay(pairPlan(from.notes, s.voicing), `${SUGGESTION_WORDS[s.kind].toLowerCase()} voicing`)}>
-                  Play this
-                </Button>
-              ) : null}
-            </div>
+            <VoiceLeadingDrawing from={from.notes} to={s.voicing} fromName={fromName} toName={toName} keyInfo={keyInfo} range={range} label={SUGGESTION_WORDS[s.kind]} />
+            {canPlay ? (
+              <Button type="button" variant="secondary" className="self-start" onClick={() => onPlay(pairPlan(from.notes, s.voicing), `${SUGGESTION_WORDS[s.kind].toLowerCase()} voicing`)}>
+                Play this
+              </Button>
+            ) : null}
           </figure>
-        ))
-      )}
+        ))}
+      </div>
+      {suggestions.length === 0 ? (
+        <p className="rounded-md bg-moss-pale px-3 py-2 text-sm text-moss">Nothing smoother to suggest: this is already the closest voicing.</p>
+      ) : null}
     </div>
   );
 }

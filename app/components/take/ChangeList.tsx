@@ -55,7 +55,7 @@ export function chordName(c: ChordReport | undefined): string {
   return c.symbol ? pretty(c.symbol) : c.noteNames.map(pretty).join(" ");
 }
 
-/** "moved 15 · best 3", with the spare motion called out when there was any. */
+/** "moved 15 · best 3", with the motion beyond the best called out when there was any. */
 function MotionLine({ change }: { change: ChangeReport }) {
   if (!change.graded || change.motion === null || change.bestMotion === null) {
     return <span className="text-ink-soft">not graded</span>;
@@ -64,7 +64,7 @@ function MotionLine({ change }: { change: ChangeReport }) {
   return (
     <span>
       moved <strong data-testid="change-motion">{change.motion}</strong> · best <strong>{change.bestMotion}</strong>
-      {spare > 0 ? <span className="text-ochre"> · {spare} to spare</span> : <span className="text-moss"> · as smooth as it gets</span>}
+      {spare > 0 ? <span className="text-ochre"> · {spare} semitone{spare === 1 ? "" : "s"} more than needed</span> : <span className="text-moss"> · as smooth as it gets</span>}
     </span>
   );
 }
@@ -80,12 +80,15 @@ export function ChangeList({
   keyInfo,
   selected,
   onSelect,
+  commented,
 }: {
   chords: ChordReport[];
   changes: ChangeReport[];
   keyInfo: Key | null;
   selected: number | null;
   onSelect: (change: number | null) => void;
+  /** changes that carry a teacher's comment */
+  commented?: ReadonlySet<number>;
 }) {
   const list = useRef<HTMLOListElement>(null);
   const [flaggedOnly, setFlaggedOnly] = useState(false);
@@ -107,18 +110,9 @@ export function ChangeList({
     if (i !== null) requestAnimationFrame(() => list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus());
   };
   const opening = chords[0] ? explainChord(chords[0], keyInfo) : [];
-  // Keep the selected change visible inside the list's own scroll box (never scroll the page).
-  const box = useRef<HTMLDivElement>(null);
-  useEffect(() => {
-    const el = box.current;
-    const row = el?.querySelector<HTMLElement>(`[data-change="${selected}"]`)?.closest("li");
-    if (!el || !row) return;
-    const top = row.offsetTop; // the box is positioned, so this is measured from its top
-    if (top < el.scrollTop || top + row.offsetHeight > el.scrollTop + el.clientHeight) el.scrollTop = Math.max(0, top - 60);
-  }, [selected, start]);
-
+  // The list is part of the page's one scroll (no scroll box of its own); it pages forty at a time.
   return (
-    <div ref={box} className="relative max-h-[34rem] overflow-y-auto pr-1">
+    <div>
       {opening.length ? (
         <div className="mb-2 rounded-md border border-line bg-brick-pale/40 p-3 text-sm">
           <p className="font-semibold">Opening chord, {chordName(chords[0])}</p>
@@ -150,6 +144,7 @@ export function ChangeList({
           return (
             <li
               key={i}
+              id={`change-row-${i}`}
               data-testid="change-row"
               className={`rounded-md border p-3 text-sm ${isSelected ? "border-ochre bg-ochre-pale" : "border-line bg-card"}`}
             >
@@ -173,6 +168,11 @@ export function ChangeList({
                 <span className="font-semibold">
                   <span className="mr-2 text-xs font-normal text-ink-soft">{i + 1}</span>
                   {chordName(chords[change.from])} → {chordName(chords[change.to])}
+                  {commented?.has(i) ? (
+                    <span className="ml-2 inline-block rounded border border-tide bg-tide-pale px-1.5 text-xs font-semibold text-tide-dark" data-testid="comment-mark">
+                      comment
+                    </span>
+                  ) : null}
                 </span>
                 <MotionLine change={change} />
               </button>

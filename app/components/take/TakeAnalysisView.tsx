@@ -3,13 +3,16 @@ import type { NoteEvent, TakeAnalysis } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { keyOf, pretty } from "~/lib/noteText";
-import { chordIndexAt, smootherPathPlan, takePlan } from "~/lib/playbackPlan";
+import { chordIndexAt, pairPlan, smootherPathPlan, stretchPlan, takePlan } from "~/lib/playbackPlan";
+import { laneMarks } from "~/lib/chordLane";
+import { nextStep } from "~/lib/nextStep";
+import { rollLayout } from "~/lib/pianoRoll";
 import { ChangeDetail } from "./ChangeDetail";
 import { ChangeList } from "./ChangeList";
-import { ChordStrip } from "./ChordStrip";
-import { placeMismatches, stripMarks } from "~/lib/mismatchPlaces";
+import { placeMismatches } from "~/lib/mismatchPlaces";
+import { NextStepPanel } from "./NextStepPanel";
 import { PianoRoll, PianoRollLegend } from "./PianoRoll";
-import { PlaybackBar } from "./PlaybackBar";
+import { PracticeControls } from "./PracticeControls";
 import { TakeSummary } from "./TakeSummary";
 import { usePlayback } from "./usePlayback";
 
@@ -20,24 +23,40 @@ function firstToLookAt(analysis: TakeAnalysis): number | null {
   return flagged === -1 ? 0 : flagged;
 }
 
-/** The analysed take: summary, piano roll with playback, chord strip, changes and the selected change. */
+/**
+ * The analysed take: the next step, the summary with the score explained, the piano roll with
+ * its chord lanes and practice controls, the changes and the selected change drawn as voice leading.
+ */
 export function TakeAnalysisView({
   analysis,
   notes,
   durationSec,
+  heardKey = null,
+  commented,
   changeExtras,
 }: {
   analysis: TakeAnalysis;
   notes: NoteEvent[];
   durationSec: number;
+  /** the key the notes suggest, whatever key the take was given */
+  heardKey?: string | null;
+  /** changes carrying a teacher's comment */
+  commented?: ReadonlySet<number>;
   /** Shown under the selected change (comments pinned to it). */
   changeExtras?: (index: number) => ReactNode;
 }) {
   const { chords, changes, summary } = analysis;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
+  const step = useMemo(() => nextStep(analysis, heardKey, keyInfo), [analysis, heardKey, keyInfo]);
   const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
-  // Differences from the exercise's target, at their places in the chord strip.
-  const marks = useMemo(() => stripMarks(placeMismatches(analysis)), [analysis]);
+  const length = Math.max(durationSec, summary.durationSec);
+  // Differences from the exercise, flags and comments, at their places under the roll (same scale as the roll).
+  const pxPerSec = useMemo(() => rollLayout(notes, length, { pxPerSec: Math.max(90, Math.floor(1000 / Math.max(1, length))) }).pxPerSec, [notes, length]);
+  const commentedSet = useMemo(() => commented ?? new Set<number>(), [commented]);
+  const marks = useMemo(
+    () => laneMarks(chords, changes, placeMismatches(analysis), commentedSet, pxPerSec, pretty),
+    [analysis, chords, changes, commentedSet, pxPerSec],
+  );
   // A link to one change (#change-3, as feedback mail and the feedback panel send) opens that change.
   useEffect(() => {
     const follow = () => {
@@ -52,9 +71,14 @@ export function TakeAnalysisView({
   }, [analysis.changes.length]);
   const playback = usePlayback();
   const { state } = playback;
-  const sounding = (state.mode === "take" || state.mode === "smoother") && state.time !== null ? chordIndexAt(chords, state.time) : -1;
-  const rollTime = state.mode === "take" || state.mode === "smoother" ? state.time : null;
-  const length = Math.max(durationSec, summary.durationSec);
+  const timed = state.mode === "take" || state.mode === "smoother" || state.mode === "loop";
+  const sounding = timed && state.time !== null ? chordIndexAt(chords, state.time) : -1;
+  const rollTime = timed ? state.time : null;
+  const open = (i: number) => {
+    setSelected(i);
+    requestAnimationFrame(() => document.getElementById(`change-row-${i}`)?.scrollIntoView({ block: "center" }));
+  };
+  const loopChange = selected !== null ? changes[selected] : undefined;
 
   if (chords.length === 0) {
     return (
@@ -67,43 +91,62 @@ export function TakeAnalysisView({
 
   return (
     <div className="flex flex-col gap-6">
+      <NextStepPanel
+        step={step}
+        canPlay={playback.available}
+        onOpen={open}
+        onPlayFix={() => {
+          if ((step.kind === "motion" || step.kind === "flag") && step.fix) playback.play("snippet", pairPlan(step.fix.from, step.fix.to), "the fix");
+        }}
+      />
       <Card title="How it went">
         <TakeSummary summary={summary} chords={chords} />
       </Card>
 
-      <Card title="Piano roll" actions={<span className="text-sm text-ink-soft">{chords.length} chords · {changes.length} changes</span>}>
+      <Card title="Piano roll" actions={<span className="text-sm text-ink-soft">{chords.length} chords · {changes.length} changes · in {pretty(summary.key)}</span>}>
         <div className="mb-3">
-          <PlaybackBar
+          <PracticeControls
             state={state}
             available={playback.available}
             durationSec={length}
+            speed={playback.speed}
+            onSpeed={playback.setSpeed}
+            loopLabel={loopChange ? `change ${selected! + 1}` : null}
             onPlayTake={() => playback.play("take", takePlan(notes), "the take")}
             onPlaySmoother={() => playback.play("smoother", smootherPathPlan(chords, changes, analysis.melodyNotes), "the smoother path")}
+            onLoop={() => {
+              if (!loopChange) return;
+              const from = chords[loopChange.from];
+              const to = chords[loopChange.to];
+              const end = Math.max(to.endSec, to.startSec + 0.3);
+              playback.play("loop", stretchPlan(notes, from.startSec, end), `change ${selected! + 1} on a loop`, { offset: from.startSec, loop: true });
+            }}
+            onPause={playback.pause}
+            onResume={playback.resume}
             onStop={playback.stop}
           />
         </div>
-        <PianoRoll notes={notes} chords={chords} changes={changes} durationSec={length} selected={selected} onSelect={setSelected} playTime={rollTime} sounding={sounding >= 0 ? sounding : null} />
+        <PianoRoll
+          notes={notes}
+          chords={chords}
+          changes={changes}
+          durationSec={length}
+          selected={selected}
+          onSelect={setSelected}
+          playTime={rollTime}
+          sounding={sounding >= 0 ? sounding : null}
+          marks={marks}
+          ghostAll={state.mode === "smoother"}
+        />
         <PianoRollLegend />
       </Card>
 
-      <Card title={`Chords in ${pretty(summary.key)}`} actions={<span className="text-sm text-ink-soft">top line drawn above</span>}>
-        <ChordStrip
-          chords={chords}
-          changes={changes}
-          keyName={summary.key}
-          selected={selected}
-          sounding={sounding >= 0 ? sounding : null}
-          onSelect={setSelected}
-          marks={marks}
-        />
-      </Card>
-
-      <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
+      <div className="grid items-start gap-6 lg:grid-cols-2">
         <Card title="Change by change">
           {changes.length === 0 ? (
             <p className="text-sm text-ink-soft">A single chord has no changes to grade.</p>
           ) : (
-            <ChangeList chords={chords} changes={changes} keyInfo={keyInfo} selected={selected} onSelect={setSelected} />
+            <ChangeList chords={chords} changes={changes} keyInfo={keyInfo} selected={selected} onSelect={setSelected} commented={commentedSet} />
           )}
         </Card>
         <Card title="Try it another way" className="lg:sticky lg:top-4">

@@ -2,6 +2,7 @@ import type { ChordReport, Summary, TechniqueName } from "~/analysis/types";
 import { TECHNIQUES } from "~/analysis/types";
 import { percent, pretty } from "~/lib/noteText";
 import { mismatchWords, TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { ScoreExplained } from "./ScoreExplained";
 
 function Figure({ label, value, detail, tone = "ink" }: { label: string; value: string; detail?: string; tone?: "ink" | "moss" | "ochre" | "brick" }) {
   const colour = { ink: "text-ink", moss: "text-moss", ochre: "text-ochre", brick: "text-brick" }[tone];
@@ -23,8 +24,9 @@ export function TakeSummary({ summary, chords }: { summary: Summary; chords: Cho
   const mismatches = summary.mismatches ?? [];
   return (
     <div className="flex flex-col gap-4">
-      <dl className="grid grid-cols-2 gap-3 md:grid-cols-4" aria-label="Take summary">
-        <Figure label="Score" value={`${summary.score}`} detail="out of 100; a practice aid" />
+      <div className="grid items-start gap-3 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+      <ScoreExplained score={summary.score} parts={summary.scoreParts} />
+      <dl className="grid grid-cols-2 gap-3 md:grid-cols-3" aria-label="Take summary">
         <Figure
           label="Smoothness"
           value={percent(summary.smoothness)}
@@ -60,6 +62,7 @@ export function TakeSummary({ summary, chords }: { summary: Summary; chords: Cho
         />
         <Figure label="Steady time" value={percent(summary.tempo.steadiness)} detail="how evenly your notes fell on the beat" />
       </dl>
+      </div>
       <div className="grid gap-4 md:grid-cols-2">
         <section aria-labelledby="techniques-heading">
           <h3 id="techniques-heading" className="font-semibold">
@@ -89,7 +92,7 @@ export function TakeSummary({ summary, chords }: { summary: Summary; chords: Cho
             ) : (
               <ul className="mt-1 flex flex-col gap-1 text-sm">
                 {mismatches.slice(0, MISMATCHES_SHOWN).map((m, i) => (
-                  <li key={i}>{mismatchWords(m, chords)}</li>
+                  <li key={i}>{mismatchWords(m, chords, summary.loops ?? 1)}</li>
                 ))}
                 {mismatches.length > MISMATCHES_SHOWN ? (
                   <li className="text-ink-soft">and {mismatches.length - MISMATCHES_SHOWN} more.</li>

@@ -1,15 +1,31 @@
 import { useCallback, useEffect, useRef, useState } from "react";
-import type { PlannedNote } from "~/lib/playbackPlan";
-import { createPlayer, webAudioAvailable, type Player } from "~/lib/synth.client";
+import { scalePlan, type PlannedNote } from "~/lib/playbackPlan";
+import { createPlayer, webAudioAvailable, type Player } from "~/lib/player.client";
 
-export type PlaybackMode = "take" | "smoother" | "snippet";
-export type PlaybackState = { mode: PlaybackMode | null; label: string | null; time: number | null; error: string | null };
+export type PlaybackMode = "take" | "smoother" | "snippet" | "loop";
+export type PlaybackState = {
+  mode: PlaybackMode | null;
+  label: string | null;
+  /** position in the take's own seconds (the plan's offset added, the speed taken out) */
+  time: number | null;
+  error: string | null;
+  paused: boolean;
+  /** the sound playing: the recorded piano, or the synth when the piano could not load */
+  sound: "piano" | "synth" | "loading" | null;
+};
 
-/** One synth per page; starting anything stops what was sounding. */
+const IDLE: PlaybackState = { mode: null, label: null, time: null, error: null, paused: false, sound: null };
+
+/**
+ * One player per page; starting anything stops what was sounding. Plans play at `speed`
+ * (1 = as recorded); a loop starts again when it ends until stopped. `offset` is where the
+ * plan's time 0 lies in the take, so the piano roll's playhead follows a looped change.
+ */
 export function usePlayback() {
   const player = useRef<Player | null>(null);
-  const [state, setState] = useState<PlaybackState>({ mode: null, label: null, time: null, error: null });
+  const [state, setState] = useState<PlaybackState>(IDLE);
   const [available, setAvailable] = useState(false);
+  const [speed, setSpeed] = useState(1);
 
   useEffect(() => {
     setAvailable(webAudioAvailable());
@@ -18,21 +34,39 @@ export function usePlayback() {
 
   const stop = useCallback(() => {
     player.current?.stop();
-    setState({ mode: null, label: null, time: null, error: null });
+    setState(IDLE);
   }, []);
 
-  const play = useCallback((mode: PlaybackMode, plan: PlannedNote[], label: string) => {
-    player.current ??= createPlayer();
-    setState({ mode, label, time: 0, error: null });
-    player.current
-      .play(plan, {
-        onTime: (time) => setState((s) => (s.mode === mode ? { ...s, time } : s)),
-        onEnd: () => setState({ mode: null, label: null, time: null, error: null }),
-      })
-      .catch((e: unknown) =>
-        setState({ mode: null, label: null, time: null, error: e instanceof Error ? e.message : "Sound could not start." }),
-      );
+  const play = useCallback(
+    (mode: PlaybackMode, plan: PlannedNote[], label: string, opts: { offset?: number; loop?: boolean } = {}) => {
+      player.current ??= createPlayer();
+      const offset = opts.offset ?? 0;
+      const scaled = scalePlan(plan, speed);
+      setState({ mode, label, time: offset, error: null, paused: false, sound: "loading" });
+      const start = (): void => {
+        player
+          .current!.play(scaled, {
+            piano: true,
+            onSound: (sound) => setState((s) => (s.mode === mode ? { ...s, sound } : s)),
+            onTime: (time) => setState((s) => (s.mode === mode ? { ...s, time: offset + time * speed } : s)),
+            onEnd: () => (opts.loop ? start() : setState(IDLE)),
+          })
+          .catch((e: unknown) => setState({ ...IDLE, error: e instanceof Error ? e.message : "Sound could not start." }));
+      };
+      start();
+    },
+    [speed],
+  );
+
+  const pause = useCallback(() => {
+    void player.current?.pause();
+    setState((s) => (s.mode ? { ...s, paused: true } : s));
   }, []);
 
-  return { state, available, play, stop };
+  const resume = useCallback(() => {
+    void player.current?.resume();
+    setState((s) => (s.mode ? { ...s, paused: false } : s));
+  }, []);
+
+  return { state, available, play, stop, pause, resume, speed, setSpeed };
 }
