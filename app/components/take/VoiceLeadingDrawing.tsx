@@ -2,7 +2,7 @@ import type { Key } from "~/analysis/pitch";
 import { noteLabel } from "~/lib/noteText";
 import { signedSemitones, voiceDrawing } from "~/lib/voiceLeadingDrawing";
 
-const WIDTH = 260;
+const WIDTH = 220;
 
 /** Colour of a voice's move: held, a step, a third, further. */
 function moveTone(semitones: number): string {
@@ -32,7 +32,7 @@ export function VoiceLeadingDrawing({
   range: { lo: number; hi: number };
   label: string;
 }) {
-  const d = voiceDrawing(from, to, { width: WIDTH, range, rowPx: 7 });
+  const d = voiceDrawing(from, to, { width: WIDTH, range, rowPx: 7, labelGap: 18 });
   const top = 22;
   const total = d.lines.reduce((s, l) => s + Math.abs(l.semitones), 0);
   return (

@@ -150,3 +150,29 @@ describe("piano samples", () => {
     for (const m of SAMPLED_NOTES) expect(shipped.has(sampleFile(m))).toBe(true);
   });
 });
+
+describe("marks under the roll", () => {
+  it("puts a comment on its change, a flag where it is, and a missing chord between two played ones", async () => {
+    const { laneMarks } = await import("~/lib/chordLane");
+    const chords = [
+      { startSec: 0, endSec: 1, flags: [] },
+      { startSec: 1, endSec: 2, flags: ["muddy-low-interval"] },
+      { startSec: 2, endSec: 3, flags: [] },
+    ];
+    const changes = [
+      { from: 0, to: 1, flags: [] },
+      { from: 1, to: 2, flags: ["root-position-leap"] },
+    ];
+    const placed = [{ mismatch: { kind: "missing" as const, expected: "Bb" }, onChord: null, afterChord: 1 }];
+    const marks = laneMarks(chords, changes, placed, new Set([1]), 100);
+    expect(marks.find((m) => m.tone === "comment")).toMatchObject({ change: 1, x: 201 });
+    expect(marks.filter((m) => m.tone === "flag").map((m) => [m.x, m.change])).toEqual([
+      [150, 0],
+      [200, 1],
+    ]);
+    expect(marks.find((m) => m.tone === "mismatch")).toMatchObject({ x: 200, label: "Bb missing", change: 1 });
+    // Packed, none of them overlaps another in its row.
+    const { placed: rows } = packMarks(marks);
+    for (const p of rows) for (const q of rows) if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
+  });
+});
