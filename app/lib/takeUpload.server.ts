@@ -21,6 +21,7 @@ import { fitNotice, type FitNotice } from "~/lib/exerciseFitText";
 import { analyseInWorker } from "~/lib/analysisPool.server";
 import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
 import { MAX_FILES, MAX_TAKE_BYTES } from "~/lib/uploadLimits";
+import { fieldsForChoice } from "~/lib/uploadRows";
 import { listExercisesForStudent, type ExerciseOption } from "~/models/exercises.server";
 import { createTakeRecord, replaceTakeRecord } from "~/models/takes.server";
 
@@ -258,14 +259,6 @@ const fileExerciseSchema = z
   .max(80)
   .regex(/^(|free|[^|]+(\|[^|]{1,8})?)$/, "Choose an exercise for each file from the list.");
 
-/** The form's exercise and key, overridden for one file by its own choice. */
-export function fieldsForFile(fields: UploadFields, choice: string | undefined): UploadFields {
-  if (!choice) return fields;
-  if (choice === "free") return { ...fields, exerciseId: undefined, key: undefined };
-  const [exerciseId, key] = choice.split("|");
-  return { ...fields, exerciseId, key: key || undefined };
-}
-
 /**
  * The upload page's form: up to ten files in the field `files`, one result each. Each file may
  * go to its own exercise: the n-th `fileExercise` value belongs to the n-th file.
@@ -283,7 +276,7 @@ export async function uploadTakesFromForm(request: Request, user: SessionUser): 
     const results: UploadResult[] = [];
     for (const [i, f] of files.entries()) {
       try {
-        results.push(await ingest(user, f, fieldsForFile(fields, choices.data[i]), { studioId: user.active!.studioId }));
+        results.push(await ingest(user, f, fieldsForChoice(fields, choices.data[i]), { studioId: user.active!.studioId }));
       } catch (e) {
         // The files not reached yet have no row either.
         await Promise.all(files.slice(i + 1).map((rest) => removeTakeFile(rest.fileKey).catch(() => {})));

@@ -2,6 +2,7 @@
 // shapes describe a row updated by the browser's own request and a row the page's
 // no-JavaScript action answered. Pure, so every answer the API gives is tested.
 import type { TakeAnalysis } from "~/analysis/types";
+import type { FitNotice } from "./exerciseFitText";
 import { MAX_TAKE_BYTES } from "./uploadLimits";
 
 export type UploadStage = "ready" | "uploading" | "analysing" | "analysed" | "failed" | "refused" | "duplicate";
@@ -18,9 +19,26 @@ export type UploadRow = {
   chordCount: number | null;
   smoothness: number | null;
   score: number | null;
+  /** The file's own exercise: "" (the form's), "free", or "exerciseId|key". */
+  choice: string;
+  /** Set when the take does not fit the exercise it was filed under. */
+  fit: FitNotice | null;
 };
 
-export type UploadAnswer = { id?: string; status?: string; error?: string; analysis?: Pick<TakeAnalysis, "summary"> };
+export type UploadAnswer = { id?: string; status?: string; error?: string; analysis?: Pick<TakeAnalysis, "summary">; fit?: FitNotice };
+
+export type TakeFieldValues = { exerciseId?: string; key?: string; note?: string };
+
+/**
+ * The form's exercise and key with one file's own choice applied: "" keeps the form's, "free"
+ * files it as free practice, "exerciseId|key" (or "exerciseId" for its first key) names one.
+ */
+export function fieldsForChoice<T extends TakeFieldValues>(fields: T, choice: string | undefined): T {
+  if (!choice) return fields;
+  if (choice === "free") return { ...fields, exerciseId: undefined, key: undefined };
+  const [exerciseId, key] = choice.split("|");
+  return { ...fields, exerciseId, key: key || undefined };
+}
 
 /** Refuses in the browser what the server would refuse anyway, before sending a byte. */
 export function precheck(file: { name: string; size: number }): string | null {
@@ -43,6 +61,8 @@ export function newRow(key: string, file: { name: string; size: number }): Uploa
     chordCount: null,
     smoothness: null,
     score: null,
+    choice: "",
+    fit: null,
   };
 }
 
@@ -56,7 +76,7 @@ export function rowFromAnswer(row: UploadRow, status: number, body: UploadAnswer
   const base = { ...row, progress: 1, takeId: body?.id ?? null };
   if (status === 201 && body?.analysis) {
     const s = body.analysis.summary;
-    return { ...base, stage: "analysed", error: null, chordCount: s.chordCount, smoothness: s.smoothness, score: s.score };
+    return { ...base, stage: "analysed", error: null, chordCount: s.chordCount, smoothness: s.smoothness, score: s.score, fit: body.fit ?? null };
   }
   if (status === 409) return { ...base, stage: "duplicate", error: body?.error ?? "You have uploaded this take already." };
   if (status === 422) return { ...base, stage: "failed", error: body?.error ?? "This MIDI file could not be analysed." };

@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { Link } from "react-router";
 import { formatBytes, type UploadRow } from "~/lib/uploadRows";
 import { percent } from "~/lib/noteText";
@@ -12,8 +13,11 @@ const STAGE: Record<UploadRow["stage"], { label: string; tone: string }> = {
   refused: { label: "Not uploaded", tone: "bg-brick-pale text-brick" },
 };
 
-/** One line per file: its stage, a progress bar while sending, then its figures or its error. */
-export function UploadRows({ rows, onRemove }: { rows: UploadRow[]; onRemove?: (key: string) => void }) {
+/**
+ * One line per file: its stage, a progress bar while sending, then its figures or its error;
+ * `extras` adds what a page shows under a file (its own exercise, a warning about it).
+ */
+export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRemove?: (key: string) => void; extras?: (row: UploadRow) => ReactNode }) {
   if (rows.length === 0) return null;
   return (
     <ul aria-label="Files" className="flex flex-col divide-y divide-line rounded-lg border border-line bg-card">
@@ -72,6 +76,7 @@ export function UploadRows({ rows, onRemove }: { rows: UploadRow[]; onRemove?: (
                 ) : null}
               </p>
             ) : null}
+            {extras?.(row)}
           </li>
         );
       })}
