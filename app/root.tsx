@@ -10,7 +10,7 @@ import {
   useRouteLoaderData,
 } from "react-router";
 import type { Route } from "./+types/root";
-import { getSessionUser } from "~/auth/session.server";
+import { currentUser, sessionMiddleware } from "~/auth/access.server";
 import { FlashMessage } from "~/components/FlashMessage";
 import { SiteNav, type NavUser } from "~/components/SiteNav";
 import { readFlash } from "~/lib/flash.server";
@@ -18,12 +18,13 @@ import { useNonce } from "~/lib/nonce";
 import { securityHeadersMiddleware } from "~/lib/securityHeaders.server";
 import "./app.css";
 
-export const middleware: Route.MiddlewareFunction[] = [securityHeadersMiddleware];
+// Headers and nonce first, then the signed-in person, read once for every loader and action.
+export const middleware: Route.MiddlewareFunction[] = [securityHeadersMiddleware, sessionMiddleware];
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await getSessionUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await currentUser({ request, context });
   const { flash, header } = await readFlash(request);
   const navUser: NavUser = user
     ? { name: user.name, role: user.active?.role ?? null, studioName: user.active?.studioName ?? null }

@@ -1,5 +1,5 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { data, redirect } from "react-router";
+import { createContext, data, redirect, type MiddlewareFunction, type RouterContextProvider } from "react-router";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
 import { env } from "~/lib/env.server";
@@ -7,10 +7,46 @@ import { getSessionUser, type SessionUser, type StudioRole } from "./session.ser
 
 /**
  * Every access rule of Nearnote lives here. Pages get a redirect to /login or a
- * 403 page; API routes (mode "api") get 401 / 403 JSON. Call one of these at
- * the top of every loader and action.
+ * 403 page; API routes (mode "api") get 401 / 403 JSON. The layouts in
+ * app/routes.ts enforce who may enter a group of routes (the `*Middleware`
+ * below); every loader and action still calls one of the `require*` helpers at
+ * the top, which reads the person from the router context and adds the rule
+ * for the one thing asked for (this take, this student…).
  */
 export type AccessMode = "page" | "api";
+
+/** What the helpers need from a loader's or action's arguments. */
+export type RequestArgs = { request: Request; context: Readonly<RouterContextProvider>; url?: URL };
+
+/** The signed-in person of this request (null: signed out), once it has been read. */
+const sessionUserContext = createContext<{ user: SessionUser | null } | null>(null);
+
+/**
+ * The signed-in person, read from the session once per request: the root
+ * middleware loads it, every later call reads the router context. A handler
+ * run outside the router (a script) loads it here on first use.
+ */
+export async function currentUser({ request, context }: RequestArgs): Promise<SessionUser | null> {
+  const loaded = context.get(sessionUserContext);
+  if (loaded) return loaded.user;
+  const user = await getSessionUser(request);
+  context.set(sessionUserContext, { user });
+  return user;
+}
+
+/**
+ * After an action changed the signed-in person (name, address, memberships), the
+ * loaders that run in the same request read them afresh.
+ */
+export function forgetCurrentUser(context: Readonly<RouterContextProvider>) {
+  context.set(sessionUserContext, null);
+}
+
+/** Root middleware: reads the session once, before any loader or action. */
+export const sessionMiddleware: MiddlewareFunction<Response> = async (args, next) => {
+  await currentUser(args);
+  return next();
+};
 
 export function deny(mode: AccessMode, message = "This page belongs to someone else."): never {
   if (mode === "api") throw Response.json({ error: message }, { status: 403 });
@@ -22,19 +58,20 @@ export function notFound(mode: AccessMode, message = "Not found"): never {
   throw data(message, { status: 404 });
 }
 
-export async function requireUser(request: Request, mode: AccessMode = "page"): Promise<SessionUser> {
-  const user = await getSessionUser(request);
+export async function requireUser(args: RequestArgs, mode: AccessMode = "page"): Promise<SessionUser> {
+  const user = await currentUser(args);
   if (!user) {
     if (mode === "api") throw Response.json({ error: "Sign in first." }, { status: 401 });
-    const url = new URL(request.url);
+    // `url` is the page's address (a client-side navigation's request is for `<page>.data`).
+    const url = args.url ?? new URL(args.request.url);
     throw redirect(`/login?redirectTo=${encodeURIComponent(url.pathname + url.search)}`);
   }
   return user;
 }
 
 /** Signed-in pages like /login send people who already have a session on to /home. */
-export async function requireAnonymous(request: Request) {
-  if (await getSessionUser(request)) throw redirect("/home");
+export async function requireAnonymous(args: RequestArgs) {
+  if (await currentUser(args)) throw redirect("/home");
 }
 
 export type TeacherContext = SessionUser & { active: StudioRole & { role: "owner" | "teacher" } };
@@ -45,15 +82,15 @@ export function isTeacherRole(role: string | undefined | null) {
 }
 
 /** A teacher (owner or co-teacher) working in their active studio. */
-export async function requireTeacher(request: Request, mode: AccessMode = "page"): Promise<TeacherContext> {
-  const user = await requireUser(request, mode);
+export async function requireTeacher(args: RequestArgs, mode: AccessMode = "page"): Promise<TeacherContext> {
+  const user = await requireUser(args, mode);
   if (!user.active || !isTeacherRole(user.active.role)) deny(mode, "Only the studio's teachers can open this.");
   return user as TeacherContext;
 }
 
 /** The owner of the active studio (for inviting co-teachers). */
-export async function requireOwner(request: Request, mode: AccessMode = "page"): Promise<TeacherContext> {
-  const user = await requireTeacher(request, mode);
+export async function requireOwner(args: RequestArgs, mode: AccessMode = "page"): Promise<TeacherContext> {
+  const user = await requireTeacher(args, mode);
   if (user.active.role !== "owner") deny(mode, "Only the studio's owner can do this.");
   return user;
 }
@@ -62,8 +99,8 @@ export async function requireOwner(request: Request, mode: AccessMode = "page"):
  * A co-teacher of the owner's active studio, for removing them: only the owner may, and
  * only a co-teacher (so nobody can remove the owner).
  */
-export async function requireCoTeacherOfOwner(request: Request, teacherId: string | undefined, mode: AccessMode = "page") {
-  const user = await requireOwner(request, mode);
+export async function requireCoTeacherOfOwner(args: RequestArgs, teacherId: string | undefined, mode: AccessMode = "page") {
+  const user = await requireOwner(args, mode);
   const row = teacherId
     ? db()
         .select()
@@ -81,8 +118,8 @@ export async function requireCoTeacherOfOwner(request: Request, teacherId: strin
   return { user, membership: row };
 }
 
-export async function requireStudent(request: Request, mode: AccessMode = "page"): Promise<StudentContext> {
-  const user = await requireUser(request, mode);
+export async function requireStudent(args: RequestArgs, mode: AccessMode = "page"): Promise<StudentContext> {
+  const user = await requireUser(args, mode);
   if (!user.active || user.active.role !== "student") deny(mode, "This page is for students.");
   return user as StudentContext;
 }
@@ -98,11 +135,11 @@ export function canSeeTake(user: SessionUser, take: Pick<Take, "studentId" | "st
 }
 
 export async function requireTakeAccess(
-  request: Request,
+  args: RequestArgs,
   takeId: string | undefined,
   mode: AccessMode = "page",
 ): Promise<{ user: SessionUser; take: Take }> {
-  const user = await requireUser(request, mode);
+  const user = await requireUser(args, mode);
   const take = takeId ? db().select().from(takes).where(eq(takes.id, takeId)).get() : undefined;
   if (!take) notFound(mode, "There is no such take.");
   if (!canSeeTake(user, take)) deny(mode, "This take belongs to someone else.");
@@ -139,11 +176,11 @@ export function isExerciseSetFor(exercise: Pick<Exercise, "id" | "assignedTo">, 
 }
 
 export async function requireExerciseAccess(
-  request: Request,
+  args: RequestArgs,
   exerciseId: string | undefined,
   mode: AccessMode = "page",
 ): Promise<{ user: SessionUser; exercise: Exercise; asTeacher: boolean }> {
-  const user = await requireUser(request, mode);
+  const user = await requireUser(args, mode);
   const exercise = exerciseId ? db().select().from(exercises).where(eq(exercises.id, exerciseId)).get() : undefined;
   if (!exercise) notFound(mode, "There is no such exercise.");
   if (!canSeeExercise(user, exercise)) deny(mode, "This exercise belongs to another studio.");
@@ -153,19 +190,19 @@ export async function requireExerciseAccess(
   return { user, exercise, asTeacher };
 }
 
-export async function requireExerciseEdit(request: Request, exerciseId: string | undefined, mode: AccessMode = "page") {
-  const result = await requireExerciseAccess(request, exerciseId, mode);
+export async function requireExerciseEdit(args: RequestArgs, exerciseId: string | undefined, mode: AccessMode = "page") {
+  const result = await requireExerciseAccess(args, exerciseId, mode);
   if (!result.asTeacher) deny(mode, "Only the studio's teachers can change exercises.");
   return result;
 }
 
 /** A student of one of this teacher's studios (active or removed: removed students' takes stay reviewable). */
 export async function requireStudentOfTeacher(
-  request: Request,
+  args: RequestArgs,
   studentId: string | undefined,
   mode: AccessMode = "page",
 ) {
-  const user = await requireTeacher(request, mode);
+  const user = await requireTeacher(args, mode);
   const row = studentId
     ? db()
         .select()
@@ -187,8 +224,8 @@ export async function requireStudentOfTeacher(
  * Students named in a progress query (board chart, CSV export): each must be a
  * student of the teacher's active studio (removed ones too, like the rule above).
  */
-export async function requireStudentsOfTeacher(request: Request, studentIds: string[], mode: AccessMode = "page") {
-  const user = await requireTeacher(request, mode);
+export async function requireStudentsOfTeacher(args: RequestArgs, studentIds: string[], mode: AccessMode = "page") {
+  const user = await requireTeacher(args, mode);
   const wanted = [...new Set(studentIds)];
   if (wanted.length) {
     const found = db()
@@ -223,3 +260,21 @@ export function requireSameOrigin(request: Request) {
     throw Response.json({ error: "Cross-origin requests are refused." }, { status: 403 });
   }
 }
+
+/**
+ * Middleware for a layout in app/routes.ts: everyone inside must meet `rule`
+ * (pages are redirected to /login or shown a 403, API routes answer JSON).
+ */
+function entryRule(rule: (args: RequestArgs) => Promise<unknown>): MiddlewareFunction<Response> {
+  return async (args, next) => {
+    await rule(args);
+    return next();
+  };
+}
+
+export const visitorsOnly = entryRule(requireAnonymous);
+export const signedInOnly = entryRule((args) => requireUser(args));
+export const teachersOnly = entryRule((args) => requireTeacher(args));
+export const studentsOnly = entryRule((args) => requireStudent(args));
+export const signedInApi = entryRule((args) => requireUser(args, "api"));
+export const teachersApi = entryRule((args) => requireTeacher(args, "api"));

@@ -3,8 +3,8 @@ import { requireTakeAccess } from "~/auth/access.server";
 import { readTakeFile } from "~/lib/takeFiles.server";
 
 /** GET /api/takes/:id/file: the original upload, for the student and their teachers. */
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { take } = await requireTakeAccess(request, params.takeId, "api");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { take } = await requireTakeAccess({ request, context }, params.takeId, "api");
   const bytes = await readTakeFile(take.fileKey);
   if (!bytes) return Response.json({ error: "The file of this take is missing." }, { status: 404 });
   const ascii = take.originalName.replace(/[^\x20-\x7e]/g, "_").replace(/["\\]/g, "_");

@@ -25,8 +25,8 @@ const WEEK_CHOICES = 12;
 
 export const meta: Route.MetaFunction = () => [{ title: "Progress board · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const teacher = await requireTeacher(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const teacher = await requireTeacher({ request, context });
   const studioId = teacher.active.studioId;
   const timeZone = studioTimeZone(studioId);
   const url = new URL(request.url);
@@ -34,7 +34,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   // A hand-edited address with a bad value falls back to the default view rather than an error page.
   if (!parsed.ok) throw redirect("/board");
   const query = parsed.query;
-  await requireStudentsOfTeacher(request, query.studentIds);
+  await requireStudentsOfTeacher({ request, context }, query.studentIds);
   const current = currentWeek(studioId);
   const weekOptions = Array.from({ length: WEEK_CHOICES }, (_, i) => shiftWeek(current, -i));
   const chosen = url.searchParams.get("week");
@@ -57,8 +57,8 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 const actionSchema = z.object({ intent: z.literal("remind") });
 
-export async function action({ request }: Route.ActionArgs) {
-  const teacher = await requireTeacher(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const teacher = await requireTeacher({ request, context });
   const parsed = actionSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: "Unknown action." }, { status: 400 });
   const { sent, alreadyReminded } = await sendPracticeReminders(

@@ -11,16 +11,16 @@ import { reanalyseTake } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Edit ${data.exercise.title} · Nearnote` : "Edit exercise · Nearnote" }];
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
   return {
     exercise: { ...exerciseFields(exercise), students: assigneeIds(exercise.id) },
     students: studioStudents(exercise.studioId).map((s) => ({ id: s.id, name: s.name })),
   };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
   const students = studioStudents(exercise.studioId).map((s) => s.id);
   const read = readExerciseForm(await request.formData(), students);
   if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });

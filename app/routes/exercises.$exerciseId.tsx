@@ -30,8 +30,8 @@ import { eq } from "drizzle-orm";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.exercise.title} · Nearnote` : "Exercise · Nearnote" }];
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { user, exercise, asTeacher } = await requireExerciseAccess(request, params.exerciseId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { user, exercise, asTeacher } = await requireExerciseAccess({ request, context }, params.exerciseId);
   const check = checkProgression(exercise.progression, exercise.keys);
   const rows = takesOfExercise(exercise.id, asTeacher ? undefined : user.id);
   const students = asTeacher
@@ -57,8 +57,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 const startSchema = z.object({ notes: z.string().regex(/^\d{1,3}(,\d{1,3}){1,7}$/, "Pick two to eight keys.") });
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const { exercise } = await requireExerciseEdit(request, params.exerciseId);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
   const done = async (message: string) =>
     redirect(`/exercises/${exercise.id}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
   // The model take arrives as multipart; the parser reads the body, so its intent is in the URL.

@@ -10,13 +10,13 @@ import { studioStudents } from "~/models/progress.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "New exercise · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireTeacher(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireTeacher({ request, context });
   return { students: studioStudents(user.active.studioId).map((s) => ({ id: s.id, name: s.name })) };
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireTeacher(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireTeacher({ request, context });
   const students = studioStudents(user.active.studioId).map((s) => s.id);
   const read = readExerciseForm(await request.formData(), students);
   if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });

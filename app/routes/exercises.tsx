@@ -11,8 +11,8 @@ import { isDone, listExercisesForStudent, listExercisesForTeacher, progressByKey
 
 export const meta: Route.MetaFunction = () => [{ title: "Exercises · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser({ request, context });
   const active = user.active;
   if (!active) return { role: "none" as const, teacher: null, student: null };
   if (isTeacherRole(active.role)) return { role: "teacher" as const, teacher: listExercisesForTeacher(active.studioId), student: null };

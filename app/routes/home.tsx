@@ -13,8 +13,8 @@ import { listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.ser
 
 export const meta: Route.MetaFunction = () => [{ title: "Home · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser({ request, context });
   const active = user.active;
   const student =
     active?.role === "student"

@@ -2,7 +2,8 @@ import { data, Form, Link, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/invite.$token";
 import { passwordSchema, verifyPassword } from "~/auth/password.server";
-import { createUserSession, getSessionUser } from "~/auth/session.server";
+import { currentUser } from "~/auth/access.server";
+import { createUserSession } from "~/auth/session.server";
 import { formFailure, parseForm } from "~/auth/validate.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
@@ -23,10 +24,10 @@ const REASONS = {
   expired: "This invitation has expired (links work for 7 days). Ask your teacher to send it again.",
 } as const;
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export async function loader({ request, params, context }: Route.LoaderArgs) {
   const found = findInvitationByToken(params.token);
   if (!found.ok) return data({ ok: false as const, message: REASONS[found.reason] }, { status: 410 });
-  const current = await getSessionUser(request);
+  const current = await currentUser({ request, context });
   return {
     ok: true as const,
     studioName: found.studioName,
@@ -42,12 +43,12 @@ const newAccountSchema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 const joinSchema = z.object({ intent: z.literal("join"), password: z.string().max(128).optional() });
 
-export async function action({ request, params }: Route.ActionArgs) {
+export async function action({ request, params, context }: Route.ActionArgs) {
   const form = await request.formData();
   const found = findInvitationByToken(params.token);
   if (!found.ok) return formFailure(form, {}, REASONS[found.reason], undefined, 410);
   const { invitation } = found;
-  const current = await getSessionUser(request);
+  const current = await currentUser({ request, context });
   if (current && current.email !== invitation.email) {
     return formFailure(form, {}, `This invitation is for ${invitation.email}. Sign out of ${current.email} first.`, undefined, 403);
   }

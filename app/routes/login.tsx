@@ -12,13 +12,13 @@ import { FlashMessage } from "~/components/FlashMessage";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  await requireAnonymous(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  await requireAnonymous({ request, context });
   return null;
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  await requireAnonymous(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  await requireAnonymous({ request, context });
   // The form strategy reads the body itself; read a clone here.
   const form = await request.clone().formData();
   const parsed = parseForm(loginSchema, form);

@@ -20,8 +20,8 @@ export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Progress report: ${data.student.name}, ${data.from} to ${data.to} · Nearnote` : "Progress report · Nearnote" },
 ];
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { user } = await requireStudentOfTeacher(request, params.studentId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { user } = await requireStudentOfTeacher({ request, context }, params.studentId);
   const studioId = user.active.studioId;
   const url = new URL(request.url);
   const reportId = url.searchParams.get("report");
@@ -54,8 +54,8 @@ const saveSchema = z.object({
   summary: z.string().trim().min(1, "Write a few words for the student first").max(5000, "Keep the summary under 5,000 characters"),
 });
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const { user } = await requireStudentOfTeacher(request, params.studentId);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { user } = await requireStudentOfTeacher({ request, context }, params.studentId);
   const parsed = saveSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors }, { status: 400 });

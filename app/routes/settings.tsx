@@ -1,7 +1,7 @@
 import { data, redirect, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/settings";
-import { requireUser } from "~/auth/access.server";
+import { forgetCurrentUser, requireUser } from "~/auth/access.server";
 import { passwordSchema, verifyPassword } from "~/auth/password.server";
 import { createUserSession, sessionCookie } from "~/auth/session.server";
 import { formFailure, parseForm } from "~/auth/validate.server";
@@ -15,8 +15,8 @@ import { AccountSections } from "~/components/settings/AccountSections";
 
 export const meta: Route.MetaFunction = () => [{ title: "Settings · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser({ request, context });
   const row = getUser(user.id)!;
   return {
     name: row.name,
@@ -45,8 +45,8 @@ const schemas = {
 };
 type Intent = keyof typeof schemas;
 
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireUser(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireUser({ request, context });
   const form = await request.formData();
   const intent = String(form.get("intent") ?? "") as Intent;
   if (!(intent in schemas)) return formFailure(form, {}, "Unknown action.", intent);
@@ -57,8 +57,11 @@ export async function action({ request }: Route.ActionArgs) {
   if ("currentPassword" in values && !(await verifyPassword(String(values.currentPassword), row.passwordHash))) {
     return formFailure(form, { currentPassword: ["That is not your current password"] }, undefined, intent);
   }
-  const saved = async (message: string) =>
-    data({ ok: true as const, intent }, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  const saved = async (message: string) => {
+    // A form posted without JavaScript runs the loaders in this same request: they read the person afresh.
+    forgetCurrentUser(context);
+    return data({ ok: true as const, intent }, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  };
 
   switch (intent) {
     case "profile":

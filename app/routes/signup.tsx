@@ -19,13 +19,13 @@ const signupSchema = z.object({
   studioName: z.string({ error: "Name your studio" }).trim().min(1, "Name your studio").max(80, "Use at most 80 characters"),
 });
 
-export async function loader({ request }: Route.LoaderArgs) {
-  await requireAnonymous(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  await requireAnonymous({ request, context });
   return null;
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  await requireAnonymous(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  await requireAnonymous({ request, context });
   const form = await request.formData();
   const parsed = parseForm(signupSchema, form);
   if (!parsed.ok) return parsed.response;

@@ -22,8 +22,8 @@ import { listTakesForStudent } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.student.name ?? "Student"} · Progress · Nearnote` }];
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { user, membership } = await requireStudentOfTeacher(request, params.studentId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { user, membership } = await requireStudentOfTeacher({ request, context }, params.studentId);
   const studioId = user.active.studioId;
   const parsed = parseProgressQuery(new URL(request.url), studioTimeZone(studioId));
   if (!parsed.ok) throw redirect(`/students/${params.studentId}`);

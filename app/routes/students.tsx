@@ -24,8 +24,8 @@ import { InviteForm, RosterRow, PendingRow } from "~/components/students/Roster"
 
 export const meta: Route.MetaFunction = () => [{ title: "Students · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireTeacher(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireTeacher({ request, context });
   const studioId = user.active.studioId;
   const roster = studioRoster(studioId);
   return {
@@ -64,8 +64,8 @@ const studentSchema = z.object({
 });
 const teacherSchema = z.object({ intent: z.literal("remove-teacher"), teacherId: z.string().min(1) });
 
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireTeacher(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireTeacher({ request, context });
   const studioId = user.active.studioId;
   const form = await request.formData();
   const intent = String(form.get("intent") ?? "");
@@ -119,7 +119,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (intent === "remove" || intent === "delete-data") {
     const parsed = parseForm(studentSchema, form, intent);
     if (!parsed.ok) return parsed.response;
-    await requireStudentOfTeacher(request, parsed.data.studentId);
+    await requireStudentOfTeacher({ request, context }, parsed.data.studentId);
     if (intent === "remove") {
       removeMember(studioId, parsed.data.studentId, "student");
       return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
@@ -134,7 +134,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (intent === "remove-teacher") {
     const parsed = parseForm(teacherSchema, form, intent);
     if (!parsed.ok) return parsed.response;
-    await requireCoTeacherOfOwner(request, parsed.data.teacherId);
+    await requireCoTeacherOfOwner({ request, context }, parsed.data.teacherId);
     removeMember(studioId, parsed.data.teacherId, "teacher");
     return done("Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.");
   }

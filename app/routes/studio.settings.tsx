@@ -13,8 +13,8 @@ import { setStudioTimeZone, timeZoneNames } from "~/models/studioSettings.server
 
 export const meta: Route.MetaFunction = () => [{ title: "Studio settings · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const teacher = await requireTeacher(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const teacher = await requireTeacher({ request, context });
   const timeZone = studioTimeZone(teacher.active.studioId);
   const now = new Date();
   return {
@@ -31,8 +31,8 @@ const schema = z.object({
   timeZone: z.string().trim().min(1, "Choose a time zone").refine(isValidTimeZone, "Not a time zone this server knows"),
 });
 
-export async function action({ request }: Route.ActionArgs) {
-  const owner = await requireOwner(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const owner = await requireOwner({ request, context });
   const parsed = schema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0].message }, { status: 400 });
   const moved = setStudioTimeZone(owner.active.studioId, parsed.data.timeZone);

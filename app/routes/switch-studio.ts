@@ -12,9 +12,9 @@ export async function loader() {
 }
 
 /** A resource route that changes data: it checks the origin itself. */
-export async function action({ request }: Route.ActionArgs) {
+export async function action({ request, context }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const user = await requireUser(request);
+  const user = await requireUser({ request, context });
   const parsed = schema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) throw new Response("Choose a studio", { status: 400 });
   if (!switchActiveStudio(user.sessionId, user.id, parsed.data.studioId)) deny("page", "You are not in that studio.");

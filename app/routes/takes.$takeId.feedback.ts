@@ -17,15 +17,15 @@ import {
   unmarkIntended,
 } from "~/models/feedback.server";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { take } = await requireTakeAccess(request, params.takeId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { take } = await requireTakeAccess({ request, context }, params.takeId);
   return redirect(`/takes/${take.id}`);
 }
 
 /** A resource route that changes data: it checks the origin itself. */
-export async function action({ request, params }: Route.ActionArgs) {
+export async function action({ request, params, context }: Route.ActionArgs) {
   requireSameOrigin(request);
-  const { user, take } = await requireTakeAccess(request, params.takeId);
+  const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
   const form = await request.formData();
   const intent = String(form.get("intent") ?? "");
   const asTeacher = isTeacherOfTake(user, take);

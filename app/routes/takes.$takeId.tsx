@@ -30,8 +30,8 @@ export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
 ];
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const { user, take } = await requireTakeAccess(request, params.takeId);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
   const view = await getTakeView(take.id);
   if (!view) throw data("There is no such take.", { status: 404 });
   const isOwner = user.id === take.studentId;
@@ -57,8 +57,8 @@ const moveSchema = z.object({
 
 type ActionError = { intent: string; message: string };
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const { user, take } = await requireTakeAccess(request, params.takeId);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
   if (user.id !== take.studentId) deny("page", "Only the student who played this take can change it.");
   const fail = (intent: string, message: string, status = 400) => data<{ error: ActionError }>({ error: { intent, message } }, { status });
   const done = async (to: string, message: string) =>

@@ -17,8 +17,8 @@ import { listExercisesForStudent } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Upload takes · Nearnote" }];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireStudent(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireStudent({ request, context });
   const exercises = listExercisesForStudent(user.id, user.active.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys, tempo: e.tempo }));
   const url = new URL(request.url);
   const exerciseId = exercises.some((e) => e.id === url.searchParams.get("exercise")) ? url.searchParams.get("exercise")! : "";
@@ -28,8 +28,8 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 /** Without JavaScript the form posts every file here at once; each gets its own result row. */
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireStudent(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireStudent({ request, context });
   const results = await uploadTakesFromForm(request, user);
   return {
     rows: results.map((r, i) => rowFromAnswer(postedRow(`posted-${i}`, r.fileName), r.status, r.body)),

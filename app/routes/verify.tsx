@@ -30,8 +30,8 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 /** Sends a fresh link to the signed-in person's address. */
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireUser(request);
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireUser({ request, context });
   if (user.emailVerified) throw redirect("/settings");
   const sent = await sendVerificationMail(user);
   const message = sent.ok ? `We sent a new link to ${user.email}.` : `No new link was sent. ${mailRetryMessage(sent)}`;
