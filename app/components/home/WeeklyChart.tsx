@@ -1,7 +1,9 @@
-import { useEffect, useState } from "react";
-import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { lazy, Suspense, useEffect, useState } from "react";
 import { dayLabel } from "~/lib/noteText";
 import { weekStart } from "~/lib/weeks";
+
+// The chart library is fetched only when a chart is drawn, not with the page.
+const WeeklyLines = lazy(() => import("./WeeklyLines"));
 
 export type WeekFigures = { week: string; takes: number; smoothness: number | null; score: number | null };
 
@@ -19,7 +21,7 @@ const shortWeek = (key: string) => weekLabel(key).replace(/^Week of /, "").repla
 /**
  * Smoothness and score by week, both on a 0–100 scale. Recharts draws in the browser
  * only, so the same figures are always there as a table too (and the chart waits for
- * hydration instead of rendering an empty frame on the server).
+ * hydration instead of rendering an empty frame on the server); its code loads then.
  */
 export function WeeklyChart({ weeks }: { weeks: WeekFigures[] }) {
   const [mounted, setMounted] = useState(false);
@@ -37,17 +39,9 @@ export function WeeklyChart({ weeks }: { weeks: WeekFigures[] }) {
     <div className="flex flex-col gap-3">
       <div className="h-64 w-full" role="img" aria-label={`Chart of smoothness and score by week. ${summary}`}>
         {mounted ? (
-          <ResponsiveContainer width="100%" height="100%">
-            <LineChart data={points} margin={{ top: 8, right: 16, bottom: 0, left: -16 }}>
-              <CartesianGrid stroke="var(--color-line)" strokeDasharray="3 3" />
-              <XAxis dataKey="week" tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
-              <YAxis domain={[0, 100]} tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
-              <Tooltip contentStyle={{ background: "var(--color-card)", border: "1px solid var(--color-line)", borderRadius: 6 }} />
-              <Legend />
-              <Line type="monotone" dataKey="smoothness" name="Smoothness %" stroke="var(--color-tide)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
-              <Line type="monotone" dataKey="score" name="Average score" stroke="var(--color-ochre)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
-            </LineChart>
-          </ResponsiveContainer>
+          <Suspense fallback={<p className="flex h-full items-center justify-center text-sm text-ink-soft">{summary}</p>}>
+            <WeeklyLines points={points} />
+          </Suspense>
         ) : (
           <p className="flex h-full items-center justify-center text-sm text-ink-soft">{summary}</p>
         )}

@@ -1,0 +1,20 @@
+import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+
+export type WeekPoint = { week: string; smoothness: number | null; score: number | null };
+
+/** The weekly chart proper (recharts); loaded on its own once the home page is in the browser. */
+export default function WeeklyLines({ points }: { points: WeekPoint[] }) {
+  return (
+    <ResponsiveContainer width="100%" height="100%">
+      <LineChart data={points} margin={{ top: 8, right: 16, bottom: 0, left: -16 }}>
+        <CartesianGrid stroke="var(--color-line)" strokeDasharray="3 3" />
+        <XAxis dataKey="week" tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
+        <YAxis domain={[0, 100]} tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
+        <Tooltip contentStyle={{ background: "var(--color-card)", border: "1px solid var(--color-line)", borderRadius: 6 }} />
+        <Legend />
+        <Line type="monotone" dataKey="smoothness" name="Smoothness %" stroke="var(--color-tide)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
+        <Line type="monotone" dataKey="score" name="Average score" stroke="var(--color-ochre)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
+      </LineChart>
+    </ResponsiveContainer>
+  );
+}
