@@ -1,6 +1,6 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/_index";
-import { getSessionUser } from "~/auth/session.server";
+import { currentUser } from "~/auth/access.server";
 import { ButtonLink } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PracticeCare } from "~/components/PracticeCare";
@@ -10,8 +10,8 @@ export const meta: Route.MetaFunction = () => [
   { name: "description", content: "Chord-by-chord feedback on keyboard harmony practice, for students and their teachers." },
 ];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  if (await getSessionUser(request)) throw redirect("/home");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  if (await currentUser({ request, context })) throw redirect("/home");
   return null;
 }
 
