@@ -5,7 +5,10 @@ import { TECHNIQUES } from "~/analysis/types";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics, takes, users, type Exercise } from "~/db/schema";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
-import { studioStudents } from "./progress.server";
+import { byState, exerciseState, type ExerciseState } from "~/lib/exerciseState";
+import { pretty } from "~/lib/noteText";
+import { studioStudents, studioTimeZone } from "./progress.server";
+import { todayIn } from "./progressQuery.server";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
 // each side sees (the teacher every exercise with hand-in figures, a student theirs by key).
@@ -163,8 +166,31 @@ export function progressByKey(keys: readonly string[], rows: readonly ExerciseTa
   });
 }
 
+/** Done: every key has an analysed take (the same rule as exerciseState). */
 export function isDone(progress: readonly KeyProgress[]): boolean {
-  return progress.every((p) => p.takes.some((t) => t.status === "analysed"));
+  return exerciseState({ dueDate: null }, progress, "").kind === "done";
+}
+
+export type StudentExercise = ExerciseOption & { progress: KeyProgress[]; state: ExerciseState };
+
+/**
+ * A student's open exercises with their takes by key and their state (done, overdue, due, to
+ * do), in the order a student works through them. Every student page that lists exercises
+ * reads them here, so they agree.
+ */
+export function studentExercises(studentId: string, studioId: string): { today: string; exercises: StudentExercise[] } {
+  const today = todayIn(studioTimeZone(studioId));
+  const list = listExercisesForStudent(studentId, studioId).map((e) => {
+    const progress = progressByKey(e.keys, takesOfExercise(e.id, studentId));
+    return { ...e, progress, state: exerciseState(e, progress, today, pretty) };
+  });
+  return { today, exercises: byState(list) };
+}
+
+/** One exercise's state for a student (the exercise page), by the same rule. */
+export function studentExerciseState(exercise: Pick<Exercise, "id" | "keys" | "dueDate" | "studioId">, studentId: string): ExerciseState {
+  const progress = progressByKey(exercise.keys, takesOfExercise(exercise.id, studentId));
+  return exerciseState(exercise, progress, todayIn(studioTimeZone(exercise.studioId)), pretty);
 }
 
 /** Every exercise of the studio for its teachers, archived ones last, with hand-in counts. */

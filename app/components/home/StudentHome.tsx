@@ -3,46 +3,53 @@ import { ButtonLink } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { PracticeCare } from "~/components/PracticeCare";
+import { ExerciseStateBadge } from "~/components/exercises/ExerciseStateBadge";
+import { dueWords, type ExerciseState } from "~/lib/exerciseState";
 import { dayLabel, pretty } from "~/lib/noteText";
 import { TakesTable, type TakeRow } from "./TakesTable";
 import { WeeklyChart, type WeekFigures } from "./WeeklyChart";
 
-export type DueExercise = { id: string; title: string; keys: string[]; dueDate: string | null; progression: string; tempo: number | null };
+export type DueExercise = {
+  id: string;
+  title: string;
+  keys: string[];
+  dueDate: string | null;
+  progression: string;
+  tempo: number | null;
+  state: ExerciseState;
+  progress: Array<{ key: string; takes: Array<{ status: string }> }>;
+};
 
-/** "due today", "due in 3 days", "2 days overdue" against the studio's today (YYYY-MM-DD). */
-export function dueWords(dueDate: string, today: string): string {
-  const days = Math.round((Date.parse(`${dueDate}T00:00:00Z`) - Date.parse(`${today}T00:00:00Z`)) / 86_400_000);
-  if (days === 0) return "due today";
-  if (days === 1) return "due tomorrow";
-  if (days > 1) return `due in ${days} days`;
-  return days === -1 ? "1 day overdue" : `${-days} days overdue`;
-}
+export { dueWords };
 
-function ExerciseItem({ exercise, today }: { exercise: DueExercise; today: string }) {
-  const overdue = exercise.dueDate !== null && exercise.dueDate < today;
-  const key = exercise.keys[0];
+function ExerciseItem({ exercise }: { exercise: DueExercise }) {
+  // The first key still without an analysed take is the one to send next.
+  const key = exercise.progress.find((p) => !p.takes.some((t) => t.status === "analysed"))?.key ?? exercise.keys[0];
+  const done = exercise.state.kind === "done";
   return (
-    <li className="flex flex-wrap items-center justify-between gap-3 py-3">
+    <li className="flex flex-wrap items-center justify-between gap-3 py-3" data-testid="home-exercise">
       <div className="min-w-0">
-        <p className="font-semibold">{exercise.title}</p>
-        <p className="text-sm text-ink-soft">
+        <p className="font-semibold">
+          <Link to={`/exercises/${exercise.id}`} className="text-tide-dark hover:underline">
+            {exercise.title}
+          </Link>
+        </p>
+        <p className="break-words text-sm text-ink-soft">
           <span className="font-mono text-ink">{pretty(exercise.progression)}</span>
           {exercise.keys.length ? ` · in ${exercise.keys.map(pretty).join(", ")}` : ""}
           {exercise.tempo ? ` · ♩ = ${exercise.tempo}` : ""}
         </p>
+        <p className="mt-1 flex flex-wrap items-center gap-2 text-sm">
+          <ExerciseStateBadge state={exercise.state} />
+          {exercise.dueDate ? <span className="whitespace-nowrap text-ink-soft">{dayLabel(`${exercise.dueDate}T12:00:00Z`)}</span> : null}
+          {done ? null : <span className="text-ink-soft">{exercise.state.detail}</span>}
+        </p>
       </div>
-      <div className="flex items-center gap-3">
-        {exercise.dueDate ? (
-          <span
-            className={`rounded px-2 py-0.5 text-xs font-semibold ${overdue ? "bg-brick-pale text-brick" : "bg-tide-pale text-tide-dark"}`}
-          >
-            {dueWords(exercise.dueDate, today)} · {dayLabel(`${exercise.dueDate}T00:00:00Z`)}
-          </span>
-        ) : null}
+      {done ? null : (
         <ButtonLink to={`/takes/new?exercise=${exercise.id}${key ? `&key=${encodeURIComponent(key)}` : ""}`} variant="secondary">
-          Upload a take<span className="sr-only"> of {exercise.title}</span>
+          Send a take<span className="sr-only"> of {exercise.title}</span>
         </ButtonLink>
-      </div>
+      )}
     </li>
   );
 }
@@ -52,15 +59,16 @@ export function StudentHome({
   exercises,
   takes,
   weeks,
-  today,
 }: {
   exercises: DueExercise[];
   takes: TakeRow[];
   weeks: WeekFigures[];
-  today: string;
+  /** the studio's today; the exercises' states are already decided against it */
+  today?: string;
 }) {
-  const dated = exercises.filter((e) => e.dueDate !== null).sort((a, b) => a.dueDate!.localeCompare(b.dueDate!));
-  const open = exercises.filter((e) => e.dueDate === null);
+  // Ordered and split by the same state as the list of exercises (exerciseState).
+  const toDo = exercises.filter((e) => e.state.kind !== "done");
+  const done = exercises.filter((e) => e.state.kind === "done");
   return (
     <div className="flex flex-col gap-6">
       <Card title="Due exercises" actions={<ButtonLink to="/takes/new">Upload takes</ButtonLink>}>
@@ -69,11 +77,24 @@ export function StudentHome({
             Your teacher has not set an exercise yet. Free practice takes are welcome in the meantime.
           </p>
         ) : (
-          <ul className="divide-y divide-line">
-            {[...dated, ...open].map((e) => (
-              <ExerciseItem key={e.id} exercise={e} today={today} />
-            ))}
-          </ul>
+          <>
+            {toDo.length === 0 ? <p className="text-sm text-ink-soft">Nothing to do: every exercise has a take in each of its keys.</p> : null}
+            <ul className="divide-y divide-line">
+              {toDo.map((e) => (
+                <ExerciseItem key={e.id} exercise={e} />
+              ))}
+            </ul>
+            {done.length ? (
+              <details className="mt-2 border-t border-line pt-2">
+                <summary className="cursor-pointer text-sm font-semibold text-tide-dark">Done ({done.length})</summary>
+                <ul className="divide-y divide-line">
+                  {done.map((e) => (
+                    <ExerciseItem key={e.id} exercise={e} />
+                  ))}
+                </ul>
+              </details>
+            ) : null}
+          </>
         )}
       </Card>
 
