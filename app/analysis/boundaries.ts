@@ -36,19 +36,53 @@ export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap
   });
 }
 
+/** A strike's distinct pitches, ascending. */
+function distinctPitches(s: Strike): number[] {
+  const out: number[] = [];
+  for (const n of s.notes) if (!out.includes(n.midi)) out.push(n.midi);
+  return out.sort((a, b) => a - b);
+}
+
 /** A strike's notes above its bass when the bass is detached (7 or more semitones below the next). */
 function upperNotes(s: Strike): number[] {
-  const pitches = [...new Set(s.notes.map((n) => n.midi))].sort((a, b) => a - b);
+  const pitches = distinctPitches(s);
   return pitches.length >= 3 && pitches[1] - pitches[0] >= 7 ? pitches.slice(1) : pitches;
 }
 
+/** The lowest of a strike's upper notes (upperNotes(s)[0]) without building the list. */
+function lowestUpper(s: Strike): number {
+  let low = Infinity;
+  let second = Infinity;
+  let count = 0;
+  for (const n of s.notes) {
+    const m = n.midi;
+    if (m === low || m === second) continue;
+    count++;
+    if (m < low) {
+      second = low;
+      low = m;
+    } else if (m < second) second = m;
+  }
+  return count >= 3 && second - low >= 7 ? second : low;
+}
+
 /**
- * Pitch classes of a strike's upper part (what comping re-strikes), or "" when fewer than two
- * remain: a bass and one note are no comping chord.
+ * Pitch classes of a strike's upper part (what comping re-strikes) as a 12-bit mask, or 0
+ * when fewer than two remain: a bass and one note are no comping chord.
  */
-function upperPcs(s: Strike): string {
-  const upper = [...new Set(upperNotes(s).map(pc))].sort((a, b) => a - b);
-  return upper.length >= 2 ? upper.join(",") : "";
+function upperPcs(s: Strike): number {
+  let mask = 0;
+  for (const m of upperNotes(s)) mask |= 1 << pc(m);
+  let count = 0;
+  for (let x = mask; x; x &= x - 1) count++;
+  return count >= 2 ? mask : 0;
+}
+
+/** Whether a strike has at least two distinct pitches. */
+function isMulti(s: Strike): boolean {
+  const first = s.notes[0].midi;
+  for (const n of s.notes) if (n.midi !== first) return true;
+  return false;
 }
 
 /**
@@ -59,8 +93,9 @@ function upperPcs(s: Strike): string {
 function loneAbove(strikes: readonly Strike[], i: number): boolean {
   const s = strikes[i];
   const next = strikes[i + 1];
-  if (!next || new Set(s.notes.map((n) => n.midi)).size !== 1) return false;
-  const end = Math.max(...s.notes.map((n) => n.end));
+  if (!next || isMulti(s)) return false;
+  let end = -Infinity;
+  for (const n of s.notes) if (n.end > end) end = n.end;
   return next.start <= end + 0.5 && next.notes.some((n) => n.midi < s.notes[0].midi);
 }
 
@@ -87,29 +122,40 @@ export function boundaryRules(input: { strikes: readonly Strike[]; sounding: Rea
   const barred = strikes.map(() => false);
   const lowest = lowestSounding(strikes, sounding);
   const newBass = strikes.map((s, i) => !!lowest[i] && s.notes.includes(lowest[i]!) && !loneAbove(strikes, i));
-  const multi = strikes.map((s) => new Set(s.notes.map((n) => n.midi)).size >= 2);
+  const multi = strikes.map(isMulti);
   const nextMulti = new Int32Array(strikes.length + 1).fill(-1);
   for (let i = strikes.length - 1; i >= 0; i--) nextMulti[i] = multi[i + 1] ? i + 1 : nextMulti[i + 1];
   // Comping parts once per strike (compared with their neighbours below).
-  const comps = strikes.map((s, i) => (multi[i] ? upperPcs(s) : ""));
+  const comps = strikes.map((s, i) => (multi[i] ? upperPcs(s) : 0));
   let lastSound = -Infinity;
   let prevMulti = -1;
   // Notes struck before the current strike whose key is still down (held into it, rule 3).
-  let down: NoteEvent[] = [];
+  const down: NoteEvent[] = [];
   for (let i = 0; i < strikes.length; i++) {
     const s = strikes[i];
     const t = s.start;
-    if (i > 0) down = [...down, ...strikes[i - 1].notes].filter((n) => n.end > t + EPS);
+    if (i > 0) {
+      down.push(...strikes[i - 1].notes);
+      let kept = 0;
+      for (const n of down) if (n.end > t + EPS) down[kept++] = n;
+      down.length = kept;
+    }
     if (i > 0 && t - lastSound >= SILENCE_SEC - EPS) forced[i] = true;
     if (i > 0 && !multi[i]) {
       const n = s.notes[0];
       // A note struck alone in the bass under held upper notes.
-      const held = down.filter((h) => h.end > t + HELD_FOR + EPS && h.midi !== n.midi);
-      if (held.length > 0 && held.every((h) => h.midi > n.midi)) barred[i] = true;
+      let held = 0;
+      let allAbove = true;
+      for (const h of down) {
+        if (!(h.end > t + HELD_FOR + EPS && h.midi !== n.midi)) continue;
+        held++;
+        if (!(h.midi > n.midi)) allAbove = false;
+      }
+      if (held > 0 && allAbove) barred[i] = true;
       // A walking note between two strikes of the same comping chord, below both.
       const q = nextMulti[i];
       if (prevMulti >= 0 && q >= 0 && !forced[i] && strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC) {
-        const below = (k: number) => upperNotes(strikes[k]).every((x) => x > n.midi);
+        const below = (k: number) => lowestUpper(strikes[k]) > n.midi;
         const comp = comps[q];
         if (comp && comps[prevMulti] === comp && below(prevMulti) && below(q)) barred[i] = true;
       }

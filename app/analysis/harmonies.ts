@@ -68,16 +68,22 @@ function templatePcs(seg: Segment): number[] {
 
 /**
  * Notes struck before each strike that still sound 150 ms into it (held by key or carried by
- * the pedal): one sweep over the take, so reading a harmony never looks far back.
+ * the pedal): one sweep over the take, so reading a harmony never looks far back. Listed only
+ * for the strikes in `wanted` (where harmonies begin); the others stay undefined.
  */
-function reachingNotes(strikes: readonly Strike[], sounding: ReadInput["sounding"]): NoteEvent[][] {
-  let active: NoteEvent[] = [];
-  return strikes.map((s, i) => {
-    // A new array each time: the one returned for a strike is kept as it is.
-    const t = s.start + HELD_FOR - EPS;
-    active = (i > 0 ? [...active, ...strikes[i - 1].notes] : active).filter((n) => soundEnd(sounding, n) >= t);
-    return active;
-  });
+function reachingNotes(strikes: readonly Strike[], sounding: ReadInput["sounding"], wanted: readonly boolean[]): NoteEvent[][] {
+  const active: NoteEvent[] = [];
+  const out: NoteEvent[][] = new Array(strikes.length);
+  for (let i = 0; i < strikes.length; i++) {
+    const t = strikes[i].start + HELD_FOR - EPS;
+    if (i > 0) active.push(...strikes[i - 1].notes);
+    let kept = 0;
+    for (const n of active) if (soundEnd(sounding, n) >= t) active[kept++] = n;
+    active.length = kept;
+    // A copy: the list kept for a strike must not change as the sweep goes on.
+    if (wanted[i]) out[i] = active.slice();
+  }
+  return out;
 }
 
 const bit = (n: NoteEvent) => 1 << pc(n.midi);
@@ -256,7 +262,9 @@ export function readHarmonies(input: ReadInput): Reading {
   const rules = boundaryRules(segInput);
   const raw = segment(segInput, rules);
   let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec, rules.lowest), strikes, rules, endTime, minSec, input.budget);
-  const reaching = reachingNotes(strikes, sounding);
+  const starts = new Array<boolean>(strikes.length).fill(false);
+  for (const seg of segs) starts[seg.first] = true;
+  const reaching = reachingNotes(strikes, sounding, starts);
   const readOne = (list: Segment[], i: number) =>
     readHarmony(list[i], input, reaching, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[list[i].first]);
   let all = segs.map((_, i) => readOne(segs, i));

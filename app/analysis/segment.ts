@@ -39,10 +39,19 @@ function heaviestFour(w: Float64Array): number {
   for (let p = 0; p < 12; p++) {
     const x = w[p];
     if (x > d) {
-      if (x > a) [a, b, c, d] = [x, a, b, c];
-      else if (x > b) [b, c, d] = [x, b, c];
-      else if (x > c) [c, d] = [x, c];
-      else d = x;
+      if (x > a) {
+        d = c;
+        c = b;
+        b = a;
+        a = x;
+      } else if (x > b) {
+        d = c;
+        c = b;
+        b = x;
+      } else if (x > c) {
+        d = c;
+        c = x;
+      } else d = x;
     }
   }
   return a + b + c + d;
@@ -128,19 +137,41 @@ TEMPLATES.forEach((t, ti) => {
 });
 
 /**
+ * For each mask of pitch classes present, the flattened templates sharing at least two tones
+ * with it (in template order), and how many of each one's tones are missing: built on first use.
+ */
+const CANDIDATES: Array<Int16Array | undefined> = new Array(4096);
+const MISSING: Array<Int8Array | undefined> = new Array(4096);
+function candidatesOf(presentMask: number): Int16Array {
+  let list = CANDIDATES[presentMask];
+  if (list) return list;
+  const fs: number[] = [];
+  for (let f = 0; f < FLAT_COUNT; f++) if (POPCOUNT[presentMask & FLAT_MASK[f]] >= 2) fs.push(f);
+  list = Int16Array.from(fs);
+  MISSING[presentMask] = Int8Array.from(fs, (f) => FLAT_SIZE[f] - POPCOUNT[presentMask & FLAT_MASK[f]]);
+  CANDIDATES[presentMask] = list;
+  return list;
+}
+
+/**
  * Best template for a weight vector. The score (what the division maximises) is matched
  * minus unmatched weight, less the charges, less the first strike's weight that the template
  * does not explain (a harmony should begin with notes of its chord). The chord chosen weighs
  * the first strike and the bass up (`bonus`), and prefers the bass as root on a tie.
  */
 export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: number | null): { score: number; chord: Template | null } {
+  return bestTemplateAt(w, bonus, 0, bassPc);
+}
+
+/** bestTemplate with the bonus weights read from `bonus` at `at` (twelve of them). */
+function bestTemplateAt(w: Float64Array, bonus: Float64Array, at: number, bassPc: number | null): { score: number; chord: Template | null } {
   let total = 0;
   let present = 0;
   let bonusTotal = 0;
   let presentMask = 0;
   for (let p = 0; p < 12; p++) {
     total += w[p];
-    bonusTotal += bonus[p];
+    bonusTotal += bonus[at + p];
     if (w[p] > EPS) {
       present++;
       presentMask |= 1 << p;
@@ -153,18 +184,20 @@ export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: numbe
   let bestScore = -Infinity;
   let choice = -1;
   let choiceScore = -Infinity;
-  for (let f = 0; f < FLAT_COUNT; f++) {
-    // A template sharing fewer than two tones with the span cannot be its chord.
-    if (POPCOUNT[presentMask & FLAT_MASK[f]] < 2) continue;
+  // Only templates sharing two tones or more with the span can be its chord.
+  const candidates = candidatesOf(presentMask);
+  const missingOf = MISSING[presentMask]!;
+  for (let c = 0; c < candidates.length; c++) {
+    const f = candidates[c];
     const size = FLAT_SIZE[f];
     let inW = 0;
     let inB = 0;
     for (let k = 0; k < size; k++) {
       const p = FLAT_TONES[f * 4 + k];
       inW += w[p];
-      inB += bonus[p];
+      inB += bonus[at + p];
     }
-    const missing = size - POPCOUNT[presentMask & FLAT_MASK[f]];
+    const missing = missingOf[c];
     const charge = unit * (MISSING_CHARGE * missing + (size > 3 ? SEVENTH_CHARGE : 0));
     const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
     if (score > bestScore) bestScore = score;
@@ -177,6 +210,46 @@ export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: numbe
   // Nothing fits (one pitch class alone): a span that is no chord at all.
   if (bestScore === -Infinity) return { score: -total - TOO_SHORT, chord: null };
   return { score: bestScore, chord: { rootPc: choice % 12, template: Math.floor(choice / 12) } };
+}
+
+/**
+ * The score bestTemplateAt gives (the same sums in the same order), without choosing the chord:
+ * the search needs only the score of each span it tries, and the chord of the spans it keeps.
+ */
+function spanScoreAt(w: Float64Array, bonus: Float64Array, at: number): number {
+  let total = 0;
+  let present = 0;
+  let bonusTotal = 0;
+  let presentMask = 0;
+  for (let p = 0; p < 12; p++) {
+    total += w[p];
+    bonusTotal += bonus[at + p];
+    if (w[p] > EPS) {
+      present++;
+      presentMask |= 1 << p;
+    }
+  }
+  if (present === 0) return 0;
+  const unit = total / present;
+  const lone = present < 2 ? TOO_SHORT : 0;
+  let bestScore = -Infinity;
+  const candidates = candidatesOf(presentMask);
+  const missingOf = MISSING[presentMask]!;
+  for (let c = 0; c < candidates.length; c++) {
+    const f = candidates[c];
+    const size = FLAT_SIZE[f];
+    let inW = 0;
+    let inB = 0;
+    for (let k = 0; k < size; k++) {
+      const p = FLAT_TONES[f * 4 + k];
+      inW += w[p];
+      inB += bonus[at + p];
+    }
+    const charge = unit * (MISSING_CHARGE * missingOf[c] + (size > 3 ? SEVENTH_CHARGE : 0));
+    const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
+    if (score > bestScore) bestScore = score;
+  }
+  return bestScore === -Infinity ? -total - TOO_SHORT : bestScore;
 }
 
 function sameTemplate(a: Template | null, b: Template | null): boolean {
@@ -215,35 +288,43 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
     }),
   );
   // Per strike: the notes struck before it whose key is still down (held into a span that
-  // starts there), and the extra weight its first strike and bass get when choosing a chord.
-  const downAt: Int32Array[] = [];
-  const bonusAt: Float64Array[] = [];
+  // starts there, listed in downList from downOff[i] to downOff[i + 1]), and the extra
+  // weight its first strike and bass get when choosing a chord (twelve from bonusAt[12 i]).
+  const downOff = new Int32Array(n + 1);
+  let downList = new Int32Array(Math.max(16, off[n]));
+  const bonusAt = new Float64Array(12 * n);
   const bassAt = new Int32Array(n).fill(-1);
-  let down: number[] = [];
+  const down: number[] = [];
   for (let i = 0; i < n; i++) {
     const t0 = T[i];
     if (i > 0) for (let x = off[i - 1]; x < off[i]; x++) down.push(x);
-    down = down.filter((x) => KEYEND[x] > t0 + EPS);
-    downAt.push(Int32Array.from(down));
-    const bonus = new Float64Array(12);
+    let kept = 0;
+    for (let q = 0; q < down.length; q++) if (KEYEND[down[q]] > t0 + EPS) down[kept++] = down[q];
+    down.length = kept;
+    if (downOff[i] + kept > downList.length) {
+      const grown = new Int32Array(Math.max(2 * downList.length, downOff[i] + kept));
+      grown.set(downList);
+      downList = grown;
+    }
+    for (let q = 0; q < kept; q++) downList[downOff[i] + q] = down[q];
+    downOff[i + 1] = downOff[i] + kept;
+    const b = 12 * i;
     let bass = Infinity;
     for (const x of down) if (KEYEND[x] >= t0 + HELD_FOR - EPS && MIDI[x] < bass) bass = MIDI[x];
     for (let x = off[i]; x < off[i + 1]; x++) {
-      bonus[P[x]] += FIRST_STRIKE_BONUS * Math.min(HEARD[x] - START[x], 1);
+      bonusAt[b + P[x]] += FIRST_STRIKE_BONUS * Math.min(HEARD[x] - START[x], 1);
       if (MIDI[x] < bass) bass = MIDI[x];
     }
     if (bass !== Infinity) {
       bassAt[i] = pc(bass);
-      bonus[bassAt[i]] += BASS_BONUS;
+      bonusAt[b + bassAt[i]] += BASS_BONUS;
     }
-    bonusAt.push(bonus);
   }
 
   // For each span end j, the starts i are tried from j − 1 back: the weights of the notes
   // struck in the span grow one strike at a time, the keys held into it are added per start.
   const best = new Float64Array(n + 1).fill(-Infinity);
   const from = new Int32Array(n + 1).fill(-1);
-  const chordOf: Array<Template | null> = new Array(n + 1).fill(null);
   best[0] = 0;
   const struck = new Float64Array(12);
   const w = new Float64Array(12);
@@ -257,7 +338,10 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
       const t0 = T[i];
       w.set(struck);
       // Keys held into the span count while they stay down; pedal-carried notes do not count.
-      for (const x of downAt[i]) w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - t0);
+      for (let q = downOff[i]; q < downOff[i + 1]; q++) {
+        const x = downList[q];
+        w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - t0);
+      }
       let total = 0;
       for (let p = 0; p < 12; p++) total += w[p];
       const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
@@ -267,17 +351,27 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
       // whose best possible score cannot win.
       if (best[j] !== -Infinity && best[i] + 2 * heaviestFour(w) - total - charges <= best[j] + EPS) continue;
       budget?.spend(SPAN_STEPS);
-      const { score, chord } = bestTemplate(w, bonusAt[i], bassAt[i] < 0 ? null : bassAt[i]);
-      const sum = best[i] + score - charges;
+      const sum = best[i] + spanScoreAt(w, bonusAt, 12 * i) - charges;
       if (sum > best[j] + EPS) {
         best[j] = sum;
         from[j] = i;
-        chordOf[j] = chord;
       }
     }
   }
   const spans: Segment[] = [];
-  for (let j = n; j > 0; j = from[j]) spans.push({ first: from[j], end: j, chord: chordOf[j] });
+  // The chord of each span kept, from its weights summed again exactly as the search did.
+  for (let j = n; j > 0; j = from[j]) {
+    const i = from[j];
+    const tj = T[j];
+    struck.fill(0);
+    for (let k = j - 1; k >= i; k--) for (let x = off[k]; x < off[k + 1]; x++) struck[P[x]] += Math.max(0, Math.min(HEARD[x], tj) - START[x]);
+    w.set(struck);
+    for (let q = downOff[i]; q < downOff[i + 1]; q++) {
+      const x = downList[q];
+      w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - T[i]);
+    }
+    spans.push({ first: i, end: j, chord: bestTemplateAt(w, bonusAt, 12 * i, bassAt[i] < 0 ? null : bassAt[i]).chord });
+  }
   spans.reverse();
   // Spans of one template are one harmony unless a silence divides them: the search splits
   // them only where a harmony outgrew the longest span it considers.
