@@ -1,5 +1,5 @@
-// Who gets what, for every route in app/routes.ts. The test walks the route
-// config itself, so a new route without a line in EXPECTED fails here: add
+// Who gets what, for every route in app/routes.ts, asked through the app's real
+// request handler (middleware included). The test walks the route config itself, so a new route without a line in EXPECTED fails here: add
 // its expectations below (GET always, POST when the route has an action).
 import path from "node:path";
 import { beforeEach, describe, expect, it } from "vitest";
@@ -11,7 +11,8 @@ import { invitations } from "~/db/schema";
 import { resetEnvForTests } from "~/lib/env.server";
 import { storeMessage } from "~/lib/mailStore.server";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, join, makeExercise, makeStudio, makeTakeRow, makeUser, ORIGIN } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, join, makeExercise, makeStudio, makeTakeRow, makeUser, ORIGIN } from "./accountsKit";
 
 const PERSONAS = ["anon", "studentA", "studentB", "teacher", "coTeacher", "otherTeacher"] as const;
 type Persona = (typeof PERSONAS)[number];
@@ -129,39 +130,18 @@ function urlFor(leaf: Leaf, query = "") {
     })
     .join("/");
   const filledQuery = query.replace(/:(\w+)/g, (_m, name: string) => encodeURIComponent(FIXTURE_PARAMS[name] ?? ""));
-  return { url: `${ORIGIN}/${filled}${filledQuery}`, params: paramsOf(leaf) };
-}
-
-function paramsOf(leaf: Leaf): Record<string, string> {
-  const params: Record<string, string> = {};
-  for (const part of leaf.url.split("/")) {
-    if (part.startsWith(":")) params[part.slice(1).replace(/\?$/, "")] = FIXTURE_PARAMS[part.slice(1).replace(/\?$/, "")];
-    if (part === "*") params["*"] = "no-such-page";
-  }
-  return params;
+  return { url: `${ORIGIN}/${filled}${filledQuery}` };
 }
 
 type Module = { loader?: unknown; action?: unknown };
 
-/** Runs the layouts' loaders then the route's handler, stopping at the first non-2xx answer, as React Router does. */
+/** Sends the request through the app's real handler: root and layout middleware, then the route's loader or action. */
 async function statusOf(leaf: Leaf, method: "GET" | "POST", persona: Persona, query = "", actionMethod = "POST") {
-  const { url, params } = urlFor(leaf, method === "GET" ? query : "");
+  const { url } = urlFor(leaf, method === "GET" ? query : "");
   const headers: Record<string, string> = { Cookie: jars[persona].header(), Origin: ORIGIN, "Sec-Fetch-Site": "same-origin" };
-  const modules: Module[] = await Promise.all(leaf.files.map((f) => import(path.resolve("app", f))));
-  const handlers = method === "GET" ? modules.map((m) => m.loader) : [...modules.slice(0, -1).map((m) => m.loader), modules.at(-1)!.action];
-  for (const [i, handler] of handlers.entries()) {
-    if (!handler) {
-      if (i === handlers.length - 1) return { status: 405, location: null, data: null };
-      continue;
-    }
-    const request =
-      method === "POST" && i === handlers.length - 1
-        ? new Request(url, { method: actionMethod, body: new URLSearchParams(), headers })
-        : new Request(url, { headers });
-    const result = await call(handler, request, params);
-    if (result.status >= 300 || i === handlers.length - 1) return result;
-  }
-  throw new Error("unreachable");
+  const request =
+    method === "POST" ? new Request(url, { method: actionMethod, body: new URLSearchParams(), headers }) : new Request(url, { headers });
+  return ask(request);
 }
 
 const app = useFreshApp();
