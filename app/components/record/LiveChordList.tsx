@@ -18,7 +18,7 @@ function Motion({ change }: { change: ChangeReport }) {
   return (
     <span data-testid="live-change-motion" data-motion={change.motion} data-best={change.bestMotion}>
       moved <strong>{change.motion}</strong> · best <strong>{change.bestMotion}</strong>
-      {spare > 0 ? <span className="text-ochre"> · {spare} to spare</span> : <span className="text-moss"> · as smooth as it gets</span>}
+      {spare > 0 ? <span className="text-ochre"> · {spare} semitone{spare === 1 ? "" : "s"} more than needed</span> : <span className="text-moss"> · as smooth as it gets</span>}
     </span>
   );
 }
