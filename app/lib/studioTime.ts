@@ -25,7 +25,11 @@ function formatter(timeZone: string): Intl.DateTimeFormat {
 function parts(iso: string | Date, timeZone: string) {
   const d = typeof iso === "string" ? new Date(iso) : iso;
   if (Number.isNaN(d.getTime())) return null;
-  const got = Object.fromEntries(formatter(timeZone).formatToParts(d).map((p) => [p.type, p.value]));
+  const got = Object.fromEntries(
+    formatter(timeZone)
+      .formatToParts(d)
+      .map((p) => [p.type, p.value]),
+  );
   return { weekday: got.weekday, day: got.day, month: got.month, year: got.year, hour: got.hour, minute: got.minute };
 }
 

@@ -82,14 +82,25 @@ export function studentStatus(
  * each student's figures that week against the week before, trend and status
  * up to it.
  */
-export function boardRows(studioId: string, now = new Date(), chosenWeek?: string): { week: string; current: string; rows: BoardRow[] } {
+export function boardRows(
+  studioId: string,
+  now = new Date(),
+  chosenWeek?: string,
+): { week: string; current: string; rows: BoardRow[] } {
   const current = currentWeek(studioId, now);
   const week = chosenWeek ?? current;
   const students = studioStudents(studioId);
   const fromWeek = shiftWeek(week, -(TREND_WEEKS - 1));
   const sums = weeklySums(studioId, { fromWeek, toWeek: week });
-  const last = lastTakeDates(studioId, students.map((s) => s.id));
-  const reminded = remindedStudentIds(studioId, week, students.map((s) => s.id));
+  const last = lastTakeDates(
+    studioId,
+    students.map((s) => s.id),
+  );
+  const reminded = remindedStudentIds(
+    studioId,
+    week,
+    students.map((s) => s.id),
+  );
   const trendWeeks = weeksBetween(fromWeek, week);
   const rows = students.map((s) => {
     const weeks = sums.get(s.id) ?? new Map<string, WeekSums>();
@@ -118,7 +129,13 @@ export type ChartData = {
 };
 
 /** One line per chosen student: the metric for each week of the range (null: nothing to measure). */
-export function chartData(studioId: string, metric: MetricId, students: StudentRef[], fromWeek: string, toWeek: string): ChartData {
+export function chartData(
+  studioId: string,
+  metric: MetricId,
+  students: StudentRef[],
+  fromWeek: string,
+  toWeek: string,
+): ChartData {
   const weeks = weeksBetween(fromWeek, toWeek);
   const sums = weeklySums(studioId, { fromWeek, toWeek, studentIds: students.map((s) => s.id) });
   return {
@@ -137,12 +154,20 @@ export function chartData(studioId: string, metric: MetricId, students: StudentR
  * weeks in order. Weeks after `lastWeek` (the studio's current week) have not
  * happened yet and are left out.
  */
-export function exportRows(studioId: string, students: StudentRef[], fromWeek: string, toWeek: string, lastWeek = currentWeek(studioId)) {
+export function exportRows(
+  studioId: string,
+  students: StudentRef[],
+  fromWeek: string,
+  toWeek: string,
+  lastWeek = currentWeek(studioId),
+) {
   const end = toWeek < lastWeek ? toWeek : lastWeek;
   if (end < fromWeek) return [];
   const weeks = weeksBetween(fromWeek, end);
   const sums = weeklySums(studioId, { fromWeek, toWeek: end, studentIds: students.map((s) => s.id) });
-  return students.flatMap((s) => weeks.map((week) => ({ student: s, week, figures: figuresFrom(sums.get(s.id)?.get(week) ?? EMPTY_SUMS) })));
+  return students.flatMap((s) =>
+    weeks.map((week) => ({ student: s, week, figures: figuresFrom(sums.get(s.id)?.get(week) ?? EMPTY_SUMS) })),
+  );
 }
 
 /** The chosen students (access already checked), or every active student when none is named. */
@@ -163,7 +188,13 @@ export function remindedStudentIds(studioId: string, week: string, ids: string[]
     db()
       .select({ id: practiceReminders.studentId })
       .from(practiceReminders)
-      .where(and(eq(practiceReminders.studioId, studioId), eq(practiceReminders.weekKey, week), inArray(practiceReminders.studentId, ids)))
+      .where(
+        and(
+          eq(practiceReminders.studioId, studioId),
+          eq(practiceReminders.weekKey, week),
+          inArray(practiceReminders.studentId, ids),
+        ),
+      )
       .all()
       .map((r) => r.id),
   );

@@ -66,12 +66,8 @@ export type ListeningRow = {
 export function listeningPage(studioId: string, q: ListeningQuery, pageSize = LISTENING_PAGE_SIZE) {
   const where = waiting(studioId, q);
   const total =
-    db()
-      .select({ n: count() })
-      .from(takes)
-      .leftJoin(takeReviews, eq(takeReviews.takeId, takes.id))
-      .where(where)
-      .get()?.n ?? 0;
+    db().select({ n: count() }).from(takes).leftJoin(takeReviews, eq(takeReviews.takeId, takes.id)).where(where).get()
+      ?.n ?? 0;
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const page = Math.min(q.page, pages);
   const rows: ListeningRow[] = db()
@@ -97,7 +93,12 @@ export function listeningPage(studioId: string, q: ListeningQuery, pageSize = LI
     .limit(pageSize)
     .offset((page - 1) * pageSize)
     .all()
-    .map((r) => ({ ...r, recordedAt: r.recordedAt.toISOString(), createdAt: r.createdAt.toISOString(), flags: r.flags as Record<string, number> | null }));
+    .map((r) => ({
+      ...r,
+      recordedAt: r.recordedAt.toISOString(),
+      createdAt: r.createdAt.toISOString(),
+      flags: r.flags as Record<string, number> | null,
+    }));
   return { rows, total, page, pages, pageSize };
 }
 
@@ -124,7 +125,13 @@ export function listeningFilters(studioId: string) {
  * list ("unreview"). Only takes of `studioId` are touched: an id from another
  * studio is skipped, never marked. Returns how many takes changed.
  */
-export function markHeard(intent: "review" | "unreview", takeIds: readonly string[], teacherId: string, studioId: string, at = new Date()): number {
+export function markHeard(
+  intent: "review" | "unreview",
+  takeIds: readonly string[],
+  teacherId: string,
+  studioId: string,
+  at = new Date(),
+): number {
   const ids = [...new Set(takeIds)].slice(0, MAX_MARKED_AT_ONCE);
   if (!ids.length) return 0;
   return db().transaction((tx) => {

@@ -36,7 +36,15 @@ const percent = (v: number | null) => (v === null ? "" : String(Math.round(v * 1
 export const safeText = (s: string) => (/^[=+\-@\t\r]/.test(s) ? `'${s}` : s);
 
 /** One row of the export, in the order of CSV_COLUMNS. */
-export function csvRecord({ student, week, figures: f }: { student: StudentRef; week: string; figures: Figures }): string[] {
+export function csvRecord({
+  student,
+  week,
+  figures: f,
+}: {
+  student: StudentRef;
+  week: string;
+  figures: Figures;
+}): string[] {
   return [
     safeText(student.name),
     weekStart(week),

@@ -41,9 +41,16 @@ export function recordHomeVisit(userId: string, studioId: string, now = new Date
   });
 }
 
-/** Takes that arrived in the studio after `since`, newest first. */
-function takesSince(studioId: string, since: Date) {
-  const where = and(eq(takes.studioId, studioId), gt(takes.createdAt, since));
+/**
+ * New takes of the studio, newest played first: those that arrived after
+ * `since` (the last visit), or, before there is one, those played in the week
+ * up to `now`.
+ */
+function newTakes(studioId: string, since: Date | null, now: Date) {
+  const where = and(
+    eq(takes.studioId, studioId),
+    since ? gt(takes.createdAt, since) : gt(takes.recordedAt, new Date(now.getTime() - DUE_WINDOW_DAYS * 86_400_000)),
+  );
   const total = db().select({ n: count() }).from(takes).where(where).get()?.n ?? 0;
   const latest = db()
     .select({ id: takes.id, recordedAt: takes.recordedAt, studentName: users.name, exerciseTitle: exercises.title })
@@ -51,7 +58,7 @@ function takesSince(studioId: string, since: Date) {
     .innerJoin(users, eq(users.id, takes.studentId))
     .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
     .where(where)
-    .orderBy(desc(takes.createdAt), desc(takes.recordedAt))
+    .orderBy(desc(takes.recordedAt), desc(takes.createdAt))
     .limit(NEW_TAKES_SHOWN)
     .all()
     .map((t) => ({ ...t, recordedAt: t.recordedAt.toISOString() }));
@@ -81,7 +88,8 @@ export function firstRunSteps(studioId: string, teacher: { emailVerified: boolea
       .from(invitations)
       .where(and(eq(invitations.studioId, studioId), eq(invitations.role, "student"), isNull(invitations.revokedAt)))
       .get()?.n ?? 0;
-  const exerciseCount = db().select({ n: count() }).from(exercises).where(eq(exercises.studioId, studioId)).get()?.n ?? 0;
+  const exerciseCount =
+    db().select({ n: count() }).from(exercises).where(eq(exercises.studioId, studioId)).get()?.n ?? 0;
   return [
     { id: "confirm-email", done: teacher.emailVerified },
     { id: "invite-students", done: students + invited > 0 },
@@ -117,11 +125,9 @@ export function teacherWeek(studioId: string, teacher: { id: string; emailVerifi
     dropped: rows
       .filter((r) => r.status === "slipping")
       .map((r): WeekStudent => ({ id: r.studentId, name: r.name, lastTakeAt: r.lastTakeAt, compare: r.compare })),
-    // Before a second visit there is no "last visit": the last seven days stand in for it.
-    newTakes: takesSince(studioId, since ?? new Date(now.getTime() - DUE_WINDOW_DAYS * 86_400_000)),
+    newTakes: newTakes(studioId, since, now),
     dueSoon,
     firstRun: steps.every((s) => s.done) ? null : steps,
   };
 }
 export type TeacherWeek = ReturnType<typeof teacherWeek>;
-

@@ -40,18 +40,30 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const chosen = url.searchParams.get("week");
   if (chosen !== null && !weekOptions.includes(chosen)) throw redirect("/board");
   const { week, rows } = boardRows(studioId, new Date(), chosen ?? current);
-  const chosenIds = query.studentIds.length ? query.studentIds : rows.slice(0, DEFAULT_CHART_STUDENTS).map((r) => r.studentId);
-  const chart = chosenIds.length ? chartData(studioId, query.metric, pickStudents(studioId, chosenIds), query.fromWeek, query.toWeek) : null;
+  const chosenIds = query.studentIds.length
+    ? query.studentIds
+    : rows.slice(0, DEFAULT_CHART_STUDENTS).map((r) => r.studentId);
+  const chart = chosenIds.length
+    ? chartData(studioId, query.metric, pickStudents(studioId, chosenIds), query.fromWeek, query.toWeek)
+    : null;
   return {
     studioName: teacher.active.studioName,
     timeZone,
     week: { key: week, start: weekStart(week), end: weekEnd(week), isCurrent: week === current },
-    weekOptions: weekOptions.map((key, i) => ({ key, label: i === 0 ? "This week" : i === 1 ? "Last week" : `Week of ${weekLabel(key)}` })),
+    weekOptions: weekOptions.map((key, i) => ({
+      key,
+      label: i === 0 ? "This week" : i === 1 ? "Last week" : `Week of ${weekLabel(key)}`,
+    })),
     rows,
     students: rows.map((r) => ({ id: r.studentId, name: r.name })),
     choice: { metric: query.metric, studentIds: chosenIds, from: query.from, to: query.to },
     chart: chart && { ...chart, from: query.from, to: query.to },
-    quiet: week !== current ? [] : rows.filter((r) => r.thisWeek.takes === 0).map((r) => ({ id: r.studentId, name: r.name, reminded: r.remindedThisWeek })),
+    quiet:
+      week !== current
+        ? []
+        : rows
+            .filter((r) => r.thisWeek.takes === 0)
+            .map((r) => ({ id: r.studentId, name: r.name, reminded: r.remindedThisWeek })),
   };
 }
 
@@ -71,7 +83,9 @@ export async function action({ request, context }: Route.ActionArgs) {
       ? "Everyone without a take this week has already had a reminder."
       : "Everyone has recorded a take this week: no reminder needed.";
   const back = new URL(request.url);
-  return redirect(`/board${back.search}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: sent.length ? "success" : "info", message }) } });
+  return redirect(`/board${back.search}`, {
+    headers: { "Set-Cookie": await flashHeader(request, { tone: sent.length ? "success" : "info", message }) },
+  });
 }
 
 export default function Board({ loaderData }: Route.ComponentProps) {
@@ -82,22 +96,31 @@ export default function Board({ loaderData }: Route.ComponentProps) {
       <PageHeader
         title="Progress board"
         lead={`${week.isCurrent ? "This week" : "The week"} of ${week.start} to ${week.end} (${timeZone}) for every student, with the change since the week before.`}
-        actions={<ButtonLink to="/studio/settings" variant="quiet">Studio time zone</ButtonLink>}
+        actions={
+          <ButtonLink to="/studio/settings" variant="quiet">
+            Studio time zone
+          </ButtonLink>
+        }
       />
       {rows.length === 0 ? (
         <EmptyState title="No students yet" action={<ButtonLink to="/students">Invite students</ButtonLink>}>
-          The board fills in as soon as your students join and upload their first takes. Invite them from the Students page: each
-          gets a link to set a password.
+          The board fills in as soon as your students join and upload their first takes. Invite them from the Students
+          page: each gets a link to set a password.
         </EmptyState>
       ) : (
         <>
-          <ReminderCard quiet={quiet} pending={navigation.state === "submitting" && navigation.formData?.get("intent") === "remind"} />
+          <ReminderCard
+            quiet={quiet}
+            pending={navigation.state === "submitting" && navigation.formData?.get("intent") === "remind"}
+          />
           <WeekPicker week={week.key} options={weekOptions} />
-          <BoardTable rows={rows} />
-          {chart ? <ChartPanel key={choice.metric + choice.from} students={students} initialChoice={choice} initialData={chart} /> : null}
+          <BoardTable rows={rows} timeZone={timeZone} />
+          {chart ? <ChartPanel students={students} choice={choice} data={chart} /> : null}
           <p className="text-xs text-ink-soft">
-            Smoothness is the best possible motion divided by the motion played, summed over the week. Status compares the mean score of
-            the last three weeks with the three before. These figures are practice aids for your judgement, not grades.
+            Smoothness is the best possible motion divided by the motion played, summed over the week. Status compares
+            the mean score of the three weeks before with the last three weeks (this one included), and needs 3 points
+            either way to say improving or slipping; a student without a take this week gets no trend status. These
+            figures are practice aids for your judgement, not grades.
           </p>
         </>
       )}

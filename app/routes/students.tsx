@@ -166,6 +166,7 @@ export default function Students({ loaderData }: Route.ComponentProps) {
         <h2 id="roster-heading" className="text-lg font-semibold">Students</h2>
         <DataTable
           caption="Students of the studio"
+          cards
           isEmpty={students.length === 0}
           empty={<EmptyState title="No students yet">Invite them above: each gets a link to set a password.</EmptyState>}
           head={
@@ -213,6 +214,7 @@ export default function Students({ loaderData }: Route.ComponentProps) {
         <h2 id="pending-heading" className="text-lg font-semibold">Pending invitations</h2>
         <DataTable
           caption="Invitations not yet accepted"
+          cards
           isEmpty={pending.length === 0}
           empty={<p className="text-sm text-ink-soft">No invitations waiting.</p>}
           head={

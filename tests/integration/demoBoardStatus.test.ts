@@ -25,7 +25,9 @@ describe("board status on the demo studio", () => {
       // The two means recomputed here from the week sums (sum of scores over analysed takes), three weeks each.
       const weeks = sums.get(r.studentId) ?? new Map();
       const mean = (from: number) => {
-        const score = figuresFrom(combineSums([0, 1, 2].map((i) => weeks.get(shiftWeek(week, -(from + i))) ?? EMPTY_SUMS))).score;
+        const score = figuresFrom(
+          combineSums([0, 1, 2].map((i) => weeks.get(shiftWeek(week, -(from + i))) ?? EMPTY_SUMS)),
+        ).score;
         return score === null ? null : Math.round(score);
       };
       expect(r.compare, r.name).toEqual({ recent: mean(0), before: mean(3) });

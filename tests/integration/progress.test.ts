@@ -8,6 +8,7 @@ import { db } from "~/db/client.server";
 import { studios, takes, users } from "~/db/schema";
 import { eq } from "drizzle-orm";
 import { weeklyFigures } from "~/models/progress.server";
+import { weekKey } from "~/lib/weeks";
 import { setStudioTimeZone } from "~/models/studioSettings.server";
 import * as apiProgress from "~/routes/api.progress";
 import * as csvExport from "~/routes/api.export.progress[.]csv";
@@ -125,7 +126,7 @@ describe("weekly figures", () => {
 describe("CSV export", () => {
   const url = "/api/export/progress.csv?from=2026-11-16&to=2026-11-29";
 
-  it("parses back with csv-parse to the same numbers, one row per student per week, names intact", async () => {
+  it("parses back with csv-parse (7.0.3) to the same numbers: names first, headers in words, the id last", async () => {
     const result = await call(csvExport.loader, get(url, jars.teacher));
     expect(result.status).toBe(200);
     expect(result.headers.get("content-type")).toBe("text/csv; charset=utf-8");
@@ -135,33 +136,60 @@ describe("CSV export", () => {
     // RFC 4180: fields with commas or quotes are quoted, inner quotes doubled, CRLF line ends.
     expect(text).toContain('"Zoë ""Ace"" Åkesson, Jr."');
     expect(text.split("\r\n").length).toBe(1 + 2 * 2 + 1); // header, 2 students × 2 weeks, final CRLF
+    const table: string[][] = parse(text);
+    expect(table[0][0]).toBe("Student");
+    expect(table[0].at(-1)).toBe("Student ID");
+    // Headers a person reads: words and spaces, no snake_case.
+    for (const header of table[0]) expect(header).not.toMatch(/_/);
     const records: Record<string, string>[] = parse(text, { columns: true });
-    expect(records.map((r) => [r.student, r.week])).toEqual([
-      [BJORN, "2026-W47"],
-      [BJORN, "2026-W48"],
-      [ZOE, "2026-W47"],
-      [ZOE, "2026-W48"],
+    expect(records.map((r) => [r.Student, r["Week starting"]])).toEqual([
+      [BJORN, "2026-11-16"],
+      [BJORN, "2026-11-23"],
+      [ZOE, "2026-11-16"],
+      [ZOE, "2026-11-23"],
     ]);
     for (const [i, week] of (["2026-W47", "2026-W48"] as const).entries()) {
       const r = records[2 + i];
       const w = NEW_YORK[week];
-      expect(r.student_id).toBe(ids.zoe);
-      expect(Number(r.takes)).toBe(w.takes);
-      expect(Number(r.practice_minutes)).toBeCloseTo(w.practiceMinutes, 4);
-      expect(Number(r.chord_changes)).toBe(w.changes);
-      expect(Number(r.motion_per_change)).toBeCloseTo(w.motionPerChange, 4);
-      expect(Number(r.smoothness)).toBeCloseTo(w.smoothness, 4);
-      expect(Number(r.root_position_leaps_per_10_changes)).toBeCloseTo(w.leapsPer10, 4);
-      expect(Number(r.accuracy)).toBeCloseTo(w.accuracy, 4);
-      expect(Number(r.mean_score)).toBeCloseTo(w.score, 4);
-      expect(Number(r.technique_inversion)).toBe(w.techniques.inversion);
-      expect(Number(r.technique_open_voicing)).toBe(w.techniques["open-voicing"]);
-      expect(Number(r.technique_slash_bass)).toBe(w.techniques["slash-bass"]);
+      expect(r["Student ID"]).toBe(ids.zoe);
+      expect(r["ISO week"]).toBe(week);
+      // Counts and whole numbers as written; percentages as whole percents; two ratios to one decimal.
+      expect(r.Takes).toBe(String(w.takes));
+      expect(r["Practice minutes"]).toBe(String(Math.round(w.practiceMinutes)));
+      expect(r["Chord changes"]).toBe(String(w.changes));
+      expect(r["Mean score"]).toBe(String(Math.round(w.score)));
+      expect(r["Smoothness %"]).toBe(String(Math.round(w.smoothness * 100)));
+      expect(r["Accuracy %"]).toBe(String(Math.round(w.accuracy * 100)));
+      expect(r["Motion per change (semitones)"]).toBe(w.motionPerChange.toFixed(1));
+      expect(r["Root-position leaps per 10 changes"]).toBe((Math.round(w.leapsPer10 * 10) / 10).toFixed(1));
+      expect(r["Inversions (changes)"]).toBe(String(w.techniques.inversion));
+      expect(r["Open voicings (changes)"]).toBe(String(w.techniques["open-voicing"]));
+      expect(r["Another tone in the bass (changes)"]).toBe(String(w.techniques["slash-bass"]));
     }
+    // Week 47 by hand for Zoë: 230 / 3 = 76.67 → 77; smoothness 0.84 → 84; accuracy 0.75 → 75; leaps 0.75 → 0.8.
+    expect(records[2]).toMatchObject({ "Mean score": "77", "Smoothness %": "84", "Accuracy %": "75", "Root-position leaps per 10 changes": "0.8", "Practice minutes": "6" });
     // Björn's week 47 has no takes: counts are 0 and ratios blank.
-    expect(records[0]).toMatchObject({ takes: "0", smoothness: "", mean_score: "" });
-    // Björn's week 48 by hand: 8 / 16 = 0.5 smooth, 10 × 4 / 8 = 5 leaps per 10, 16 / 8 = 2 per change.
-    expect(records[1]).toMatchObject({ takes: "1", smoothness: "0.5", root_position_leaps_per_10_changes: "5", motion_per_change: "2", practice_minutes: "1.5", accuracy: "" });
+    expect(records[0]).toMatchObject({ Takes: "0", "Smoothness %": "", "Mean score": "" });
+    // Björn's week 48 by hand: 8 / 16 = 50 % smooth, 10 × 4 / 8 = 5.0 leaps per 10, 16 / 8 = 2.0 per change, 90 s → 2 minutes.
+    expect(records[1]).toMatchObject({ Takes: "1", "Smoothness %": "50", "Root-position leaps per 10 changes": "5.0", "Motion per change (semitones)": "2.0", "Practice minutes": "2", "Accuracy %": "" });
+  });
+
+  it("has no rows for weeks that have not happened yet", async () => {
+    const thisWeek = weekKey(new Date(), "America/New_York");
+    // Ten weeks past today: the range asks for weeks still to come.
+    const later = new Date(Date.now() + 70 * 86_400_000).toISOString().slice(0, 10);
+    const records: Record<string, string>[] = parse(
+      (await call(csvExport.loader, get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher))).data as string,
+      { columns: true },
+    );
+    const weeks = [...new Set(records.map((r) => r["ISO week"]))];
+    expect(weeks[0]).toBe("2026-W47");
+    expect(weeks.at(-1)).toBe(thisWeek);
+    expect(weeks.every((w) => w <= thisWeek)).toBe(true);
+    expect(records.length).toBe(2 * weeks.length);
+    // A range wholly in the future has the header and nothing else.
+    const future: string[][] = parse((await call(csvExport.loader, get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher))).data as string);
+    expect(future.length).toBe(1);
   });
 
   it("exports only the chosen students, and refuses a bad or missing range with 400", async () => {
@@ -175,7 +203,7 @@ describe("CSV export", () => {
   it("keeps a name that looks like a formula as text", async () => {
     db().update(users).set({ name: "=SUM(A1:A9)" }).where(eq(users.id, ids.bjorn)).run();
     const records: Record<string, string>[] = parse((await call(csvExport.loader, get(url, jars.teacher))).data as string, { columns: true });
-    expect(records[0].student).toBe("'=SUM(A1:A9)");
+    expect(records[0].Student).toBe("'=SUM(A1:A9)");
   });
 
   it("is refused to a student (403) and to another studio's teacher naming our students (403)", async () => {

@@ -22,7 +22,17 @@ const NOW = new Date("2026-12-02T12:00:00Z"); // a Wednesday, ISO week 49
 const weeksAgo = (n: number, hours = 0) => new Date(NOW.getTime() - n * 7 * DAY + hours * 3_600_000).toISOString();
 const jarFor = async (id: string) => new CookieJar().take((await createUserSession(id, "/home")).headers);
 
-let s: { studio: string; other: string; teacher: string; dara: string; felix: string; samir: string; yuki: string; ex: string; ex2: string };
+let s: {
+  studio: string;
+  other: string;
+  teacher: string;
+  dara: string;
+  felix: string;
+  samir: string;
+  yuki: string;
+  ex: string;
+  ex2: string;
+};
 
 beforeEach(() => {
   const studio = makeStudio("Tidewater Keys");
@@ -38,13 +48,33 @@ beforeEach(() => {
   for (const p of Object.values(people)) join(studio.id, p.id, "student");
   const ex = makeExercise(studio.id).id;
   const ex2 = makeExercise(studio.id, "Sunday ballad in A♭").id;
-  s = { studio: studio.id, other: other.id, teacher: teacher.id, ex, ex2, ...Object.fromEntries(Object.entries(people).map(([k, v]) => [k, v.id])) } as typeof s;
+  s = {
+    studio: studio.id,
+    other: other.id,
+    teacher: teacher.id,
+    ex,
+    ex2,
+    ...Object.fromEntries(Object.entries(people).map(([k, v]) => [k, v.id])),
+  } as typeof s;
 });
 
 /** A hand-made analysed take, arrived `arrivedAt` (the upload time "new since" counts from). */
 function take(studentId: string, at: string, score: number, opts: { exerciseId?: string; arrivedAt?: string } = {}) {
-  const t = insertHandTake({ studentId, studioId: s.studio, at, score, changes: 4, motion: 8, best: 4, exerciseId: opts.exerciseId });
-  db().update(takes).set({ createdAt: new Date(opts.arrivedAt ?? at) }).where(eq(takes.id, t.id)).run();
+  const t = insertHandTake({
+    studentId,
+    studioId: s.studio,
+    at,
+    score,
+    changes: 4,
+    motion: 8,
+    best: 4,
+    exerciseId: opts.exerciseId,
+  });
+  db()
+    .update(takes)
+    .set({ createdAt: new Date(opts.arrivedAt ?? at) })
+    .where(eq(takes.id, t.id))
+    .run();
   return t.id;
 }
 
@@ -57,7 +87,9 @@ describe("teacher home", () => {
     const week = teacherWeek(s.studio, { id: s.teacher, emailVerified: true }, NOW);
     expect(week.notPractised.map((x) => x.name)).toEqual(["Samir Haddad", "Yuki Tanabe"]);
     expect(week.notPractised.find((x) => x.name === "Yuki Tanabe")?.lastTakeAt).toBeNull();
-    expect(week.dropped).toEqual([{ id: s.felix, name: "Felix Brandt", lastTakeAt: weeksAgo(0), compare: { before: 80, recent: 70 } }]);
+    expect(week.dropped).toEqual([
+      { id: s.felix, name: "Felix Brandt", lastTakeAt: weeksAgo(0), compare: { before: 80, recent: 70 } },
+    ]);
   });
 
   it("counts takes new since the previous sitting; a reload within half an hour keeps the same 'since'", () => {
@@ -71,11 +103,19 @@ describe("teacher home", () => {
     expect(second.newTakes.total).toBe(1);
     expect(second.newTakes.latest.map((t) => t.studentName)).toEqual(["Dara Okafor"]);
     // A reload ten minutes on is the same sitting: the same take is still new.
-    const reload = teacherWeek(s.studio, { id: s.teacher, emailVerified: true }, new Date(later.getTime() + 10 * 60_000));
+    const reload = teacherWeek(
+      s.studio,
+      { id: s.teacher, emailVerified: true },
+      new Date(later.getTime() + 10 * 60_000),
+    );
     expect(reload.since).toBe(NOW.toISOString());
     expect(reload.newTakes.total).toBe(1);
     // The next sitting counts from the reload.
-    const next = teacherWeek(s.studio, { id: s.teacher, emailVerified: true }, new Date(later.getTime() + 10 * 60_000 + SITTING_MS + 1));
+    const next = teacherWeek(
+      s.studio,
+      { id: s.teacher, emailVerified: true },
+      new Date(later.getTime() + 10 * 60_000 + SITTING_MS + 1),
+    );
     expect(next.since).toBe(new Date(later.getTime() + 10 * 60_000).toISOString());
     expect(next.newTakes.total).toBe(0);
   });
@@ -92,21 +132,41 @@ describe("teacher home", () => {
     take(s.dara, weeksAgo(0), 70, { exerciseId: s.ex });
     const week = teacherWeek(s.studio, { id: s.teacher, emailVerified: true }, NOW);
     expect(week.today).toBe("2026-12-02");
-    expect(week.dueSoon).toEqual([{ id: s.ex, title: "Three-chord smoothing in D", dueDate: "2026-12-09", setFor: 4, handedIn: 1 }]);
+    expect(week.dueSoon).toEqual([
+      { id: s.ex, title: "Three-chord smoothing in D", dueDate: "2026-12-09", setFor: 4, handedIn: 1 },
+    ]);
   });
 
   it("shows a new studio's first steps and ticks each off from what has really happened", async () => {
     const fresh = makeStudio("Quayside Keys");
     const owner = makeUser("nell@quayside.example", "Nell Aster", false);
     join(fresh.id, owner.id, "owner");
-    const steps = () => teacherWeek(fresh.id, { id: owner.id, emailVerified: db().select().from(users).where(eq(users.id, owner.id)).get()!.emailVerifiedAt !== null }, NOW).firstRun;
+    const steps = () =>
+      teacherWeek(
+        fresh.id,
+        {
+          id: owner.id,
+          emailVerified: db().select().from(users).where(eq(users.id, owner.id)).get()!.emailVerifiedAt !== null,
+        },
+        NOW,
+      ).firstRun;
     expect(steps()).toEqual([
       { id: "confirm-email", done: false },
       { id: "invite-students", done: false },
       { id: "set-exercise", done: false },
     ]);
     db().update(users).set({ emailVerifiedAt: NOW }).where(eq(users.id, owner.id)).run();
-    db().insert(invitations).values({ studioId: fresh.id, email: "kit@quayside.example", role: "student", tokenHash: "h1", invitedById: owner.id, expiresAt: new Date(NOW.getTime() + DAY) }).run();
+    db()
+      .insert(invitations)
+      .values({
+        studioId: fresh.id,
+        email: "kit@quayside.example",
+        role: "student",
+        tokenHash: "h1",
+        invitedById: owner.id,
+        expiresAt: new Date(NOW.getTime() + DAY),
+      })
+      .run();
     expect(steps()?.map((x) => x.done)).toEqual([true, true, false]);
     makeExercise(fresh.id);
     expect(steps()).toBeNull(); // all done: the list goes away
@@ -123,7 +183,10 @@ describe("takes to listen to", () => {
   beforeEach(() => {
     // 30 takes, one an hour, alternating students and exercises; arrival order is the reverse of playing order.
     ids = Array.from({ length: 30 }, (_, i) =>
-      take([s.dara, s.felix, s.yuki][i % 3], weeksAgo(1, i), 60, { exerciseId: i % 2 ? s.ex : undefined, arrivedAt: weeksAgo(0, -i) }),
+      take([s.dara, s.felix, s.yuki][i % 3], weeksAgo(1, i), 60, {
+        exerciseId: i % 2 ? s.ex : undefined,
+        arrivedAt: weeksAgo(0, -i),
+      }),
     );
   });
 
@@ -156,7 +219,9 @@ describe("takes to listen to", () => {
     expect(free.total).toBe(15);
     expect(free.rows.every((r) => r.exerciseTitle === null)).toBe(true);
     // Both at once: Dara's takes are i = 0, 3, 6 …; odd ones are on the exercise: 3, 9, 15, 21, 27.
-    expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams({ student: s.dara, exercise: s.ex }))).total).toBe(5);
+    expect(
+      listeningPage(s.studio, readListeningQuery(new URLSearchParams({ student: s.dara, exercise: s.ex }))).total,
+    ).toBe(5);
     // A bad sort or page falls back to the default.
     expect(readListeningQuery(new URLSearchParams("sort=loudest&page=-3"))).toMatchObject({ sort: "newest", page: 1 });
   });
@@ -165,23 +230,39 @@ describe("takes to listen to", () => {
     const jar = await jarFor(s.teacher);
     const body = new URLSearchParams({ intent: "review" });
     for (const id of ids.slice(0, 3)) body.append("takeId", id);
-    const request = new Request(`http://127.0.0.1:3000/review?student=${s.dara}&page=1`, { method: "POST", body, headers: { Cookie: jar.header() } });
+    const request = new Request(`http://127.0.0.1:3000/review?student=${s.dara}&page=1`, {
+      method: "POST",
+      body,
+      headers: { Cookie: jar.header() },
+    });
     const done = await call(reviewRoute.action, request);
     expect(done.status).toBe(302);
     const back = new URL(done.location!, "http://x");
     expect(back.searchParams.get("student")).toBe(s.dara);
     expect(back.searchParams.getAll("undo")).toEqual(ids.slice(0, 3));
     expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams())).total).toBe(27);
-    expect(db().select().from(takeReviews).all().map((r) => r.reviewedById)).toEqual([s.teacher, s.teacher, s.teacher]);
+    expect(
+      db()
+        .select()
+        .from(takeReviews)
+        .all()
+        .map((r) => r.reviewedById),
+    ).toEqual([s.teacher, s.teacher, s.teacher]);
     // One row's own button marks that take alone, whatever else is ticked.
     const only = new URLSearchParams({ intent: "review", only: ids[5] });
     only.append("takeId", ids[6]);
-    await call(reviewRoute.action, new Request("http://127.0.0.1:3000/review", { method: "POST", body: only, headers: { Cookie: jar.header() } }));
+    await call(
+      reviewRoute.action,
+      new Request("http://127.0.0.1:3000/review", { method: "POST", body: only, headers: { Cookie: jar.header() } }),
+    );
     expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams())).total).toBe(26);
     // Undo puts the three back.
     const undo = new URLSearchParams({ intent: "unreview" });
     for (const id of ids.slice(0, 3)) undo.append("takeId", id);
-    await call(reviewRoute.action, new Request("http://127.0.0.1:3000/review", { method: "POST", body: undo, headers: { Cookie: jar.header() } }));
+    await call(
+      reviewRoute.action,
+      new Request("http://127.0.0.1:3000/review", { method: "POST", body: undo, headers: { Cookie: jar.header() } }),
+    );
     expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams())).total).toBe(29);
     // Nothing ticked is refused with a message.
     expect((await call(reviewRoute.action, post("/review", { intent: "review" }, jar))).status).toBe(400);
@@ -192,7 +273,13 @@ describe("takes to listen to", () => {
     join(s.other, outsider.id, "student");
     const theirs = insertHandTake({ studentId: outsider.id, studioId: s.other, at: weeksAgo(0), score: 50 }).id;
     expect(markHeard("review", [theirs, ids[0]], s.teacher, s.studio)).toBe(1);
-    expect(db().select().from(takeReviews).all().map((r) => r.takeId)).toEqual([ids[0]]);
+    expect(
+      db()
+        .select()
+        .from(takeReviews)
+        .all()
+        .map((r) => r.takeId),
+    ).toEqual([ids[0]]);
   });
 
   it("shows the page with the studio's time zone for a teacher and refuses a student", async () => {

@@ -1,8 +1,7 @@
-import { useEffect, useRef, useState } from "react";
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatMetric, METRIC_IDS, METRICS, weekLabel, type MetricId } from "~/lib/progressFigures";
 import type { ChartData } from "~/models/board.server";
-import { LINE_STYLES, type ChartChoice } from "./chartQuery";
+import { lineStyle, type ChartChoice } from "./chartQuery";
 
 /** The chart proper: one line per student, the metric per week. Recharts draws it after hydration. */
 export function ProgressLines({ data, height = 320, width }: { data: ChartData; height?: number; width?: number }) {
@@ -13,7 +12,13 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
   const percent = data.metric === "smoothness" || data.metric === "accuracy";
   const chart = (
     // The keyboard layer is off: the chart sits in an aria-hidden wrapper, and its figures are in the table beside it.
-    <LineChart data={rows} width={width} height={height} margin={{ top: 8, right: 16, bottom: 8, left: 0 }} accessibilityLayer={false}>
+    <LineChart
+      data={rows}
+      width={width}
+      height={height}
+      margin={{ top: 8, right: 16, bottom: 8, left: 0 }}
+      accessibilityLayer={false}
+    >
       <CartesianGrid stroke="#ddd6c8" strokeDasharray="3 3" />
       <XAxis dataKey="week" tick={{ fontSize: 12, fill: "#545b6b" }} />
       <YAxis
@@ -22,7 +27,10 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
           percent
             ? [0, 1]
             : data.metric === "score"
-              ? [(min: number) => Math.max(0, Math.floor(min / 10) * 10), (max: number) => Math.min(100, Math.ceil(max / 10) * 10)]
+              ? [
+                  (min: number) => Math.max(0, Math.floor(min / 10) * 10),
+                  (max: number) => Math.min(100, Math.ceil(max / 10) * 10),
+                ]
               : ["auto", "auto"]
         }
         tickFormatter={(v: number) => (percent ? `${Math.round(v * 100)}%` : String(Math.round(v * 10) / 10))}
@@ -30,37 +38,51 @@ export function ProgressLines({ data, height = 320, width }: { data: ChartData; 
       <Tooltip formatter={(v) => formatMetric(data.metric, typeof v === "number" ? v : null)} />
       <Legend />
       {data.series.map((s, i) => {
-        const style = LINE_STYLES[i % LINE_STYLES.length];
+        const style = lineStyle(i);
         return (
           <Line
             key={s.studentId}
-            type="monotone"
+            // Straight segments between weekly values; a week without takes leaves a gap, not a bridge.
+            type="linear"
             dataKey={s.studentId}
             name={s.name}
             stroke={style.stroke}
             strokeDasharray={style.dash}
             strokeWidth={2}
             dot={{ r: 2.5 }}
-            connectNulls
+            connectNulls={false}
             isAnimationActive={false}
           />
         );
       })}
     </LineChart>
   );
-  return width ? chart : <ResponsiveContainer width="100%" height={height}>{chart}</ResponsiveContainer>;
+  return width ? (
+    chart
+  ) : (
+    <ResponsiveContainer width="100%" height={height}>
+      {chart}
+    </ResponsiveContainer>
+  );
 }
 
 /** The same numbers as a table, for screen readers and for anyone who prefers figures. */
 export function ChartTable({ data, caption, hidden = false }: { data: ChartData; caption: string; hidden?: boolean }) {
   // A visible wide table scrolls, and a scrolling region must take keyboard focus; a screen-reader-only copy does neither.
   return (
-    <div className={hidden ? "sr-only" : "overflow-x-auto"} tabIndex={hidden ? undefined : 0} role={hidden ? undefined : "region"} aria-label={hidden ? undefined : caption}>
+    <div
+      className={hidden ? "sr-only" : "overflow-x-auto"}
+      tabIndex={hidden ? undefined : 0}
+      role={hidden ? undefined : "region"}
+      aria-label={hidden ? undefined : caption}
+    >
       <table className="w-full border-collapse text-left text-sm">
         <caption className="mb-2 text-left text-sm text-ink-soft">{caption}</caption>
         <thead className="bg-paper text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className="px-3 py-1.5">Week of</th>
+            <th scope="col" className="px-3 py-1.5">
+              Week of
+            </th>
             {data.series.map((s) => (
               <th key={s.studentId} scope="col" className="px-3 py-1.5">
                 {s.name}
@@ -97,35 +119,3 @@ export function chartCaption(data: ChartPayload) {
 
 export { METRIC_IDS };
 export type { MetricId, ChartChoice };
-
-/**
- * Keeps the chart in step with a choice: fetches /api/progress when the choice
- * changes (the newest request wins) and reports loading and errors.
- */
-export function useChartData(initial: ChartPayload, search: string | null) {
-  const [data, setData] = useState(initial);
-  const [state, setState] = useState<{ loading: boolean; error: string | null }>({ loading: false, error: null });
-  const first = useRef(true);
-  useEffect(() => {
-    if (first.current) {
-      first.current = false;
-      return;
-    }
-    if (search === null) return; // nothing chosen: nothing to fetch
-    const controller = new AbortController();
-    setState({ loading: true, error: null });
-    fetch(`/api/progress?${search}`, { signal: controller.signal, headers: { Accept: "application/json" } })
-      .then(async (r) => {
-        const body = await r.json();
-        if (!r.ok) throw new Error(body.error ?? `The server answered ${r.status}`);
-        setData(body as ChartPayload);
-        setState({ loading: false, error: null });
-      })
-      .catch((e: unknown) => {
-        if (controller.signal.aborted) return;
-        setState({ loading: false, error: e instanceof Error ? e.message : "Could not load the chart" });
-      });
-    return () => controller.abort();
-  }, [search]);
-  return { data, ...state };
-}

@@ -29,7 +29,11 @@ export function StatusBadge({ status, compare }: { status: StudentStatus; compar
   const trend = compare && TREND_STATUSES.includes(status) && compare.before !== null && compare.recent !== null;
   return (
     <span className="inline-flex flex-col items-start gap-0.5">
-      <span className={`inline-block whitespace-nowrap rounded-full px-2 py-0.5 text-xs font-semibold ${tones[status]}`}>{STATUS_LABELS[status]}</span>
+      <span
+        className={`inline-block whitespace-nowrap rounded-full px-2 py-0.5 text-xs font-semibold ${tones[status]}`}
+      >
+        {STATUS_LABELS[status]}
+      </span>
       {trend ? (
         <span className="whitespace-nowrap text-xs text-ink-soft" data-testid="status-compare">
           <span aria-hidden="true">

@@ -16,13 +16,13 @@ export function csvHref(c: ChartChoice): string {
 }
 
 /** Line colours from the palette, each with its own dash so lines differ without colour too. */
-export const LINE_STYLES = [
-  { stroke: "#0d6b70", dash: undefined },
-  { stroke: "#9a5b12", dash: "6 3" },
-  { stroke: "#2f6b3d", dash: "2 3" },
-  { stroke: "#a3322b", dash: "8 3 2 3" },
-  { stroke: "#1f2430", dash: "4 4" },
-  { stroke: "#094e52", dash: "10 4" },
-  { stroke: "#545b6b", dash: "1 3" },
-  { stroke: "#6f4a0c", dash: "12 3 3 3" },
-];
+const LINE_COLOURS = ["#0d6b70", "#9a5b12", "#2f6b3d", "#a3322b", "#1f2430", "#5b3f8c", "#545b6b", "#6f4a0c"];
+const LINE_DASHES = [undefined, "6 3", "2 3", "8 3 2 3", "4 4", "10 4", "1 3", "12 3 3 3"];
+
+/**
+ * The style of the chart's i-th line: eight colours and eight dash patterns,
+ * paired so that the first 64 students never share both.
+ */
+export function lineStyle(i: number): { stroke: string; dash: string | undefined } {
+  return { stroke: LINE_COLOURS[i % 8], dash: LINE_DASHES[(i + Math.floor(i / 8)) % 8] };
+}

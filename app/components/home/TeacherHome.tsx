@@ -78,10 +78,22 @@ export function TeacherHome({ week, toReview }: { week: TeacherWeek; toReview: n
     <div className="flex flex-col gap-6">
       {week.firstRun ? <FirstRun steps={week.firstRun} /> : null}
       <div className="grid gap-6 md:grid-cols-2">
-        <Card title="New takes" data-testid="new-takes" actions={<ButtonLink to="/review" variant={toReview ? "primary" : "secondary"}>Listen to takes</ButtonLink>}>
+        <Card
+          title="New takes"
+          data-testid="new-takes"
+          actions={
+            <ButtonLink to="/review" variant={toReview ? "primary" : "secondary"}>
+              Listen to takes
+            </ButtonLink>
+          }
+        >
           <p className="mb-2 text-sm text-ink-soft">
-            {week.newTakes.total === 0 ? "No new takes" : `${week.newTakes.total} new take${week.newTakes.total === 1 ? "" : "s"}`}{" "}
-            {week.since ? `since your last visit (${studioDateTime(week.since, timeZone)})` : "in the last seven days"}
+            {week.newTakes.total === 0
+              ? "No new takes"
+              : `${week.newTakes.total} new take${week.newTakes.total === 1 ? "" : "s"}`}{" "}
+            {week.since
+              ? `since your last visit (${studioDateTime(week.since, timeZone)})`
+              : "played in the last seven days"}
             {` · ${toReview} waiting to be heard`}
           </p>
           {week.newTakes.latest.length ? (
@@ -144,7 +156,9 @@ export function TeacherHome({ week, toReview }: { week: TeacherWeek; toReview: n
         </Card>
         <Card title="Dropped" data-testid="dropped">
           {week.dropped.length === 0 ? (
-            <p className="text-sm text-ink-soft">Nobody's mean score fell by 3 points or more over the last three weeks.</p>
+            <p className="text-sm text-ink-soft">
+              Nobody's mean score fell by 3 points or more over the last three weeks.
+            </p>
           ) : (
             <ul className="divide-y divide-line">
               {week.dropped.map((s) => (

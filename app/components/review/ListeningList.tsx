@@ -41,7 +41,13 @@ function Filters({ query, filters }: Pick<Props, "query" | "filters">) {
       role="search"
       aria-label="Filter the takes"
       className="flex flex-wrap items-end gap-3"
-      onChange={(e) => submit(e.currentTarget, { replace: true, preventScrollReset: true })}
+      onChange={(e) => {
+        // Only the choices that narrow the list go into the address; a new choice starts at page 1.
+        const params = new URLSearchParams();
+        for (const [k, v] of new FormData(e.currentTarget)) if (typeof v === "string" && v) params.set(k, v);
+        if (params.get("sort") === "newest") params.delete("sort");
+        submit(params, { method: "get", replace: true, preventScrollReset: true });
+      }}
     >
       <label className="flex min-w-40 flex-1 flex-col gap-1 text-sm font-semibold sm:flex-none">
         Student
@@ -93,7 +99,8 @@ function Pager({ page, pages }: { page: number; pages: number }) {
     else next.set("page", String(n));
     return `?${next}`;
   };
-  const link = "rounded-md border border-line bg-card px-3 py-1.5 text-sm font-semibold text-tide-dark hover:border-tide";
+  const link =
+    "rounded-md border border-line bg-card px-3 py-1.5 text-sm font-semibold text-tide-dark hover:border-tide";
   return (
     <nav aria-label="Pages of the list" className="flex flex-wrap items-center justify-between gap-3">
       {page > 1 ? (
@@ -135,10 +142,11 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
   return (
     <div className="flex flex-col gap-4">
       {undo.length ? (
-        <Form method="post" className="flex flex-wrap items-center gap-3 rounded-md border border-line bg-card px-4 py-2 text-sm">
-          <span>
-            {undo.length === 1 ? "One take" : `${undo.length} takes`} left the list.
-          </span>
+        <Form
+          method="post"
+          className="flex flex-wrap items-center gap-3 rounded-md border border-line bg-card px-4 py-2 text-sm"
+        >
+          <span>{undo.length === 1 ? "One take" : `${undo.length} takes`} left the list.</span>
           <input type="hidden" name="intent" value="unreview" />
           {undo.map((id) => (
             <input key={id} type="hidden" name="takeId" value={id} />
@@ -150,7 +158,9 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
       {error ? <FlashMessage tone="error">{error}</FlashMessage> : null}
       {list.total === 0 ? (
         <EmptyState title={filtered ? "Nothing to listen to for this choice" : "Nothing to listen to"}>
-          {filtered ? "Every take for this student and exercise has been heard. Choose “Every student” or “Every exercise” to see the rest." : "New takes from your students appear here as they arrive."}
+          {filtered
+            ? "Every take for this student and exercise has been heard. Choose “Every student” or “Every exercise” to see the rest."
+            : "New takes from your students appear here as they arrive."}
         </EmptyState>
       ) : (
         <Form method="post" className="flex flex-col gap-3" onSubmit={() => setTicked([])}>
@@ -160,7 +170,12 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
               {list.total} take{list.total === 1 ? "" : "s"} to listen to
               {list.pages > 1 ? ` · ${first}–${first + list.rows.length - 1} shown` : ""}
             </p>
-            <Button variant="primary" disabled={ticked.length === 0} pending={busy && !navigation.formData?.get("only")} pendingLabel="Marking…">
+            <Button
+              variant="primary"
+              disabled={ticked.length === 0}
+              pending={busy && !navigation.formData?.get("only")}
+              pendingLabel="Marking…"
+            >
               {ticked.length ? `Mark ${ticked.length} as heard` : "Mark ticked takes as heard"}
             </Button>
           </div>
@@ -173,15 +188,26 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
                     <input
                       type="checkbox"
                       aria-label="Tick every take on this page"
+                      className="h-5 w-5"
                       checked={allTicked}
                       onChange={() => setTicked(allTicked ? [] : pageIds)}
                     />
                   </th>
-                  <th scope="col" className="px-3 py-2">Recorded</th>
-                  <th scope="col" className="px-3 py-2">Student</th>
-                  <th scope="col" className="px-3 py-2">Exercise</th>
-                  <th scope="col" className="px-3 py-2 text-right">Score</th>
-                  <th scope="col" className="px-3 py-2">Flags</th>
+                  <th scope="col" className="px-3 py-2">
+                    Recorded
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Student
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Exercise
+                  </th>
+                  <th scope="col" className="px-3 py-2 text-right">
+                    Score
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Flags
+                  </th>
                   <th scope="col" className="px-3 py-2">
                     <span className="sr-only">Actions</span>
                   </th>
@@ -202,7 +228,11 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
                       />
                     </td>
                     <td className="whitespace-nowrap px-3 py-2" data-label="Recorded">
-                      <time dateTime={t.recordedAt} title={`Arrived ${studioDateTime(t.createdAt, timeZone)}`} className="whitespace-nowrap">
+                      <time
+                        dateTime={t.recordedAt}
+                        title={`Arrived ${studioDateTime(t.createdAt, timeZone)}`}
+                        className="whitespace-nowrap"
+                      >
                         {studioShortDate(t.recordedAt, timeZone)}, {studioClock(t.recordedAt, timeZone)}
                       </time>
                     </td>
@@ -230,7 +260,9 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
                         pending={busy && navigation.formData?.get("only") === t.id}
                         pendingLabel="Marking…"
                       >
-                        Mark<span className="sr-only"> {t.studentName}'s take</span> as heard
+                        <span>
+                          Mark<span className="sr-only"> {t.studentName}'s take</span> as heard
+                        </span>
                       </Button>
                     </td>
                   </tr>

@@ -53,7 +53,8 @@ export function InviteForm({
             className={`rounded-md border bg-white px-3 py-2 text-base shadow-inner outline-none focus:border-tide ${emailError ? "border-brick" : "border-line"}`}
           />
           <p id="invite-emails-hint" className="text-xs text-ink-soft">
-            One or many, separated by commas or new lines. Each gets a link valid for 7 days. {invitesLeftToday} left today.
+            One or many, separated by commas or new lines. Each gets a link valid for 7 days. {invitesLeftToday} left
+            today.
           </p>
           {emailError ? (
             <p id="invite-emails-error" role="alert" className="text-sm text-brick">
@@ -65,12 +66,18 @@ export function InviteForm({
           <fieldset className="flex flex-col gap-1">
             <legend className="text-sm font-semibold">Invite as</legend>
             <label className="flex items-center gap-2 text-sm">
-              <input type="radio" name="role" value="student" defaultChecked={failure?.values.role !== "teacher"} /> Student
+              <input type="radio" name="role" value="student" defaultChecked={failure?.values.role !== "teacher"} />{" "}
+              Student
             </label>
             <label className="flex items-center gap-2 text-sm">
-              <input type="radio" name="role" value="teacher" defaultChecked={failure?.values.role === "teacher"} /> Co-teacher
+              <input type="radio" name="role" value="teacher" defaultChecked={failure?.values.role === "teacher"} />{" "}
+              Co-teacher
             </label>
-            {roleError ? <p role="alert" className="text-sm text-brick">{roleError}</p> : null}
+            {roleError ? (
+              <p role="alert" className="text-sm text-brick">
+                {roleError}
+              </p>
+            ) : null}
           </fieldset>
         ) : null}
         <div>
@@ -83,7 +90,14 @@ export function InviteForm({
   );
 }
 
-type Person = { userId: string; name: string; email: string; status: "active" | "removed"; takeCount: number; joinedAt: string };
+type Person = {
+  userId: string;
+  name: string;
+  email: string;
+  status: "active" | "removed";
+  takeCount: number;
+  joinedAt: string;
+};
 
 export function RosterRow({
   person,
@@ -96,14 +110,20 @@ export function RosterRow({
 }) {
   return (
     <tr className={person.status === "removed" ? "text-ink-soft" : undefined}>
-      <td className="px-4 py-2 font-semibold">
+      <td className="card-title px-4 py-2 font-semibold">
         <Link to={`/students/${person.userId}`} className="text-tide-dark hover:underline">
           {person.name}
         </Link>
       </td>
-      <td className="px-4 py-2">{person.email}</td>
-      <td className="px-4 py-2">{person.status === "active" ? "Active" : "Removed (inactive)"}</td>
-      <td className="px-4 py-2 text-right tabular-nums">{person.takeCount}</td>
+      <td className="px-4 py-2 break-all" data-label="E-mail">
+        {person.email}
+      </td>
+      <td className="px-4 py-2" data-label="Status">
+        {person.status === "active" ? "Active" : "Removed (inactive)"}
+      </td>
+      <td className="px-4 py-2 text-right tabular-nums" data-label="Takes">
+        {person.takeCount}
+      </td>
       <td className="flex flex-wrap items-center gap-2 px-4 py-2">
         <Link reloadDocument to={`/api/students/${person.userId}/export`} className="text-sm text-tide-dark underline">
           Export
@@ -125,11 +145,15 @@ export function RosterRow({
             <label className="flex items-start gap-2">
               <input type="checkbox" name="confirm" value="yes" aria-invalid={confirmError ? true : undefined} />
               <span>
-                Delete {person.name}'s takes in this studio for good (and their account, if they are in no other studio). This
-                cannot be undone.
+                Delete {person.name}'s takes in this studio for good (and their account, if they are in no other
+                studio). This cannot be undone.
               </span>
             </label>
-            {confirmError ? <p role="alert" className="text-brick">{confirmError}</p> : null}
+            {confirmError ? (
+              <p role="alert" className="text-brick">
+                {confirmError}
+              </p>
+            ) : null}
             <Button variant="danger" pending={busy("delete-data", person.userId)} pendingLabel="Deleting…">
               Delete for good
             </Button>
@@ -140,15 +164,34 @@ export function RosterRow({
   );
 }
 
-type Pending = { id: string; email: string; role: "student" | "teacher"; expired: boolean; expiresAt: string; sentCount: number };
+type Pending = {
+  id: string;
+  email: string;
+  role: "student" | "teacher";
+  expired: boolean;
+  expiresAt: string;
+  sentCount: number;
+};
 
-export function PendingRow({ invitation, busy }: { invitation: Pending; busy: (intent: string, id?: string) => boolean }) {
+export function PendingRow({
+  invitation,
+  busy,
+}: {
+  invitation: Pending;
+  busy: (intent: string, id?: string) => boolean;
+}) {
   return (
     <tr>
-      <td className="px-4 py-2">{invitation.email}</td>
-      <td className="px-4 py-2">{invitation.role === "teacher" ? "Co-teacher" : "Student"}</td>
-      <td className="px-4 py-2">
-        {invitation.expired ? <span className="text-brick">Expired</span> : `Valid until ${invitation.expiresAt.slice(0, 10)}`}
+      <td className="card-title px-4 py-2 break-all">{invitation.email}</td>
+      <td className="px-4 py-2" data-label="As">
+        {invitation.role === "teacher" ? "Co-teacher" : "Student"}
+      </td>
+      <td className="px-4 py-2" data-label="Link">
+        {invitation.expired ? (
+          <span className="text-brick">Expired</span>
+        ) : (
+          `Valid until ${invitation.expiresAt.slice(0, 10)}`
+        )}
         {invitation.sentCount > 1 ? ` · sent ${invitation.sentCount} times` : ""}
       </td>
       <td className="flex gap-2 px-4 py-2">
