@@ -2,13 +2,14 @@ import type { Route } from "./+types/home";
 import { requireUser } from "~/auth/access.server";
 import { Card } from "~/components/Card";
 import { StudentHome } from "~/components/home/StudentHome";
-import { ButtonLink } from "~/components/Button";
+import { TeacherHome } from "~/components/home/TeacherHome";
 import { UnreadFeedback } from "~/components/feedback/UnreadFeedback";
 import { PageHeader } from "~/components/PageHeader";
 import { reviewQueueCount, unreadFeedback } from "~/models/feedback.server";
 import { studioTimeZone } from "~/models/progress.server";
 import { todayIn } from "~/models/progressQuery.server";
 import { listExercisesForStudent } from "~/models/exercises.server";
+import { teacherWeek } from "~/models/teacherHome.server";
 import { listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Home · Nearnote" }];
@@ -27,7 +28,10 @@ export async function loader({ request, context }: Route.LoaderArgs) {
           unread: unreadFeedback(user.id, active.studioId),
         }
       : null;
-  const teacher = active && active.role !== "student" ? { toReview: reviewQueueCount(active.studioId) } : null;
+  const teacher =
+    active && active.role !== "student"
+      ? { toReview: reviewQueueCount(active.studioId), week: teacherWeek(active.studioId, { id: user.id, emailVerified: user.emailVerified }) }
+      : null;
   return { name: user.name, active, studios: user.studios, student, teacher };
 }
 
@@ -40,20 +44,10 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         lead={active ? `${active.studioName} · ${active.role === "student" ? "student" : "teacher"}` : "You are not in a studio yet."}
       />
       {student ? <UnreadFeedback items={student.unread} /> : null}
-      {teacher ? (
-        <Card title="Review" data-testid="review-count">
-          <div className="flex flex-wrap items-center justify-between gap-3">
-            <p>
-              {teacher.toReview === 0 ? "Every take has been reviewed." : `${teacher.toReview} take${teacher.toReview === 1 ? "" : "s"} waiting for your review.`}
-            </p>
-            <ButtonLink to="/review" variant={teacher.toReview ? "primary" : "secondary"}>
-              Open the review queue
-            </ButtonLink>
-          </div>
-        </Card>
-      ) : null}
       {student ? (
         <StudentHome exercises={student.exercises} takes={student.takes} weeks={student.weeks} today={student.today} />
+      ) : teacher ? (
+        <TeacherHome week={teacher.week} toReview={teacher.toReview} />
       ) : (
         <Card title="Your studio">
           <p className="text-ink-soft">Your students' takes and progress will appear here.</p>
