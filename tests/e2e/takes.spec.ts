@@ -153,7 +153,7 @@ test("a student moves a take to an exercise, replaces it, then deletes it", asyn
   await expect(page.getByText("Take moved and graded against the exercise again.")).toBeVisible();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Sunday ballad");
   const accuracy = page.getByRole("definition").filter({ hasText: /^\d+%$/ });
-  await expect(page.getByText("Exercise accuracy")).toBeVisible();
+  await expect(page.getByLabel("Take summary").getByText("Exercise accuracy")).toBeVisible();
   await expect(accuracy.first()).toBeVisible();
   await expect(page.getByRole("heading", { level: 3, name: "Against the exercise: vi IV I V" })).toBeVisible();
   const before = page.url();
@@ -168,6 +168,8 @@ test("a student moves a take to an exercise, replaces it, then deletes it", asyn
   const takeId = new URL(before).pathname.split("/").pop();
   const replaced = await page.request.get(`/api/takes/${takeId}`);
   expect((await replaced.json()).originalName).toBe("held-bass-d.mid");
+  // A take in D filed under an exercise in A♭ is told so plainly, before any figure.
+  await expect(page.getByTestId("next-step")).toContainText("This sounds like D major; the exercise is in A♭ major");
 
   const remove = page.getByRole("form", { name: "Delete this take" });
   await remove.getByRole("button", { name: "Delete take" }).click();
