@@ -16,6 +16,8 @@ type Props = {
   start: number[] | null;
   tempo: number | null;
   canEdit: boolean;
+  /** the exercise's focus techniques: the path follows them and says how */
+  focus?: string[];
   modelTake: { name: string; notes: NoteEvent[] } | null;
 };
 
@@ -23,7 +25,7 @@ type Props = {
  * The smoothest voicing path through the target in each key, from the starting voicing the
  * teacher picked (moved to each key), playable; and the teacher's own model take if attached.
  */
-export function ModelAnswer({ progression, keys, start, tempo, canEdit, modelTake }: Props) {
+export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = [], modelTake }: Props) {
   const synth = useSynth();
   const navigation = useNavigation();
   const [keyName, setKeyName] = useState(keys[0]);
@@ -37,8 +39,9 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, modelTak
     const here = parseKey(keyName);
     const first = picking && keyName === keys[0] ? picking : startForKey(start, home.tonic, here.tonic, chords[0]);
     const fits = fitsFirstChord(first, chords[0]);
-    return { chords, path: modelPath(chords, fits ? first : startForKey(null, 0, 0, chords[0])), fits, key: here, first };
-  }, [valid, progression, keys, keyName, start, picking]);
+    const options = { focus, key: here, teacherStart: fits && (picking !== null || !!start?.length) };
+    return { chords, path: modelPath(chords, fits ? first : startForKey(null, 0, 0, chords[0]), options), fits, key: here, first };
+  }, [valid, progression, keys, keyName, start, picking, focus]);
 
   if (!result) return <p className="text-sm text-ink-soft">The progression cannot be read, so there is no model answer yet.</p>;
   const { path, key, fits } = result;
@@ -77,12 +80,25 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, modelTak
             <div className="font-semibold">
               {pretty(s.symbol)} {s.roman ? <span className="text-xs font-normal text-tide-dark">{pretty(s.roman)}</span> : null}
             </div>
-            <div className="text-xs text-ink-soft">{s.voicing.map((n) => noteLabel(n, key)).join(" ")}</div>
+            <div className="text-xs text-ink-soft">
+              {s.grace != null ? <span title="grace note">({noteLabel(s.grace, key)}) </span> : null}
+              {s.voicing.map((n) => noteLabel(n, key)).join(" ")}
+            </div>
             <KeyboardPicker notes={s.voicing} low={range.low} high={range.high} label={`${s.symbol}: ${s.voicing.map((n) => noteLabel(n, key)).join(", ")}`} />
             <div className="text-xs text-ink-soft">{s.motion === null ? "start" : `moves ${s.motion} semitone${s.motion === 1 ? "" : "s"}`}</div>
           </li>
         ))}
       </ol>
+      {path.choices?.length ? (
+        <div className="text-sm">
+          <h3 className="font-semibold">Why it is voiced this way</h3>
+          <ul className="mt-1 list-disc space-y-1 pl-5" data-testid="model-choices">
+            {path.choices.map((c) => (
+              <li key={c}>{c}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
       <div className="flex flex-wrap items-center gap-3 text-sm">
         <span>
           Total motion <strong data-testid="model-total">{path.totalMotion}</strong> semitones
