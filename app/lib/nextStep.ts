@@ -82,7 +82,10 @@ export function nextStep(
   analysis: { chords: readonly ChordReport[]; changes: readonly ChangeReport[]; summary: Pick<Summary, "key" | "target" | "accuracy"> },
   heard: string | null,
   key: Key | null,
+  /** flags the teacher marked as intended: never named as the thing to fix */
+  intended: ReadonlyArray<{ on: "chord" | "change"; idx: number; flag: string }> = [],
 ): NextStep {
+  const isIntended = (on: "chord" | "change", idx: number, flag: string) => intended.some((m) => m.on === on && m.idx === idx && m.flag === flag);
   const { chords, changes, summary } = analysis;
   if (summary.target !== undefined && summary.accuracy !== undefined && summary.accuracy < OFF_EXERCISE_ACCURACY) {
     const exerciseKey = summary.key;
@@ -114,7 +117,7 @@ export function nextStep(
 
   // No change moved more than it had to: the flag that matters most, at its first place.
   for (const flag of FLAG_ORDER) {
-    const onChange = changes.findIndex((c) => c.flags.includes(flag as ChangeFlag));
+    const onChange = changes.findIndex((c, i) => c.flags.includes(flag as ChangeFlag) && !isIntended("change", i, flag));
     if (onChange !== -1) {
       const c = changes[onChange];
       const e = explainChange(c, [...chords], key).find((x) => x.flag === flag);
@@ -127,7 +130,7 @@ export function nextStep(
         text: e ? `${e.title}. ${e.text}` : "",
       };
     }
-    const onChord = chords.findIndex((ch) => ch.flags.includes(flag as ChordFlag));
+    const onChord = chords.findIndex((ch, k) => ch.flags.includes(flag as ChordFlag) && !isIntended("chord", k, flag));
     if (onChord !== -1) {
       const e = explainChord(chords[onChord], key).find((x) => x.flag === flag);
       // A chord belongs to the change that arrives at it; the first chord to the first change.

@@ -141,7 +141,7 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
 
       {take.status === "analysed" && analysis ? (
         // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.
-        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec} heardKey={heard} commented={commented}
+        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec} heardKey={heard} commented={commented} intended={feedback.intended}
           changeExtras={(i) => (
             <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
           )}

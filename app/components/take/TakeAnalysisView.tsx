@@ -33,6 +33,7 @@ export function TakeAnalysisView({
   durationSec,
   heardKey = null,
   commented,
+  intended = [],
   changeExtras,
 }: {
   analysis: TakeAnalysis;
@@ -42,12 +43,14 @@ export function TakeAnalysisView({
   heardKey?: string | null;
   /** changes carrying a teacher's comment */
   commented?: ReadonlySet<number>;
+  /** flags the teacher marked as intended */
+  intended?: ReadonlyArray<{ on: "chord" | "change"; idx: number; flag: string }>;
   /** Shown under the selected change (comments pinned to it). */
   changeExtras?: (index: number) => ReactNode;
 }) {
   const { chords, changes, summary } = analysis;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
-  const step = useMemo(() => nextStep(analysis, heardKey, keyInfo), [analysis, heardKey, keyInfo]);
+  const step = useMemo(() => nextStep(analysis, heardKey, keyInfo, intended), [analysis, heardKey, keyInfo, intended]);
   const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
   const length = Math.max(durationSec, summary.durationSec);
   // Differences from the exercise, flags and comments, at their places under the roll (same scale as the roll).

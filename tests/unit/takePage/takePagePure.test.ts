@@ -176,3 +176,17 @@ describe("marks under the roll", () => {
     for (const p of rows) for (const q of rows) if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
   });
 });
+
+describe("next step and intended flags", () => {
+  it("names the first flag when nothing moved too far, and skips a flag the teacher marked as intended", () => {
+    // D2 F♯2 A2 → D2 G2 B2 (G over D): the closest move (3), but both are close thirds low down
+    // (low interval limits: common practice, RULES.md's muddy-low-interval rule).
+    const a = analyseNotes([...block([38, 42, 45], 0), ...block([38, 43, 47], 1)], { key: "D" });
+    expect(a.changes.map(extraMotion)).toEqual([0]);
+    expect(a.chords.map((c) => c.flags.includes("muddy-low-interval"))).toEqual([true, true]);
+    const step = nextStep(a, null, keyOf("D"));
+    expect(step).toMatchObject({ kind: "flag", flag: "muddy-low-interval", title: "Chord 1: D" });
+    const marked = nextStep(a, null, keyOf("D"), [{ on: "chord", idx: 0, flag: "muddy-low-interval" }]);
+    expect(marked).toMatchObject({ kind: "flag", flag: "muddy-low-interval", title: "Chord 2: G/D" });
+  });
+});
