@@ -6,6 +6,7 @@ import { Button, ButtonLink, buttonClass } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { FlashMessage } from "~/components/FlashMessage";
 import { ExerciseFacts } from "~/components/exercises/ExerciseFacts";
+import { ExerciseStateBadge } from "~/components/exercises/ExerciseStateBadge";
 import { KeyProgressTable } from "~/components/exercises/KeyProgressTable";
 import { ModelAnswer } from "~/components/exercises/ModelAnswer";
 import { PageHeader } from "~/components/PageHeader";
@@ -20,6 +21,7 @@ import {
   isDone,
   progressByKey,
   setArchived,
+  studentExerciseState,
   studentsOfExercise,
   takesOfExercise,
 } from "~/models/exercises.server";
@@ -41,6 +43,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
       })
     : [];
   const mine = asTeacher ? null : progressByKey(exercise.keys, rows);
+  // The student's state of this exercise, decided as on home and the list of exercises.
+  const state = asTeacher ? null : studentExerciseState(exercise, user.id);
   return {
     asTeacher,
     exercise: {
@@ -52,6 +56,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     modelTake: await modelTakeNotes(exercise),
     students,
     mine,
+    state,
   };
 }
 
@@ -92,7 +97,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function ExercisePage({ loaderData, actionData }: Route.ComponentProps) {
-  const { exercise, asTeacher, expanded, students, mine, modelTake } = loaderData;
+  const { exercise, asTeacher, expanded, students, mine, state, modelTake } = loaderData;
   const navigation = useNavigation();
   const revalidator = useRevalidator();
   return (
@@ -112,11 +117,17 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
           ) : null
         }
       />
+      {state ? (
+        <p className="flex flex-wrap items-center gap-2 text-sm" data-testid="my-exercise-state">
+          <ExerciseStateBadge state={state} />
+          <span>{state.detail}</span>
+        </p>
+      ) : null}
       {actionData && "error" in actionData ? <FlashMessage tone="error">{actionData.error}</FlashMessage> : null}
       <ExerciseFacts exercise={exercise} expanded={expanded} />
 
       <Card title="Model answer">
-        <ModelAnswer progression={exercise.progression} keys={exercise.keys} start={exercise.modelStart} tempo={exercise.tempo} canEdit={asTeacher} modelTake={modelTake} />
+        <ModelAnswer progression={exercise.progression} keys={exercise.keys} start={exercise.modelStart} tempo={exercise.tempo} canEdit={asTeacher} focus={exercise.focusTechniques} modelTake={modelTake} />
         {asTeacher ? (
           <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-line pt-4">
             <Form method="post" action="?intent=model-take" encType="multipart/form-data" className="flex flex-wrap items-end gap-2">
@@ -137,13 +148,13 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
       </Card>
 
       {asTeacher ? (
-        <Card title="Takes handed in">
+        <Card title="Takes sent">
           <KeyProgressTable keys={exercise.keys} rows={students} />
         </Card>
       ) : (
         <>
         <Card title="Your takes">
-          <KeyProgressTable keys={exercise.keys} rows={[{ id: "me", name: "You", progress: mine ?? [], done: isDoneClient(mine) }]} />
+          <KeyProgressTable keys={exercise.keys} rows={[{ id: "me", name: "You", progress: mine ?? [], done: state?.kind === "done" }]} />
           {!exercise.archived ? (
             <div className="mt-4 flex flex-wrap gap-2">
               {exercise.keys.map((k) => (
@@ -171,6 +182,3 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
   );
 }
 
-function isDoneClient(progress: Array<{ takes: Array<{ status: string }> }> | null) {
-  return !!progress && progress.every((p) => p.takes.some((t) => t.status === "analysed"));
-}

@@ -7,7 +7,7 @@ import { EmptyState } from "~/components/EmptyState";
 import { StudentExerciseCard } from "~/components/exercises/StudentExerciseCard";
 import { PageHeader } from "~/components/PageHeader";
 import { pretty } from "~/lib/noteText";
-import { isDone, listExercisesForStudent, listExercisesForTeacher, progressByKey, takesOfExercise } from "~/models/exercises.server";
+import { listExercisesForTeacher, studentExercises } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Exercises · Nearnote" }];
 
@@ -16,14 +16,11 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const active = user.active;
   if (!active) return { role: "none" as const, teacher: null, student: null };
   if (isTeacherRole(active.role)) return { role: "teacher" as const, teacher: listExercisesForTeacher(active.studioId), student: null };
-  const set = listExercisesForStudent(user.id, active.studioId).map((e) => {
-    const progress = progressByKey(e.keys, takesOfExercise(e.id, user.id));
-    return { ...e, progress, done: isDone(progress) };
-  });
+  const set = studentExercises(user.id, active.studioId).exercises;
   return {
     role: "student" as const,
     teacher: null,
-    student: { due: set.filter((e) => !e.done), done: set.filter((e) => e.done) },
+    student: { due: set.filter((e) => e.state.kind !== "done"), done: set.filter((e) => e.state.kind === "done") },
   };
 }
 
@@ -33,7 +30,7 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
     <div className="flex flex-col gap-6">
       <PageHeader
         title="Exercises"
-        lead={teacher ? "What you have set, who it is for and how many have handed something in." : "What your teacher has set, key by key."}
+        lead={teacher ? "What you have set, who it is for and how many have sent a take." : "What your teacher has set, key by key."}
         actions={teacher ? <ButtonLink to="/exercises/new">New exercise</ButtonLink> : null}
       />
       {teacher ? (
@@ -49,7 +46,7 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
                   <th scope="col" className="py-2 pr-4">Exercise</th>
                   <th scope="col" className="py-2 pr-4">Keys</th>
                   <th scope="col" className="py-2 pr-4">Due</th>
-                  <th scope="col" className="py-2 pr-4">Handed in</th>
+                  <th scope="col" className="py-2 pr-4">Takes sent</th>
                   <th scope="col" className="py-2">State</th>
                 </tr>
               </thead>

@@ -8,7 +8,7 @@ import { PageHeader } from "~/components/PageHeader";
 import { reviewQueueCount, unreadFeedback } from "~/models/feedback.server";
 import { studioTimeZone } from "~/models/progress.server";
 import { todayIn } from "~/models/progressQuery.server";
-import { listExercisesForStudent } from "~/models/exercises.server";
+import { studentExercises } from "~/models/exercises.server";
 import { teacherWeek } from "~/models/teacherHome.server";
 import { listTakesForStudent, weeklyFiguresForStudent } from "~/models/takes.server";
 
@@ -20,7 +20,8 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const student =
     active?.role === "student"
       ? {
-          exercises: listExercisesForStudent(user.id, active.studioId),
+          // Ordered and marked done, overdue or due as on the list of exercises.
+          exercises: studentExercises(user.id, active.studioId).exercises,
           takes: listTakesForStudent(user.id, { studioId: active.studioId, limit: 50 }),
           weeks: weeklyFiguresForStudent(user.id, active.studioId),
           // The studio's today (YYYY-MM-DD), so "due today" means the same day for everyone in it.

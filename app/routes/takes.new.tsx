@@ -9,9 +9,11 @@ import { PracticeCare } from "~/components/PracticeCare";
 import { RecordPanel } from "~/components/record/RecordPanel";
 import { ExerciseKeyFields } from "~/components/take/ExerciseKeyFields";
 import { UploadRows } from "~/components/take/UploadRows";
+import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
+import { FileExerciseSelect } from "~/components/upload/FileExerciseSelect";
 import { uploadTakesFromForm } from "~/lib/takeUpload.server";
 import { MAX_FILES } from "~/lib/uploadLimits";
-import { isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
+import { fieldsForChoice, isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
 import { sendTake } from "~/lib/uploadTake.client";
 import { listExercisesForStudent } from "~/models/exercises.server";
 
@@ -48,6 +50,8 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
   const [rows, setRows] = useState<UploadRow[]>([]);
   const [dragging, setDragging] = useState(false);
   const [hydrated, setHydrated] = useState(false);
+  // The exercise chosen above for every file, so each file's own choice can say what "as above" is.
+  const [formExerciseId, setFormExerciseId] = useState(loaderData.exerciseId);
   useEffect(() => setHydrated(true), []);
   const sending = rows.some((r) => r.stage === "uploading" || r.stage === "analysing");
   const ready = rows.filter((r) => r.stage === "ready").length;
@@ -75,13 +79,14 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
       key: String(data.get("key") ?? ""),
       note: String(data.get("note") ?? ""),
     };
-    const queue = rows.filter((r) => r.stage === "ready").map((r) => r.key);
+    const queue = rows.filter((r) => r.stage === "ready");
     const worker = async () => {
-      for (let key = queue.shift(); key; key = queue.shift()) {
+      for (let row = queue.shift(); row; row = queue.shift()) {
+        const key = row.key;
         const file = files.current.get(key);
         if (!file) continue;
         update(key, (r) => ({ ...r, stage: "uploading", progress: 0 }));
-        const answer = await sendTake(file, fields, {
+        const answer = await sendTake(file, fieldsForChoice(fields, row.choice), {
           progress: (share) => update(key, (r) => (r.stage === "uploading" ? { ...r, progress: share } : r)),
           uploaded: () => update(key, (r) => ({ ...r, stage: "analysing", progress: 1 })),
         });
@@ -105,7 +110,17 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
         title="Upload takes"
         lead="Send the MIDI files of today's practice. Each one is read chord change by chord change, usually in a second or two."
       />
-      <form ref={form} method="post" encType="multipart/form-data" onSubmit={sendAll} className="flex flex-col gap-6">
+      <form
+        ref={form}
+        method="post"
+        encType="multipart/form-data"
+        onSubmit={sendAll}
+        onChange={(e) => {
+          const field = e.target as unknown as HTMLSelectElement;
+          if (field.name === "exerciseId") setFormExerciseId(field.value);
+        }}
+        className="flex flex-col gap-6"
+      >
         <Card title="What these takes are for">
           <div className="flex flex-col gap-4">
             <ExerciseKeyFields exercises={loaderData.exercises} defaultExerciseId={loaderData.exerciseId} defaultKey={loaderData.key} />
@@ -171,7 +186,24 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
               />
             </label>
             <div className="mt-4 flex flex-col gap-4">
-              <UploadRows rows={shown} onRemove={(key) => setRows((all) => all.filter((r) => r.key !== key))} />
+              <UploadRows
+                rows={shown}
+                onRemove={(key) => setRows((all) => all.filter((r) => r.key !== key))}
+                extras={(row) =>
+                  row.stage === "ready" && loaderData.exercises.length > 0 ? (
+                    <FileExerciseSelect
+                      id={`${inputId}-${row.key}-exercise`}
+                      fileName={row.fileName}
+                      exercises={loaderData.exercises}
+                      fallbackTitle={loaderData.exercises.find((e) => e.id === formExerciseId)?.title ?? "free practice"}
+                      value={row.choice}
+                      onChange={(choice) => update(row.key, (r) => ({ ...r, choice }))}
+                    />
+                  ) : row.fit && row.takeId ? (
+                    <ExerciseFitNotice takeId={row.takeId} notice={row.fit} canMove busy={sending} />
+                  ) : null
+                }
+              />
               <div className="flex flex-wrap items-center gap-3">
                 <Button pending={sending || navigation.state === "submitting"} pendingLabel="Uploading…" disabled={hydrated && ready === 0}>
                   {ready > 1 ? `Upload ${ready} takes` : "Upload"}
@@ -188,6 +220,8 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
           <RecordPanel tempo={loaderData.exercises.find((e) => e.id === loaderData.exerciseId)?.tempo} />
         </div>
       </form>
+      {/* The forms that move a take to its likely exercise sit outside the upload form (no nesting). */}
+      {shown.map((row) => (row.fit && row.takeId ? <MoveToLikelyForm key={row.key} takeId={row.takeId} notice={row.fit} /> : null))}
       <PracticeCare />
     </div>
   );
