@@ -10,7 +10,7 @@ import { repliesSince, reviewQueueCount } from "./feedback.server";
 
 // The mail Nearnote sends on its own: a notice when a teacher comments on a student's take,
 // the teacher's daily digest of new takes and replies, and a reminder the day before an
-// exercise is due when nothing has been handed in. Each goes through `sendOnce`.
+// exercise is due when no take has been sent. Each goes through `sendOnce`.
 
 /** Digests go out from this local hour on, so a teacher reads the day's takes in one mail. */
 export const DIGEST_HOUR = 18;
@@ -155,10 +155,10 @@ export async function runDueReminders(now = new Date()): Promise<number> {
           text: [
             `Hello ${s.name.split(" ")[0]},`,
             "",
-            `"${exercise.title}" is due tomorrow (${exercise.dueDate}) and no take has been handed in yet.`,
+            `"${exercise.title}" is due tomorrow (${exercise.dueDate}) and no take has been sent yet.`,
             `Keys: ${exercise.keys.map(pretty).join(", ")}. Progression: ${exercise.progression}.`,
             "",
-            "Open the exercise to hand in a take:",
+            "Open the exercise to send a take:",
             link(`/exercises/${exercise.id}`),
             "",
             "Short sessions with breaks are better for your hands than one long one.",

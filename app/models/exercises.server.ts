@@ -11,7 +11,7 @@ import { studioStudents, studioTimeZone } from "./progress.server";
 import { todayIn } from "./progressQuery.server";
 
 // Exercises as the teacher sets them: validation of the form, saving, archiving, and what
-// each side sees (the teacher every exercise with hand-in figures, a student theirs by key).
+// each side sees (the teacher every exercise with figures of the takes sent, a student theirs by key).
 
 export const exerciseFormSchema = z.object({
   title: z.string().trim().min(1, "Give the exercise a title.").max(120, "Keep the title under 120 characters."),
@@ -132,7 +132,7 @@ export type ExerciseTakeRow = {
   accuracy: number | null;
 };
 
-/** Takes handed in for one exercise, newest first; only one student's when `studentId` is given. */
+/** Takes sent for one exercise, newest first; only one student's when `studentId` is given. */
 export function takesOfExercise(exerciseId: string, studentId?: string): ExerciseTakeRow[] {
   return db()
     .select({
@@ -156,7 +156,7 @@ export function takesOfExercise(exerciseId: string, studentId?: string): Exercis
 
 export type KeyProgress = { key: string; takes: ExerciseTakeRow[]; best: number | null; bestAccuracy: number | null };
 
-/** Per key: the takes and the best score so far. A key with an analysed take counts as handed in. */
+/** Per key: the takes and the best score so far. A key with an analysed take counts as sent. */
 export function progressByKey(keys: readonly string[], rows: readonly ExerciseTakeRow[]): KeyProgress[] {
   return keys.map((key) => {
     const mine = rows.filter((r) => r.key === key);
@@ -193,7 +193,7 @@ export function studentExerciseState(exercise: Pick<Exercise, "id" | "keys" | "d
   return exerciseState(exercise, progress, todayIn(studioTimeZone(exercise.studioId)), pretty);
 }
 
-/** Every exercise of the studio for its teachers, archived ones last, with hand-in counts. */
+/** Every exercise of the studio for its teachers, archived ones last, with counts of students who sent a take. */
 export function listExercisesForTeacher(studioId: string) {
   const rows = db().select().from(exercises).where(eq(exercises.studioId, studioId)).orderBy(exercises.dueDate).all();
   const ids = rows.map((r) => r.id);

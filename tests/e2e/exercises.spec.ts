@@ -34,7 +34,7 @@ function blockChordTake(): Buffer {
   return Buffer.from(writeMidi(data));
 }
 
-test("the teacher sets an exercise, the student hands in a take, the teacher comments on a flagged change, the student reads it there", async ({ browser, consoleErrors }) => {
+test("the teacher sets an exercise, the student sends a take, the teacher comments on a flagged change, the student reads it there", async ({ browser, consoleErrors }) => {
   // Two people, two sign-ins and an upload on a shared two-core machine: more than the default minute.
   test.setTimeout(180_000);
   const title = `Block chords in D ${Date.now() % 100000}`;
@@ -60,7 +60,7 @@ test("the teacher sets an exercise, the student hands in a take, the teacher com
   await expect(teacher.getByTestId("model-path").locator("li")).toHaveCount(4);
   const exerciseUrl = teacher.url();
 
-  // The student finds it, hands in a take for it in D.
+  // The student finds it and sends a take for it in D.
   const studentContext = await browser.newContext();
   const student = await studentContext.newPage();
   watch(student, consoleErrors);

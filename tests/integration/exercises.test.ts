@@ -112,7 +112,7 @@ describe("setting exercises", () => {
 });
 
 describe("assigned to chosen students", () => {
-  it("only those students see it, list and page alike, and only they can hand in takes for it", async () => {
+  it("only those students see it, list and page alike, and only they can send takes for it", async () => {
     const id = await createExercise({ assignedTo: "students" }, [["students", ids.dara]]);
     expect(db().select().from(exerciseAssignees).all()).toEqual([{ exerciseId: id, userId: ids.dara }]);
     const listOf = async (jar: CookieJar) => ((await call(exercisesList.loader, get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }).student.due.map((e) => e.id);
@@ -168,7 +168,7 @@ describe("grading takes against the exercise", () => {
     ]);
   });
 
-  it("grades the sample take samples/sunday-ballad-ab.mid (Fm Db Ab Eb Fm Db, open voicings) handed in for the A♭ exercise", async () => {
+  it("grades the sample take samples/sunday-ballad-ab.mid (Fm Db Ab Eb Fm Db, open voicings) sent for the A♭ exercise", async () => {
     const id = await createExercise({ keys: "Ab", progression: "vi IV I V" }, [["focusTechniques", "open-voicing"]]);
     const bytes = new Uint8Array(readFileSync(path.resolve("samples", "sunday-ballad-ab.mid")));
     const body = await uploadAnalysed(dara, bytes, { exerciseId: id, key: "Ab" });
@@ -225,7 +225,7 @@ describe("grading takes against the exercise", () => {
 });
 
 describe("editing the target and the model answer", () => {
-  it("grades the takes handed in again when the progression changes", async () => {
+  it("grades the takes sent again when the progression changes", async () => {
     const id = await createExercise({});
     const body = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     expect(body.analysis.summary.accuracy).toBe(0.75);

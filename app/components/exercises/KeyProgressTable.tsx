@@ -4,7 +4,7 @@ import { pretty } from "~/lib/noteText";
 type TakeCell = { id: string; status: string; score: number | null };
 type Row = { id: string; name: string; done: boolean; progress: Array<{ key: string; takes: TakeCell[]; best: number | null }> };
 
-/** One row per student (or just "You"), one column per key: takes handed in and the best score so far. */
+/** One row per student (or just "You"), one column per key: takes sent and the best score so far. */
 export function KeyProgressTable({ keys, rows }: { keys: string[]; rows: Row[] }) {
   if (rows.length === 0) return <p className="text-sm text-ink-soft">No students are set this exercise.</p>;
   return (
