@@ -114,6 +114,7 @@ for (const size of SIZES) {
     expect(await axeSerious(page)).toEqual([]);
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: `test-results/screens/take-${size.name}.png`, fullPage: true });
+    await page.screenshot({ path: `test-results/screens/take-${size.name}-top.png` });
     // The piano's author and licence are credited where the app lists what it is built with.
     if (size.name === "desktop") {
       await page.goto("/privacy");
