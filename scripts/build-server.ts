@@ -1,8 +1,9 @@
 // Second half of `npm run build`, after `react-router build`: bundles the Node
 // entry points (start, serve, the analysis worker) to plain JavaScript beside the
 // server build, so the production server never transpiles TypeScript at run time,
-// then prints the JavaScript each page loads against its budget.
+// then prints the JavaScript each page loads against its budget (and keeps it in BUNDLES.md).
 import { build } from "esbuild";
+import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { bundleRows, builtGzipSize, formatBundleReport, readBuiltManifest } from "./lib/bundleReport";
 
@@ -30,4 +31,19 @@ await build({
 console.log(`Node entry points bundled: ${path.relative(process.cwd(), path.join(buildDir, "server"))}/{start,serve,analysis-worker}.js`);
 
 const clientDir = path.join(buildDir, "client");
-console.log(formatBundleReport(bundleRows(readBuiltManifest(clientDir), builtGzipSize(clientDir))));
+const report = formatBundleReport(bundleRows(readBuiltManifest(clientDir), builtGzipSize(clientDir)));
+console.log(report);
+
+// The same table in BUNDLES.md (committed), so a change that grows a page shows in its diff.
+const file = "BUNDLES.md";
+const text = [
+  "# JavaScript per page",
+  "",
+  "Written by `npm run build` (scripts/build-server.ts); sizes are gzipped, in kB of 1000 bytes.",
+  "",
+  "```",
+  report,
+  "```",
+  "",
+].join("\n");
+if (!existsSync(file) || readFileSync(file, "utf8") !== text) writeFileSync(file, text);
