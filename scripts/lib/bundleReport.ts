@@ -1,7 +1,8 @@
 // The JavaScript each page needs before it responds, from React Router's browser
 // manifest (build/client/assets/manifest-*.js): the client entry and its imports,
 // then every route from the root down to the page, each module with its static
-// imports, plus the manifest file itself, which the page's HTML also links.
+// imports; these are the files the page's HTML preloads and imports. (With lazy
+// route discovery the page's own part of the manifest is inline in the HTML.)
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { gzipSync } from "node:zlib";
@@ -65,7 +66,6 @@ export function pageScripts(manifest: BrowserManifest, id: string): string[] {
     files.add(r.module);
     for (const f of r.imports ?? []) files.add(f);
   }
-  if (manifest.url) files.add(manifest.url);
   return [...files];
 }
 
@@ -96,7 +96,7 @@ const kb = (bytes: number) => `${(bytes / KB).toFixed(1)} kB`;
 /** The report as printed after `npm run build`; lines that break a budget say so. */
 export function formatBundleReport(rows: PageRow[]): string {
   const width = Math.max(...rows.map((r) => r.url.length), 4);
-  const lines = ["JavaScript per page before it responds (gzipped; entry, route modules, their imports, the manifest):"];
+  const lines = ["JavaScript per page before it responds (gzipped; client entry, route modules and their imports):"];
   for (const r of rows) {
     const budget = r.budget
       ? `  ${r.budget.label} budget ${kb(r.budget.bytes)}: ${r.gzipBytes <= r.budget.bytes ? "within" : "OVER"}`
