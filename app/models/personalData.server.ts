@@ -7,6 +7,7 @@ import {
   memberships,
   practiceReminders,
   progressReports,
+  studioVisits,
   sentMails,
   sessions,
   studios,
@@ -142,6 +143,13 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
             .select({ kind: sentMails.kind, sentAt: sentMails.sentAt })
             .from(sentMails)
             .where(eq(sentMails.userId, userId))
+            .all(),
+          // When a teacher last opened home in each studio ("new since your last visit"); cascades with the user row.
+          homeVisits: db()
+            .select({ studio: studios.name, lastVisitAt: studioVisits.lastVisitAt, sinceAt: studioVisits.sinceAt })
+            .from(studioVisits)
+            .innerJoin(studios, eq(studios.id, studioVisits.studioId))
+            .where(eq(studioVisits.userId, userId))
             .all(),
           sessions: db()
             .select({ createdAt: sessions.createdAt, expiresAt: sessions.expiresAt })

@@ -48,6 +48,8 @@ for (const size of SIZES) {
   test(`teacher pages at ${size.width}×${size.height}: no sideways scroll, no serious axe finding`, async ({
     page,
   }) => {
+    // Four pages, each with axe and two screenshots, on a shared two-core machine.
+    test.setTimeout(180_000);
     await page.setViewportSize({ width: size.width, height: size.height });
     await signIn(page, "ines@tidewater.example");
     for (const p of PAGES) {

@@ -6,7 +6,9 @@ import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { createUserSession } from "~/auth/session.server";
 import { db } from "~/db/client.server";
-import { exercises, invitations, studios, takeReviews, takes, users } from "~/db/schema";
+import { exercises, invitations, studios, studioVisits, takeReviews, takes, users } from "~/db/schema";
+import { strFromU8, unzipSync } from "fflate";
+import { buildPersonalExport, deletePersonData } from "~/models/personalData.server";
 import { teacherWeek, SITTING_MS } from "~/models/teacherHome.server";
 import { listeningPage, markHeard, readListeningQuery } from "~/models/listening.server";
 import * as homeRoute from "~/routes/home";
@@ -175,6 +177,19 @@ describe("teacher home", () => {
     const d = page.data as { teacher: { week: { firstRun: unknown; notPractised: unknown[] } } };
     expect(d.teacher.week.firstRun).toBeNull();
     expect(d.teacher.week.notPractised).toEqual([]);
+  });
+});
+
+describe("home visits as personal data", () => {
+  it("are in the teacher's data download and go with the account", async () => {
+    teacherWeek(s.studio, { id: s.teacher, emailVerified: true }, NOW);
+    const files = unzipSync(await buildPersonalExport(s.teacher));
+    const doc = JSON.parse(strFromU8(files["nearnote-data.json"])) as {
+      homeVisits: { studio: string; lastVisitAt: string }[];
+    };
+    expect(doc.homeVisits).toEqual([{ studio: "Tidewater Keys", lastVisitAt: NOW.toISOString(), sinceAt: null }]);
+    await deletePersonData(s.teacher);
+    expect(db().select().from(studioVisits).all()).toEqual([]);
   });
 });
 
