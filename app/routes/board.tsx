@@ -10,7 +10,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { ButtonLink } from "~/components/Button";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
+import { parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { shiftWeek, weekEnd, weekLabel } from "~/lib/progressFigures";
 import { weekStart } from "~/lib/weeks";
 import { boardRows, chartData, pickStudents } from "~/models/board.server";
@@ -71,8 +71,8 @@ const actionSchema = z.object({ intent: z.literal("remind") });
 
 export async function action({ request, context }: Route.ActionArgs) {
   const teacher = await requireTeacher({ request, context });
-  const parsed = actionSchema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return data({ error: "Unknown action." }, { status: 400 });
+  const parsed = parseForm(actionSchema, await request.formData());
+  if (!parsed.ok) return parsed.response;
   const { sent, alreadyReminded } = await sendPracticeReminders(
     { id: teacher.active.studioId, name: teacher.active.studioName },
     { id: teacher.id, name: teacher.name },
@@ -83,9 +83,7 @@ export async function action({ request, context }: Route.ActionArgs) {
       ? "Everyone without a take this week has already had a reminder."
       : "Everyone has recorded a take this week: no reminder needed.";
   const back = new URL(request.url);
-  return redirect(`/board${back.search}`, {
-    headers: { "Set-Cookie": await flashHeader(request, { tone: sent.length ? "success" : "info", message }) },
-  });
+  return redirectWithFlash(`/board${back.search}`, message, request, { tone: sent.length ? "success" : "info" });
 }
 
 export default function Board({ loaderData }: Route.ComponentProps) {

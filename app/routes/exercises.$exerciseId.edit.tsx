@@ -1,10 +1,9 @@
-import { data, redirect } from "react-router";
 import type { Route } from "./+types/exercises.$exerciseId.edit";
 import { requireExerciseEdit } from "~/auth/access.server";
 import { Card } from "~/components/Card";
-import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
+import { ExerciseForm } from "~/components/exercises/ExerciseForm";
+import { formFailure, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
 import { assigneeIds, exerciseFields, readExerciseForm, takesOfExercise, updateExercise } from "~/models/exercises.server";
 import { studioStudents } from "~/models/progress.server";
 import { reanalyseTake } from "~/models/takes.server";
@@ -22,21 +21,16 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
   const students = studioStudents(exercise.studioId).map((s) => s.id);
-  const read = readExerciseForm(await request.formData(), students);
-  if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
+  const form = await request.formData();
+  const read = readExerciseForm(form, students);
+  if (!read.ok) return formFailure({ form, fieldErrors: read.errors });
   updateExercise(exercise.id, read.input);
   // A new target changes what the takes handed in are graded against: grade them again.
   const targetChanged = read.input.progression !== exercise.progression || read.input.keys.join(" ") !== exercise.keys.join(" ");
   const regraded = targetChanged ? takesOfExercise(exercise.id) : [];
   for (const t of regraded) await reanalyseTake(t.id);
-  return redirect(`/exercises/${exercise.id}`, {
-    headers: {
-      "Set-Cookie": await flashHeader(request, {
-        tone: "success",
-        message: regraded.length ? `Exercise saved; ${regraded.length} take${regraded.length === 1 ? "" : "s"} graded against the new target.` : "Exercise saved.",
-      }),
-    },
-  });
+  const message = regraded.length ? `Exercise saved; ${regraded.length} take${regraded.length === 1 ? "" : "s"} graded against the new target.` : "Exercise saved.";
+  return redirectWithFlash(`/exercises/${exercise.id}`, message, request);
 }
 
 export default function EditExercise({ loaderData, actionData }: Route.ComponentProps) {
@@ -44,7 +38,7 @@ export default function EditExercise({ loaderData, actionData }: Route.Component
     <div className="flex flex-col gap-6">
       <PageHeader title={`Edit “${loaderData.exercise.title}”`} />
       <Card>
-        <ExerciseForm values={loaderData.exercise} errors={actionData?.errors ?? {}} students={loaderData.students} submitLabel="Save exercise" />
+        <ExerciseForm values={loaderData.exercise} errors={actionData?.fieldErrors ?? {}} students={loaderData.students} submitLabel="Save exercise" />
       </Card>
     </div>
   );

@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation, useRevalidator } from "react-router";
+import { data, Form, Link, useNavigation, useRevalidator } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/exercises.$exerciseId";
 import { requireExerciseAccess, requireExerciseEdit } from "~/auth/access.server";
@@ -13,7 +13,8 @@ import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
 import { RecordPanel } from "~/components/record/RecordPanel";
 import { checkProgression, targetChordsInKey } from "~/lib/exerciseProgression";
-import { flashHeader } from "~/lib/flash.server";
+import { failureMessage } from "~/forms/failure";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { fitsFirstChord } from "~/lib/modelAnswer";
 import { pretty } from "~/lib/noteText";
 import {
@@ -60,40 +61,45 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   };
 }
 
-const startSchema = z.object({ notes: z.string().regex(/^\d{1,3}(,\d{1,3}){1,7}$/, "Pick two to eight keys.") });
+const actionSchema = z.discriminatedUnion("intent", [
+  z.object({ intent: z.enum(["archive", "unarchive", "remove-model-take"]) }),
+  z.object({
+    intent: z.literal("model-start"),
+    notes: z.string({ error: "Pick two to eight keys." }).regex(/^\d{1,3}(,\d{1,3}){1,7}$/, "Pick two to eight keys."),
+  }),
+]);
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
-  const done = async (message: string) =>
-    redirect(`/exercises/${exercise.id}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  const done = (message: string) => redirectWithFlash(`/exercises/${exercise.id}`, message, request);
   // The model take arrives as multipart; the parser reads the body, so its intent is in the URL.
   if (new URL(request.url).searchParams.get("intent") === "model-take") {
     const error = await storeModelTake(request, exercise);
-    if (error) return data({ error }, { status: 400 });
+    if (error) return formFailure({ formError: error });
     return done("Model take attached.");
   }
   const form = await request.formData();
-  const intent = String(form.get("intent") ?? "");
-  if (intent === "archive" || intent === "unarchive") {
-    setArchived(exercise.id, intent === "archive");
-    return done(intent === "archive" ? "Exercise archived: students no longer see it as due." : "Exercise brought back.");
-  }
-  if (intent === "remove-model-take") {
-    await removeModelTake(exercise);
-    return done("Model take removed.");
-  }
-  if (intent === "model-start") {
-    const parsed = startSchema.safeParse({ notes: form.get("notes") });
-    if (!parsed.success) return data({ error: parsed.error.issues[0].message }, { status: 400 });
-    const notes = parsed.data.notes.split(",").map(Number).sort((a, b) => a - b);
-    const first = targetChordsInKey(exercise.progression, exercise.keys, exercise.keys[0])[0];
-    if (notes.some((n) => n < 21 || n > 108) || !fitsFirstChord(notes, first)) {
-      return data({ error: `The starting voicing must use exactly the tones of ${pretty(first.symbol)}.` }, { status: 400 });
+  const parsed = parseForm(actionSchema, form);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.data;
+  switch (input.intent) {
+    case "archive":
+    case "unarchive":
+      setArchived(exercise.id, input.intent === "archive");
+      return done(input.intent === "archive" ? "Exercise archived: students no longer see it as due." : "Exercise brought back.");
+    case "remove-model-take":
+      await removeModelTake(exercise);
+      return done("Model take removed.");
+    case "model-start": {
+      const notes = input.notes.split(",").map(Number).sort((a, b) => a - b);
+      const first = targetChordsInKey(exercise.progression, exercise.keys, exercise.keys[0])[0];
+      if (notes.some((n) => n < 21 || n > 108) || !fitsFirstChord(notes, first)) {
+        return formFailure({ form, fieldErrors: { notes: `The starting voicing must use exactly the tones of ${pretty(first.symbol)}.` } });
+      }
+      db().update(exercises).set({ modelStart: notes }).where(eq(exercises.id, exercise.id)).run();
+      return done("Starting voicing saved; the model answer follows from it.");
     }
-    db().update(exercises).set({ modelStart: notes }).where(eq(exercises.id, exercise.id)).run();
-    return done("Starting voicing saved; the model answer follows from it.");
   }
-  return data({ error: "Nothing to do." }, { status: 400 });
 }
 
 export default function ExercisePage({ loaderData, actionData }: Route.ComponentProps) {
@@ -123,7 +129,7 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
           <span>{state.detail}</span>
         </p>
       ) : null}
-      {actionData && "error" in actionData ? <FlashMessage tone="error">{actionData.error}</FlashMessage> : null}
+      {failureMessage(actionData) ? <FlashMessage tone="error">{failureMessage(actionData)}</FlashMessage> : null}
       <ExerciseFacts exercise={exercise} expanded={expanded} />
 
       <Card title="Model answer">

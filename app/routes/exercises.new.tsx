@@ -1,10 +1,9 @@
-import { data, redirect } from "react-router";
 import type { Route } from "./+types/exercises.new";
 import { requireTeacher } from "~/auth/access.server";
 import { Card } from "~/components/Card";
-import { ExerciseForm, type ExerciseFormErrors } from "~/components/exercises/ExerciseForm";
+import { ExerciseForm } from "~/components/exercises/ExerciseForm";
+import { formFailure, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
 import { createExercise, readExerciseForm } from "~/models/exercises.server";
 import { studioStudents } from "~/models/progress.server";
 
@@ -18,12 +17,11 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireTeacher({ request, context });
   const students = studioStudents(user.active.studioId).map((s) => s.id);
-  const read = readExerciseForm(await request.formData(), students);
-  if (!read.ok) return data({ errors: read.errors as ExerciseFormErrors }, { status: 400 });
+  const form = await request.formData();
+  const read = readExerciseForm(form, students);
+  if (!read.ok) return formFailure({ form, fieldErrors: read.errors });
   const id = createExercise(user.active.studioId, user.id, read.input);
-  return redirect(`/exercises/${id}`, {
-    headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message: `Exercise "${read.input.title}" is set.` }) },
-  });
+  return redirectWithFlash(`/exercises/${id}`, `Exercise "${read.input.title}" is set.`, request);
 }
 
 export default function NewExercise({ loaderData, actionData }: Route.ComponentProps) {
@@ -33,7 +31,7 @@ export default function NewExercise({ loaderData, actionData }: Route.ComponentP
       <Card>
         <ExerciseForm
           values={{ title: "", keys: [], progression: "", focusTechniques: [], tempo: null, dueDate: null, instructions: "", assignedTo: "studio", students: [] }}
-          errors={actionData?.errors ?? {}}
+          errors={actionData?.fieldErrors ?? {}}
           students={loaderData.students}
           submitLabel="Set exercise"
         />

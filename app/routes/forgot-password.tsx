@@ -1,7 +1,7 @@
 import { Form, Link, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
-import { parseForm } from "~/auth/validate.server";
+import { parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -49,8 +49,8 @@ export default function ForgotPassword() {
               type="email"
               autoComplete="email"
               required
-              defaultValue={failed?.values.email ?? ""}
-              error={failed?.errors.email}
+              defaultValue={failed?.values?.email ?? ""}
+              error={failed?.fieldErrors?.email}
             />
             <Button pending={navigation.state === "submitting"} pendingLabel="Sending…">
               Send the link

@@ -4,7 +4,7 @@ import type { Route } from "./+types/invite.$token";
 import { passwordSchema, verifyPassword } from "~/auth/password.server";
 import { currentUser } from "~/auth/access.server";
 import { createUserSession } from "~/auth/session.server";
-import { formFailure, parseForm } from "~/auth/validate.server";
+import { formFailure, parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -46,11 +46,11 @@ const joinSchema = z.object({ intent: z.literal("join"), password: z.string().ma
 export async function action({ request, params, context }: Route.ActionArgs) {
   const form = await request.formData();
   const found = findInvitationByToken(params.token);
-  if (!found.ok) return formFailure(form, {}, REASONS[found.reason], undefined, 410);
+  if (!found.ok) return formFailure({ form, formError: REASONS[found.reason], status: 410 });
   const { invitation } = found;
   const current = await currentUser({ request, context });
   if (current && current.email !== invitation.email) {
-    return formFailure(form, {}, `This invitation is for ${invitation.email}. Sign out of ${current.email} first.`, undefined, 403);
+    return formFailure({ form, formError: `This invitation is for ${invitation.email}. Sign out of ${current.email} first.`, status: 403 });
   }
   const existing = findUserByEmail(invitation.email);
   let userId: string | null;
@@ -59,7 +59,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     if (!parsed.ok) return parsed.response;
     // Signed in as the invited person already: no password needed.
     if (!current && !(parsed.data.password && (await verifyPassword(parsed.data.password, existing.passwordHash)))) {
-      return formFailure(form, { password: ["That is not the password of this account"] });
+      return formFailure({ form, fieldErrors: { password: "That is not the password of this account" } });
     }
     userId = await acceptInvitation(invitation, { existingUserId: existing.id });
   } else {
@@ -67,7 +67,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     if (!parsed.ok) return parsed.response;
     userId = await acceptInvitation(invitation, { newAccount: parsed.data });
   }
-  if (!userId) return formFailure(form, {}, REASONS.used, undefined, 410);
+  if (!userId) return formFailure({ form, formError: REASONS.used, status: 410 });
   const flash = await flashHeader(request, { tone: "success", message: `Welcome to ${found.studioName}.` });
   return createUserSession(userId, "/home", { "Set-Cookie": flash }, invitation.studioId);
 }
@@ -87,7 +87,7 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
       </div>
     );
   }
-  const errors = actionData?.errors ?? {};
+  const errors = actionData?.fieldErrors ?? {};
   const values = actionData?.values ?? {};
   const pending = navigation.state === "submitting";
   const joinAs = loaderData.role === "teacher" ? "a co-teacher" : "a student";

@@ -1,10 +1,10 @@
-import { data, Form, Link, useActionData, useNavigation, useSearchParams } from "react-router";
+import { Form, Link, useActionData, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/login";
 import { requireAnonymous } from "~/auth/access.server";
 import { authenticator, InvalidCredentialsError, loginSchema } from "~/auth/authenticator.server";
 import { createUserSession, safeRedirect } from "~/auth/session.server";
 import { claimSignInAttempt, clearSignInFailures, clientAddress, forgetSignInAttempt, retryMessage } from "~/auth/throttle.server";
-import { formFailure, parseForm, type FieldErrors } from "~/auth/validate.server";
+import { formFailure, parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -31,10 +31,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   const throttle = claimSignInAttempt(email, address);
   if (throttle.blocked) {
     const seconds = Math.max(1, Math.ceil((throttle.retryAt.getTime() - Date.now()) / 1000));
-    return data(
-      { ok: false as const, errors: {} as FieldErrors, formError: retryMessage(throttle.retryAt), values: { email } as Record<string, string> },
-      { status: 429, headers: { "Retry-After": String(seconds) } },
-    );
+    return formFailure({ form, formError: retryMessage(throttle.retryAt), status: 429, headers: { "Retry-After": String(seconds) } });
   }
 
   try {
@@ -46,7 +43,7 @@ export async function action({ request, context }: Route.ActionArgs) {
       forgetSignInAttempt(throttle.attemptId);
       throw error;
     }
-    return formFailure(form, {}, error.message, undefined, 401);
+    return formFailure({ form, formError: error.message, status: 401 });
   }
 }
 
@@ -54,14 +51,15 @@ export default function Login() {
   const actionData = useActionData<typeof action>();
   const navigation = useNavigation();
   const [params] = useSearchParams();
-  const errors: FieldErrors = actionData?.errors ?? {};
-  const values: Record<string, string> = actionData?.values ?? {};
+  const failure = actionData;
+  const errors = failure?.fieldErrors ?? {};
+  const values = failure?.values ?? {};
   return (
     <div className="mx-auto flex max-w-md flex-col gap-6">
       <h1 className="text-2xl font-semibold tracking-tight">Sign in</h1>
       <Card>
         <Form method="post" className="flex flex-col gap-4" noValidate>
-          {actionData?.formError ? <FlashMessage tone="error">{actionData.formError}</FlashMessage> : null}
+          {failure?.formError ? <FlashMessage tone="error">{failure.formError}</FlashMessage> : null}
           <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? "/home"} />
           <Field label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={values.email ?? ""} error={errors.email} />
           <Field label="Password" name="password" type="password" autoComplete="current-password" required error={errors.password} />

@@ -10,7 +10,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import "~/components/board/report.css";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
-import { flashHeader } from "~/lib/flash.server";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { studioTimeZone } from "~/models/progress.server";
 import { isoDate, parseProgressQuery } from "~/models/progressQuery.server";
 import { getProgressReport, listProgressReports, saveProgressReport } from "~/models/progressReports.server";
@@ -56,16 +56,13 @@ const saveSchema = z.object({
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { user } = await requireStudentOfTeacher({ request, context }, params.studentId);
-  const parsed = saveSchema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) {
-    return data({ errors: z.flattenError(parsed.error).fieldErrors }, { status: 400 });
-  }
+  const form = await request.formData();
+  const parsed = parseForm(saveSchema, form);
+  if (!parsed.ok) return parsed.response;
   const { from, to, summary } = parsed.data;
-  if (from > to) return data({ errors: { to: ["The period must end after it starts"] } }, { status: 400 });
+  if (from > to) return formFailure({ form, fieldErrors: { to: "The period must end after it starts" } });
   const report = saveProgressReport({ studioId: user.active.studioId, studentId: params.studentId, fromDate: from, toDate: to, summary, createdById: user.id });
-  return redirect(`/reports/${params.studentId}?report=${report.id}`, {
-    headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message: "Report saved. Print it or save it as a PDF from the browser." }) },
-  });
+  return redirectWithFlash(`/reports/${params.studentId}?report=${report.id}`, "Report saved. Print it or save it as a PDF from the browser.", request);
 }
 
 export default function Report({ loaderData: d, actionData }: Route.ComponentProps) {
@@ -80,7 +77,7 @@ export default function Report({ loaderData: d, actionData }: Route.ComponentPro
           to={d.to}
           saved={d.saved}
           savedReports={d.savedReports}
-          errors={actionData && "errors" in actionData ? actionData.errors : undefined}
+          errors={actionData?.fieldErrors}
           pending={navigation.state === "submitting"}
         />
       </div>

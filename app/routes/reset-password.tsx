@@ -1,14 +1,13 @@
-import { data, Form, Link, redirect, useActionData, useNavigation } from "react-router";
+import { data, Form, Link, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset-password";
 import { passwordSchema } from "~/auth/password.server";
 import { checkUserToken, consumeUserToken } from "~/auth/tokens.server";
-import { formFailure, parseForm } from "~/auth/validate.server";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
 import { FlashMessage } from "~/components/FlashMessage";
-import { flashHeader } from "~/lib/flash.server";
 import { setPassword } from "~/models/users.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Choose a new password · Nearnote" }];
@@ -33,14 +32,10 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = parseForm(schema, form);
   if (!parsed.ok) return parsed.response;
   const used = consumeUserToken(parsed.data.token, "reset-password");
-  if (!used.ok) return formFailure(form, {}, "This link has expired or was already used. Ask for a new one.", undefined, 410);
+  if (!used.ok) return formFailure({ form, formError: "This link has expired or was already used. Ask for a new one.", status: 410 });
   // Every session of this person ends: whoever knew the old password is signed out.
   await setPassword(used.userId, parsed.data.password);
-  throw redirect("/login", {
-    headers: {
-      "Set-Cookie": await flashHeader(request, { tone: "success", message: "Your password is changed. Sign in with the new one." }),
-    },
-  });
+  throw await redirectWithFlash("/login", "Your password is changed. Sign in with the new one.", request);
 }
 
 export default function ResetPassword({ loaderData }: Route.ComponentProps) {
@@ -58,7 +53,7 @@ export default function ResetPassword({ loaderData }: Route.ComponentProps) {
       </div>
     );
   }
-  const errors = actionData?.errors ?? {};
+  const errors = actionData?.fieldErrors ?? {};
   return (
     <div className="mx-auto flex max-w-md flex-col gap-6">
       <h1 className="text-2xl font-semibold tracking-tight">Choose a new password</h1>

@@ -4,7 +4,7 @@ import type { Route } from "./+types/review";
 import { requireTeacher } from "~/auth/access.server";
 import { ListeningList } from "~/components/review/ListeningList";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
+import { formFailure, redirectWithFlash } from "~/forms/forms.server";
 import { zoneName } from "~/lib/studioTime";
 import {
   listeningFilters,
@@ -46,9 +46,9 @@ export async function action({ request, context }: Route.ActionArgs) {
     takeId: form.getAll("takeId").map(String),
     only: form.get("only") || undefined,
   });
-  if (!parsed.success) return data({ error: "That request was not understood." }, { status: 400 });
+  if (!parsed.success) return formFailure({ form, formError: "That request was not understood." });
   const ids = parsed.data.only ? [parsed.data.only] : parsed.data.takeId;
-  if (!ids.length) return data({ error: "Tick at least one take first." }, { status: 400 });
+  if (!ids.length) return formFailure({ form, formError: "Tick at least one take first." });
   const changed = markHeard(parsed.data.intent, ids, user.id, user.active.studioId);
   // Back to the same filters and page; after marking, the undo offer names the takes.
   const back = new URL(request.url).searchParams;
@@ -60,11 +60,7 @@ export async function action({ request, context }: Route.ActionArgs) {
     parsed.data.intent === "review"
       ? `${changed} ${plural} marked as heard.`
       : `${changed} ${plural} back on the list to listen to.`;
-  return redirect(`/review${back.size ? `?${back}` : ""}`, {
-    headers: {
-      "Set-Cookie": await flashHeader(request, { tone: parsed.data.intent === "review" ? "success" : "info", message }),
-    },
-  });
+  return redirectWithFlash(`/review${back.size ? `?${back}` : ""}`, message, request, { tone: parsed.data.intent === "review" ? "success" : "info" });
 }
 
 export default function Review({ loaderData, actionData }: Route.ComponentProps) {
@@ -75,7 +71,7 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
         title="Takes to listen to"
         lead={`Takes no teacher has marked as heard, newest first. Times are in the studio's time zone (${zoneName(timeZone)}). Opening a take does not mark it.`}
       />
-      <ListeningList {...loaderData} error={actionData?.error} />
+      <ListeningList {...loaderData} error={actionData?.formError} />
     </div>
   );
 }

@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/signup";
 import { requireAnonymous } from "~/auth/access.server";
 import { passwordSchema } from "~/auth/password.server";
-import { parseForm } from "~/auth/validate.server";
+import { parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -38,7 +38,7 @@ export default function Signup() {
   const actionData = useActionData<typeof action>();
   const navigation = useNavigation();
   const failed = actionData && !actionData.ok ? actionData : null;
-  const errors = failed?.errors ?? {};
+  const errors = failed?.fieldErrors ?? {};
   const values = failed?.values ?? {};
   return (
     <div className="mx-auto flex max-w-md flex-col gap-6">

@@ -2,14 +2,14 @@ import { data, Form, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/students";
 import { requireCoTeacherOfOwner, requireStudentOfTeacher, requireTeacher } from "~/auth/access.server";
-import { formFailure, parseForm } from "~/auth/validate.server";
+import { failureOf } from "~/forms/failure";
+import { dataWithFlash, formFailure, parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { DataTable } from "~/components/DataTable";
 import { EmptyState } from "~/components/EmptyState";
 import { FlashMessage } from "~/components/FlashMessage";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
 import {
   DAILY_INVITATION_LIMIT,
   invitationsSentToday,
@@ -64,82 +64,70 @@ const studentSchema = z.object({
 });
 const teacherSchema = z.object({ intent: z.literal("remove-teacher"), teacherId: z.string().min(1) });
 
+const actionSchema = z.discriminatedUnion("intent", [inviteSchema, idSchema, studentSchema, teacherSchema]);
+
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireTeacher({ request, context });
   const studioId = user.active.studioId;
   const form = await request.formData();
-  const intent = String(form.get("intent") ?? "");
   const inviter = { id: user.id, name: user.name };
-  const done = async (message: string) =>
-    data({ ok: true as const, intent, message }, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  const parsed = parseForm(actionSchema, form);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.data;
+  const done = (message: string) => dataWithFlash({ ok: true as const, intent: input.intent, message }, message, request);
 
-  if (intent === "invite") {
-    const parsed = parseForm(inviteSchema, form, intent);
-    if (!parsed.ok) return parsed.response;
-    if (!user.emailVerified) {
-      return formFailure(form, {}, "Confirm your e-mail address first: open the link we mailed you, or ask for a new one in Settings.", intent, 403);
+  switch (input.intent) {
+    case "invite": {
+      if (!user.emailVerified) {
+        return formFailure({ form, formError: "Confirm your e-mail address first: open the link we mailed you, or ask for a new one in Settings.", status: 403 });
+      }
+      if (input.role === "teacher" && user.active.role !== "owner") {
+        return formFailure({ form, fieldErrors: { role: "Only the studio's owner can invite co-teachers" }, status: 403 });
+      }
+      const addresses = splitAddresses(input.emails);
+      const bad = addresses.filter((a) => !emailSchema.safeParse(a).success);
+      if (bad.length) return formFailure({ form, fieldErrors: { emails: `Not valid e-mail addresses: ${bad.join(", ")}` } });
+      if (addresses.length > DAILY_INVITATION_LIMIT) {
+        return formFailure({ form, fieldErrors: { emails: `At most ${DAILY_INVITATION_LIMIT} addresses at once` } });
+      }
+      const outcome = await inviteToStudio(studioId, inviter, addresses, input.role);
+      if (outcome.kind === "over-limit") {
+        const emails = `A studio can send ${DAILY_INVITATION_LIMIT} invitations a day; ${outcome.remaining} left for now. Try fewer addresses or wait until tomorrow.`;
+        return formFailure({ form, fieldErrors: { emails }, status: 429 });
+      }
+      const skipped = outcome.skipped.map((s) => `${s.email} (${s.reason})`).join(", ");
+      const sent = outcome.emails.length;
+      return done(`${sent} invitation${sent === 1 ? "" : "s"} sent.${skipped ? ` Skipped: ${skipped}.` : ""}`);
     }
-    if (parsed.data.role === "teacher" && user.active.role !== "owner") {
-      return formFailure(form, { role: ["Only the studio's owner can invite co-teachers"] }, undefined, intent, 403);
-    }
-    const addresses = splitAddresses(parsed.data.emails);
-    const bad = addresses.filter((a) => !emailSchema.safeParse(a).success);
-    if (bad.length) return formFailure(form, { emails: [`Not valid e-mail addresses: ${bad.join(", ")}`] }, undefined, intent);
-    if (addresses.length > DAILY_INVITATION_LIMIT) {
-      return formFailure(form, { emails: [`At most ${DAILY_INVITATION_LIMIT} addresses at once`] }, undefined, intent);
-    }
-    const outcome = await inviteToStudio(studioId, inviter, addresses, parsed.data.role);
-    if (outcome.kind === "over-limit") {
-      return formFailure(
-        form,
-        { emails: [`A studio can send ${DAILY_INVITATION_LIMIT} invitations a day; ${outcome.remaining} left for now. Try fewer addresses or wait until tomorrow.`] },
-        undefined,
-        intent,
-        429,
-      );
-    }
-    const skipped = outcome.skipped.map((s) => `${s.email} (${s.reason})`).join(", ");
-    const sent = outcome.emails.length;
-    return done(`${sent} invitation${sent === 1 ? "" : "s"} sent.${skipped ? ` Skipped: ${skipped}.` : ""}`);
-  }
-
-  if (intent === "resend" || intent === "revoke") {
-    const parsed = parseForm(idSchema, form, intent);
-    if (!parsed.ok) return parsed.response;
-    if (intent === "revoke") {
-      if (!revokeInvitation(studioId, parsed.data.invitationId)) throw data("There is no such pending invitation.", { status: 404 });
+    case "revoke": {
+      if (!revokeInvitation(studioId, input.invitationId)) throw data("There is no such pending invitation.", { status: 404 });
       return done("Invitation withdrawn: its link no longer works.");
     }
-    const result = await resendInvitation(studioId, parsed.data.invitationId, inviter);
-    if (result === "not-found") throw data("There is no such pending invitation.", { status: 404 });
-    if (result === "over-limit") return formFailure(form, {}, `The studio has sent ${DAILY_INVITATION_LIMIT} invitations today. Try again tomorrow.`, intent, 429);
-    return done("Invitation sent again with a new link, valid for 7 days.");
-  }
-
-  if (intent === "remove" || intent === "delete-data") {
-    const parsed = parseForm(studentSchema, form, intent);
-    if (!parsed.ok) return parsed.response;
-    await requireStudentOfTeacher({ request, context }, parsed.data.studentId);
-    if (intent === "remove") {
-      removeMember(studioId, parsed.data.studentId, "student");
-      return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
+    case "resend": {
+      const result = await resendInvitation(studioId, input.invitationId, inviter);
+      if (result === "not-found") throw data("There is no such pending invitation.", { status: 404 });
+      if (result === "over-limit") {
+        return formFailure({ form, formError: `The studio has sent ${DAILY_INVITATION_LIMIT} invitations today. Try again tomorrow.`, status: 429 });
+      }
+      return done("Invitation sent again with a new link, valid for 7 days.");
     }
-    if (parsed.data.confirm !== "yes") {
-      return formFailure(form, { confirm: ["Tick the box to confirm that this cannot be undone"] }, undefined, intent);
+    case "remove":
+    case "delete-data": {
+      await requireStudentOfTeacher({ request, context }, input.studentId);
+      if (input.intent === "remove") {
+        removeMember(studioId, input.studentId, "student");
+        return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
+      }
+      if (input.confirm !== "yes") return formFailure({ form, fieldErrors: { confirm: "Tick the box to confirm that this cannot be undone" } });
+      const { accountDeleted } = await deleteStudentData(studioId, input.studentId);
+      return done(accountDeleted ? "The student's takes and account are deleted for good." : "The student's takes in this studio are deleted for good.");
     }
-    const { accountDeleted } = await deleteStudentData(studioId, parsed.data.studentId);
-    return done(accountDeleted ? "The student's takes and account are deleted for good." : "The student's takes in this studio are deleted for good.");
+    case "remove-teacher": {
+      await requireCoTeacherOfOwner({ request, context }, input.teacherId);
+      removeMember(studioId, input.teacherId, "teacher");
+      return done("Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.");
+    }
   }
-
-  if (intent === "remove-teacher") {
-    const parsed = parseForm(teacherSchema, form, intent);
-    if (!parsed.ok) return parsed.response;
-    await requireCoTeacherOfOwner({ request, context }, parsed.data.teacherId);
-    removeMember(studioId, parsed.data.teacherId, "teacher");
-    return done("Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.");
-  }
-
-  return formFailure(form, {}, "Unknown action.", intent);
 }
 
 export default function Students({ loaderData }: Route.ComponentProps) {
@@ -149,7 +137,7 @@ export default function Students({ loaderData }: Route.ComponentProps) {
     navigation.state === "submitting" &&
     navigation.formData?.get("intent") === intent &&
     (!id || [navigation.formData?.get("studentId"), navigation.formData?.get("teacherId"), navigation.formData?.get("invitationId")].includes(id));
-  const failure = actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   const { students, teachers, pending } = loaderData;
   return (
     <div className="flex flex-col gap-6">
@@ -184,7 +172,7 @@ export default function Students({ loaderData }: Route.ComponentProps) {
               key={s.userId}
               person={{ ...s, joinedAt: String(s.joinedAt) }}
               busy={busy}
-              confirmError={failure?.intent === "delete-data" && failure.values.studentId === s.userId ? failure.errors.confirm?.[0] : undefined}
+              confirmError={failure?.intent === "delete-data" && failure.values?.studentId === s.userId ? failure.fieldErrors?.confirm : undefined}
             />
           ))}
         </DataTable>

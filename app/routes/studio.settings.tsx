@@ -6,7 +6,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { isValidTimeZone, weekKey } from "~/lib/weeks";
 import { studioTimeZone } from "~/models/progress.server";
 import { setStudioTimeZone, timeZoneNames } from "~/models/studioSettings.server";
@@ -33,15 +33,16 @@ const schema = z.object({
 
 export async function action({ request, context }: Route.ActionArgs) {
   const owner = await requireOwner({ request, context });
-  const parsed = schema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return data({ error: parsed.error.issues[0].message }, { status: 400 });
+  const parsed = parseForm(schema, await request.formData());
+  if (!parsed.ok) return parsed.response;
   const moved = setStudioTimeZone(owner.active.studioId, parsed.data.timeZone);
   const message = `Time zone set to ${parsed.data.timeZone}. ${moved} take${moved === 1 ? "" : "s"} moved to another week.`;
-  return redirect("/studio/settings", { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
+  return redirectWithFlash("/studio/settings", message, request);
 }
 
 export default function StudioSettings({ loaderData: d }: Route.ComponentProps) {
   const actionData = useActionData<typeof action>();
+  const timeZoneError = actionData?.fieldErrors?.timeZone;
   const navigation = useNavigation();
   return (
     <div className="flex flex-col gap-6">
@@ -59,8 +60,8 @@ export default function StudioSettings({ loaderData: d }: Route.ComponentProps) 
               <select
                 name="timeZone"
                 defaultValue={d.timeZone}
-                aria-invalid={actionData?.error ? true : undefined}
-                aria-describedby={actionData?.error ? "tz-error" : undefined}
+                aria-invalid={timeZoneError ? true : undefined}
+                aria-describedby={timeZoneError ? "tz-error" : undefined}
                 className="rounded-md border border-line bg-white px-3 py-2 font-normal"
               >
                 {d.zones.map((z) => (
@@ -73,9 +74,9 @@ export default function StudioSettings({ loaderData: d }: Route.ComponentProps) 
             <Button pending={navigation.state === "submitting"} pendingLabel="Saving…">
               Save time zone
             </Button>
-            {actionData?.error ? (
+            {timeZoneError ? (
               <p id="tz-error" role="alert" className="w-full text-sm text-brick">
-                {actionData.error}
+                {timeZoneError}
               </p>
             ) : null}
           </Form>

@@ -1,11 +1,12 @@
 // Feedback on one take, posted from the take page: comments and replies, flags marked as
 // intended, reviewed / not reviewed. A route of its own, so the take page's own actions stay
 // as they are; every answer sends the browser back to the take (or where `back` says).
-import { data, redirect } from "react-router";
+import { redirect } from "react-router";
+import { z } from "zod";
 import type { Route } from "./+types/takes.$takeId.feedback";
 import { deny, isTeacherOfTake, requireSameOrigin, requireTakeAccess } from "~/auth/access.server";
 import { safeRedirect } from "~/auth/session.server";
-import { flashHeader } from "~/lib/flash.server";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { sendFeedbackNotice } from "~/models/digest.server";
 import {
   addComment,
@@ -22,59 +23,58 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   return redirect(`/takes/${take.id}`);
 }
 
+const actionSchema = z.discriminatedUnion("intent", [
+  commentSchema.extend({ intent: z.literal("comment"), body: z.string().default("").pipe(commentSchema.shape.body) }),
+  intendSchema.extend({ intent: z.literal("intend") }),
+  z.object({ intent: z.literal("unintend"), markId: z.string().default("") }),
+  z.object({ intent: z.enum(["review", "unreview"]) }),
+]);
+
 /** A resource route that changes data: it checks the origin itself. */
 export async function action({ request, params, context }: Route.ActionArgs) {
   requireSameOrigin(request);
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
   const form = await request.formData();
-  const intent = String(form.get("intent") ?? "");
   const asTeacher = isTeacherOfTake(user, take);
   const back = safeRedirect(form.get("back"), `/takes/${take.id}`);
-  const done = async (message: string, anchor = "") =>
-    redirect(`${back}${anchor}`, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
-  const fail = (message: string, status = 400) => data({ error: { intent, message } }, { status });
+  const done = (message: string, anchor = "") => redirectWithFlash(`${back}${anchor}`, message, request);
   const teacherOnly = () => {
     if (!asTeacher) deny("page", "Only the studio's teachers can do this.");
   };
+  const parsed = parseForm(actionSchema, form);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.data;
 
   try {
-    switch (intent) {
+    switch (input.intent) {
       case "comment": {
-        const parsed = commentSchema.safeParse({
-          body: form.get("body") ?? "",
-          changeIdx: form.get("changeIdx") ?? undefined,
-          parentId: form.get("parentId") ?? undefined,
-        });
-        if (!parsed.success) return fail(parsed.error.issues[0].message);
+        const { body, changeIdx, parentId } = input;
         // Teachers start threads; the student who played the take replies to them.
-        if (!asTeacher && (user.id !== take.studentId || !parsed.data.parentId)) deny("page", "Only a reply to your teacher is possible here.");
-        const id = addComment({ takeId: take.id, authorId: user.id, ...parsed.data });
+        if (!asTeacher && (user.id !== take.studentId || !parentId)) deny("page", "Only a reply to your teacher is possible here.");
+        const id = addComment({ takeId: take.id, authorId: user.id, body, changeIdx, parentId });
         await sendFeedbackNotice(id).catch((e) => console.error("[nearnote] feedback mail failed:", e));
-        const anchor = parsed.data.changeIdx === null ? "#feedback" : `#change-${parsed.data.changeIdx}`;
-        return done(parsed.data.parentId ? "Reply posted." : "Comment posted.", anchor);
+        const anchor = changeIdx === null ? "#feedback" : `#change-${changeIdx}`;
+        return done(parentId ? "Reply posted." : "Comment posted.", anchor);
       }
       case "intend": {
         teacherOnly();
-        const parsed = intendSchema.safeParse(Object.fromEntries(form));
-        if (!parsed.success) return fail(parsed.error.issues[0].message);
-        markIntended(take.id, user.id, parsed.data);
+        const { intent: _intent, ...mark } = input;
+        markIntended(take.id, user.id, mark);
         return done("Marked as intended: this flag no longer counts against the score.");
       }
       case "unintend": {
         teacherOnly();
-        unmarkIntended(take.id, String(form.get("markId") ?? ""));
+        unmarkIntended(take.id, input.markId);
         return done("The flag counts again.");
       }
       case "review":
       case "unreview": {
         teacherOnly();
-        return done(applyReviewIntent(intent, take.id, user.id));
+        return done(applyReviewIntent(input.intent, take.id, user.id));
       }
-      default:
-        return fail("Unknown action.");
     }
   } catch (e) {
-    if (e instanceof FeedbackRefused) return fail(e.message);
+    if (e instanceof FeedbackRefused) return formFailure({ form, formError: e.message });
     throw e;
   }
 }

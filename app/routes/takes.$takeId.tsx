@@ -1,5 +1,5 @@
 import { useMemo } from "react";
-import { data, Link, redirect, useActionData } from "react-router";
+import { data, Link, useActionData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/takes.$takeId";
 import { deny, isTeacherOfTake, requireActiveInStudio, requireTakeAccess } from "~/auth/access.server";
@@ -18,13 +18,15 @@ import { ReviewToggle } from "~/components/feedback/ReviewToggle";
 import { takePageFeedback } from "~/models/feedback.server";
 import { withIntendedMarks } from "~/lib/intendedScore";
 import { heardKey } from "~/lib/nextStep";
-import { flashHeader } from "~/lib/flash.server";
+import { failureMessage, failureOf } from "~/forms/failure";
+import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
 import { packNotes, unpackNotes } from "~/lib/packNotes";
 import { formatBytes } from "~/lib/uploadRows";
 import { exerciseForStudent, listExercisesForStudent } from "~/models/exercises.server";
-import { deleteTake, getTakeView, moveTake } from "~/models/takes.server";
+import { deleteTake, fitNoticeForTake, getTakeView, moveTake } from "~/models/takes.server";
+import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
@@ -46,66 +48,68 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const heard = view.analysis?.summary.target !== undefined ? heardKey(view.notes, view.analysis.chords) : null;
   // The notes go as a flat number list (see packNotes); the page unpacks them once.
   const { notes, pedal: _pedal, ...rest } = view;
-  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback, heardKey: heard };
+  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback, fit: fitNoticeForTake(take.id), heardKey: heard };
 }
 
-const moveSchema = z.object({
-  intent: z.literal("move"),
-  exerciseId: z.string().trim().max(64).transform((v) => v || null),
-  key: z.string().trim().max(8).transform((v) => v || null),
-});
-
-type ActionError = { intent: string; message: string };
+const CHOOSE = "Choose an exercise and a key.";
+const actionSchema = z.discriminatedUnion("intent", [
+  z.object({ intent: z.literal("delete"), confirm: z.literal("yes", { error: "Tick the box to confirm: a deleted take cannot be brought back." }) }),
+  z.object({
+    intent: z.literal("move"),
+    exerciseId: z.string({ error: CHOOSE }).trim().max(64, CHOOSE).transform((v) => v || null),
+    key: z.string({ error: CHOOSE }).trim().max(8, CHOOSE).transform((v) => v || null),
+  }),
+]);
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
   if (user.id !== take.studentId) deny("page", "Only the student who played this take can change it.");
-  const fail = (intent: string, message: string, status = 400) => data<{ error: ActionError }>({ error: { intent, message } }, { status });
-  const done = async (to: string, message: string) =>
-    redirect(to, { headers: { "Set-Cookie": await flashHeader(request, { tone: "success", message }) } });
 
   // A replacement arrives as multipart; the parser must read the body first, so its intent is in the URL.
   if (new URL(request.url).searchParams.get("intent") === "replace") {
     requireActiveInStudio(user, take.studioId);
     const result = await replaceTakeFromForm(request, user, take);
     if ((result.status === 201 || result.status === 422) && result.body.id) {
-      return done(`/takes/${result.body.id}`, result.status === 201 ? "Take replaced and analysed." : "Take replaced, but the new file could not be analysed.");
+      const message = result.status === 201 ? "Take replaced and analysed." : "Take replaced, but the new file could not be analysed.";
+      return redirectWithFlash(`/takes/${result.body.id}`, message, request);
     }
-    return fail("replace", result.body.error ?? "The new file could not be saved.", result.status);
+    const replaceForm = new FormData();
+    replaceForm.set("intent", "replace");
+    return formFailure({ form: replaceForm, formError: result.body.error ?? "The new file could not be saved.", status: result.status });
   }
 
   const form = await request.formData();
-  const intent = String(form.get("intent") ?? "");
-  if (intent === "delete") {
-    if (form.get("confirm") !== "yes") return fail("delete", "Tick the box to confirm: a deleted take cannot be brought back.");
+  const parsed = parseForm(actionSchema, form);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.data;
+  if (input.intent === "delete") {
     await deleteTake(take.id);
-    return done("/home", "Take deleted, with its file.");
+    return redirectWithFlash("/home", "Take deleted, with its file.", request);
   }
-  if (intent === "move") {
-    requireActiveInStudio(user, take.studioId);
-    const parsed = moveSchema.safeParse(Object.fromEntries(form));
-    if (!parsed.success) return fail("move", "Choose an exercise and a key.");
-    let { exerciseId, key } = parsed.data;
-    if (exerciseId) {
-      const exercise = exerciseForStudent(user.id, take.studioId, exerciseId);
-      if (!exercise) return fail("move", "That exercise is not one of yours.");
-      key ??= exercise.keys[0] ?? null;
-      if (key && !exercise.keys.includes(key)) return fail("move", `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.`);
+  requireActiveInStudio(user, take.studioId);
+  let { exerciseId, key } = input;
+  if (exerciseId) {
+    const exercise = exerciseForStudent(user.id, take.studioId, exerciseId);
+    if (!exercise) return formFailure({ form, formError: "That exercise is not one of yours." });
+    key ??= exercise.keys[0] ?? null;
+    if (key && !exercise.keys.includes(key)) {
+      return formFailure({ form, formError: `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.` });
     }
-    await moveTake(take.id, exerciseId, key);
-    return done(`/takes/${take.id}`, exerciseId ? "Take moved and graded against the exercise again." : "Take moved to free practice.");
   }
-  return fail(intent, "Unknown action.");
+  await moveTake(take.id, exerciseId, key);
+  return redirectWithFlash(`/takes/${take.id}`, exerciseId ? "Take moved and graded against the exercise again." : "Take moved to free practice.", request);
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, packedNotes, isOwner, exercises, feedback, heardKey: heard } = loaderData;
+  const { view, packedNotes, isOwner, exercises, feedback, fit, heardKey: heard } = loaderData;
   const notes = useMemo(() => unpackNotes(packedNotes), [packedNotes]);
   // Changes a comment is pinned to carry a mark in the change list and under the roll.
   const commented = useMemo(() => new Set(feedback.threads.flatMap((t) => (t.changeIdx === null ? [] : [t.changeIdx]))), [feedback.threads]);
   const { take, analysis } = view;
   const actionData = useActionData<typeof action>();
-  const error = actionData && "error" in actionData ? actionData.error : null;
+  const failure = failureOf(actionData);
+  const failed = failureMessage(failure);
+  const error = failure && failed ? { intent: failure.intent ?? "", message: failed } : null;
   const lead = [
     isOwner ? null : take.studentName,
     `recorded ${dayLabel(take.recordedAt)}`,
@@ -138,6 +142,9 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
           <span className="font-semibold">{isOwner ? "Your note" : `${take.studentName.split(" ")[0]}'s note`}:</span> {take.note}
         </blockquote>
       ) : null}
+
+      {fit ? <ExerciseFitNotice takeId={take.id} notice={fit} canMove={isOwner} /> : null}
+      {fit && isOwner ? <MoveToLikelyForm takeId={take.id} notice={fit} /> : null}
 
       {take.status === "analysed" && analysis ? (
         // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.

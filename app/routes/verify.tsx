@@ -4,6 +4,7 @@ import { requireUser } from "~/auth/access.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { flashHeader } from "~/lib/flash.server";
+import { redirectWithFlash } from "~/forms/forms.server";
 import { mailRetryMessage } from "~/auth/mailLimits.server";
 import { createUserSession } from "~/auth/session.server";
 import { confirmSignup, sendVerificationMail, verifyEmailToken } from "~/models/users.server";
@@ -35,9 +36,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   if (user.emailVerified) throw redirect("/settings");
   const sent = await sendVerificationMail(user);
   const message = sent.ok ? `We sent a new link to ${user.email}.` : `No new link was sent. ${mailRetryMessage(sent)}`;
-  throw redirect("/settings", {
-    headers: { "Set-Cookie": await flashHeader(request, { tone: sent.ok ? "info" : "error", message }) },
-  });
+  throw await redirectWithFlash("/settings", message, request, { tone: sent.ok ? "info" : "error" });
 }
 
 export default function Verify({ loaderData }: Route.ComponentProps) {

@@ -92,7 +92,7 @@ describe("account settings", () => {
     await call(settings.action, post("/settings", { intent: "prefs", mailOnFeedback: "on" }, jar));
     const noPassword = await call(settings.action, post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: "wrong" }, jar));
     expect(noPassword.status).toBe(400);
-    expect(noPassword.data).toMatchObject({ errors: { currentPassword: [expect.any(String)] }, values: { email: "dara.o@tidewater.example" } });
+    expect(noPassword.data).toMatchObject({ fieldErrors: { currentPassword: expect.any(String) }, values: { email: "dara.o@tidewater.example" } });
     const changed = await call(settings.action, post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar));
     expect(changed.status).toBe(200);
     const row = db().select().from(users).where(eq(users.id, user.id)).get()!;

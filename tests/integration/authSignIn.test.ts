@@ -94,8 +94,8 @@ describe("teacher sign-up and e-mail verification", () => {
   it("keeps the typed values on a bad form, with an error beside each bad field", async () => {
     const bad = await call(signup.action, post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }));
     expect(bad.status).toBe(400);
-    const body = bad.data as { errors: Record<string, string[]>; values: Record<string, string> };
-    expect(Object.keys(body.errors).sort()).toEqual(["email", "name", "password", "studioName"]);
+    const body = bad.data as { fieldErrors: Record<string, string>; values: Record<string, string> };
+    expect(Object.keys(body.fieldErrors).sort()).toEqual(["email", "name", "password", "studioName"]);
     expect(body.values.email).toBe("not-an-address");
     expect(body.values).not.toHaveProperty("password");
   });

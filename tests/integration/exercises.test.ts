@@ -85,7 +85,7 @@ describe("setting exercises", () => {
   it("refuses a malformed progression, naming the bad token and its position", async () => {
     const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, progression: "I IV Vx7 I" }, ines));
     expect(r.status).toBe(400);
-    expect((r.data as { errors: { progression: string } }).errors.progression).toContain('Token 3 "Vx7"');
+    expect((r.data as { fieldErrors: { progression: string } }).fieldErrors.progression).toContain('Token 3 "Vx7"');
     expect(db().select().from(exercises).all()).toHaveLength(0);
   });
 
@@ -94,7 +94,7 @@ describe("setting exercises", () => {
     expect(asStudent.status).toBe(403);
     const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, tempo: "900" }, ines));
     expect(r.status).toBe(400);
-    expect((r.data as { errors: { tempo: string } }).errors.tempo).toMatch(/20–300/);
+    expect((r.data as { fieldErrors: { tempo: string } }).fieldErrors.tempo).toMatch(/20–300/);
   });
 
   it("edits and archives; archived exercises leave the students' list", async () => {
@@ -127,7 +127,7 @@ describe("assigned to chosen students", () => {
   it("refuses an empty choice", async () => {
     const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, assignedTo: "students" }, ines));
     expect(r.status).toBe(400);
-    expect((r.data as { errors: { students: string } }).errors.students).toMatch(/at least one/);
+    expect((r.data as { fieldErrors: { students: string } }).fieldErrors.students).toMatch(/at least one/);
   });
 });
 

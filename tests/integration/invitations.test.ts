@@ -57,7 +57,7 @@ describe("invitations", () => {
     const { jar } = await studioWithOwner();
     const result = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example, not-an-address" }, jar));
     expect(result.status).toBe(400);
-    expect(result.data).toMatchObject({ errors: { emails: [expect.stringContaining("not-an-address")] }, values: { emails: "dara@tidewater.example, not-an-address" } });
+    expect(result.data).toMatchObject({ fieldErrors: { emails: expect.stringContaining("not-an-address") }, values: { emails: "dara@tidewater.example, not-an-address" } });
     expect(mail.all()).toHaveLength(0);
   });
 
@@ -71,7 +71,7 @@ describe("invitations", () => {
 
     const mismatch = await call(invite.action, post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "typo" }), { token });
     expect(mismatch.status).toBe(400);
-    expect(mismatch.data).toMatchObject({ errors: { confirm: [expect.any(String)] }, values: { name: "Dara Okafor" } });
+    expect(mismatch.data).toMatchObject({ fieldErrors: { confirm: expect.any(String) }, values: { name: "Dara Okafor" } });
 
     const accepted = await call(invite.action, post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "a-good-password" }), { token });
     expect(accepted.status).toBe(302);
@@ -198,7 +198,7 @@ describe("invitations", () => {
     expect((await call(students.action, post("/students", { intent: "invite", emails: many }, jar))).status).toBe(200);
     const over = await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example, b@tidewater.example" }, jar));
     expect(over.status).toBe(429);
-    expect(over.data).toMatchObject({ errors: { emails: [expect.stringMatching(/1 left/)] } });
+    expect(over.data).toMatchObject({ fieldErrors: { emails: expect.stringMatching(/1 left/) } });
     expect((await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status).toBe(200);
     const pending = (await call(students.loader, get("/students", jar))).data as { pending: { id: string }[]; invitesLeftToday: number };
     expect(pending.invitesLeftToday).toBe(0);

@@ -20,10 +20,10 @@ export function ReportControls({
   to: string;
   saved: Saved;
   savedReports: SavedReport[];
-  errors?: Record<string, string[] | undefined>;
+  errors?: Record<string, string>;
   pending: boolean;
 }) {
-  const summaryError = errors?.summary?.[0] ?? errors?.to?.[0] ?? errors?.from?.[0];
+  const summaryError = errors?.summary ?? errors?.to ?? errors?.from;
   return (
     <div className="grid gap-4 md:grid-cols-[2fr_1fr]">
       <Card title="Your summary">

@@ -1,5 +1,7 @@
 import { useEffect, useRef } from "react";
 import { useFetcher } from "react-router";
+import { failureMessage, failureOf } from "~/forms/failure";
+import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
 import { Button } from "~/components/Button";
 import { timeLabel } from "~/lib/noteText";
 
@@ -28,8 +30,8 @@ export function CommentComposer({
   label: string;
   submitLabel: string;
 }) {
-  const fetcher = useFetcher<{ error?: { message: string } }>();
-  const error = fetcher.data?.error?.message;
+  const fetcher = useFetcher<typeof feedbackAction>();
+  const error = failureMessage(failureOf(fetcher.data));
   const form = useRef<HTMLFormElement>(null);
   const wasBusy = useRef(false);
   // Empty the box once the comment is saved (an error leaves the text for another try).
@@ -37,7 +39,7 @@ export function CommentComposer({
     if (fetcher.state !== "idle") wasBusy.current = true;
     else if (wasBusy.current) {
       wasBusy.current = false;
-      if (!fetcher.data?.error) form.current?.reset();
+      if (!failureOf(fetcher.data)) form.current?.reset();
     }
   }, [fetcher.state, fetcher.data]);
   return (

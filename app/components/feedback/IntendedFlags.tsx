@@ -1,4 +1,6 @@
 import { useFetcher } from "react-router";
+import { failureMessage, failureOf } from "~/forms/failure";
+import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
 import type { FlagName, TakeAnalysis } from "~/analysis/types";
 import { Button } from "~/components/Button";
 import { FLAG_TITLES } from "~/lib/explainFlags";
@@ -22,7 +24,8 @@ export function flagSpots(analysis: Pick<TakeAnalysis, "chords" | "changes">): F
 }
 
 function IntendToggle({ takeId, spot, mark, asTeacher }: { takeId: string; spot: FlagSpot; mark: IntendedItem | undefined; asTeacher: boolean }) {
-  const fetcher = useFetcher<{ error?: { message: string } }>();
+  const fetcher = useFetcher<typeof feedbackAction>();
+  const error = failureMessage(failureOf(fetcher.data));
   if (mark) {
     return (
       <div className="flex flex-wrap items-center gap-2 text-sm">
@@ -51,7 +54,7 @@ function IntendToggle({ takeId, spot, mark, asTeacher }: { takeId: string; spot:
         <input name="reason" required maxLength={300} placeholder="Why, e.g. I asked for this leap" className="w-64 rounded-md border border-line bg-white px-2 py-1 text-sm" />
       </label>
       <Button variant="secondary" pending={fetcher.state !== "idle"}>I asked for this</Button>
-      {fetcher.data?.error ? <span role="alert" className="text-sm text-brick">{fetcher.data.error.message}</span> : null}
+      {error ? <span role="alert" className="text-sm text-brick">{error}</span> : null}
     </fetcher.Form>
   );
 }

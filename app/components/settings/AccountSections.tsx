@@ -5,10 +5,10 @@ import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
 import { FlashMessage } from "~/components/FlashMessage";
 import type { StudioRole } from "~/auth/session.server";
+import type { FormFailure } from "~/forms/failure";
 
 // The sections of /settings; each is its own form with an `intent`.
 
-type Failure = { intent?: string; errors: Record<string, string[] | undefined>; formError?: string; values: Record<string, string> };
 type Account = {
   name: string;
   email: string;
@@ -28,10 +28,10 @@ function IntentForm({ intent, children }: { intent: string; children: ReactNode 
   );
 }
 
-export function AccountSections({ account, failure, pendingIntent }: { account: Account; failure: Failure | null; pendingIntent: string | null }) {
+export function AccountSections({ account, failure, pendingIntent }: { account: Account; failure: FormFailure | null; pendingIntent: string | null }) {
   const f = (intent: string) => (failure?.intent === intent ? failure : null);
-  const err = (intent: string, field: string) => f(intent)?.errors[field];
-  const val = (intent: string, field: string, fallback: string) => f(intent)?.values[field] ?? fallback;
+  const err = (intent: string, field: string) => f(intent)?.fieldErrors?.[field];
+  const val = (intent: string, field: string, fallback: string) => f(intent)?.values?.[field] ?? fallback;
   const pending = (intent: string) => pendingIntent === intent;
   return (
     <div className="grid gap-6 md:grid-cols-2">
@@ -119,7 +119,7 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
           <label className="flex items-start gap-2 text-sm">
             <input type="checkbox" name="confirm" value="yes" /> <span>I understand this cannot be undone.</span>
           </label>
-          {err("delete-account", "confirm") ? <p role="alert" className="text-sm text-brick">{err("delete-account", "confirm")![0]}</p> : null}
+          {err("delete-account", "confirm") ? <p role="alert" className="text-sm text-brick">{err("delete-account", "confirm")}</p> : null}
           <div><Button variant="danger" pending={pending("delete-account")} pendingLabel="Deleting…">Delete my account</Button></div>
         </IntentForm>
       </Card>

@@ -2,10 +2,10 @@ import { Form, Link } from "react-router";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { FlashMessage } from "~/components/FlashMessage";
+import type { FormFailure } from "~/forms/failure";
 
 // Pieces of the /students page, kept apart so the route module stays readable.
 
-type Failure = { errors: Record<string, string[] | undefined>; formError?: string; values: Record<string, string> };
 
 export function InviteForm({
   isOwner,
@@ -17,11 +17,11 @@ export function InviteForm({
   isOwner: boolean;
   emailVerified: boolean;
   invitesLeftToday: number;
-  failure: Failure | null;
+  failure: FormFailure | null;
   pending: boolean;
 }) {
-  const emailError = failure?.errors.emails?.[0];
-  const roleError = failure?.errors.role?.[0];
+  const emailError = failure?.fieldErrors?.emails;
+  const roleError = failure?.fieldErrors?.role;
   return (
     <Card title="Invite">
       {!emailVerified ? (
@@ -47,7 +47,7 @@ export function InviteForm({
             id="invite-emails"
             name="emails"
             rows={3}
-            defaultValue={failure?.values.emails ?? ""}
+            defaultValue={failure?.values?.emails ?? ""}
             aria-invalid={emailError ? true : undefined}
             aria-describedby={emailError ? "invite-emails-error invite-emails-hint" : "invite-emails-hint"}
             className={`rounded-md border bg-white px-3 py-2 text-base shadow-inner outline-none focus:border-tide ${emailError ? "border-brick" : "border-line"}`}
@@ -66,11 +66,11 @@ export function InviteForm({
           <fieldset className="flex flex-col gap-1">
             <legend className="text-sm font-semibold">Invite as</legend>
             <label className="flex items-center gap-2 text-sm">
-              <input type="radio" name="role" value="student" defaultChecked={failure?.values.role !== "teacher"} />{" "}
+              <input type="radio" name="role" value="student" defaultChecked={failure?.values?.role !== "teacher"} />{" "}
               Student
             </label>
             <label className="flex items-center gap-2 text-sm">
-              <input type="radio" name="role" value="teacher" defaultChecked={failure?.values.role === "teacher"} />{" "}
+              <input type="radio" name="role" value="teacher" defaultChecked={failure?.values?.role === "teacher"} />{" "}
               Co-teacher
             </label>
             {roleError ? (
