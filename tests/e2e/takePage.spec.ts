@@ -81,6 +81,11 @@ for (const size of SIZES) {
     await expect(page.getByTestId("playback-status")).toContainText("Paused");
     await page.getByRole("button", { name: "Resume" }).click();
     await expect(page.getByTestId("playback-status")).toContainText("Playing");
+    // A new speed starts the loop again at that speed.
+    await page.getByText("75%", { exact: true }).click();
+    await expect(page.getByRole("radio", { name: "75%" })).toBeChecked();
+    await expect(page.getByTestId("playback-status")).toContainText("on a loop");
+    await expect(loop).toHaveAttribute("aria-pressed", "true");
     await page.getByRole("button", { name: "Stop" }).click();
     await expect(loop).toHaveAttribute("aria-pressed", "false");
 

@@ -18,14 +18,18 @@ const IDLE: PlaybackState = { mode: null, label: null, time: null, error: null, 
 
 /**
  * One player per page; starting anything stops what was sounding. Plans play at `speed`
- * (1 = as recorded); a loop starts again when it ends until stopped. `offset` is where the
+ * (1 = as recorded; changing it starts what is playing again at the new speed); a loop starts
+ * again when it ends until stopped. `offset` is where the
  * plan's time 0 lies in the take, so the piano roll's playhead follows a looped change.
  */
 export function usePlayback() {
   const player = useRef<Player | null>(null);
   const [state, setState] = useState<PlaybackState>(IDLE);
   const [available, setAvailable] = useState(false);
-  const [speed, setSpeed] = useState(1);
+  const [speed, setSpeedState] = useState(1);
+  const speedRef = useRef(1);
+  // What is playing, so a change of speed starts it again at the new speed.
+  const last = useRef<{ mode: PlaybackMode; plan: PlannedNote[]; label: string; opts: { offset?: number; loop?: boolean } } | null>(null);
 
   useEffect(() => {
     setAvailable(webAudioAvailable());
@@ -34,12 +38,15 @@ export function usePlayback() {
 
   const stop = useCallback(() => {
     player.current?.stop();
+    last.current = null;
     setState(IDLE);
   }, []);
 
   const play = useCallback(
     (mode: PlaybackMode, plan: PlannedNote[], label: string, opts: { offset?: number; loop?: boolean } = {}) => {
       player.current ??= createPlayer();
+      last.current = { mode, plan, label, opts };
+      const speed = speedRef.current;
       const offset = opts.offset ?? 0;
       const scaled = scalePlan(plan, speed);
       setState({ mode, label, time: offset, error: null, paused: false, sound: "loading" });
@@ -49,13 +56,30 @@ export function usePlayback() {
             piano: true,
             onSound: (sound) => setState((s) => (s.mode === mode ? { ...s, sound } : s)),
             onTime: (time) => setState((s) => (s.mode === mode ? { ...s, time: offset + time * speed } : s)),
-            onEnd: () => (opts.loop ? start() : setState(IDLE)),
+            onEnd: () => {
+              if (opts.loop) return start();
+              last.current = null;
+              setState(IDLE);
+            },
           })
-          .catch((e: unknown) => setState({ ...IDLE, error: e instanceof Error ? e.message : "Sound could not start." }));
+          .catch((e: unknown) => {
+            last.current = null;
+            setState({ ...IDLE, error: e instanceof Error ? e.message : "Sound could not start." });
+          });
       };
       start();
     },
-    [speed],
+    [],
+  );
+
+  const setSpeed = useCallback(
+    (next: number) => {
+      speedRef.current = next;
+      setSpeedState(next);
+      const playing = last.current;
+      if (playing) play(playing.mode, playing.plan, playing.label, playing.opts);
+    },
+    [play],
   );
 
   const pause = useCallback(() => {
