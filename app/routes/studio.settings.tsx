@@ -6,7 +6,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { isValidTimeZone, weekKey } from "~/lib/weeks";
 import { studioTimeZone } from "~/models/progress.server";
 import { setStudioTimeZone, timeZoneNames } from "~/models/studioSettings.server";
