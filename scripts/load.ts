@@ -5,6 +5,7 @@
 import autocannon from "autocannon";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import http from "node:http";
 import { cpus, loadavg, tmpdir, totalmem } from "node:os";
 import path from "node:path";
 import { bundleRows, builtGzipSize, formatBundleReport, readBuiltManifest } from "./lib/bundleReport";
@@ -59,16 +60,26 @@ async function measure(name: string, url: string, cookie?: string) {
 }
 
 /** Uploads a generated take of `minutes` minutes as the signed-in student; returns its id. */
-async function uploadLongTake(cookie: string, minutes: number) {
+async function uploadLongTake(cookie: string, minutes: number): Promise<string> {
   const form = new FormData();
   form.append("file", new File([new Uint8Array(generateLongTake(minutes))], `long-${minutes}min.mid`, { type: "audio/midi" }));
-  // Sent with its length, as a browser sends a form (the server refuses an upload of unknown length).
+  // Encoded first and sent with its length, as a browser sends a form (the server refuses an upload
+  // of unknown length); through node:http, as undici's fetch lost this connection on this server.
   const encoded = new Request(`${BASE}/api/takes`, { method: "POST", body: form });
-  const headers = { cookie, Origin: BASE, "content-type": encoded.headers.get("content-type")! };
-  const res = await fetch(`${BASE}/api/takes`, { method: "POST", body: await encoded.arrayBuffer(), headers });
-  const body = (await res.json()) as { take?: { id: string }; id?: string; error?: string };
-  const id = body.take?.id ?? body.id;
-  if (!res.ok || !id) throw new Error(`upload of the ${minutes}-minute take answered ${res.status}: ${JSON.stringify(body)}`);
+  const body = Buffer.from(await encoded.arrayBuffer());
+  const headers = { cookie, Origin: BASE, "content-type": encoded.headers.get("content-type")!, "content-length": String(body.length) };
+  const { status, text } = await new Promise<{ status: number; text: string }>((resolve, reject) => {
+    const req = http.request(`${BASE}/api/takes`, { method: "POST", headers }, (res) => {
+      const parts: Buffer[] = [];
+      res.on("data", (d: Buffer) => parts.push(d));
+      res.on("end", () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(parts).toString("utf8") }));
+      res.on("error", reject);
+    });
+    req.on("error", reject);
+    req.end(body);
+  });
+  const id = (JSON.parse(text) as { id?: string }).id;
+  if (status !== 201 || !id) throw new Error(`upload of the ${minutes}-minute take answered ${status}: ${text.slice(0, 300)}`);
   return id;
 }
 
