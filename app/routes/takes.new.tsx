@@ -182,7 +182,7 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                   e.currentTarget.value = "";
                 }}
                 // With JavaScript the rows below list the files, so the browser's own "no file chosen" text is hidden.
-                className={hydrated ? "sr-only" : "mt-2 text-sm file:mr-3 file:rounded-md file:border file:border-line file:bg-card file:px-3 file:py-2 file:font-semibold"}
+                className={hydrated ? "sr-only" : "mt-2 w-full max-w-full min-w-0 text-sm file:mr-3 file:rounded-md file:border file:border-line file:bg-card file:px-3 file:py-2 file:font-semibold"}
               />
             </label>
             <div className="mt-4 flex flex-col gap-4">

@@ -62,7 +62,7 @@ export function KeyboardPicker({
         <g key={m} {...keyProps(m)} data-midi={m}>
           <rect x={x.get(m)! + 0.5} y={0.5} width={WHITE_W} height={WHITE_H} rx={2} className={on.has(m) ? "fill-tide" : "fill-white"} stroke="var(--color-line)" />
           {m % 12 === 0 ? (
-            <text x={x.get(m)! + WHITE_W / 2 + 0.5} y={WHITE_H - 5} textAnchor="middle" className={`text-[8px] ${on.has(m) ? "fill-white" : "fill-ink-soft"}`}>
+            <text x={x.get(m)! + WHITE_W / 2 + 0.5} y={WHITE_H - 4} textAnchor="middle" className={`text-xs ${on.has(m) ? "fill-white" : "fill-ink-soft"}`}>
               C{Math.floor(m / 12) - 1}
             </text>
           ) : null}

@@ -39,7 +39,7 @@ const columns = column.columns([
     header: "Date",
     sortFn: "basic",
     cell: (info) => (
-      <Link to={`/takes/${info.row.original.id}`} className="font-semibold text-tide-dark underline-offset-4 hover:underline">
+      <Link to={`/takes/${info.row.original.id}`} className="whitespace-nowrap font-semibold text-tide-dark underline-offset-4 hover:underline">
         {dayLabel(info.getValue())}
       </Link>
     ),
@@ -83,6 +83,10 @@ const columns = column.columns([
 
 const ARROWS = { asc: "▲", desc: "▼" } as const;
 
+/** Columns a phone leaves out, so the date, exercise, smoothness and score fit without scrolling. */
+const WIDE_ONLY = new Set(["chords", "leaps"]);
+const wideOnly = (id: string) => (WIDE_ONLY.has(id) ? "hidden sm:table-cell" : "");
+
 /** The student's latest takes; every column header sorts (click, or Enter/Space on its button). */
 export function TakesTable({ takes, firstRows = 12 }: { takes: TakeRow[]; firstRows?: number }) {
   const [showAll, setShowAll] = useState(false);
@@ -108,7 +112,7 @@ export function TakesTable({ takes, firstRows = 12 }: { takes: TakeRow[]; firstR
                   key={header.id}
                   scope="col"
                   aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
-                  className={`px-4 py-2 font-semibold ${numeric ? "text-right" : ""}`}
+                  className={`px-3 py-2 font-semibold sm:px-4 ${numeric ? "text-right" : ""} ${wideOnly(header.column.id)}`}
                 >
                   <button
                     type="button"
@@ -116,7 +120,7 @@ export function TakesTable({ takes, firstRows = 12 }: { takes: TakeRow[]; firstR
                     className={`inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink ${sorted ? "text-ink" : ""}`}
                   >
                     <table.FlexRender header={header} />
-                    <span aria-hidden="true" className="w-3 text-[10px]">
+                    <span aria-hidden="true" className="w-3 text-xs">
                       {sorted ? ARROWS[sorted] : ""}
                     </span>
                   </button>
@@ -131,7 +135,7 @@ export function TakesTable({ takes, firstRows = 12 }: { takes: TakeRow[]; firstR
             {row.getAllCells().map((cell) => (
               <td
                 key={cell.id}
-                className={`px-4 py-2 ${cell.column.id !== "exercise" && cell.column.id !== "recordedAt" ? "text-right tabular-nums" : ""}`}
+                className={`px-3 py-2 sm:px-4 ${cell.column.id !== "exercise" && cell.column.id !== "recordedAt" ? "text-right tabular-nums" : ""} ${wideOnly(cell.column.id)}`}
               >
                 <table.FlexRender cell={cell} />
               </td>
