@@ -23,9 +23,12 @@ const BASE = `http://127.0.0.1:${APP_PORT}`;
 const HELLO = `http://127.0.0.1:${HELLO_PORT}`;
 const COLD_RUNS = 3;
 
-function start(cmd: string, args: string[], env: Record<string, string>): ChildProcess {
-  return spawn(cmd, args, { env: { ...process.env, ...env }, stdio: ["ignore", "ignore", "inherit"] });
+function start(cmd: string, args: string[], env: Record<string, string>, cwd?: string): ChildProcess {
+  return spawn(cmd, args, { env: { ...process.env, ...env }, cwd, stdio: ["ignore", "ignore", "inherit"] });
 }
+
+// The hello app's build names its client folder relative to its own project folder.
+const HELLO_DIR = path.resolve("scripts/load/hello");
 
 async function waitFor(url: string) {
   for (let i = 0; i < 120; i++) {
@@ -86,11 +89,11 @@ async function uploadLongTake(cookie: string, minutes: number): Promise<string> 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 /** Spawn to first answered request, `runs` times, each with a fresh storage folder (so migrations run every time). */
-async function coldStarts(command: string, args: string[], env: Record<string, string>, url: string, runs: number) {
+async function coldStarts(command: string, args: string[], env: Record<string, string>, url: string, runs: number, cwd?: string) {
   const times: number[] = [];
   for (let i = 0; i < runs; i++) {
     const storage = mkdtempSync(path.join(tmpdir(), "nearnote-cold-"));
-    const r = await measureColdStart(command, args, { ...process.env, STORAGE_DIR: storage, STORAGE_CREATE: "1", ...env }, url);
+    const r = await measureColdStart(command, args, { ...process.env, STORAGE_DIR: storage, STORAGE_CREATE: "1", ...env }, url, 60_000, cwd);
     if (r.status !== 200) throw new Error(`${command} ${args.join(" ")}: first answer ${r.status}`);
     times.push(r.ms);
   }
@@ -119,6 +122,7 @@ async function main() {
     { PORT: String(COLD_PORT), HOST: "127.0.0.1", NODE_ENV: "production" },
     coldUrl,
     COLD_RUNS,
+    HELLO_DIR,
   );
 
   const storage = mkdtempSync(path.join(tmpdir(), "nearnote-load-"));
@@ -127,11 +131,12 @@ async function main() {
   if (seeded.status !== 0) throw new Error(seeded.stderr);
   const [serve, serveArgs] = serveCommand();
   const app = start(serve, serveArgs, { ...env, PORT: String(APP_PORT), NEARNOTE_BUILD_DIR: BUILD_DIR });
-  const hello = start(path.resolve("node_modules/.bin/react-router-serve"), [path.resolve("build-hello/server/index.js")], {
-    PORT: String(HELLO_PORT),
-    HOST: "127.0.0.1",
-    NODE_ENV: "production",
-  });
+  const hello = start(
+    path.resolve("node_modules/.bin/react-router-serve"),
+    [path.resolve("build-hello/server/index.js")],
+    { PORT: String(HELLO_PORT), HOST: "127.0.0.1", NODE_ENV: "production" },
+    HELLO_DIR,
+  );
   try {
     await waitFor(`${BASE}/healthz`);
     await waitFor(`${HELLO}/`);

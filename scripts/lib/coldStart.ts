@@ -15,9 +15,10 @@ export async function measureColdStart(
   env: NodeJS.ProcessEnv,
   url: string,
   giveUpMs = 60_000,
+  cwd?: string,
 ): Promise<ColdStart> {
   const started = performance.now();
-  const child: ChildProcess = spawn(command, args, { env, stdio: ["ignore", "ignore", "pipe"] });
+  const child: ChildProcess = spawn(command, args, { env, cwd, stdio: ["ignore", "ignore", "pipe"] });
   let stderr = "";
   child.stderr!.on("data", (d) => (stderr += String(d)));
   let exited = false;
