@@ -6,7 +6,7 @@ import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { StudentExerciseCard } from "~/components/exercises/StudentExerciseCard";
 import { PageHeader } from "~/components/PageHeader";
-import { pretty } from "~/lib/noteText";
+import { dayLabel, pretty } from "~/lib/noteText";
 import { listExercisesForTeacher, studentExercises } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Exercises · Nearnote" }];
@@ -44,10 +44,10 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
               <thead>
                 <tr className="border-b border-line text-left text-ink-soft">
                   <th scope="col" className="py-2 pr-4">Exercise</th>
-                  <th scope="col" className="py-2 pr-4">Keys</th>
+                  <th scope="col" className="hidden py-2 pr-4 sm:table-cell">Keys</th>
                   <th scope="col" className="py-2 pr-4">Due</th>
                   <th scope="col" className="py-2 pr-4">Takes sent</th>
-                  <th scope="col" className="py-2">State</th>
+                  <th scope="col" className="hidden py-2 sm:table-cell">State</th>
                 </tr>
               </thead>
               <tbody>
@@ -55,15 +55,15 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
                   <tr key={e.id} className={`border-b border-line/60 ${e.archived ? "text-ink-soft" : ""}`}>
                     <td className="py-2 pr-4">
                       <Link to={`/exercises/${e.id}`} className="font-semibold text-tide-dark hover:underline">{e.title}</Link>
-                      <div className="font-mono text-xs text-ink-soft">{e.progression}</div>
+                      <div className="break-words font-mono text-xs text-ink-soft">{pretty(e.progression)}</div>
                     </td>
-                    <td className="py-2 pr-4">{e.keys.length === 12 ? "all twelve" : e.keys.map(pretty).join(", ")}</td>
-                    <td className="py-2 pr-4">{e.dueDate ?? "–"}</td>
+                    <td className="hidden py-2 pr-4 sm:table-cell">{e.keys.length === 12 ? "all twelve" : e.keys.map(pretty).join(", ")}</td>
+                    <td className="whitespace-nowrap py-2 pr-4">{e.dueDate ? dayLabel(`${e.dueDate}T12:00:00Z`) : "–"}</td>
                     <td className="py-2 pr-4">
                       {e.handedIn} of {e.setFor}
                       {e.assignedTo === "students" ? <span className="ml-1 text-xs text-ink-soft">(chosen students)</span> : null}
                     </td>
-                    <td className="py-2">{e.archived ? "archived" : "open"}</td>
+                    <td className="hidden py-2 sm:table-cell">{e.archived ? "archived" : "open"}</td>
                   </tr>
                 ))}
               </tbody>

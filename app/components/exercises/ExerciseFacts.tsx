@@ -2,7 +2,7 @@ import type { TechniqueName } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import type { ExerciseFormValues } from "./ExerciseForm";
 import type { ExpandedKey } from "~/lib/exerciseProgression";
-import { pretty } from "~/lib/noteText";
+import { dayLabel, pretty } from "~/lib/noteText";
 import { TECHNIQUE_WORDS } from "~/lib/takeWords";
 
 type Facts = Pick<ExerciseFormValues, "progression" | "focusTechniques" | "tempo" | "dueDate" | "instructions" | "assignedTo">;
@@ -39,7 +39,7 @@ export function ExerciseFacts({ exercise, expanded }: { exercise: Facts; expande
           <dt className="text-ink-soft">Tempo</dt>
           <dd>{exercise.tempo ? `${exercise.tempo} bpm` : "Your own"}</dd>
           <dt className="text-ink-soft">Due</dt>
-          <dd>{exercise.dueDate ?? "No date"}</dd>
+          <dd className="whitespace-nowrap">{exercise.dueDate ? dayLabel(`${exercise.dueDate}T12:00:00Z`) : "No date"}</dd>
           <dt className="text-ink-soft">Set for</dt>
           <dd>{exercise.assignedTo === "studio" ? "The whole studio" : "Chosen students"}</dd>
         </dl>
