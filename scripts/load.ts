@@ -193,7 +193,7 @@ async function main() {
       "",
       "First load on a phone (empty cache): the page's HTML plus every script, module preload and stylesheet it links, as bytes on the wire with gzip; fonts not counted:",
       "",
-      "| page | requests | bytes | of which HTML | of which JavaScript | times the hello page's bytes |",
+      "| page | requests | bytes | of which HTML | of which scripts (and the icon) | times the hello page's bytes |",
       "|---|---|---|---|---|---|",
       ...loads.map(
         ([name, l]) =>
