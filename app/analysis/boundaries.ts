@@ -36,34 +36,42 @@ export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap
   });
 }
 
-/** A strike's distinct pitches, ascending. */
-function distinctPitches(s: Strike): number[] {
-  const out: number[] = [];
-  for (const n of s.notes) if (!out.includes(n.midi)) out.push(n.midi);
-  return out.sort((a, b) => a - b);
-}
+const SEEN = new Int32Array(128);
+let stamp = 0;
 
-/** A strike's notes above its bass when the bass is detached (7 or more semitones below the next). */
-function upperNotes(s: Strike): number[] {
-  const pitches = distinctPitches(s);
-  return pitches.length >= 3 && pitches[1] - pitches[0] >= 7 ? pitches.slice(1) : pitches;
-}
-
-/** The lowest of a strike's upper notes (upperNotes(s)[0]) without building the list. */
-function lowestUpper(s: Strike): number {
+/**
+ * The lowest distinct pitch of a strike and the lowest of its upper notes: the next pitch up
+ * when the bass is detached (three or more pitches, 7 or more semitones below the next), else
+ * the lowest itself.
+ */
+function lowAndUpper(s: Strike): [low: number, upperLow: number] {
   let low = Infinity;
   let second = Infinity;
   let count = 0;
+  // Pitches seen in this strike are stamped with its own mark (a strike may hold thousands of notes).
+  if (stamp === 0x7fffffff) {
+    SEEN.fill(0);
+    stamp = 0;
+  }
+  const mark = ++stamp;
   for (const n of s.notes) {
     const m = n.midi;
-    if (m === low || m === second) continue;
+    if (m >= 0 && m < 128) {
+      if (SEEN[m] === mark) continue;
+      SEEN[m] = mark;
+    } else if (s.notes.some((x) => x !== n && x.midi === m && s.notes.indexOf(x) < s.notes.indexOf(n))) continue;
     count++;
     if (m < low) {
       second = low;
       low = m;
     } else if (m < second) second = m;
   }
-  return count >= 3 && second - low >= 7 ? second : low;
+  return [low, count >= 3 && second - low >= 7 ? second : low];
+}
+
+/** The lowest of a strike's upper notes (its pitches above a detached bass, else all of them). */
+function lowestUpper(s: Strike): number {
+  return lowAndUpper(s)[1];
 }
 
 /**
@@ -71,8 +79,10 @@ function lowestUpper(s: Strike): number {
  * when fewer than two remain: a bass and one note are no comping chord.
  */
 function upperPcs(s: Strike): number {
+  const [low, upperLow] = lowAndUpper(s);
+  const detached = upperLow !== low;
   let mask = 0;
-  for (const m of upperNotes(s)) mask |= 1 << pc(m);
+  for (const n of s.notes) if (!(detached && n.midi === low)) mask |= 1 << pc(n.midi);
   let count = 0;
   for (let x = mask; x; x &= x - 1) count++;
   return count >= 2 ? mask : 0;

@@ -123,7 +123,16 @@ export function harmonyReport(
 
 /** A harmony's voicing as reported: distinct pitches, ascending. */
 export function voicingPitches(h: Harmony): number[] {
-  return [...new Set(h.voicing.map((n) => n.midi))].sort((a, b) => a - b);
+  // Insertion into a short sorted list, skipping repeats (a voicing has a handful of notes).
+  const out: number[] = [];
+  for (const n of h.voicing) {
+    const m = n.midi;
+    let k = out.length;
+    while (k > 0 && out[k - 1] > m) k--;
+    if (k > 0 && out[k - 1] === m) continue;
+    out.splice(k, 0, m);
+  }
+  return out;
 }
 
 /** The report of one strike read as a harmony on its own (block chords; tools and tests). */

@@ -293,7 +293,12 @@ export function readHarmonies(input: ReadInput): Reading {
   // A tune played alone is listed as melody and never graded as chords (rule 18).
   const harmonies = all.filter((h) => !h.solo);
   const solo = all.filter((h) => h.solo).flatMap((h) => strikes.slice(h.firstStrike, h.endStrike).flatMap((s) => s.notes));
-  const allNotes = strikes.flatMap((s) => [...s.notes, ...s.graces.map((g) => g.note)]).sort((a, b) => a.start - b.start);
+  const allNotes: NoteEvent[] = [];
+  for (const s of strikes) {
+    for (const n of s.notes) allNotes.push(n);
+    for (const g of s.graces) allNotes.push(g.note);
+  }
+  allNotes.sort((a, b) => a.start - b.start);
   harmonies.forEach((h, i) => nameKinds(h, harmonies[i + 1], allNotes));
   const withLine = harmonies.filter((h) => h.ownLine).length;
   const hasMelody = withLine > 0 && withLine >= MELODY_SHARE * harmonies.length;

@@ -138,17 +138,25 @@ TEMPLATES.forEach((t, ti) => {
 
 /**
  * For each mask of pitch classes present, the flattened templates sharing at least two tones
- * with it (in template order), and how many of each one's tones are missing: built on first use.
+ * with it (in template order), and each one's charge: built on first use.
  */
 const CANDIDATES: Array<Int16Array | undefined> = new Array(4096);
-const MISSING: Array<Int8Array | undefined> = new Array(4096);
+/** Per candidate, its charge as a share of the span's mean weight (missing tones, four-note template). */
+const CHARGE: Array<Float64Array | undefined> = new Array(4096);
+/** Per candidate, its four tones; a three-note template's fourth is 12, a weight kept at 0. */
+const TONES: Array<Int8Array | undefined> = new Array(4096);
 function candidatesOf(presentMask: number): Int16Array {
   let list = CANDIDATES[presentMask];
   if (list) return list;
   const fs: number[] = [];
   for (let f = 0; f < FLAT_COUNT; f++) if (POPCOUNT[presentMask & FLAT_MASK[f]] >= 2) fs.push(f);
   list = Int16Array.from(fs);
-  MISSING[presentMask] = Int8Array.from(fs, (f) => FLAT_SIZE[f] - POPCOUNT[presentMask & FLAT_MASK[f]]);
+  const missing = Int8Array.from(fs, (f) => FLAT_SIZE[f] - POPCOUNT[presentMask & FLAT_MASK[f]]);
+  CHARGE[presentMask] = Float64Array.from(fs, (f, c) => MISSING_CHARGE * missing[c] + (FLAT_SIZE[f] > 3 ? SEVENTH_CHARGE : 0));
+  TONES[presentMask] = Int8Array.from({ length: 4 * fs.length }, (_, x) => {
+    const f = fs[x >> 2];
+    return (x & 3) < FLAT_SIZE[f] ? FLAT_TONES[f * 4 + (x & 3)] : 12;
+  });
   CANDIDATES[presentMask] = list;
   return list;
 }
@@ -186,7 +194,7 @@ function bestTemplateAt(w: Float64Array, bonus: Float64Array, at: number, bassPc
   let choiceScore = -Infinity;
   // Only templates sharing two tones or more with the span can be its chord.
   const candidates = candidatesOf(presentMask);
-  const missingOf = MISSING[presentMask]!;
+  const shareOf = CHARGE[presentMask]!;
   for (let c = 0; c < candidates.length; c++) {
     const f = candidates[c];
     const size = FLAT_SIZE[f];
@@ -197,8 +205,7 @@ function bestTemplateAt(w: Float64Array, bonus: Float64Array, at: number, bassPc
       inW += w[p];
       inB += bonus[at + p];
     }
-    const missing = missingOf[c];
-    const charge = unit * (MISSING_CHARGE * missing + (size > 3 ? SEVENTH_CHARGE : 0));
+    const charge = unit * shareOf[c];
     const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
     if (score > bestScore) bestScore = score;
     const chosen = 2 * (inW + inB) - total - bonusTotal - charge + (f % 12 === bassPc ? 1e-6 : 0);
@@ -232,33 +239,47 @@ function spanScoreAt(w: Float64Array, bonus: Float64Array, at: number): number {
   if (present === 0) return 0;
   const unit = total / present;
   const lone = present < 2 ? TOO_SHORT : 0;
-  let bestScore = -Infinity;
   const candidates = candidatesOf(presentMask);
-  const missingOf = MISSING[presentMask]!;
-  for (let c = 0; c < candidates.length; c++) {
-    const f = candidates[c];
-    const size = FLAT_SIZE[f];
+  if (candidates.length === 0) return -total - TOO_SHORT;
+  const shareOf = CHARGE[presentMask]!;
+  const tones = TONES[presentMask]!;
+  // First a quick pass: each template's score up to terms all templates share (sums in
+  // another order, so off by rounding only); then the exact sums, as bestTemplateAt does
+  // them, for the templates within rounding of the best. Adding the zero weight at 12 to a
+  // three-note template's sums changes none of them.
+  const a = SCRATCH;
+  for (let p = 0; p < 12; p++) a[p] = 2 * w[p] + bonus[at + p];
+  let top = -Infinity;
+  for (let c = 0, x = 0; c < candidates.length; c++, x += 4) {
+    const s = a[tones[x]] + a[tones[x + 1]] + a[tones[x + 2]] + a[tones[x + 3]] - unit * shareOf[c];
+    QUICK[c] = s;
+    if (s > top) top = s;
+  }
+  let bestScore = -Infinity;
+  for (let c = 0, x = 0; c < candidates.length; c++, x += 4) {
+    if (QUICK[c] < top - ROUNDING) continue;
     let inW = 0;
     let inB = 0;
-    for (let k = 0; k < size; k++) {
-      const p = FLAT_TONES[f * 4 + k];
-      inW += w[p];
-      inB += bonus[at + p];
+    for (let k = x; k < x + 4; k++) {
+      inW += w[tones[k]];
+      inB += bonus[at + tones[k]];
     }
-    const charge = unit * (MISSING_CHARGE * missingOf[c] + (size > 3 ? SEVENTH_CHARGE : 0));
+    const charge = unit * shareOf[c];
     const score = 2 * inW - total - charge - (bonusTotal - inB) - lone;
     if (score > bestScore) bestScore = score;
   }
-  return bestScore === -Infinity ? -total - TOO_SHORT : bestScore;
+  return bestScore;
 }
+const SCRATCH = new Float64Array(13);
+const QUICK = new Float64Array(FLAT_COUNT);
+/** Far more than the rounding error of the quick pass, far less than any real difference in score. */
+const ROUNDING = 1e-7;
+const BONUS_STRIDE = 13;
 
 function sameTemplate(a: Template | null, b: Template | null): boolean {
   if (!a || !b) return a === b;
-  if (a.template !== b.template) return false;
   // Symmetric chords (augmented, diminished seventh) are one chord on several roots.
-  const x = TEMPLATES[a.template].intervals.map((i) => (a.rootPc + i) % 12).sort((p, q) => p - q);
-  const y = TEMPLATES[b.template].intervals.map((i) => (b.rootPc + i) % 12).sort((p, q) => p - q);
-  return x.every((v, k) => v === y[k]);
+  return a.template === b.template && FLAT_MASK[a.template * 12 + a.rootPc] === FLAT_MASK[b.template * 12 + b.rootPc];
 }
 
 /** Rule 15: the division of the strikes into harmonies with the best total score. */
@@ -289,10 +310,11 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
   );
   // Per strike: the notes struck before it whose key is still down (held into a span that
   // starts there, listed in downList from downOff[i] to downOff[i + 1]), and the extra
-  // weight its first strike and bass get when choosing a chord (twelve from bonusAt[12 i]).
+  // weight its first strike and bass get when choosing a chord (twelve from bonusAt[13 i],
+  // and a thirteenth kept at 0).
   const downOff = new Int32Array(n + 1);
   let downList = new Int32Array(Math.max(16, off[n]));
-  const bonusAt = new Float64Array(12 * n);
+  const bonusAt = new Float64Array(BONUS_STRIDE * n);
   const bassAt = new Int32Array(n).fill(-1);
   const down: number[] = [];
   for (let i = 0; i < n; i++) {
@@ -308,7 +330,7 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
     }
     for (let q = 0; q < kept; q++) downList[downOff[i] + q] = down[q];
     downOff[i + 1] = downOff[i] + kept;
-    const b = 12 * i;
+    const b = BONUS_STRIDE * i;
     let bass = Infinity;
     for (const x of down) if (KEYEND[x] >= t0 + HELD_FOR - EPS && MIDI[x] < bass) bass = MIDI[x];
     for (let x = off[i]; x < off[i + 1]; x++) {
@@ -327,7 +349,8 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
   const from = new Int32Array(n + 1).fill(-1);
   best[0] = 0;
   const struck = new Float64Array(12);
-  const w = new Float64Array(12);
+  // Weights at index 12 (and each strike's thirteenth bonus) stay 0: see spanScoreAt.
+  const w = new Float64Array(13);
   for (let j = 1; j <= n; j++) {
     struck.fill(0);
     const tj = T[j];
@@ -351,7 +374,7 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
       // whose best possible score cannot win.
       if (best[j] !== -Infinity && best[i] + 2 * heaviestFour(w) - total - charges <= best[j] + EPS) continue;
       budget?.spend(SPAN_STEPS);
-      const sum = best[i] + spanScoreAt(w, bonusAt, 12 * i) - charges;
+      const sum = best[i] + spanScoreAt(w, bonusAt, BONUS_STRIDE * i) - charges;
       if (sum > best[j] + EPS) {
         best[j] = sum;
         from[j] = i;
@@ -370,7 +393,7 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
       const x = downList[q];
       w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - T[i]);
     }
-    spans.push({ first: i, end: j, chord: bestTemplateAt(w, bonusAt, 12 * i, bassAt[i] < 0 ? null : bassAt[i]).chord });
+    spans.push({ first: i, end: j, chord: bestTemplateAt(w, bonusAt, BONUS_STRIDE * i, bassAt[i] < 0 ? null : bassAt[i]).chord });
   }
   spans.reverse();
   // Spans of one template are one harmony unless a silence divides them: the search splits

@@ -64,11 +64,12 @@ function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
 
 /** Sound and heard ends of every note (notes sorted by onset). */
 export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[]): Map<NoteEvent, Sounding> {
-  const byPitch = new Map<number, NoteEvent[]>();
+  // Notes by pitch, in onset order (two spare lists each side for the steps below).
+  const byPitch: Array<NoteEvent[] | undefined> = new Array(132);
   for (const n of sorted) {
-    const list = byPitch.get(n.midi);
+    const list = byPitch[n.midi + 2];
     if (list) list.push(n);
-    else byPitch.set(n.midi, [n]);
+    else byPitch[n.midi + 2] = [n];
   }
   const out = new Map<NoteEvent, Sounding>();
   for (const n of sorted) {
@@ -76,13 +77,13 @@ export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpa
     // pressed as the hand lets go (within PEDAL_CATCH) is the change of pedal itself.
     const span = pedalSpanAt(pedal, n.end - PEDAL_CATCH);
     let soundEnd = span ? Math.max(n.end, span.end) : n.end;
-    const again = firstOnsetAfter(byPitch.get(n.midi)!, n.start);
+    const again = firstOnsetAfter(byPitch[n.midi + 2]!, n.start);
     if (again < soundEnd) soundEnd = again;
     let heardEnd = soundEnd;
     if (soundEnd > n.end + EPS) {
       // Carried by the pedal: a step away struck meanwhile ends it for the ear.
-      for (const step of [-2, -1, 1, 2]) {
-        const list = byPitch.get(n.midi + step);
+      for (let step = -2; step <= 2; step++) {
+        const list = step === 0 ? undefined : byPitch[n.midi + 2 + step];
         if (!list) continue;
         const t = firstOnsetAfter(list, n.end - EPS);
         if (t < heardEnd) heardEnd = Math.max(n.end, t);

@@ -109,8 +109,10 @@ export function groupStrikes(sorted: NoteEvent[], graces: Map<NoteEvent, NoteEve
   return strikes.filter((s) => s.notes.length > 0);
 }
 
-function distinctPitches(notes: NoteEvent[]): number[] {
-  return [...new Set(notes.map((n) => n.midi))].sort((a, b) => a - b);
+/** Whether every note of a strike has the same pitch. */
+function onePitch(notes: readonly NoteEvent[]): boolean {
+  for (const n of notes) if (n.midi !== notes[0].midi) return false;
+  return true;
 }
 
 /** Rule 3, second half: a lone bass just before or just after a chord joins it. */
@@ -118,18 +120,18 @@ export function mergeSeparateBass(strikes: Strike[]): Strike[] {
   const out: Strike[] = [];
   for (let i = 0; i < strikes.length; i++) {
     const s = strikes[i];
-    const pitches = distinctPitches(s.notes);
-    if (pitches.length === 1 && s.graces.length === 0) {
+    if (s.notes.length > 0 && onePitch(s.notes) && s.graces.length === 0) {
+      const pitch = s.notes[0].midi;
       const next = strikes[i + 1];
       // We merge only into a strike of two or more pitches: a bass under a chord, not a run of
       // single melody notes pairing up.
-      if (next && next.start - s.start <= BASS_MERGE + EPS && isBelow(pitches[0], next)) {
+      if (next && next.start - s.start <= BASS_MERGE + EPS && isBelow(pitch, next)) {
         next.notes.unshift(...s.notes);
         next.start = s.start;
         continue;
       }
       const prev = out[out.length - 1];
-      if (prev && s.start - prev.start <= BASS_MERGE + EPS && isBelow(pitches[0], prev)) {
+      if (prev && s.start - prev.start <= BASS_MERGE + EPS && isBelow(pitch, prev)) {
         prev.notes.push(...s.notes);
         continue;
       }
@@ -139,20 +141,26 @@ export function mergeSeparateBass(strikes: Strike[]): Strike[] {
   return out;
 }
 
+/** Whether the strike has two or more pitches, all above `pitch`. */
 function isBelow(pitch: number, s: Strike): boolean {
-  const others = distinctPitches(s.notes);
-  return others.length >= 2 && pitch < others[0];
+  if (s.notes.length === 0) return false;
+  let low = Infinity;
+  for (const n of s.notes) if (n.midi < low) low = n.midi;
+  return !onePitch(s.notes) && pitch < low;
 }
 
 /** Rule 3, first half: notes held by the key at least 150 ms into a later strike join it. */
 export function addHeldNotes(strikes: Strike[]): void {
   // Per pitch only the note released last matters, so each strike scans at most 128 keys.
   const down = new Map<number, NoteEvent>();
-  for (const s of strikes) {
-    const own = new Set(s.notes.map((n) => n.midi));
+  const own = new Int32Array(128).fill(-1);
+  for (let k = 0; k < strikes.length; k++) {
+    const s = strikes[k];
+    // The strike's own pitches, marked with its index (a strike may hold thousands of notes).
+    for (const n of s.notes) own[n.midi] = k;
     for (const [pitch, n] of down) {
       if (n.end < s.start + HELD_FOR - EPS) down.delete(pitch);
-      else if (!own.has(pitch) && n.start < s.start - EPS) s.held.push(n);
+      else if (n.start < s.start - EPS && !(pitch >= 0 && pitch < 128 ? own[pitch] === k : s.notes.some((x) => x.midi === pitch))) s.held.push(n);
     }
     for (const n of s.notes) {
       const prev = down.get(n.midi);

@@ -173,10 +173,13 @@ function fitBeat(gaps: readonly number[], beat: number): number {
  * whichever the intervals fit best.
  */
 export function tempoSteadiness(onsets: readonly number[], tempos: readonly TempoPoint[] = []): BeatSteadiness {
-  const times = [...new Set(onsets.filter(Number.isFinite))].sort((a, b) => a - b);
+  // Numeric sorts of typed arrays (no comparator calls); repeated onsets counted once.
+  const ascending = Float64Array.from(onsets.filter(Number.isFinite)).sort();
+  const times: number[] = [];
+  for (const t of ascending) if (times.length === 0 || t !== times[times.length - 1]) times.push(t);
   if (times.length < 2) return { medianGapSec: null, spread: null, steadiness: 1, beatSec: null, beatFrom: null };
   const gaps = times.slice(1).map((t, i) => t - times[i]);
-  const sortedGaps = [...gaps].sort((a, b) => a - b);
+  const sortedGaps = Array.from(Float64Array.from(gaps).sort());
   const medianGapSec = round3(median(sortedGaps));
 
   // Candidates: the beat read from the strikes, and the tempo map's where the strikes follow
