@@ -56,6 +56,7 @@ export default [
       route("takes", "routes/api.takes.ts"),
       route("takes/:takeId", "routes/api.takes.$takeId.ts"),
       route("takes/:takeId/file", "routes/api.takes.$takeId.file.ts"),
+      route("takes/:takeId/window", "routes/api.takes.$takeId.window.ts"),
     ]),
     layout("routes/_api.teachers.ts", [
       route("students/:studentId/export", "routes/api.students.$studentId.export.ts"),

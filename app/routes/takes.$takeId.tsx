@@ -17,12 +17,14 @@ import { IntendedFlags } from "~/components/feedback/IntendedFlags";
 import { ReviewToggle } from "~/components/feedback/ReviewToggle";
 import { takePageFeedback } from "~/models/feedback.server";
 import { withIntendedMarks } from "~/lib/intendedScore";
-import { heardKey } from "~/lib/nextStep";
+import { heardKey, nextStep } from "~/lib/nextStep";
+import { placeMismatches } from "~/lib/mismatchPlaces";
+import { stitchWindows, timelineOf, windowOf, windowVersion } from "~/lib/takeWindows";
+import type { TakeAnalysis } from "~/analysis/types";
 import { failureMessage, failureOf } from "~/forms/failure";
 import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
-import { clock, dayLabel, pretty, timeLabel } from "~/lib/noteText";
+import { clock, dayLabel, keyOf, pretty, timeLabel } from "~/lib/noteText";
 import { replaceTakeFromForm } from "~/lib/takeUpload.server";
-import { packNotes, unpackNotes } from "~/lib/packNotes";
 import { formatBytes } from "~/lib/uploadRows";
 import { exerciseForStudent, listExercisesForStudent } from "~/models/exercises.server";
 import { deleteTake, fitNoticeForTake, getTakeView, moveTake } from "~/models/takes.server";
@@ -32,8 +34,38 @@ export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
 ];
 
+/** The first flagged change is where a student's attention should go first. */
+function firstToLookAt(analysis: TakeAnalysis): number | null {
+  if (analysis.changes.length === 0) return null;
+  const flagged = analysis.changes.findIndex((c) => c.flags.length > 0 || analysis.chords[c.to]?.flags.length);
+  return flagged === -1 ? 0 : flagged;
+}
+
+/**
+ * The analysis as the page carries it: the summary, the time line of every harmony and one
+ * window of changes (where the student should look first, or `?change=N`); the page fetches
+ * the other windows from /api/takes/:id/window. What needs the whole take (the next step,
+ * where the differences from the exercise sit) is worked out here.
+ */
+function analysisForPage(analysis: TakeAnalysis, notes: Parameters<typeof windowOf>[1], asked: number | null, heard: string | null, intended: Parameters<typeof nextStep>[3]) {
+  const initialSelected = analysis.changes.length === 0 ? null : asked !== null ? Math.min(asked, analysis.changes.length - 1) : firstToLookAt(analysis);
+  return {
+    summary: analysis.summary,
+    timeline: timelineOf(analysis, notes),
+    firstWindow: windowOf(analysis, notes, initialSelected ?? 0),
+    initialSelected,
+    step: nextStep(analysis, heard, keyOf(analysis.summary.key), intended),
+    placed: placeMismatches(analysis),
+  };
+}
+
+const changeQuery = z.coerce.number().int().min(1).max(10_000_000);
+
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
+  // "Go to change N" works without scripts: the page opens at that change's window.
+  const askedParam = changeQuery.safeParse(new URL(request.url).searchParams.get("change") ?? undefined);
+  const asked = askedParam.success ? askedParam.data - 1 : null;
   const view = await getTakeView(take.id);
   if (!view) throw data("There is no such take.", { status: 404 });
   const isOwner = user.id === take.studentId;
@@ -46,9 +78,9 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     : [];
   // The key the notes suggest, for a take checked against an exercise ("this sounds like D major").
   const heard = view.analysis?.summary.target !== undefined ? heardKey(view.notes, view.analysis.chords) : null;
-  // The notes go as a flat number list (see packNotes); the page unpacks them once.
-  const { notes, pedal: _pedal, ...rest } = view;
-  return { view: rest, packedNotes: packNotes(notes), isOwner, exercises, feedback, fit: fitNoticeForTake(take.id), heardKey: heard };
+  const { notes, pedal: _pedal, analysis, ...rest } = view;
+  const windowed = analysis ? { ...analysisForPage(analysis, notes, asked, heard, feedback.intended), version: windowVersion(take) } : null;
+  return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id) };
 }
 
 const CHOOSE = "Choose an exercise and a key.";
@@ -101,11 +133,15 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, packedNotes, isOwner, exercises, feedback, fit, heardKey: heard } = loaderData;
-  const notes = useMemo(() => unpackNotes(packedNotes), [packedNotes]);
+  const { view, windowed, isOwner, exercises, feedback, fit } = loaderData;
+  // The flags list and the exercise's grading read chords and changes from the time line and the first window.
+  const analysis = useMemo(
+    () => (windowed ? { ...stitchWindows(windowed.timeline, new Map([[windowed.firstWindow.from, windowed.firstWindow]])), summary: windowed.summary } : null),
+    [windowed],
+  );
   // Changes a comment is pinned to carry a mark in the change list and under the roll.
   const commented = useMemo(() => new Set(feedback.threads.flatMap((t) => (t.changeIdx === null ? [] : [t.changeIdx]))), [feedback.threads]);
-  const { take, analysis } = view;
+  const { take } = view;
   const actionData = useActionData<typeof action>();
   const failure = failureOf(actionData);
   const failed = failureMessage(failure);
@@ -146,9 +182,9 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       {fit ? <ExerciseFitNotice takeId={take.id} notice={fit} canMove={isOwner} /> : null}
       {fit && isOwner ? <MoveToLikelyForm takeId={take.id} notice={fit} /> : null}
 
-      {take.status === "analysed" && analysis ? (
+      {take.status === "analysed" && windowed ? (
         // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.
-        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} analysis={analysis} notes={notes} durationSec={take.durationSec} heardKey={heard} commented={commented} intended={feedback.intended}
+        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} takeId={take.id} version={windowed.version} summary={windowed.summary} timeline={windowed.timeline} firstWindow={windowed.firstWindow} step={windowed.step} placed={windowed.placed} initialSelected={windowed.initialSelected} durationSec={take.durationSec} commented={commented}
           changeExtras={(i) => (
             <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
           )}

@@ -74,6 +74,8 @@ const EXPECTED: Record<string, Expectation> = {
   "api/takes/:takeId": { GET: ownedByA(401), POST: row(401, 204, 403, 403, 403, 403), actionMethod: "DELETE" },
   // The fixture take has no file on disk: whoever may see it is told the file is missing.
   "api/takes/:takeId/file": { GET: ownedByA(401, 404) },
+  // A window of the take's analysis: refused exactly like the take's page.
+  "api/takes/:takeId/window": { GET: ownedByA(401, 409), query: "?from=0" },
   // Take pages: uploading is for students; a take's page for its student and the studio's teachers,
   // changing it (move, replace, delete) for its student only.
   "takes/new": { GET: row("login", 200, 200, 403, 403, 403), POST: row("login", 200, 200, 403, 403, 403) },

@@ -148,11 +148,11 @@ describe("intended flags", () => {
 
     // The take page shows the score without the intended flag, and the engine's beside it.
     const shown = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
-      view: { analysis: { summary: { score: number; scoreParts: { cleanliness: number } } } };
+      windowed: { summary: { score: number; scoreParts: { cleanliness: number } } };
       feedback: { score: number; engineScore: number };
     };
-    expect(shown.view.analysis.summary.score).toBe(byHand(6 / 7));
-    expect(shown.view.analysis.summary.scoreParts.cleanliness).toBeCloseTo(6 / 7, 10);
+    expect(shown.windowed.summary.score).toBe(byHand(6 / 7));
+    expect(shown.windowed.summary.scoreParts.cleanliness).toBeCloseTo(6 / 7, 10);
     expect(shown.feedback).toMatchObject({ score: byHand(6 / 7), engineScore: engine.score });
 
     expect(await reanalyseTake(ids.take)).toBe("analysed");

@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { useFetcher } from "react-router";
 import { failureMessage, failureOf } from "~/forms/failure";
 import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
@@ -12,7 +13,7 @@ type FlagSpot = { on: "chord" | "change"; idx: number; flag: string; where: stri
 
 /** Every flag of the take with where it sits, in the take's order. */
 export function flagSpots(analysis: Pick<TakeAnalysis, "chords" | "changes">): FlagSpot[] {
-  const name = (i: number) => pretty(analysis.chords[i]?.symbol ?? analysis.chords[i]?.noteNames.join(" ") ?? "?");
+  const name = (i: number) => pretty(analysis.chords[i]?.symbol ?? (analysis.chords[i]?.noteNames.join(" ") || "?"));
   const spots: FlagSpot[] = [];
   analysis.changes.forEach((c, i) => {
     for (const f of c.flags) spots.push({ on: "change", idx: i, flag: f, where: `Change ${i + 1}: ${name(c.from)} → ${name(c.to)}` });
@@ -76,9 +77,12 @@ export function IntendedFlags({
   /** the engine's own score, before intended flags were left out */
   engineScore: number | null;
 }) {
+  const [all, setAll] = useState(false);
   const spots = flagSpots(analysis);
   if (spots.length === 0) return <p className="text-sm text-ink-soft">No flags on this take.</p>;
   const markOf = (s: FlagSpot) => marks.find((m) => m.on === s.on && m.idx === s.idx && m.flag === s.flag);
+  // A long take can carry thousands of flags: the first ones (and every marked one) are listed until asked for all.
+  const shown = all ? spots : spots.filter((s, i) => i < FIRST_SPOTS || markOf(s));
   const changed = score !== null && engineScore !== null && score !== engineScore;
   return (
     <div className="flex flex-col gap-3">
@@ -88,7 +92,7 @@ export function IntendedFlags({
         </p>
       ) : null}
       <ul className="flex flex-col gap-3">
-        {spots.map((s) => (
+        {shown.map((s) => (
           <li key={`${s.on}-${s.idx}-${s.flag}`} className="flex flex-col gap-1 border-b border-line/60 pb-2">
             <span className="text-sm">
               <strong>{FLAG_TITLES[s.flag as FlagName] ?? s.flag}</strong> · {s.where}
@@ -97,6 +101,13 @@ export function IntendedFlags({
           </li>
         ))}
       </ul>
+      {shown.length < spots.length ? (
+        <Button type="button" variant="secondary" className="self-start" onClick={() => setAll(true)}>
+          Show all {spots.length} flags
+        </Button>
+      ) : null}
     </div>
   );
 }
+
+const FIRST_SPOTS = 30;

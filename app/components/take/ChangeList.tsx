@@ -52,7 +52,7 @@ function Pager({
 
 export function chordName(c: ChordReport | undefined): string {
   if (!c) return "?";
-  return c.symbol ? pretty(c.symbol) : c.noteNames.map(pretty).join(" ");
+  return c.symbol ? pretty(c.symbol) : c.noteNames.length ? c.noteNames.map(pretty).join(" ") : "…";
 }
 
 /** "moved 15 · best 3", with the motion beyond the best called out when there was any. */
@@ -81,6 +81,8 @@ export function ChangeList({
   selected,
   onSelect,
   commented,
+  isLoaded = () => true,
+  onNeed,
 }: {
   chords: ChordReport[];
   changes: ChangeReport[];
@@ -89,6 +91,10 @@ export function ChangeList({
   onSelect: (change: number | null) => void;
   /** changes that carry a teacher's comment */
   commented?: ReadonlySet<number>;
+  /** whether a change's window is here (a long take's changes arrive in windows) */
+  isLoaded?: (change: number) => boolean;
+  /** asks for the windows of changes shown but not here yet */
+  onNeed?: (...changes: number[]) => void;
 }) {
   const list = useRef<HTMLOListElement>(null);
   const [flaggedOnly, setFlaggedOnly] = useState(false);
@@ -105,11 +111,17 @@ export function ChangeList({
   const start = Math.min(pageStart, Math.max(0, Math.floor((indices.length - 1) / PAGE) * PAGE));
   const page = indices.slice(start, start + PAGE);
   const selectedShown = selected !== null && page.includes(selected);
+  const missing = page.filter((i) => !isLoaded(i));
+  const missingKey = missing.join(",");
+  useEffect(() => {
+    if (missing.length) onNeed?.(...missing);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [missingKey, onNeed]);
   const focusChange = (i: number | null) => {
     onSelect(i);
     if (i !== null) requestAnimationFrame(() => list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus());
   };
-  const opening = chords[0] ? explainChord(chords[0], keyInfo) : [];
+  const opening = chords[0]?.notes.length ? explainChord(chords[0], keyInfo) : [];
   // The list is part of the page's one scroll (no scroll box of its own); it pages forty at a time.
   return (
     <div>
@@ -140,7 +152,8 @@ export function ChangeList({
         {page.map((i) => {
           const change = changes[i];
           const isSelected = i === selected;
-          const explanations = explainChange(change, chords, keyInfo);
+          const here = isLoaded(i);
+          const explanations = here ? explainChange(change, chords, keyInfo) : [];
           return (
             <li
               key={i}
@@ -174,7 +187,7 @@ export function ChangeList({
                     </span>
                   ) : null}
                 </span>
-                <MotionLine change={change} />
+                {here ? <MotionLine change={change} /> : <span className="text-ink-soft">fetching…</span>}
               </button>
               {explanations.length ? (
                 <ul className="mt-2 flex flex-col gap-1.5 border-t border-line/70 pt-2" aria-label={`Flags on change ${i + 1}`}>

@@ -26,6 +26,10 @@ type Props = {
   marks: LaneMark[];
   /** draw every change's suggested voicing (while the smoother path plays), not only the selected one */
   ghostAll?: boolean;
+  /** lowest and highest key of the whole take, when only some of its notes are here yet */
+  range?: [number, number] | null;
+  /** told the stretch of time in view (seconds), so the notes there can be fetched */
+  onView?: (fromSec: number, toSec: number) => void;
 };
 
 // A short take is stretched to fill the card (about 1,000 px wide at the page's widest).
@@ -39,11 +43,12 @@ const FILL_WIDTH = 1000;
  * lane of Roman numerals, and rows of marks. The whole take scrolls sideways inside its strip;
  * the arrow keys move between changes.
  */
-export function PianoRoll({ notes, chords, changes, durationSec, selected, onSelect, playTime, sounding, marks, ghostAll = false }: Props) {
-  const layout = useMemo(
-    () => rollLayout(notes, durationSec, { pxPerSec: Math.max(90, Math.floor(FILL_WIDTH / Math.max(1, durationSec))), rowHeight: 12 }),
-    [notes, durationSec],
-  );
+export function PianoRoll({ notes, chords, changes, durationSec, selected, onSelect, playTime, sounding, marks, ghostAll = false, range = null, onView }: Props) {
+  const layout = useMemo(() => {
+    // The whole take's key range keeps the roll's rows steady while windows of notes arrive.
+    const edges = range ? [{ midi: range[0], start: 0, end: 0 }, { midi: range[1], start: 0, end: 0 }] : [];
+    return rollLayout([...edges, ...notes], durationSec, { pxPerSec: Math.max(90, Math.floor(FILL_WIDTH / Math.max(1, durationSec))), rowHeight: 12 });
+  }, [notes, durationSec, range]);
   const cells = useMemo(() => laneCells(chords, layout.pxPerSec), [chords, layout.pxPerSec]);
   const packed = useMemo(() => packMarks(marks), [marks]);
   const drawing = useMemo(() => {
@@ -59,8 +64,9 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
     return {
       blackRows: boxesPath(rows.filter(isBlackKey).map((m) => ({ x: 0, y: yOf(layout, m), w: layout.width, h: layout.rowHeight }))),
       octaveLines: boxesPath(rows.filter((m) => m % 12 === 0).map((m) => ({ x: 0, y: yOf(layout, m) + layout.rowHeight - 0.5, w: layout.width, h: 1 }))),
+      // Chords known only from the time line (their window not here yet) have no notes to shade.
       chords: boxesPath(
-        chords.map((c) => {
+        chords.filter((c) => c.notes.length > 0).map((c) => {
           const top = yOf(layout, c.notes[c.notes.length - 1]) - 2;
           const end = Math.max(c.endSec, c.startSec + 0.12);
           return { x: xOf(layout, c.startSec) - 2, y: top, w: xOf(layout, end) - xOf(layout, c.startSec) + 4, h: yOf(layout, c.notes[0]) + layout.rowHeight + 2 - top };
@@ -79,8 +85,6 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
           }),
         )
         .join(""),
-      // Lane cell edges: a thin line where each harmony begins.
-      laneEdges: boxesPath(cells.map((c) => ({ x: c.x, y: 0, w: 1, h: 2 * LANE_H }))),
     };
   }, [notes, chords, layout, cells]);
 
@@ -103,8 +107,8 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
   const highlighted: Array<{ k: number; tone: "selected" | "sounding" }> = [];
   const scroller = useRef<HTMLDivElement>(null);
   const change = selected !== null ? changes[selected] : undefined;
-  if (change) highlighted.push({ k: change.from, tone: "selected" }, { k: change.to, tone: "selected" });
-  if (sounding !== null && chords[sounding]) highlighted.push({ k: sounding, tone: "sounding" });
+  if (change) for (const k of [change.from, change.to]) if (chords[k]?.notes.length) highlighted.push({ k, tone: "selected" });
+  if (sounding !== null && chords[sounding]?.notes.length) highlighted.push({ k: sounding, tone: "sounding" });
   const chordEnd = (k: number) => Math.max(chords[k].endSec, chords[k].startSec + 0.12);
 
   // Only the stretch in view gets its text labels: a 10-minute take has over a thousand chords.
@@ -113,6 +117,11 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
     const el = scroller.current;
     if (el) setView({ left: el.scrollLeft - 300, right: el.scrollLeft + el.clientWidth + 300 });
   };
+  // The notes of the stretch in view (and a screen either side) are asked for as it scrolls.
+  useEffect(() => {
+    onView?.(Math.max(0, view.left) / layout.pxPerSec, view.right / layout.pxPerSec);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [view.left, view.right, layout.pxPerSec]);
   // Keep the selected change (or the playhead) in view on a long take.
   const focusSec = playTime ?? (change ? chords[change.from]?.startSec : null);
   useEffect(() => {
@@ -124,6 +133,8 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
   }, [focusSec, layout]);
 
   const shownCells = cellsInView(cells, view.left, view.right);
+  // Lane cell edges, a thin line where each harmony begins: only in view (a long take has thousands).
+  const laneEdges = boxesPath(shownCells.map((k) => ({ x: cells[k].x, y: 0, w: 1, h: 2 * LANE_H })));
   const shownMarks = packed.placed.filter((m) => m.left + m.w >= view.left && m.left <= view.right);
   const rows: number[] = [];
   for (let m = layout.lowest; m <= layout.highest; m++) rows.push(m);
@@ -233,7 +244,7 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
             {sounding !== null && cells[sounding] ? (
               <rect x={cells[sounding].x} y={0} width={cells[sounding].w} height={2 * LANE_H} className="fill-tide/25" />
             ) : null}
-            <path d={drawing.laneEdges} className="fill-line" />
+            <path d={laneEdges} className="fill-line" />
             <line x1={0} x2={layout.width} y1={LANE_H} y2={LANE_H} className="stroke-line" />
             <line x1={0} x2={layout.width} y1={2 * LANE_H} y2={2 * LANE_H} className="stroke-line" />
           </g>

@@ -1,77 +1,97 @@
 import { useEffect, useMemo, useState, type ReactNode } from "react";
-import type { NoteEvent, TakeAnalysis } from "~/analysis/types";
+import type { Summary } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { keyOf, pretty } from "~/lib/noteText";
 import { chordIndexAt, pairPlan, smootherPathPlan, stretchPlan, takePlan } from "~/lib/playbackPlan";
 import { laneMarks } from "~/lib/chordLane";
-import { nextStep } from "~/lib/nextStep";
+import type { NextStep } from "~/lib/nextStep";
 import { rollLayout } from "~/lib/pianoRoll";
+import type { TakeWindow, Timeline } from "~/lib/takeWindows";
 import { ChangeDetail } from "./ChangeDetail";
 import { ChangeList } from "./ChangeList";
-import { placeMismatches } from "~/lib/mismatchPlaces";
+import type { PlacedMismatch } from "~/lib/mismatchPlaces";
 import { NextStepPanel } from "./NextStepPanel";
 import { PianoRoll, PianoRollLegend } from "./PianoRoll";
 import { PracticeControls } from "./PracticeControls";
 import { TakeSummary } from "./TakeSummary";
 import { usePlayback } from "./usePlayback";
+import { useTakeWindows } from "./useTakeWindows";
 
-/** The first flagged change is where a student's attention should go first. */
-function firstToLookAt(analysis: TakeAnalysis): number | null {
-  if (analysis.changes.length === 0) return null;
-  const flagged = analysis.changes.findIndex((c) => c.flags.length > 0 || analysis.chords[c.to]?.flags.length);
-  return flagged === -1 ? 0 : flagged;
+/** The first chord starting at or after `sec` (binary search over chords in time order). */
+function chordFrom(chords: ReadonlyArray<{ startSec: number }>, sec: number): number {
+  let lo = 0;
+  let hi = chords.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (chords[mid].startSec < sec) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }
 
 /**
  * The analysed take: the next step, the summary with the score explained, the piano roll with
  * its chord lanes and practice controls, the changes and the selected change drawn as voice leading.
+ * A long take arrives in windows (see app/lib/takeWindows.ts): the page brings the time line and
+ * one window, and the roll, the change list and the selected change ask for the windows they lack.
  */
 export function TakeAnalysisView({
-  analysis,
-  notes,
+  takeId,
+  version,
+  summary,
+  timeline,
+  firstWindow,
+  step,
+  placed,
+  initialSelected,
   durationSec,
-  heardKey = null,
   commented,
-  intended = [],
   changeExtras,
 }: {
-  analysis: TakeAnalysis;
-  notes: NoteEvent[];
+  takeId: string;
+  /** names the analysis, so fetched windows are cached while it holds */
+  version: string;
+  summary: Summary;
+  timeline: Timeline;
+  firstWindow: TakeWindow;
+  /** what to look at first, worked out on the server from the whole take */
+  step: NextStep;
+  /** differences from the exercise, each at its place among the chords */
+  placed: PlacedMismatch[];
+  initialSelected: number | null;
   durationSec: number;
-  /** the key the notes suggest, whatever key the take was given */
-  heardKey?: string | null;
   /** changes carrying a teacher's comment */
   commented?: ReadonlySet<number>;
-  /** flags the teacher marked as intended */
-  intended?: ReadonlyArray<{ on: "chord" | "change"; idx: number; flag: string }>;
   /** Shown under the selected change (comments pinned to it). */
   changeExtras?: (index: number) => ReactNode;
 }) {
-  const { chords, changes, summary } = analysis;
+  const windows = useTakeWindows(takeId, version, timeline, firstWindow);
+  const { known, need, isLoaded } = windows;
+  const { chords, changes, notes } = known;
   const keyInfo = useMemo(() => keyOf(summary.key), [summary.key]);
-  const step = useMemo(() => nextStep(analysis, heardKey, keyInfo, intended), [analysis, heardKey, keyInfo, intended]);
-  const [selected, setSelected] = useState<number | null>(() => firstToLookAt(analysis));
+  const [selected, setSelected] = useState<number | null>(initialSelected);
   const length = Math.max(durationSec, summary.durationSec);
   // Differences from the exercise, flags and comments, at their places under the roll (same scale as the roll).
-  const pxPerSec = useMemo(() => rollLayout(notes, length, { pxPerSec: Math.max(90, Math.floor(1000 / Math.max(1, length))) }).pxPerSec, [notes, length]);
+  const pxPerSec = useMemo(() => rollLayout([], length, { pxPerSec: Math.max(90, Math.floor(1000 / Math.max(1, length))) }).pxPerSec, [length]);
   const commentedSet = useMemo(() => commented ?? new Set<number>(), [commented]);
-  const marks = useMemo(
-    () => laneMarks(chords, changes, placeMismatches(analysis), commentedSet, pxPerSec, pretty),
-    [analysis, chords, changes, commentedSet, pxPerSec],
-  );
+  const marks = useMemo(() => laneMarks(chords, changes, placed, commentedSet, pxPerSec, pretty), [placed, chords, changes, commentedSet, pxPerSec]);
+  // The selected change (and the chord it leads to) come in with their window.
+  useEffect(() => {
+    if (selected !== null) need(selected, selected + 1);
+  }, [selected, need]);
   // A link to one change (#change-3, as feedback mail and the feedback panel send) opens that change.
   useEffect(() => {
     const follow = () => {
       const m = /^#change-(\d+)$/.exec(window.location.hash);
-      if (!m || Number(m[1]) >= analysis.changes.length) return;
+      if (!m || Number(m[1]) >= timeline.changeCount) return;
       setSelected(Number(m[1]));
       requestAnimationFrame(() => document.getElementById(`change-${m[1]}`)?.scrollIntoView({ block: "center" }));
     };
     follow();
     window.addEventListener("hashchange", follow);
     return () => window.removeEventListener("hashchange", follow);
-  }, [analysis.changes.length]);
+  }, [timeline.changeCount]);
   const playback = usePlayback();
   const { state } = playback;
   const timed = state.mode === "take" || state.mode === "smoother" || state.mode === "loop";
@@ -115,8 +135,14 @@ export function TakeAnalysisView({
             speed={playback.speed}
             onSpeed={playback.setSpeed}
             loopLabel={loopChange ? `change ${selected! + 1}` : null}
-            onPlayTake={() => playback.play("take", takePlan(notes), "the take")}
-            onPlaySmoother={() => playback.play("smoother", smootherPathPlan(chords, changes, analysis.melodyNotes), "the smoother path")}
+            onPlayTake={() => {
+              if (windows.complete) playback.play("take", takePlan(notes), "the take");
+              else void windows.loadAll().then((all) => playback.play("take", takePlan(all.notes), "the take"));
+            }}
+            onPlaySmoother={() => {
+              if (windows.complete) playback.play("smoother", smootherPathPlan(chords, changes, known.melodyNotes), "the smoother path");
+              else void windows.loadAll().then((all) => playback.play("smoother", smootherPathPlan(all.chords, all.changes, all.melodyNotes), "the smoother path"));
+            }}
             onLoop={() => {
               if (!loopChange) return;
               const from = chords[loopChange.from];
@@ -140,6 +166,14 @@ export function TakeAnalysisView({
           sounding={sounding >= 0 ? sounding : null}
           marks={marks}
           ghostAll={state.mode === "smoother"}
+          range={timeline.range}
+          onView={(from, to) => {
+            const a = Math.max(0, chordFrom(chords, from) - 1);
+            const b = Math.min(chords.length - 1, chordFrom(chords, to));
+            const wanted: number[] = [];
+            for (let k = a; k <= b; k += 20) wanted.push(k);
+            need(...wanted, b);
+          }}
         />
         <PianoRollLegend />
       </Card>
@@ -149,11 +183,16 @@ export function TakeAnalysisView({
           {changes.length === 0 ? (
             <p className="text-sm text-ink-soft">A single chord has no changes to grade.</p>
           ) : (
-            <ChangeList chords={chords} changes={changes} keyInfo={keyInfo} selected={selected} onSelect={setSelected} commented={commentedSet} />
+            <>
+              <GoToChange count={changes.length} onGo={open} />
+              <ChangeList chords={chords} changes={changes} keyInfo={keyInfo} selected={selected} onSelect={setSelected} commented={commentedSet} isLoaded={isLoaded} onNeed={need} />
+            </>
           )}
         </Card>
         <Card title="Try it another way" className="lg:sticky lg:top-4">
-          {selected !== null && changes[selected] ? (
+          {selected !== null && changes[selected] && !isLoaded(selected) ? (
+            <p className="text-sm text-ink-soft" role="status">Fetching change {selected + 1}…</p>
+          ) : selected !== null && changes[selected] ? (
             <ChangeDetail
               index={selected}
               change={changes[selected]}
@@ -169,5 +208,33 @@ export function TakeAnalysisView({
         </Card>
       </div>
     </div>
+  );
+}
+
+/**
+ * "Go to change N": a plain form (without scripts the page opens at that change's window,
+ * from the loader's `?change=`); with scripts it selects the change in place.
+ */
+function GoToChange({ count, onGo }: { count: number; onGo: (index: number) => void }) {
+  if (count <= 1) return null;
+  return (
+    <form
+      method="get"
+      className="mb-3 flex items-center gap-2 text-sm"
+      onSubmit={(e) => {
+        const n = Number(new FormData(e.currentTarget).get("change"));
+        if (!Number.isInteger(n) || n < 1 || n > count) return;
+        e.preventDefault();
+        onGo(n - 1);
+      }}
+    >
+      <label className="flex items-center gap-2">
+        Go to change
+        <input name="change" type="number" min={1} max={count} required className="w-24 rounded-md border border-line bg-white px-2 py-1" />
+      </label>
+      <button type="submit" className="rounded-md border border-line bg-card px-2 py-1 font-semibold hover:border-tide">
+        Go
+      </button>
+    </form>
   );
 }

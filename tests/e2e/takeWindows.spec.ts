@@ -1,0 +1,46 @@
+import { generateLongTake } from "../../scripts/lib/takeGenerator";
+import { expect, signIn, test } from "./fixtures";
+
+type Change = { from: number; to: number };
+type Chord = { symbol: string | null; noteNames: string[] };
+
+// A ten-minute take's page carries only its first window of changes; jumping to the last
+// change, and scrolling the roll to the end, fetch the windows that hold them.
+test("the 10-minute take: jumping to its last change and scrolling the roll to the end show them", async ({ page, baseURL }) => {
+  test.setTimeout(180_000);
+  await signIn(page, "dara@tidewater.example");
+  const form = { file: { name: "long-10min.mid", mimeType: "audio/midi", buffer: Buffer.from(generateLongTake(10)) } };
+  const up = await page.request.post("/api/takes", { multipart: form, headers: { Origin: baseURL! } });
+  expect(up.status()).toBe(201);
+  const { id } = (await up.json()) as { id: string };
+  const { analysis } = (await (await page.request.get(`/api/takes/${id}`)).json()) as { analysis: { chords: Chord[]; changes: Change[] } };
+  const count = analysis.changes.length;
+  expect(count).toBeGreaterThan(200);
+  const name = (c: Chord) => (c.symbol ?? c.noteNames.join(" ")).replace(/b/g, "♭").replace(/#/g, "♯");
+
+  await page.goto(`/takes/${id}`);
+  await expect(page.getByRole("heading", { name: "Change by change" })).toBeVisible();
+  // The page arrived without the last change.
+  await expect(page.locator(`[data-change="${count - 1}"]`)).toHaveCount(0);
+
+  // The roll scrolled to its end asks for the last window (the notes and chords drawn there).
+  const lastWindow = Math.floor((count - 1) / 40) * 40;
+  const fetched = page.waitForResponse((r) => r.url().includes(`/api/takes/${id}/window?from=${lastWindow}&`) && r.status() === 200);
+  await page.getByTestId("roll-scroller").evaluate((el) => el.scrollTo({ left: el.scrollWidth }));
+  await fetched;
+
+  // "Go to change N" shows its window: the row and the drawing of the last change appear.
+  await page.getByLabel("Go to change").fill(String(count));
+  await page.getByRole("button", { name: "Go", exact: true }).click();
+  const row = page.locator(`[data-change="${count - 1}"]`);
+  await expect(row).toHaveAttribute("aria-pressed", "true");
+  const last = analysis.changes[count - 1];
+  const title = page.getByRole("heading", { name: new RegExp(`^Change ${count}:`) });
+  await expect(title).toBeVisible();
+  await expect(title).toContainText(`${name(analysis.chords[last.from])} → ${name(analysis.chords[last.to])}`);
+  await expect(row).toContainText(/moved|best|–|semitone/);
+
+  // Without scripts the same jump works through the page's own query.
+  await page.goto(`/takes/${id}?change=${count}`);
+  await expect(page.locator(`[data-change="${count - 1}"]`)).toHaveAttribute("aria-pressed", "true");
+});
