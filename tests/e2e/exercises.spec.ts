@@ -66,7 +66,7 @@ test("the teacher sets an exercise, the student sends a take, the teacher commen
   watch(student, consoleErrors);
   await signIn(student, "dara@tidewater.example");
   await student.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Exercises" }).click();
-  await student.getByRole("link", { name: title }).click();
+  await student.getByRole("link", { name: title, exact: true }).click();
   await student.getByRole("link", { name: "Upload or record in D" }).click();
   await student.getByLabel("MIDI files").setInputFiles({ name: "block-chords.mid", mimeType: "audio/midi", buffer: blockChordTake() });
   await student.getByRole("button", { name: /^Upload/ }).click();
