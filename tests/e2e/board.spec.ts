@@ -3,6 +3,8 @@ import { parse } from "csv-parse/sync";
 import { expect, signIn, test } from "./fixtures";
 
 test("the demo teacher sorts the board, switches the chart in place, downloads the CSV and opens a report", async ({ page }) => {
+  // Board, chart, CSV, student page and a saved report in one run: more than the default minute on a busy machine.
+  test.setTimeout(120_000);
   await signIn(page, "ines@tidewater.example");
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Board" }).click();
   await expect(page.getByRole("heading", { level: 1, name: "Progress board" })).toBeVisible();

@@ -216,7 +216,7 @@ export function ListeningList({ query, list, filters, timeZone, undo, error }: P
               <tbody className="divide-y divide-line">
                 {list.rows.map((t) => (
                   <tr key={t.id} className="align-top hover:bg-paper/60" data-testid="listening-row">
-                    <td className="px-3 py-2">
+                    <td className="card-check px-3 py-2">
                       <input
                         type="checkbox"
                         name="takeId"
