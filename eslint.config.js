@@ -1,7 +1,8 @@
 // ESLint: the usual recommended sets for TypeScript and React hooks, Prettier
 // for layout (eslint-config-prettier turns off what it decides), and the one
 // direction the layers may point (DEVELOPERS.md, "Where each kind of code goes"):
-//   routes → components → models / auth / mail / takes / utils → db,   analysis alone.
+//   routes → components → models / auth / forms / mail / takes / server → db;
+//   browser and utils below the views, the engine (analysis) below everything.
 import js from "@eslint/js";
 import prettier from "eslint-config-prettier";
 import reactHooks from "eslint-plugin-react-hooks";
@@ -69,12 +70,22 @@ export default tseslint.config(
   },
   boundary(
     ["app/analysis/**"],
-    ["lib", "models", "components", "routes", "db", "auth", "mail", "takes", "utils", "forms"],
+    ["components", "routes", "models", "db", "auth", "forms", "mail", "takes", "server", "browser", "utils"],
     "The engine stands alone: no app, database or React code.",
   ),
-  boundary(["app/db/**"], ["models", "components", "routes", "auth", "forms"], "The database layer knows no models, auth or views."),
   boundary(
-    ["app/models/**", "app/auth/**", "app/lib/**", "app/mail/**", "app/takes/**", "app/utils/**", "app/forms/**"],
+    ["app/utils/**"],
+    ["components", "routes", "models", "db", "auth", "forms", "mail", "takes", "server", "browser"],
+    "Pure helpers import only the engine and each other.",
+  ),
+  boundary(["app/db/**"], ["components", "routes", "models", "auth", "forms", "mail", "takes"], "The database layer knows no models, auth or views."),
+  boundary(
+    ["app/browser/**"],
+    ["components", "routes", "models", "db", "auth", "forms", "mail", "server"],
+    "Browser code never reaches server code, views or routes.",
+  ),
+  boundary(
+    ["app/models/**", "app/auth/**", "app/mail/**", "app/takes/**", "app/server/**", "app/forms/**"],
     ["components", "routes"],
     "Models and server helpers never import views or routes: types belong to the model.",
   ),

@@ -5,9 +5,9 @@ import { ServerRouter } from "react-router";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import { NonceContext } from "~/lib/nonce";
-import { nonceRouterContext } from "~/lib/securityHeaders.server";
-import { startBackgroundWork } from "~/lib/startup.server";
+import { NonceContext } from "~/utils/nonce";
+import { nonceRouterContext } from "~/server/securityHeaders.server";
+import { startBackgroundWork } from "~/server/startup.server";
 
 export const streamTimeout = 5_000;
 

@@ -13,9 +13,9 @@ import type { Route } from "./+types/root";
 import { currentUser, sessionMiddleware } from "~/auth/access.server";
 import { FlashMessage } from "~/components/FlashMessage";
 import { SiteNav, type NavUser } from "~/components/SiteNav";
-import { readFlash } from "~/lib/flash.server";
-import { useNonce } from "~/lib/nonce";
-import { securityHeadersMiddleware } from "~/lib/securityHeaders.server";
+import { readFlash } from "~/server/flash.server";
+import { useNonce } from "~/utils/nonce";
+import { securityHeadersMiddleware } from "~/server/securityHeaders.server";
 import "./app.css";
 
 // Headers and nonce first, then the signed-in person, read once for every loader and action.

@@ -2,7 +2,7 @@
 // plus the stored takes, as one ZIP under storage/backups/ unless FILE is given.
 import path from "node:path";
 import { db } from "~/db/client.server";
-import { writeBackup } from "~/lib/backup.server";
+import { writeBackup } from "~/server/backup.server";
 import { loadEnvOrExit } from "./lib/runApp";
 
 const config = loadEnvOrExit();

@@ -13,7 +13,7 @@ await build({
   entryPoints: {
     start: "scripts/start.ts",
     serve: "scripts/serve.ts",
-    "analysis-worker": "app/lib/analysisWorker/task.ts",
+    "analysis-worker": "app/takes/analysisWorker/task.ts",
   },
   outdir: path.join(buildDir, "server"),
   chunkNames: "node-chunks/[name]-[hash]",

@@ -4,7 +4,7 @@ import { count } from "drizzle-orm";
 import path from "node:path";
 import { closeDatabase, db } from "~/db/client.server";
 import { users } from "~/db/schema";
-import { startMailCatcher } from "~/lib/mailCatcher.server";
+import { startMailCatcher } from "~/mail/mailCatcher.server";
 import { buildIfNeeded, loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
 import { printDemoSignIns, seed } from "./seed";
 

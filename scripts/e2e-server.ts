@@ -4,7 +4,7 @@ import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { closeDatabase, db } from "~/db/client.server";
-import { startMailCatcher } from "~/lib/mailCatcher.server";
+import { startMailCatcher } from "~/mail/mailCatcher.server";
 import { seedDemoStudio } from "~/models/demoStudio.server";
 import { loadEnvOrExit, serveBuiltApp } from "./lib/runApp";
 import { seedDemoTakes } from "./lib/seedTakes";

@@ -1,7 +1,7 @@
 // npm run reanalyse: analyse again every stored take whose analysis is older than the engine.
 import { ANALYSIS_VERSION } from "~/analysis";
 import { db } from "~/db/client.server";
-import { closeAnalysisPool } from "~/lib/analysisPool.server";
+import { closeAnalysisPool } from "~/takes/analysisPool.server";
 import { ORPHAN_GRACE_MS, sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { reanalyseOutdated } from "~/models/takes.server";
 import { loadEnvOrExit } from "./lib/runApp";

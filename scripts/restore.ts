@@ -1,6 +1,6 @@
 // npm run restore FILE: brings back a backup made by `npm run backup`. Stop the app first.
 import { readFileSync } from "node:fs";
-import { restoreBackup } from "~/lib/backup.server";
+import { restoreBackup } from "~/server/backup.server";
 import { loadEnvOrExit } from "./lib/runApp";
 
 const file = process.argv[2];

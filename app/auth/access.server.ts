@@ -2,7 +2,7 @@ import { and, eq, inArray } from "drizzle-orm";
 import { createContext, data, redirect, type MiddlewareFunction, type RouterContextProvider } from "react-router";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
-import { env } from "~/lib/env.server";
+import { env } from "~/server/env.server";
 import { getSessionUser, type SessionUser, type StudioRole } from "./session.server";
 
 /**

@@ -2,7 +2,7 @@ import { and, eq, gt } from "drizzle-orm";
 import { createCookie, redirect } from "react-router";
 import { db } from "~/db/client.server";
 import { memberships, sessions, studios, users, type MembershipRole } from "~/db/schema";
-import { env } from "~/lib/env.server";
+import { env } from "~/server/env.server";
 
 export const SESSION_DAYS = 30;
 const SESSION_MS = SESSION_DAYS * 24 * 60 * 60 * 1000;

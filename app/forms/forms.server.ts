@@ -1,7 +1,7 @@
 import { data, redirect } from "react-router";
 import type { z } from "zod";
 import type { FlashTone } from "~/components/FlashMessage";
-import { flashHeader } from "~/lib/flash.server";
+import { flashHeader } from "~/server/flash.server";
 import type { FormFailure } from "./failure";
 
 /**

@@ -13,7 +13,7 @@ import {
   type Figures,
   type MetricId,
   type WeekSums,
-} from "~/lib/progressFigures";
+} from "~/utils/progressFigures";
 import { currentWeek, lastTakeDates, studioStudents, weeklySums, type StudentRef } from "./progress.server";
 
 export const TREND_WEEKS = 8;

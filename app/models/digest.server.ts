@@ -1,10 +1,10 @@
 import { and, desc, eq, gt, inArray } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { comments, exercises, memberships, sentMails, studios, takeMetrics, takes, users } from "~/db/schema";
-import { link } from "~/lib/mailTemplates.server";
-import { mailFooter, sendOnce } from "~/lib/notifyMail.server";
-import { pretty } from "~/lib/noteText";
-import { localDate } from "~/lib/weeks";
+import { link } from "~/mail/mailTemplates.server";
+import { mailFooter, sendOnce } from "~/mail/notifyMail.server";
+import { pretty } from "~/utils/noteText";
+import { localDate } from "~/utils/weeks";
 import { studentsOfExercise } from "./exercises.server";
 import { repliesSince, reviewQueueCount } from "./feedback.server";
 

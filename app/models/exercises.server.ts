@@ -4,9 +4,9 @@ import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics, takes, users, type Exercise } from "~/db/schema";
-import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/lib/exerciseProgression";
-import { byState, exerciseState, type ExerciseState } from "~/lib/exerciseState";
-import { pretty } from "~/lib/noteText";
+import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/utils/exerciseProgression";
+import { byState, exerciseState, type ExerciseState } from "~/utils/exerciseState";
+import { pretty } from "~/utils/noteText";
 import { studioStudents, studioTimeZone } from "./progress.server";
 import { todayIn } from "./progressQuery.server";
 

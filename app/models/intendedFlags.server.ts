@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import type { TakeAnalysis } from "~/analysis/types";
 import type { Db, Tx } from "~/db/client.server";
 import { intendedFlags, takeMetrics } from "~/db/schema";
-import { scoreWithIntended, type IntendedMark } from "~/lib/intendedScore";
+import { scoreWithIntended, type IntendedMark } from "~/takes/intendedScore";
 
 export function intendedMarks(database: Db | Tx, takeId: string): IntendedMark[] {
   return database

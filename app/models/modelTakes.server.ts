@@ -3,9 +3,9 @@
 import { AnalysisError, readMidi } from "~/analysis";
 import { db } from "~/db/client.server";
 import { exercises, type Exercise } from "~/db/schema";
-import { readNotesInWorker } from "~/lib/analysisPool.server";
-import { readTakeFile, removeTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
-import { receiveUpload, UploadRefused } from "~/lib/takeUpload.server";
+import { readNotesInWorker } from "~/takes/analysisPool.server";
+import { readTakeFile, removeTakeFile, removeTakeFilesAfterRows } from "~/takes/takeFiles.server";
+import { receiveUpload, UploadRefused } from "~/takes/takeUpload.server";
 import { eq } from "drizzle-orm";
 
 /**

@@ -1,7 +1,7 @@
 import { isNotNull } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
-import { listStoredTakeFiles, removeStoredFile, takeFileNames } from "~/lib/takeFiles.server";
+import { listStoredTakeFiles, removeStoredFile, takeFileNames } from "~/takes/takeFiles.server";
 
 /** Hashes of every file key a row refers to: takes and exercises' model takes. */
 function referencedHashes(): Set<string> {

@@ -16,10 +16,10 @@ import {
   takes,
   users,
 } from "~/db/schema";
-import { env } from "~/lib/env.server";
-import { mailDir } from "~/lib/mail.server";
-import { deleteStoredMailTo } from "~/lib/mailStore.server";
-import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
+import { env } from "~/server/env.server";
+import { mailDir } from "~/mail/mail.server";
+import { deleteStoredMailTo } from "~/mail/mailStore.server";
+import { readTakeFile, removeTakeFilesAfterRows } from "~/takes/takeFiles.server";
 
 /**
  * Deletes the matching take rows (analysis rows cascade) in one transaction, then

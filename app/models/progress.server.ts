@@ -5,8 +5,8 @@ import { and, asc, eq, gte, inArray, isNotNull, lte, max, sql } from "drizzle-or
 import type { TechniqueName } from "~/analysis/types";
 import { db } from "~/db/client.server";
 import { exercises, memberships, studios, takeMetrics, takes, users } from "~/db/schema";
-import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween, type Figures, type WeekSums } from "~/lib/progressFigures";
-import { weekKey } from "~/lib/weeks";
+import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween, type Figures, type WeekSums } from "~/utils/progressFigures";
+import { weekKey } from "~/utils/weeks";
 
 export type StudentRef = { id: string; name: string; email: string };
 export type SumsFilter = { fromWeek: string; toWeek: string; studentIds?: string[] };

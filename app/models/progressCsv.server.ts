@@ -2,9 +2,9 @@
 // in words, whole numbers and percentages as people write them, and the ids
 // machines need at the end of each row.
 import { TECHNIQUES } from "~/analysis/types";
-import type { Figures } from "~/lib/progressFigures";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
-import { weekStart } from "~/lib/weeks";
+import type { Figures } from "~/utils/progressFigures";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
+import { weekStart } from "~/utils/weeks";
 import type { StudentRef } from "./progress.server";
 
 /** Column headers; spreadsheets and scripts of the studio may depend on them, so change them with care. */

@@ -1,8 +1,8 @@
 // The query string the board, its chart API and the CSV export share:
 // ?metric=score&student=ID&student=ID&from=YYYY-MM-DD&to=YYYY-MM-DD
 import { z } from "zod";
-import { METRIC_IDS, shiftWeek, weekOfDate, type MetricId } from "~/lib/progressFigures";
-import { localDate, weekStart } from "~/lib/weeks";
+import { METRIC_IDS, shiftWeek, weekOfDate, type MetricId } from "~/utils/progressFigures";
+import { localDate, weekStart } from "~/utils/weeks";
 
 /** At most about three years of weeks in one request: enough for any report, small enough to stay quick. */
 export const MAX_WEEKS = 160;

@@ -3,8 +3,8 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { practiceReminders, takes } from "~/db/schema";
-import { sendMail, type OutgoingMail } from "~/lib/mail.server";
-import { link } from "~/lib/mailTemplates.server";
+import { sendMail, type OutgoingMail } from "~/mail/mail.server";
+import { link } from "~/mail/mailTemplates.server";
 import { currentWeek, studioStudents } from "./progress.server";
 
 export function practiceReminderMail(to: string, p: { studentName: string; teacherName: string; studioName: string }): OutgoingMail {

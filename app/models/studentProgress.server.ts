@@ -1,7 +1,7 @@
 // One student's progress over a period, as the teacher's detail page and the
 // printable report show it. Everything comes from week sums (take + metric rows).
 import { TECHNIQUES, type TechniqueName } from "~/analysis/types";
-import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween } from "~/lib/progressFigures";
+import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween } from "~/utils/progressFigures";
 import type { ChartData } from "./board.server";
 import { exerciseFigures, techniquesGained, weeklySums, type WeekFigures } from "./progress.server";
 

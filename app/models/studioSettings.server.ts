@@ -3,7 +3,7 @@
 import { eq } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { studios, takes } from "~/db/schema";
-import { isValidTimeZone, weekKey } from "~/lib/weeks";
+import { isValidTimeZone, weekKey } from "~/utils/weeks";
 
 /** Returns how many takes moved to another week. */
 export function setStudioTimeZone(studioId: string, timeZone: string): number {

@@ -2,8 +2,8 @@ import { eq } from "drizzle-orm";
 import type { TakeAnalysis } from "~/analysis";
 import type { Db, Tx } from "~/db/client.server";
 import { exercises, takeMetrics } from "~/db/schema";
-import { analyseTake, type AnalysisOutcome } from "~/lib/analysisWorker/task";
-import { targetTextForKey } from "~/lib/exerciseProgression";
+import { analyseTake, type AnalysisOutcome } from "~/takes/analysisWorker/task";
+import { targetTextForKey } from "~/utils/exerciseProgression";
 import { applyIntendedFlags } from "./intendedFlags.server";
 
 export type { AnalysisOutcome };

@@ -3,10 +3,10 @@ import type { FitWarning } from "~/analysis/exerciseFit";
 import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
 import { db } from "~/db/client.server";
 import { exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
-import { analyseInWorker } from "~/lib/analysisPool.server";
-import { readTakeFile, removeTakeFilesAfterRows } from "~/lib/takeFiles.server";
-import { fitNotice, type FitNotice } from "~/lib/exerciseFitText";
-import { weekKey } from "~/lib/weeks";
+import { analyseInWorker } from "~/takes/analysisPool.server";
+import { readTakeFile, removeTakeFilesAfterRows } from "~/takes/takeFiles.server";
+import { fitNotice, type FitNotice } from "~/takes/exerciseFitText";
+import { weekKey } from "~/utils/weeks";
 import { studioTimeZone } from "./progress.server";
 import {
   clearAnalysisRows,

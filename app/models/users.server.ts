@@ -5,8 +5,8 @@ import { accountKey, addressKey, claimAccountMail, type MailClaim } from "~/auth
 import { consumeUserToken, DAY_MS, hashToken, issueUserToken, newToken } from "~/auth/tokens.server";
 import { db } from "~/db/client.server";
 import { memberships, pendingSignups, sessions, studios, users, type User } from "~/db/schema";
-import { sendMail, sendMailLater } from "~/lib/mail.server";
-import { confirmSignupMail, existingAccountMail, resetPasswordMail, verifyEmailMail } from "~/lib/mailTemplates.server";
+import { sendMail, sendMailLater } from "~/mail/mail.server";
+import { confirmSignupMail, existingAccountMail, resetPasswordMail, verifyEmailMail } from "~/mail/mailTemplates.server";
 
 export const emailSchema = z
   .string({ error: "Enter your e-mail address" })

@@ -1,6 +1,6 @@
 import type { Route } from "./+types/api.takes.$takeId.file";
 import { requireTakeAccess } from "~/auth/access.server";
-import { readTakeFile } from "~/lib/takeFiles.server";
+import { readTakeFile } from "~/takes/takeFiles.server";
 
 /** GET /api/takes/:id/file: the original upload, for the student and their teachers. */
 export async function loader({ request, params, context }: Route.LoaderArgs) {

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.takes.$takeId.window";
 import { requireTakeAccess } from "~/auth/access.server";
-import { windowOf, windowVersion } from "~/lib/takeWindows";
+import { windowOf, windowVersion } from "~/takes/takeWindows";
 import { getTakeView } from "~/models/takes.server";
 
 const query = z.object({ from: z.coerce.number().int().min(0).max(10_000_000).default(0) });

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.takes";
 import { requireSameOrigin, requireStudent, requireStudentOfTeacher, requireUser, isTeacherRole } from "~/auth/access.server";
-import { uploadOneTake } from "~/lib/takeUpload.server";
+import { uploadOneTake } from "~/takes/takeUpload.server";
 import { listTakesForStudent } from "~/models/takes.server";
 
 const query = z.object({ student: z.string().min(1).max(64).optional() });

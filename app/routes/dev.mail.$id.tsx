@@ -1,7 +1,7 @@
 import { data, Link } from "react-router";
 import type { Route } from "./+types/dev.mail.$id";
 import { Card } from "~/components/Card";
-import { caughtMailDir, readCaughtMessage } from "~/lib/mailCatcher.server";
+import { caughtMailDir, readCaughtMessage } from "~/mail/mailCatcher.server";
 
 export const meta: Route.MetaFunction = ({ data: d }) => [{ title: `${d?.message.subject ?? "Mail"} · Nearnote` }];
 

@@ -4,7 +4,7 @@ import { Card } from "~/components/Card";
 import { DataTable } from "~/components/DataTable";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
-import { caughtMailDir, readCaughtMail } from "~/lib/mailCatcher.server";
+import { caughtMailDir, readCaughtMail } from "~/mail/mailCatcher.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Caught mail · Nearnote" }];
 

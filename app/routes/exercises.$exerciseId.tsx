@@ -12,11 +12,11 @@ import { ModelAnswer } from "~/components/exercises/ModelAnswer";
 import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
 import { RecordPanel } from "~/components/record/RecordPanel";
-import { checkProgression, targetChordsInKey } from "~/lib/exerciseProgression";
+import { checkProgression, targetChordsInKey } from "~/utils/exerciseProgression";
 import { failureMessage } from "~/forms/failure";
 import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
-import { fitsFirstChord } from "~/lib/modelAnswer";
-import { pretty } from "~/lib/noteText";
+import { fitsFirstChord } from "~/utils/modelAnswer";
+import { pretty } from "~/utils/noteText";
 import {
   exerciseFields,
   isDone,

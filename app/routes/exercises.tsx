@@ -6,7 +6,7 @@ import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { StudentExerciseCard } from "~/components/exercises/StudentExerciseCard";
 import { PageHeader } from "~/components/PageHeader";
-import { dayLabel, pretty } from "~/lib/noteText";
+import { dayLabel, pretty } from "~/utils/noteText";
 import { listExercisesForTeacher, studentExercises } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Exercises · Nearnote" }];

@@ -1,7 +1,7 @@
 import { sql } from "drizzle-orm";
 import { db } from "~/db/client.server";
-import { takesFolderWritable } from "~/lib/takeFiles.server";
-import { appVersion } from "~/lib/version.server";
+import { takesFolderWritable } from "~/takes/takeFiles.server";
+import { appVersion } from "~/server/version.server";
 
 export async function loader() {
   let database: "ok" | "unavailable" = "ok";

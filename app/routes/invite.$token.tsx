@@ -9,7 +9,7 @@ import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
 import { FlashMessage } from "~/components/FlashMessage";
-import { flashHeader } from "~/lib/flash.server";
+import { flashHeader } from "~/server/flash.server";
 import { acceptInvitation, findInvitationByToken } from "~/models/invitations.server";
 import { findUserByEmail, nameSchema } from "~/models/users.server";
 

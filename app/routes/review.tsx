@@ -5,7 +5,7 @@ import { requireTeacher } from "~/auth/access.server";
 import { ListeningList } from "~/components/review/ListeningList";
 import { PageHeader } from "~/components/PageHeader";
 import { formFailure, redirectWithFlash } from "~/forms/forms.server";
-import { zoneName } from "~/lib/studioTime";
+import { zoneName } from "~/utils/studioTime";
 import {
   listeningFilters,
   listeningPage,

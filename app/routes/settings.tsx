@@ -7,7 +7,7 @@ import { createUserSession, sessionCookie } from "~/auth/session.server";
 import { failureOf } from "~/forms/failure";
 import { dataWithFlash, formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
-import { flashHeader } from "~/lib/flash.server";
+import { flashHeader } from "~/server/flash.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { applyOwnershipPlan, planOwnershipOnLeave } from "~/models/studios.server";
 import { mailRetryMessage } from "~/auth/mailLimits.server";

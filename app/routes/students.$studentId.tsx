@@ -14,7 +14,7 @@ import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
-import { formatMetric } from "~/lib/progressFigures";
+import { formatMetric } from "~/utils/progressFigures";
 import { studioTimeZone } from "~/models/progress.server";
 import { parseProgressQuery } from "~/models/progressQuery.server";
 import { studentProgress } from "~/models/studentProgress.server";

@@ -7,7 +7,7 @@ import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
 import { parseForm, redirectWithFlash } from "~/forms/forms.server";
-import { isValidTimeZone, weekKey } from "~/lib/weeks";
+import { isValidTimeZone, weekKey } from "~/utils/weeks";
 import { studioTimeZone } from "~/models/progress.server";
 import { setStudioTimeZone, timeZoneNames } from "~/models/studioSettings.server";
 

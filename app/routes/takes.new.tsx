@@ -11,10 +11,10 @@ import { ExerciseKeyFields } from "~/components/take/ExerciseKeyFields";
 import { UploadRows } from "~/components/take/UploadRows";
 import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
 import { FileExerciseSelect } from "~/components/upload/FileExerciseSelect";
-import { uploadTakesFromForm } from "~/lib/takeUpload.server";
-import { MAX_FILES } from "~/lib/uploadLimits";
-import { fieldsForChoice, isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
-import { sendTake } from "~/lib/uploadTake.client";
+import { uploadTakesFromForm } from "~/takes/takeUpload.server";
+import { MAX_FILES } from "~/takes/uploadLimits";
+import { fieldsForChoice, isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/takes/uploadRows";
+import { sendTake } from "~/browser/uploadTake.client";
 import { listExercisesForStudent } from "~/models/exercises.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Upload takes · Nearnote" }];

@@ -6,7 +6,7 @@ import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
-import { readUnsubscribeToken, type MailPreference } from "~/lib/notifyMail.server";
+import { readUnsubscribeToken, type MailPreference } from "~/mail/notifyMail.server";
 
 // Works without signing in: the signed token in the mail's link names the person and the
 // kind of mail. Opening the link only asks; the button (a POST) turns the mail off, so a

@@ -3,7 +3,7 @@ import type { Route } from "./+types/verify";
 import { requireUser } from "~/auth/access.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
-import { flashHeader } from "~/lib/flash.server";
+import { flashHeader } from "~/server/flash.server";
 import { redirectWithFlash } from "~/forms/forms.server";
 import { mailRetryMessage } from "~/auth/mailLimits.server";
 import { createUserSession } from "~/auth/session.server";

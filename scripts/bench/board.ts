@@ -38,7 +38,7 @@ export async function benchProgressBoard(): Promise<string[]> {
   const { db, closeDatabase } = await import("~/db/client.server");
   const { memberships, studios, takeMetrics, takes, users } = await import("~/db/schema");
   const { createUserSession } = await import("~/auth/session.server");
-  const { weekKey } = await import("~/lib/weeks");
+  const { weekKey } = await import("~/utils/weeks");
   const board = await import("~/routes/board");
   const csv = await import("~/routes/api.export.progress[.]csv");
   try {

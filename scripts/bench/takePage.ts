@@ -24,7 +24,7 @@ export async function benchTakePage(): Promise<string[]> {
   useScratchStorage("take");
   buildIfNeeded();
   const { db, closeDatabase } = await import("~/db/client.server");
-  const { resetEnvForTests } = await import("~/lib/env.server");
+  const { resetEnvForTests } = await import("~/server/env.server");
   const { resetSessionCookieForTests } = await import("~/auth/session.server");
   // Another section may have pointed the app at its own scratch database first.
   closeDatabase();
@@ -34,7 +34,7 @@ export async function benchTakePage(): Promise<string[]> {
   const { sessionCookie } = await import("~/auth/session.server");
   const { createTakeRecord } = await import("~/models/takes.server");
   const { analyseTakeBytes } = await import("~/models/takeAnalysis.server");
-  const { newFileKey, takeStorage } = await import("~/lib/takeFiles.server");
+  const { newFileKey, takeStorage } = await import("~/takes/takeFiles.server");
 
   const studio = db().insert(studios).values({ name: "Bench studio" }).returning().get();
   const student = db().insert(users).values({ email: "bench@student.example", name: "Bench Student", passwordHash: "x" }).returning().get();

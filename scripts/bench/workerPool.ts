@@ -5,7 +5,7 @@ import { spawn, spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync } from "node:fs";
 import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
-import { analyseTake } from "../../app/lib/analysisWorker/task";
+import { analyseTake } from "../../app/takes/analysisWorker/task";
 import { denseChordTake } from "../lib/denseTake";
 import { buildIfNeeded, serveCommand } from "../lib/runApp";
 import { median } from "./stats";

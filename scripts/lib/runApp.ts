@@ -1,7 +1,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
-import { ConfigError, env } from "~/lib/env.server";
+import { ConfigError, env } from "~/server/env.server";
 
 /** Newest modification time under a folder (to tell whether the build is stale). */
 function newestMtime(dir: string): number {

@@ -5,7 +5,7 @@ import { createHash } from "node:crypto";
 import { and, count, eq } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { exercises, memberships, takes, users } from "~/db/schema";
-import { newFileKey, takeStorage } from "~/lib/takeFiles.server";
+import { newFileKey, takeStorage } from "~/takes/takeFiles.server";
 import { analyseTakeBytes } from "~/models/takeAnalysis.server";
 import { createTakeRecord } from "~/models/takes.server";
 import { EXERCISES, generateTake, seededRandom } from "./takeGenerator";

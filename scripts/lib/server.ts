@@ -9,8 +9,8 @@ import { existsSync } from "node:fs";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { ServerBuild } from "react-router";
-import { env } from "~/lib/env.server";
-import { BASE_HEADERS, contentSecurityPolicy } from "~/lib/securityHeaders.server";
+import { env } from "~/server/env.server";
+import { BASE_HEADERS, contentSecurityPolicy } from "~/server/securityHeaders.server";
 
 /** The analysis worker `npm run build` bundles beside the server build (plain JavaScript). */
 export function builtWorkerEntry(buildDir: string) {

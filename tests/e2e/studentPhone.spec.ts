@@ -1,7 +1,7 @@
 import { mkdirSync } from "node:fs";
 import AxeBuilder from "@axe-core/playwright";
 import type { Page } from "@playwright/test";
-import { encodeMidi } from "../../app/lib/midiEncode";
+import { encodeMidi } from "../../app/browser/midiEncode";
 import { expect, signIn, test } from "./fixtures";
 
 // The student's pages at a laptop's size (1366×900) and a phone's (390×844): no sideways

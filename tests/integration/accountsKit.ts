@@ -6,9 +6,9 @@ import { RouterContextProvider } from "react-router";
 import { afterEach, beforeEach } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, memberships, studios, takes, users, type MembershipRole } from "~/db/schema";
-import { resetEnvForTests } from "~/lib/env.server";
-import { mailSettled } from "~/lib/mail.server";
-import { readCaughtMail, startMailCatcher, type CaughtMail } from "~/lib/mailCatcher.server";
+import { resetEnvForTests } from "~/server/env.server";
+import { mailSettled } from "~/mail/mail.server";
+import { readCaughtMail, startMailCatcher, type CaughtMail } from "~/mail/mailCatcher.server";
 import type { FreshApp } from "../support/setup";
 
 export const ORIGIN = "http://127.0.0.1:3000";

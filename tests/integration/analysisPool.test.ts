@@ -6,9 +6,9 @@ import { afterEach, describe, expect, it } from "vitest";
 import { AnalysisError } from "~/analysis";
 import { db } from "~/db/client.server";
 import { takes } from "~/db/schema";
-import { resetEnvForTests } from "~/lib/env.server";
-import { analyseInWorker, analysisThreads } from "~/lib/analysisPool.server";
-import { analyseTake } from "~/lib/analysisWorker/task";
+import { resetEnvForTests } from "~/server/env.server";
+import { analyseInWorker, analysisThreads } from "~/takes/analysisPool.server";
+import { analyseTake } from "~/takes/analysisWorker/task";
 import { moveTake, reanalyseTake } from "~/models/takes.server";
 import * as login from "~/routes/login";
 import * as apiTakes from "~/routes/api.takes";
@@ -90,7 +90,7 @@ describe("the analysis pool", () => {
     const id = (up.data as { id: string }).id;
     // The stored file swapped for the worst case, as if an older engine had let it through.
     const take = db().select().from(takes).where(eq(takes.id, id)).get()!;
-    const { takeStorage } = await import("~/lib/takeFiles.server");
+    const { takeStorage } = await import("~/takes/takeFiles.server");
     await takeStorage().put(take.fileKey, new File([new Uint8Array(worst())], "held.mid"));
     limitTo(300);
     expect(await reanalyseTake(id)).toBe("failed");

@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { resetEnvForTests } from "~/lib/env.server";
+import { resetEnvForTests } from "~/server/env.server";
 import { denseChordTake } from "../../scripts/lib/denseTake";
 import { useHttpApp } from "../support/httpApp";
 import { useFreshApp } from "../support/setup";

@@ -3,7 +3,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { closeDatabase, db } from "~/db/client.server";
 import { takes } from "~/db/schema";
-import { readTakeFile, takeFileNames } from "~/lib/takeFiles.server";
+import { readTakeFile, takeFileNames } from "~/takes/takeFiles.server";
 import { denseChordTake } from "../../scripts/lib/denseTake";
 import { storedTakeFiles, useFreshApp } from "../support/setup";
 import { join, makeStudio, makeUser, PASSWORD } from "./accountsKit";

@@ -3,7 +3,7 @@
 // real engine): the two means are recomputed here from the week sums.
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
-import { combineSums, EMPTY_SUMS, figuresFrom, shiftWeek } from "~/lib/progressFigures";
+import { combineSums, EMPTY_SUMS, figuresFrom, shiftWeek } from "~/utils/progressFigures";
 import { boardRows, STATUS_BAND } from "~/models/board.server";
 import { seedDemoStudio } from "~/models/demoStudio.server";
 import { weeklySums } from "~/models/progress.server";

@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises } from "~/db/schema";
-import type { ExerciseState } from "~/lib/exerciseState";
+import type { ExerciseState } from "~/utils/exerciseState";
 import { todayIn } from "~/models/progressQuery.server";
 import { studioTimeZone } from "~/models/progress.server";
 import * as exercisePage from "~/routes/exercises.$exerciseId";

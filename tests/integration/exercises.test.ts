@@ -12,7 +12,7 @@ import * as exercisesList from "~/routes/exercises";
 import * as exerciseNew from "~/routes/exercises.new";
 import * as exercisePage from "~/routes/exercises.$exerciseId";
 import * as exerciseEdit from "~/routes/exercises.$exerciseId.edit";
-import { ALL_MAJOR_KEYS } from "~/lib/exerciseProgression";
+import { ALL_MAJOR_KEYS } from "~/utils/exerciseProgression";
 import { useFreshApp } from "../support/setup";
 import { call, CookieJar, get, join, makeStudio, makeUser, signIn } from "./accountsKit";
 import { chordsMidi, formPost, uploadAnalysed, uploadTake } from "./exercisesKit";

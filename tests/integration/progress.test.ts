@@ -8,7 +8,7 @@ import { db } from "~/db/client.server";
 import { studios, takes, users } from "~/db/schema";
 import { eq } from "drizzle-orm";
 import { weeklyFigures } from "~/models/progress.server";
-import { weekKey } from "~/lib/weeks";
+import { weekKey } from "~/utils/weeks";
 import { setStudioTimeZone } from "~/models/studioSettings.server";
 import * as apiProgress from "~/routes/api.progress";
 import * as csvExport from "~/routes/api.export.progress[.]csv";

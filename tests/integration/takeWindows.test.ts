@@ -1,8 +1,8 @@
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { analyseMidi, analyseNotes, readMidi, type TakeAnalysis } from "~/analysis";
-import { newFileKey, takeStorage } from "~/lib/takeFiles.server";
-import { changeStub, WINDOW_SIZE, type TakeWindow } from "~/lib/takeWindows";
+import { newFileKey, takeStorage } from "~/takes/takeFiles.server";
+import { changeStub, WINDOW_SIZE, type TakeWindow } from "~/takes/takeWindows";
 import { analyseTakeBytes } from "~/models/takeAnalysis.server";
 import { createTakeRecord } from "~/models/takes.server";
 import * as login from "~/routes/login";

@@ -115,7 +115,7 @@ describe("abusive uploads against the running server", () => {
 
 describe("cleanName", () => {
   it("keeps a display name only: no folders, no control characters", async () => {
-    const { cleanName } = await import("~/lib/takeUpload.server");
+    const { cleanName } = await import("~/takes/takeUpload.server");
     expect(cleanName("../../etc/pass\u0007wd.mid")).toBe("passwd.mid");
     expect(cleanName("C:\\Users\\dara\\take 1.mid")).toBe("take 1.mid");
     expect(cleanName("\u0000\u001f")).toBe("take.mid");

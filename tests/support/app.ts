@@ -14,8 +14,8 @@ import {
   type ServerBuild,
 } from "react-router";
 import routeConfig from "~/routes";
-import { resetEnvForTests } from "~/lib/env.server";
-import { mailSettled } from "~/lib/mail.server";
+import { resetEnvForTests } from "~/server/env.server";
+import { mailSettled } from "~/mail/mail.server";
 import reactRouterConfig from "../../react-router.config";
 
 type RouteNode = { id?: string; path?: string; index?: boolean; caseSensitive?: boolean; file: string; children?: RouteNode[] };

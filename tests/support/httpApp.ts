@@ -3,7 +3,7 @@ import type http from "node:http";
 import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
-import { resetEnvForTests } from "~/lib/env.server";
+import { resetEnvForTests } from "~/server/env.server";
 import { createApp } from "../../scripts/lib/server";
 
 /**

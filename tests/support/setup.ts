@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterEach, beforeEach } from "vitest";
 import { closeDatabase, db } from "~/db/client.server";
-import { resetEnvForTests } from "~/lib/env.server";
+import { resetEnvForTests } from "~/server/env.server";
 import { resetSessionCookieForTests } from "~/auth/session.server";
 
 export type FreshApp = { storageDir: string };

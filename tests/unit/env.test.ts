@@ -2,7 +2,7 @@ import { mkdtempSync, readFileSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { describe, expect, it, vi } from "vitest";
-import { ConfigError, loadOrCreateSecret, parseEnv } from "~/lib/env.server";
+import { ConfigError, loadOrCreateSecret, parseEnv } from "~/server/env.server";
 
 describe("configuration", () => {
   it("has local defaults under storage/", () => {

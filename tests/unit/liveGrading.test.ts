@@ -5,7 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";
-import { asRecordedTake, GradeThrottle, gradeSoFar, harmonySettleSeconds, settleSeconds } from "~/lib/liveGrading";
+import { asRecordedTake, GradeThrottle, gradeSoFar, harmonySettleSeconds, settleSeconds } from "~/browser/liveGrading";
 
 /** The take as the recorder sees it at `now`: later notes not played yet, keys still down end at now. */
 function asOf(notes: NoteEvent[], now: number): NoteEvent[] {

@@ -1,8 +1,8 @@
 // The recorder's click schedule and its choice of keyboard. Beats at 60/bpm seconds apart is
 // the definition of beats per minute; a one-bar count-in of four beats is common practice.
 import { describe, expect, it } from "vitest";
-import { beatsBetween } from "~/lib/metronome.client";
-import { pickInput } from "~/lib/webMidi.client";
+import { beatsBetween } from "~/browser/metronome.client";
+import { pickInput } from "~/browser/webMidi.client";
 
 describe("beatsBetween", () => {
   it("counts in one bar, then keeps time through the take", () => {

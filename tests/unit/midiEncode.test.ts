@@ -6,8 +6,8 @@ import { parseMidi, type MidiEvent } from "midi-file";
 import { describe, expect, it } from "vitest";
 import { analyseMidi, analyseNotes } from "~/analysis";
 import type { NoteEvent, PedalSpan } from "~/analysis/types";
-import { asRecordedTake } from "~/lib/liveGrading";
-import { encodeMidi, microsecondsPerBeat, PPQ, recordingFileName, secondsToTicks } from "~/lib/midiEncode";
+import { asRecordedTake } from "~/browser/liveGrading";
+import { encodeMidi, microsecondsPerBeat, PPQ, recordingFileName, secondsToTicks } from "~/browser/midiEncode";
 
 type ReadNote = { midi: number; startTick: number; endTick: number; velocity: number; channel: number };
 

@@ -3,7 +3,7 @@
 // 0xBn controller change, controller 64 = sustain, 0–63 off and 64–127 on; 0xF8 timing clock
 // and 0xFE active sensing are system real-time bytes; General MIDI puts drums on channel 10.
 import { describe, expect, it } from "vitest";
-import { NoteRecorder, parseMidiMessage } from "~/lib/noteRecorder";
+import { NoteRecorder, parseMidiMessage } from "~/browser/noteRecorder";
 
 describe("parseMidiMessage", () => {
   it("reads note-on, note-off and the sustain pedal on any channel but the drums", () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { navItems } from "~/components/SiteNav";
-import { combineSums, EMPTY_SUMS, figuresFrom, formatMetric, shiftWeek, weekEnd, weekOfDate, weeksBetween, type WeekSums } from "~/lib/progressFigures";
+import { combineSums, EMPTY_SUMS, figuresFrom, formatMetric, shiftWeek, weekEnd, weekOfDate, weeksBetween, type WeekSums } from "~/utils/progressFigures";
 
 const sums = (over: Partial<WeekSums>): WeekSums => ({ ...EMPTY_SUMS, techniques: {}, ...over });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { isoWeekOfDate, isValidTimeZone, weekKey, weekStart } from "~/lib/weeks";
+import { isoWeekOfDate, isValidTimeZone, weekKey, weekStart } from "~/utils/weeks";
 
 describe("ISO weeks", () => {
   // ISO 8601 week-numbering examples (the standard's rule: week 1 contains the year's first Thursday);

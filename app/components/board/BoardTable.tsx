@@ -15,8 +15,8 @@ import {
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { TECHNIQUES } from "~/analysis/types";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
-import { METRICS, type MetricId } from "~/lib/progressFigures";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
+import { METRICS, type MetricId } from "~/utils/progressFigures";
 import type { BoardRow } from "~/models/board.server";
 import { Delta } from "./Delta";
 import { Sparkline } from "./Sparkline";

@@ -2,8 +2,8 @@ import { useEffect, useState } from "react";
 import { useNavigation, useSearchParams } from "react-router";
 import { buttonClass } from "~/components/Button";
 import { Card } from "~/components/Card";
-import { METRIC_IDS, METRICS, shiftWeek, weekOfDate, type MetricId } from "~/lib/progressFigures";
-import { weekStart } from "~/lib/weeks";
+import { METRIC_IDS, METRICS, shiftWeek, weekOfDate, type MetricId } from "~/utils/progressFigures";
+import { weekStart } from "~/utils/weeks";
 import { choiceSearch, csvHref, type ChartChoice } from "./chartQuery";
 import { chartCaption, ChartTable, ProgressLines, type ChartPayload } from "./ProgressChart";
 

@@ -1,4 +1,4 @@
-import { formatMetric, METRICS, type MetricId } from "~/lib/progressFigures";
+import { formatMetric, METRICS, type MetricId } from "~/utils/progressFigures";
 
 /**
  * This week's value with a marker for the change since last week: a filled

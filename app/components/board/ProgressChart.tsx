@@ -1,5 +1,5 @@
 import { lazy, Suspense } from "react";
-import { formatMetric, METRIC_IDS, METRICS, weekLabel, type MetricId } from "~/lib/progressFigures";
+import { formatMetric, METRIC_IDS, METRICS, weekLabel, type MetricId } from "~/utils/progressFigures";
 import type { ChartData } from "~/models/board.server";
 import type { ChartChoice } from "./chartQuery";
 

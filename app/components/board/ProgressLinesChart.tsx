@@ -1,5 +1,5 @@
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { formatMetric, weekLabel } from "~/lib/progressFigures";
+import { formatMetric, weekLabel } from "~/utils/progressFigures";
 import type { ChartData } from "~/models/board.server";
 import { lineStyle } from "./chartQuery";
 

@@ -1,5 +1,5 @@
-import { formatMetric, METRICS, type MetricId } from "~/lib/progressFigures";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { formatMetric, METRICS, type MetricId } from "~/utils/progressFigures";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 import type { studentProgress } from "~/models/studentProgress.server";
 import { ChartTable, ProgressLines } from "./ProgressChart";
 import { TechniqueTable } from "./TechniqueTable";

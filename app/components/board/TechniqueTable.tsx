@@ -1,5 +1,5 @@
 import { TECHNIQUES, type TechniqueName } from "~/analysis/types";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 
 /** How often each technique appeared in the period, and in how many of its weeks. */
 export function TechniqueTable({ totals, weeksUsed, weekCount, gained = [] }: { totals: Record<TechniqueName, number>; weeksUsed: Record<TechniqueName, number>; weekCount: number; gained?: TechniqueName[] }) {

@@ -1,4 +1,4 @@
-import { formatMetric, weekLabel, type Figures } from "~/lib/progressFigures";
+import { formatMetric, weekLabel, type Figures } from "~/utils/progressFigures";
 
 type Week = Figures & { week: string };
 

@@ -1,5 +1,5 @@
 // The chart's choice as a query string, shared by the board URL, the chart API and the CSV link.
-import type { MetricId } from "~/lib/progressFigures";
+import type { MetricId } from "~/utils/progressFigures";
 
 export type ChartChoice = { metric: MetricId; studentIds: string[]; from: string; to: string };
 

@@ -1,9 +1,9 @@
 import type { TechniqueName } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import type { ExerciseFormValues } from "./ExerciseForm";
-import type { ExpandedKey } from "~/lib/exerciseProgression";
-import { dayLabel, pretty } from "~/lib/noteText";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
+import type { ExpandedKey } from "~/utils/exerciseProgression";
+import { dayLabel, pretty } from "~/utils/noteText";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 
 type Facts = Pick<ExerciseFormValues, "progression" | "focusTechniques" | "tempo" | "dueDate" | "instructions" | "assignedTo">;
 

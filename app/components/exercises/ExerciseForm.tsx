@@ -3,8 +3,8 @@ import { Form, useNavigation } from "react-router";
 import { TECHNIQUES } from "~/analysis/types";
 import { Button } from "~/components/Button";
 import { Field } from "~/components/Field";
-import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, splitKeys } from "~/lib/exerciseProgression";
-import { TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, splitKeys } from "~/utils/exerciseProgression";
+import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 import { ProgressionPreview } from "./ProgressionPreview";
 
 export type ExerciseFormValues = {

@@ -1,4 +1,4 @@
-import type { ExerciseState } from "~/lib/exerciseState";
+import type { ExerciseState } from "~/utils/exerciseState";
 
 const TONE: Record<ExerciseState["kind"], string> = {
   done: "bg-moss-pale text-moss",

@@ -1,5 +1,5 @@
 import { Link } from "react-router";
-import { pretty } from "~/lib/noteText";
+import { pretty } from "~/utils/noteText";
 
 type TakeCell = { id: string; status: string; score: number | null };
 type Row = { id: string; name: string; done: boolean; progress: Array<{ key: string; takes: TakeCell[]; best: number | null }> };

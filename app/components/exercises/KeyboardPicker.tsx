@@ -1,5 +1,5 @@
 import { noteName } from "~/analysis/pitch";
-import { pretty } from "~/lib/noteText";
+import { pretty } from "~/utils/noteText";
 
 const WHITE_W = 16;
 const WHITE_H = 64;

@@ -3,10 +3,10 @@ import { Form, useNavigation } from "react-router";
 import { parseKey } from "~/analysis/pitch";
 import type { NoteEvent } from "~/analysis/types";
 import { Button, buttonClass } from "~/components/Button";
-import { checkProgression, targetChordsInKey } from "~/lib/exerciseProgression";
-import { fitsFirstChord, modelPath, pathPlan, startForKey } from "~/lib/modelAnswer";
-import { noteLabel, pretty } from "~/lib/noteText";
-import { takePlan } from "~/lib/playbackPlan";
+import { checkProgression, targetChordsInKey } from "~/utils/exerciseProgression";
+import { fitsFirstChord, modelPath, pathPlan, startForKey } from "~/utils/modelAnswer";
+import { noteLabel, pretty } from "~/utils/noteText";
+import { takePlan } from "~/browser/playbackPlan";
 import { KeyboardPicker } from "./KeyboardPicker";
 import { useSynth } from "./useSynth";
 

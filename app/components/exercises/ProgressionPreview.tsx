@@ -1,5 +1,5 @@
-import { checkProgression } from "~/lib/exerciseProgression";
-import { pretty } from "~/lib/noteText";
+import { checkProgression } from "~/utils/exerciseProgression";
+import { pretty } from "~/utils/noteText";
 
 /**
  * The progression as the engine reads it, in every key of the exercise, recomputed as the

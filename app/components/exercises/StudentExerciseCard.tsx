@@ -1,7 +1,7 @@
 import { Link } from "react-router";
 import { Card } from "~/components/Card";
-import type { ExerciseState } from "~/lib/exerciseState";
-import { dayLabel, pretty } from "~/lib/noteText";
+import type { ExerciseState } from "~/utils/exerciseState";
+import { dayLabel, pretty } from "~/utils/noteText";
 import { ExerciseStateBadge } from "./ExerciseStateBadge";
 
 type Props = {

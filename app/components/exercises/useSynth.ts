@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from "react";
-import type { PlannedNote } from "~/lib/playbackPlan";
-import { createPlayer, webAudioAvailable, type Player } from "~/lib/player.client";
+import type { PlannedNote } from "~/browser/playbackPlan";
+import { createPlayer, webAudioAvailable, type Player } from "~/browser/player.client";
 
 /** One synth for the exercise page: `play` stops whatever was sounding; `playing` names what sounds. */
 export function useSynth() {

@@ -3,7 +3,7 @@ import { useFetcher } from "react-router";
 import { failureMessage, failureOf } from "~/forms/failure";
 import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
 import { Button } from "~/components/Button";
-import { timeLabel } from "~/lib/noteText";
+import { timeLabel } from "~/utils/noteText";
 
 export type CommentItem = {
   id: string;

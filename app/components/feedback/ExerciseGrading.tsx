@@ -1,6 +1,6 @@
 import type { TakeAnalysis, TechniqueName } from "~/analysis/types";
-import { percent } from "~/lib/noteText";
-import { mismatchWords, TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { percent } from "~/utils/noteText";
+import { mismatchWords, TECHNIQUE_WORDS } from "~/takes/takeWords";
 
 /**
  * The take against its exercise: accuracy, each difference in words numbered by where it

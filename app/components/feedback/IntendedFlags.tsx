@@ -4,8 +4,8 @@ import { failureMessage, failureOf } from "~/forms/failure";
 import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
 import type { FlagName, TakeAnalysis } from "~/analysis/types";
 import { Button } from "~/components/Button";
-import { FLAG_TITLES } from "~/lib/explainFlags";
-import { pretty } from "~/lib/noteText";
+import { FLAG_TITLES } from "~/takes/explainFlags";
+import { pretty } from "~/utils/noteText";
 
 export type IntendedItem = { id: string; on: "chord" | "change"; idx: number; flag: string; reason: string; byName: string | null };
 

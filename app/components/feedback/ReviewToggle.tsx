@@ -1,6 +1,6 @@
 import { useFetcher } from "react-router";
 import { Button } from "~/components/Button";
-import { dayLabel } from "~/lib/noteText";
+import { dayLabel } from "~/utils/noteText";
 
 /** Marking reviewed is an explicit action (opening the take does not do it), with undo. */
 export function ReviewToggle({ takeId, review }: { takeId: string; review: { at: string; byName: string | null } | null }) {

@@ -1,6 +1,6 @@
 import { Link } from "react-router";
 import { Card } from "~/components/Card";
-import { dayLabel } from "~/lib/noteText";
+import { dayLabel } from "~/utils/noteText";
 
 export type UnreadItem = {
   takeId: string;

@@ -4,8 +4,8 @@ import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
 import { PracticeCare } from "~/components/PracticeCare";
 import { ExerciseStateBadge } from "~/components/exercises/ExerciseStateBadge";
-import { dueWords, type ExerciseState } from "~/lib/exerciseState";
-import { dayLabel, pretty } from "~/lib/noteText";
+import { dueWords, type ExerciseState } from "~/utils/exerciseState";
+import { dayLabel, pretty } from "~/utils/noteText";
 import { TakesTable, type TakeRow } from "./TakesTable";
 import { WeeklyChart, type WeekFigures } from "./WeeklyChart";
 

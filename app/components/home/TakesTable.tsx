@@ -10,7 +10,7 @@ import {
 import { useState } from "react";
 import { Link } from "react-router";
 import { DataTable } from "~/components/DataTable";
-import { dayLabel, percent, pretty } from "~/lib/noteText";
+import { dayLabel, percent, pretty } from "~/utils/noteText";
 
 export type TakeRow = {
   id: string;

@@ -1,8 +1,8 @@
 import { Link } from "react-router";
 import { ButtonLink } from "~/components/Button";
 import { Card } from "~/components/Card";
-import { dayLabel } from "~/lib/noteText";
-import { studioDateTime, studioShortDate, zoneName } from "~/lib/studioTime";
+import { dayLabel } from "~/utils/noteText";
+import { studioDateTime, studioShortDate, zoneName } from "~/utils/studioTime";
 import type { FirstRunStep, TeacherWeek } from "~/models/teacherHome.server";
 import { dueWords } from "./StudentHome";
 

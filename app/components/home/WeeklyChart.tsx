@@ -1,6 +1,6 @@
 import { lazy, Suspense, useEffect, useState } from "react";
-import { dayLabel } from "~/lib/noteText";
-import { weekStart } from "~/lib/weeks";
+import { dayLabel } from "~/utils/noteText";
+import { weekStart } from "~/utils/weeks";
 
 // The chart library is fetched only when a chart is drawn, not with the page.
 const WeeklyLines = lazy(() => import("./WeeklyLines"));

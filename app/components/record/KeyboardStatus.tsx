@@ -2,8 +2,8 @@ import { Link, useLocation } from "react-router";
 import { Button } from "~/components/Button";
 import { FlashMessage } from "~/components/FlashMessage";
 import { MiniKeyboard } from "~/components/take/MiniKeyboard";
-import { noteLabel } from "~/lib/noteText";
-import type { InputInfo } from "~/lib/webMidi.client";
+import { noteLabel } from "~/utils/noteText";
+import type { InputInfo } from "~/browser/webMidi.client";
 import type { AccessStatus } from "./useMidiInput";
 
 /** Points to file upload: on the upload page itself, to the panel beside this one. */

@@ -1,8 +1,8 @@
 import { useEffect, useRef } from "react";
 import type { ChangeReport, ChordReport } from "~/analysis/types";
-import { FLAG_TITLES } from "~/lib/explainFlags";
-import type { LiveGrade } from "~/lib/liveGrading";
-import { pretty } from "~/lib/noteText";
+import { FLAG_TITLES } from "~/takes/explainFlags";
+import type { LiveGrade } from "~/browser/liveGrading";
+import { pretty } from "~/utils/noteText";
 
 /** While playing, only the latest chords: a long take must not slow the page down. */
 export const LIVE_ROWS = 16;

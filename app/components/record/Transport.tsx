@@ -1,6 +1,6 @@
 import { useId } from "react";
 import { Button } from "~/components/Button";
-import { clock } from "~/lib/noteText";
+import { clock } from "~/utils/noteText";
 import type { Phase } from "./useRecording";
 
 export type TransportSettings = { countIn: boolean; clicks: boolean; bpm: number };

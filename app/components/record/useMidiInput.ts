@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useRef, useState } from "react";
-import type { PlayedEvent } from "~/lib/noteRecorder";
+import type { PlayedEvent } from "~/browser/noteRecorder";
 import {
   listenTo,
   listInputs,
@@ -10,7 +10,7 @@ import {
   watchInputs,
   webMidiSupported,
   type InputInfo,
-} from "~/lib/webMidi.client";
+} from "~/browser/webMidi.client";
 
 export type AccessStatus = "checking" | "missing" | "idle" | "connecting" | "refused" | "failed" | "ready";
 

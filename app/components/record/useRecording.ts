@@ -1,10 +1,10 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import { analyseMidi } from "~/analysis";
 import type { NoteEvent, PedalSpan } from "~/analysis/types";
-import { gradeSoFar, GradeThrottle, type LiveGrade } from "~/lib/liveGrading";
-import { createMetronome, type Metronome } from "~/lib/metronome.client";
-import { clampBpm, encodeMidi, recordingFileName } from "~/lib/midiEncode";
-import { MAX_RECORDING_SECONDS, NoteRecorder, type PlayedEvent } from "~/lib/noteRecorder";
+import { gradeSoFar, GradeThrottle, type LiveGrade } from "~/browser/liveGrading";
+import { createMetronome, type Metronome } from "~/browser/metronome.client";
+import { clampBpm, encodeMidi, recordingFileName } from "~/browser/midiEncode";
+import { MAX_RECORDING_SECONDS, NoteRecorder, type PlayedEvent } from "~/browser/noteRecorder";
 
 export type Phase = "idle" | "counting" | "recording" | "stopped";
 

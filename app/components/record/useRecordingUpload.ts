@@ -1,6 +1,6 @@
 import { useCallback, useRef, useState } from "react";
-import { newRow, rowFromAnswer, type UploadRow } from "~/lib/uploadRows";
-import { sendTake, type TakeFields } from "~/lib/uploadTake.client";
+import { newRow, rowFromAnswer, type UploadRow } from "~/takes/uploadRows";
+import { sendTake, type TakeFields } from "~/browser/uploadTake.client";
 
 /** Answers after which sending the same bytes again makes sense: nothing was stored. */
 export function canRetry(status: number): boolean {

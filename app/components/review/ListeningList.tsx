@@ -4,9 +4,9 @@ import type { FlagName } from "~/analysis/types";
 import { Button } from "~/components/Button";
 import { EmptyState } from "~/components/EmptyState";
 import { FlashMessage } from "~/components/FlashMessage";
-import { FLAG_TITLES } from "~/lib/explainFlags";
-import { pretty } from "~/lib/noteText";
-import { studioClock, studioDateTime, studioShortDate } from "~/lib/studioTime";
+import { FLAG_TITLES } from "~/takes/explainFlags";
+import { pretty } from "~/utils/noteText";
+import { studioClock, studioDateTime, studioShortDate } from "~/utils/studioTime";
 import type { ListeningQuery, ListeningRow } from "~/models/listening.server";
 
 type Props = {

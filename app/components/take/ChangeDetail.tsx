@@ -1,8 +1,8 @@
 import type { Key } from "~/analysis/pitch";
 import type { ChangeReport, ChordReport, Suggestion } from "~/analysis/types";
 import { Button } from "~/components/Button";
-import { voicingLabel } from "~/lib/noteText";
-import { pairPlan, type PlannedNote } from "~/lib/playbackPlan";
+import { voicingLabel } from "~/utils/noteText";
+import { pairPlan, type PlannedNote } from "~/browser/playbackPlan";
 import { chordName } from "./ChangeList";
 import { VoiceLeadingDrawing } from "./VoiceLeadingDrawing";
 

@@ -1,9 +1,9 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { Key } from "~/analysis/pitch";
 import type { ChangeReport, ChordReport } from "~/analysis/types";
-import { explainChange, explainChord, FLAG_TITLES } from "~/lib/explainFlags";
-import { pretty } from "~/lib/noteText";
-import { stepChange } from "~/lib/pianoRoll";
+import { explainChange, explainChord, FLAG_TITLES } from "~/takes/explainFlags";
+import { pretty } from "~/utils/noteText";
+import { stepChange } from "~/takes/pianoRoll";
 
 const PAGE = 40;
 

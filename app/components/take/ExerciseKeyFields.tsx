@@ -1,5 +1,5 @@
 import { useId, useState } from "react";
-import { pretty } from "~/lib/noteText";
+import { pretty } from "~/utils/noteText";
 
 export type ExerciseChoice = { id: string; title: string; keys: string[] };
 

@@ -1,4 +1,4 @@
-import { isBlackKey } from "~/lib/pianoRoll";
+import { isBlackKey } from "~/takes/pianoRoll";
 
 const WHITE_W = 13;
 const WHITE_H = 52;

@@ -1,4 +1,4 @@
-import type { NextStep } from "~/lib/nextStep";
+import type { NextStep } from "~/takes/nextStep";
 import { Button } from "~/components/Button";
 
 /**

@@ -1,9 +1,9 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import type { ChangeReport, ChordReport, NoteEvent } from "~/analysis/types";
-import { cellsInView, laneCells, packMarks, type LaneMark } from "~/lib/chordLane";
-import { clock, noteLabel, pretty } from "~/lib/noteText";
-import { drawnVoicing } from "~/lib/playbackPlan";
-import { boxesPath, changeForChord, chordAtTime, isBlackKey, rollLayout, stepChange, xOf, yOf } from "~/lib/pianoRoll";
+import { cellsInView, laneCells, packMarks, type LaneMark } from "~/takes/chordLane";
+import { clock, noteLabel, pretty } from "~/utils/noteText";
+import { drawnVoicing } from "~/browser/playbackPlan";
+import { boxesPath, changeForChord, chordAtTime, isBlackKey, rollLayout, stepChange, xOf, yOf } from "~/takes/pianoRoll";
 
 const EDGE_W = 44;
 const AXIS_H = 18;

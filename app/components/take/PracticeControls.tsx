@@ -1,5 +1,5 @@
 import { Button } from "~/components/Button";
-import { clock } from "~/lib/noteText";
+import { clock } from "~/utils/noteText";
 import type { PlaybackState } from "./usePlayback";
 
 export const SPEEDS = [0.5, 0.75, 1] as const;

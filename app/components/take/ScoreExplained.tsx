@@ -1,6 +1,6 @@
 import type { ScoreParts } from "~/analysis/types";
-import { percent } from "~/lib/noteText";
-import { scoreBreakdown } from "~/lib/scoreBreakdown";
+import { percent } from "~/utils/noteText";
+import { scoreBreakdown } from "~/takes/scoreBreakdown";
 
 /** The score with the parts it is built from: each part's value, its weight and the points it brings. */
 export function ScoreExplained({ score, parts }: { score: number; parts: ScoreParts }) {

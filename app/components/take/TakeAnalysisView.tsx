@@ -2,15 +2,15 @@ import { useEffect, useMemo, useState, type ReactNode } from "react";
 import type { Summary } from "~/analysis/types";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
-import { keyOf, pretty } from "~/lib/noteText";
-import { chordIndexAt, pairPlan, smootherPathPlan, stretchPlan, takePlan } from "~/lib/playbackPlan";
-import { laneMarks } from "~/lib/chordLane";
-import type { NextStep } from "~/lib/nextStep";
-import { rollLayout } from "~/lib/pianoRoll";
-import type { TakeWindow, Timeline } from "~/lib/takeWindows";
+import { keyOf, pretty } from "~/utils/noteText";
+import { chordIndexAt, pairPlan, smootherPathPlan, stretchPlan, takePlan } from "~/browser/playbackPlan";
+import { laneMarks } from "~/takes/chordLane";
+import type { NextStep } from "~/takes/nextStep";
+import { rollLayout } from "~/takes/pianoRoll";
+import type { TakeWindow, Timeline } from "~/takes/takeWindows";
 import { ChangeDetail } from "./ChangeDetail";
 import { ChangeList } from "./ChangeList";
-import type { PlacedMismatch } from "~/lib/mismatchPlaces";
+import type { PlacedMismatch } from "~/takes/mismatchPlaces";
 import { NextStepPanel } from "./NextStepPanel";
 import { PianoRoll, PianoRollLegend } from "./PianoRoll";
 import { PracticeControls } from "./PracticeControls";
@@ -33,7 +33,7 @@ function chordFrom(chords: ReadonlyArray<{ startSec: number }>, sec: number): nu
 /**
  * The analysed take: the next step, the summary with the score explained, the piano roll with
  * its chord lanes and practice controls, the changes and the selected change drawn as voice leading.
- * A long take arrives in windows (see app/lib/takeWindows.ts): the page brings the time line and
+ * A long take arrives in windows (see app/takes/takeWindows.ts): the page brings the time line and
  * one window, and the roll, the change list and the selected change ask for the windows they lack.
  */
 export function TakeAnalysisView({

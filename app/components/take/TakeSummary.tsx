@@ -1,7 +1,7 @@
 import type { ChordReport, Summary, TechniqueName } from "~/analysis/types";
 import { TECHNIQUES } from "~/analysis/types";
-import { percent, pretty } from "~/lib/noteText";
-import { mismatchWords, TECHNIQUE_WORDS } from "~/lib/takeWords";
+import { percent, pretty } from "~/utils/noteText";
+import { mismatchWords, TECHNIQUE_WORDS } from "~/takes/takeWords";
 import { ScoreExplained } from "./ScoreExplained";
 
 function Figure({ label, value, detail, tone = "ink" }: { label: string; value: string; detail?: string; tone?: "ink" | "moss" | "ochre" | "brick" }) {

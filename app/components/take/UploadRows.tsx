@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router";
-import { formatBytes, type UploadRow } from "~/lib/uploadRows";
-import { percent } from "~/lib/noteText";
+import { formatBytes, type UploadRow } from "~/takes/uploadRows";
+import { percent } from "~/utils/noteText";
 
 const STAGE: Record<UploadRow["stage"], { label: string; tone: string }> = {
   ready: { label: "Ready to upload", tone: "bg-paper text-ink-soft" },

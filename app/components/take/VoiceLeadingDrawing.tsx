@@ -1,6 +1,6 @@
 import type { Key } from "~/analysis/pitch";
-import { noteLabel } from "~/lib/noteText";
-import { signedSemitones, voiceDrawing } from "~/lib/voiceLeadingDrawing";
+import { noteLabel } from "~/utils/noteText";
+import { signedSemitones, voiceDrawing } from "~/takes/voiceLeadingDrawing";
 
 const WIDTH = 220;
 

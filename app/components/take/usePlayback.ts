@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from "react";
-import { scalePlan, type PlannedNote } from "~/lib/playbackPlan";
-import { createPlayer, webAudioAvailable, type Player } from "~/lib/player.client";
+import { scalePlan, type PlannedNote } from "~/browser/playbackPlan";
+import { createPlayer, webAudioAvailable, type Player } from "~/browser/player.client";
 
 export type PlaybackMode = "take" | "smoother" | "snippet" | "loop";
 export type PlaybackState = {

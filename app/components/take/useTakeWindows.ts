@@ -1,5 +1,5 @@
 import { useCallback, useMemo, useRef, useState } from "react";
-import { stitchWindows, windowCount, windowStart, WINDOW_SIZE, type TakeWindow, type Timeline } from "~/lib/takeWindows";
+import { stitchWindows, windowCount, windowStart, WINDOW_SIZE, type TakeWindow, type Timeline } from "~/takes/takeWindows";
 
 export type KnownTake = ReturnType<typeof stitchWindows>;
 

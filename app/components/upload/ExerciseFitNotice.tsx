@@ -1,5 +1,5 @@
-import { fitSentence, likelySentence, type FitNotice } from "~/lib/exerciseFitText";
-import { pretty } from "~/lib/noteText";
+import { fitSentence, likelySentence, type FitNotice } from "~/takes/exerciseFitText";
+import { pretty } from "~/utils/noteText";
 import { buttonClass } from "../Button";
 
 /** The id of the hidden form that moves a take to its likely exercise (see MoveToLikelyForm). */

@@ -1,4 +1,4 @@
-import { pretty } from "~/lib/noteText";
+import { pretty } from "~/utils/noteText";
 
 export type FileExerciseOption = { id: string; title: string; keys: string[] };
 

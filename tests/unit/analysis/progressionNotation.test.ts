@@ -7,7 +7,7 @@ import { Chord, Note, RomanNumeral } from "tonal";
 import { describe, expect, it } from "vitest";
 import { parseKey } from "../../../app/analysis/pitch";
 import { parseProgression, progressionTokens, targetPcs } from "../../../app/analysis/progression";
-import { checkProgression, usesChordSymbols } from "../../../app/lib/exerciseProgression";
+import { checkProgression, usesChordSymbols } from "../../../app/utils/exerciseProgression";
 
 const C = parseKey("C");
 const pcsOfTonal = (symbol: string) => [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);

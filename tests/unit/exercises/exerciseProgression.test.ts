@@ -12,7 +12,7 @@ import {
   splitKeys,
   targetChordsInKey,
   targetTextForKey,
-} from "~/lib/exerciseProgression";
+} from "~/utils/exerciseProgression";
 
 const pcsOfSymbol = (symbol: string) => [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
 const pcsInKey = (progression: string, keys: string[], key: string) => targetChordsInKey(progression, keys, key).map(targetPcs);

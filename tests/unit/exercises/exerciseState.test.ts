@@ -1,7 +1,7 @@
 // One rule for a student's state of an exercise (home, list of exercises, exercise page).
 // Dates are counted in whole calendar days of the studio's calendar.
 import { describe, expect, it } from "vitest";
-import { byState, dueWords, exerciseState } from "../../../app/lib/exerciseState";
+import { byState, dueWords, exerciseState } from "../../../app/utils/exerciseState";
 
 const analysed = { status: "analysed" };
 const failed = { status: "failed" };

@@ -2,7 +2,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";
-import { scoreWithIntended, withIntendedMarks } from "~/lib/intendedScore";
+import { scoreWithIntended, withIntendedMarks } from "~/takes/intendedScore";
 
 function take(chords: number[][]): NoteEvent[] {
   return chords.flatMap((c, i) => c.map((midi) => ({ midi, start: i * 0.5, end: i * 0.5 + 0.45, velocity: 0.7 })));

@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import type { NoteEvent } from "~/analysis/types";
-import { placeMismatches, stripMarks } from "~/lib/mismatchPlaces";
+import { placeMismatches, stripMarks } from "~/takes/mismatchPlaces";
 
 /** One chord every half second, all notes together. */
 function take(chords: number[][]): NoteEvent[] {

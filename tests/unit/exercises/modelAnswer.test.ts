@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { parseKey, pc } from "~/analysis/pitch";
 import { parseProgression } from "~/analysis/progression";
 import { motion } from "~/analysis/voiceLeading";
-import { closeVoicing, defaultStart, fitsFirstChord, modelPath, pathPlan, shiftStart, startForKey } from "~/lib/modelAnswer";
+import { closeVoicing, defaultStart, fitsFirstChord, modelPath, pathPlan, shiftStart, startForKey } from "~/utils/modelAnswer";
 
 const C = parseKey("C");
 

@@ -8,7 +8,7 @@ import { analyseNotes } from "~/analysis";
 import { parseKey, pc } from "~/analysis/pitch";
 import { parseProgression } from "~/analysis/progression";
 import { motion } from "~/analysis/voiceLeading";
-import { defaultStart, isOpen, modelPath, pathPlan } from "~/lib/modelAnswer";
+import { defaultStart, isOpen, modelPath, pathPlan } from "~/utils/modelAnswer";
 
 const names = (voicing: number[]) => voicing.map((n) => Midi.midiToNoteName(n, { sharps: false, pitchClass: true }));
 const path = (progression: string, key: string, focus: string[], start?: number[]) => {

@@ -3,12 +3,12 @@ import { describe, expect, it } from "vitest";
 import { analyseNotes } from "~/analysis";
 import { score, SCORE_WEIGHTS } from "~/analysis/score";
 import type { NoteEvent } from "~/analysis/types";
-import { cellsInView, labelWidth, laneCells, packMarks } from "~/lib/chordLane";
-import { extraMotion, heardKey, keyWords, nextStep } from "~/lib/nextStep";
-import { filesFor, sampleFile, sampleFor, SAMPLED_NOTES } from "~/lib/pianoSamples";
-import { scoreBreakdown } from "~/lib/scoreBreakdown";
-import { signedSemitones, spreadLabels, voiceDrawing } from "~/lib/voiceLeadingDrawing";
-import { keyOf } from "~/lib/noteText";
+import { cellsInView, labelWidth, laneCells, packMarks } from "~/takes/chordLane";
+import { extraMotion, heardKey, keyWords, nextStep } from "~/takes/nextStep";
+import { filesFor, sampleFile, sampleFor, SAMPLED_NOTES } from "~/browser/pianoSamples";
+import { scoreBreakdown } from "~/takes/scoreBreakdown";
+import { signedSemitones, spreadLabels, voiceDrawing } from "~/takes/voiceLeadingDrawing";
+import { keyOf } from "~/utils/noteText";
 
 const block = (pitches: number[], start: number, len = 0.9): NoteEvent[] => pitches.map((midi) => ({ midi, start, end: start + len, velocity: 0.7 }));
 
@@ -153,7 +153,7 @@ describe("piano samples", () => {
 
 describe("marks under the roll", () => {
   it("puts a comment on its change, a flag where it is, and a missing chord between two played ones", async () => {
-    const { laneMarks } = await import("~/lib/chordLane");
+    const { laneMarks } = await import("~/takes/chordLane");
     const chords = [
       { startSec: 0, endSec: 1, flags: [] },
       { startSec: 1, endSec: 2, flags: ["muddy-low-interval"] },

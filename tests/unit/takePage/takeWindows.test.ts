@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { analyseMidi, readMidi } from "~/analysis";
-import { packNotes, unpackNotes } from "~/lib/packNotes";
-import { allWindows, packMelody, unpackMelody, readTimeline, stitchWindows, timelineOf, windowOf, windowStart, WINDOW_SIZE, type TakeWindow } from "~/lib/takeWindows";
+import { packNotes, unpackNotes } from "~/takes/packNotes";
+import { allWindows, packMelody, unpackMelody, readTimeline, stitchWindows, timelineOf, windowOf, windowStart, WINDOW_SIZE, type TakeWindow } from "~/takes/takeWindows";
 import { generateLongTake, generateTake, EXERCISES } from "../../../scripts/lib/takeGenerator";
 
 // The take page carries one window of a long take's analysis and fetches the rest; these

@@ -1,6 +1,6 @@
 import { createCookieSessionStorage } from "react-router";
 import type { FlashTone } from "~/components/FlashMessage";
-import { env } from "~/lib/env.server";
+import { env } from "~/server/env.server";
 
 export type Flash = { tone: FlashTone; message: string };
 

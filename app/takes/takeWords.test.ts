@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { ChordReport } from "~/analysis/types";
-import { clock, dayLabel, percent, timeLabel } from "./noteText";
+import { clock, dayLabel, percent, timeLabel } from "~/utils/noteText";
 import { inversionWords, mismatchWords, TECHNIQUE_WORDS } from "./takeWords";
 import { TECHNIQUES } from "~/analysis/types";
 

@@ -1,7 +1,7 @@
 // The words for a take filed under an exercise it does not fit. Pure, so the upload page's
 // rows (in the browser) and the take page say the same thing.
 import type { FitWarning } from "~/analysis/exerciseFit";
-import { percent, pretty } from "./noteText";
+import { percent, pretty } from "~/utils/noteText";
 
 /** The warning with the titles a person reads. */
 export type FitNotice = Omit<FitWarning, "likely"> & {

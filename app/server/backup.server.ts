@@ -4,7 +4,7 @@ import { createWriteStream, existsSync, mkdirSync, renameSync, rmSync, writeFile
 import { mkdtemp, open, type FileHandle } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { takeFileNames } from "./takeFiles.server";
+import { takeFileNames } from "~/takes/takeFiles.server";
 
 // A backup is one ZIP file: `nearnote.db` (SQLite's online backup, consistent even
 // while the app writes) and `takes/…` (the take files that copy of the database

@@ -1,6 +1,6 @@
 import path from "node:path";
 import nodemailer from "nodemailer";
-import { env } from "./env.server";
+import { env } from "~/server/env.server";
 import { storeMessage } from "./mailStore.server";
 
 export const MAIL_FROM = "Nearnote <no-reply@nearnote.example>";

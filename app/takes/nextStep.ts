@@ -7,7 +7,7 @@ import { nameChord } from "~/analysis/naming";
 import { parseKey, type Key } from "~/analysis/pitch";
 import type { ChangeFlag, ChangeReport, ChordFlag, ChordReport, FlagName, Summary } from "~/analysis/types";
 import { explainChange, explainChord } from "./explainFlags";
-import { pretty, voicingLabel } from "./noteText";
+import { pretty, voicingLabel } from "~/utils/noteText";
 
 /** Below this share of the exercise's chords played in order, the take is said to be of something else. */
 export const OFF_EXERCISE_ACCURACY = 0.34;

@@ -7,7 +7,7 @@ import { lowIntervalLimit } from "~/analysis/lowInterval";
 import { pc, type Key } from "~/analysis/pitch";
 import type { ChangeFlag, ChangeReport, ChordFlag, ChordReport, FlagName } from "~/analysis/types";
 import { voiceLeadingPairs } from "~/analysis/voiceLeading";
-import { intervalName, noteLabel, pretty, semitones, voicingLabel } from "./noteText";
+import { intervalName, noteLabel, pretty, semitones, voicingLabel } from "~/utils/noteText";
 
 export type FlagExplanation = { flag: FlagName; title: string; text: string };
 

@@ -4,14 +4,14 @@ import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import { AnalysisError } from "~/analysis";
 import type { FitCandidate } from "~/analysis/exerciseFit";
-import { env } from "~/lib/env.server";
+import { env } from "~/server/env.server";
 import type { AnalysisOutcome, AnalysisTask, NotesOutcome } from "./analysisWorker/task";
 
 // Analysis of uploaded files runs in a small pool of worker threads, so one dense
 // take never holds up anyone else's request. One core stays free for the server.
 // The entry is resolved from the project folder, like the migrations, so the
 // built server, the scripts and the tests all find the same file.
-export const ANALYSIS_WORKER_ENTRY = path.resolve(process.env.ANALYSIS_WORKER_ENTRY ?? "app/lib/analysisWorker/entry.mjs");
+export const ANALYSIS_WORKER_ENTRY = path.resolve(process.env.ANALYSIS_WORKER_ENTRY ?? "app/takes/analysisWorker/entry.mjs");
 
 let pool: Piscina<AnalysisTask, AnalysisOutcome | NotesOutcome> | undefined;
 

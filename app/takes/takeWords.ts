@@ -1,6 +1,6 @@
 // Plain words for the engine's technique names, chord shapes and exercise mismatches.
 import type { ChordReport, Mismatch, TechniqueName } from "~/analysis/types";
-import { pretty } from "./noteText";
+import { pretty } from "~/utils/noteText";
 
 export const TECHNIQUE_WORDS: Record<TechniqueName, { label: string; text: string }> = {
   "added-second": { label: "Added 2nd", text: "a 2nd (the 9th) added to a major or minor chord" },

@@ -1,4 +1,4 @@
-import { env } from "./env.server";
+import { env } from "~/server/env.server";
 import type { OutgoingMail } from "./mail.server";
 
 // Plain-text mail only: it reads the same in every client and a link is the whole point.

@@ -1,6 +1,6 @@
 import { data } from "react-router";
 import { SMTPServer } from "smtp-server";
-import { env } from "./env.server";
+import { env } from "~/server/env.server";
 import { storeMessage } from "./mailStore.server";
 
 export { readCaughtMail, readCaughtMessage, type CaughtMail } from "./mailStore.server";

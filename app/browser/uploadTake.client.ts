@@ -1,6 +1,6 @@
 // Sends one take to POST /api/takes with XMLHttpRequest, because fetch() gives no upload
 // progress. Browser only.
-import type { UploadAnswer } from "./uploadRows";
+import type { UploadAnswer } from "~/takes/uploadRows";
 
 export type TakeFields = { exerciseId?: string; key?: string; note?: string };
 

@@ -16,12 +16,12 @@ import { parseKey } from "~/analysis/pitch";
 import type { SessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { takes, type Take } from "~/db/schema";
-import { targetTextForKey } from "~/lib/exerciseProgression";
-import { fitNotice, type FitNotice } from "~/lib/exerciseFitText";
-import { analyseInWorker } from "~/lib/analysisPool.server";
-import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/lib/takeFiles.server";
-import { MAX_FILES, MAX_TAKE_BYTES } from "~/lib/uploadLimits";
-import { fieldsForChoice } from "~/lib/uploadRows";
+import { targetTextForKey } from "~/utils/exerciseProgression";
+import { fitNotice, type FitNotice } from "~/takes/exerciseFitText";
+import { analyseInWorker } from "~/takes/analysisPool.server";
+import { newFileKey, removeTakeFile, removeTakeFilesAfterRows, takeStorage } from "~/takes/takeFiles.server";
+import { MAX_FILES, MAX_TAKE_BYTES } from "~/takes/uploadLimits";
+import { fieldsForChoice } from "~/takes/uploadRows";
 import { listExercisesForStudent, type ExerciseOption } from "~/models/exercises.server";
 import { createTakeRecord, replaceTakeRecord } from "~/models/takes.server";
 

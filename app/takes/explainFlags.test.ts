@@ -7,7 +7,7 @@ import { gradeChange } from "~/analysis/grade";
 import { parseKey, type Key } from "~/analysis/pitch";
 import type { Strike } from "~/analysis/strikes";
 import { explainChange, explainChordFlag, FLAG_TITLES } from "./explainFlags";
-import { intervalName, pretty, voicingLabel } from "./noteText";
+import { intervalName, pretty, voicingLabel } from "~/utils/noteText";
 
 function chord(pitches: number[], key: Key, start = 0) {
   const s: Strike = { start, notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })), graces: [], held: [] };

@@ -2,7 +2,7 @@ import { LocalFileStorage } from "@mjackson/file-storage/local";
 import { createHash, randomUUID } from "node:crypto";
 import { mkdir, readdir, rm, stat, unlink, writeFile } from "node:fs/promises";
 import path from "node:path";
-import { env } from "~/lib/env.server";
+import { env } from "~/server/env.server";
 
 // Take files live under storage/takes/ by a random key: the client's file name
 // is kept in the database only, never used in a path.

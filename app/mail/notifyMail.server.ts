@@ -2,7 +2,7 @@ import { createHmac, timingSafeEqual } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { sentMails } from "~/db/schema";
-import { env } from "./env.server";
+import { env } from "~/server/env.server";
 import { sendMail, type OutgoingMail } from "./mail.server";
 import { link } from "./mailTemplates.server";
 
