@@ -13,13 +13,13 @@ import tseslint from "typescript-eslint";
 const into = (...folders) => folders.flatMap((f) => [`~/${f}`, `~/${f}/*`, `**/${f}/*`, `../${f}`]);
 
 /** A layer may not import the layers above it (type-only imports of a lower layer are fine). */
-function boundary(files, folders, message) {
+function boundary(files, folders, message, allowTypeImports = false) {
   return {
     files,
     rules: {
       "@typescript-eslint/no-restricted-imports": [
         "error",
-        { patterns: [{ group: into(...folders), message }] },
+        { patterns: [{ group: into(...folders), message, allowTypeImports }] },
       ],
     },
   };
@@ -89,6 +89,7 @@ export default tseslint.config(
     ["components", "routes"],
     "Models and server helpers never import views or routes: types belong to the model.",
   ),
-  boundary(["app/components/**"], ["routes"], "Components take their data from the route, never import a route."),
+  // A component may name a route's action as a type (useFetcher<typeof action>), never import its code.
+  boundary(["app/components/**"], ["routes"], "Components take their data from the route, never import a route's code.", true),
   prettier,
 );

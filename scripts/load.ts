@@ -34,7 +34,9 @@ async function waitFor(url: string) {
   for (let i = 0; i < 120; i++) {
     try {
       if ((await fetch(url)).ok) return;
-    } catch {}
+    } catch {
+      // not answering yet
+    }
     await new Promise((r) => setTimeout(r, 500));
   }
   throw new Error(`${url} did not come up`);

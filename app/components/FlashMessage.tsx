@@ -1,6 +1,8 @@
 import type { ReactNode } from "react";
 
-export type FlashTone = "success" | "info" | "error";
+import type { FlashTone } from "~/utils/flashTone";
+
+export type { FlashTone };
 
 const tones: Record<FlashTone, string> = {
   success: "border-moss bg-moss-pale text-moss",

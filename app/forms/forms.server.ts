@@ -1,6 +1,6 @@
 import { data, redirect } from "react-router";
 import type { z } from "zod";
-import type { FlashTone } from "~/components/FlashMessage";
+import type { FlashTone } from "~/utils/flashTone";
 import { flashHeader } from "~/server/flash.server";
 import type { FormFailure } from "./failure";
 

@@ -1,4 +1,3 @@
-import type { ExerciseFormValues } from "~/components/exercises/ExerciseForm";
 import { and, desc, eq, inArray, isNotNull, isNull, or } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
@@ -260,3 +259,16 @@ export function listExercisesForStudent(studentId: string, studioId: string): Ex
 export function exerciseForStudent(studentId: string, studioId: string, exerciseId: string) {
   return listExercisesForStudent(studentId, studioId).find((e) => e.id === exerciseId) ?? null;
 }
+
+/** What the exercise form edits (the form component takes this type from here). */
+export type ExerciseFormValues = {
+  title: string;
+  keys: string[];
+  progression: string;
+  focusTechniques: string[];
+  tempo: number | null;
+  dueDate: string | null;
+  instructions: string;
+  assignedTo: "studio" | "students";
+  students: string[];
+};

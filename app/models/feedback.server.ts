@@ -1,4 +1,3 @@
-import type { CommentItem } from "~/components/feedback/CommentThread";
 import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
@@ -282,3 +281,15 @@ export function takePageFeedback(viewer: { id: string }, take: { id: string; stu
 }
 
 export type TakePageFeedback = ReturnType<typeof takePageFeedback>;
+
+/** A comment with its replies, as the take page shows it. */
+export type CommentItem = {
+  id: string;
+  authorId: string;
+  authorName: string;
+  body: string;
+  changeIdx: number | null;
+  createdAt: string;
+  unread: boolean;
+  replies: CommentItem[];
+};

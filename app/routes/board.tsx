@@ -1,4 +1,4 @@
-import { data, redirect, useNavigation } from "react-router";
+import { redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/board";
 import { requireStudentsOfTeacher, requireTeacher } from "~/auth/access.server";

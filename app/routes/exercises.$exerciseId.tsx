@@ -1,4 +1,4 @@
-import { data, Form, Link, useNavigation, useRevalidator } from "react-router";
+import { Form, Link, useNavigation, useRevalidator } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/exercises.$exerciseId";
 import { requireExerciseAccess, requireExerciseEdit } from "~/auth/access.server";

@@ -1,4 +1,3 @@
-import { data, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/review";
 import { requireTeacher } from "~/auth/access.server";

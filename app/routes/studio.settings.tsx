@@ -1,4 +1,4 @@
-import { data, redirect, useActionData, useNavigation, Form } from "react-router";
+import { useActionData, useNavigation, Form } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/studio.settings";
 import { requireOwner, requireTeacher } from "~/auth/access.server";

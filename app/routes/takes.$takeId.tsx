@@ -119,7 +119,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     return redirectWithFlash("/home", "Take deleted, with its file.", request);
   }
   requireActiveInStudio(user, take.studioId);
-  let { exerciseId, key } = input;
+  const { exerciseId } = input;
+  let { key } = input;
   if (exerciseId) {
     const exercise = exerciseForStudent(user.id, take.studioId, exerciseId);
     if (!exercise) return formFailure({ form, formError: "That exercise is not one of yours." });

@@ -1,13 +1,13 @@
 import { createCookieSessionStorage } from "react-router";
-import type { FlashTone } from "~/components/FlashMessage";
+import type { FlashTone } from "~/utils/flashTone";
 import { env } from "~/server/env.server";
 
 export type Flash = { tone: FlashTone; message: string };
 
-let storage: ReturnType<typeof createCookieSessionStorage<{}, { flash: Flash }>> | undefined;
+let storage: ReturnType<typeof createCookieSessionStorage<Record<string, never>, { flash: Flash }>> | undefined;
 
 function flashStorage() {
-  storage ??= createCookieSessionStorage<{}, { flash: Flash }>({
+  storage ??= createCookieSessionStorage<Record<string, never>, { flash: Flash }>({
     cookie: {
       name: "nearnote_flash",
       httpOnly: true,

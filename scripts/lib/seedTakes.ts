@@ -59,7 +59,6 @@ export async function seedDemoTakes(database: Db, studioId: string, now = new Da
         const exercise = studioExercises.find((e) => e.title === plan.title) ?? null;
         const bytes = generateTake({ exercise: plan, skill, seed: si * 1000 + week * 10 + t, loops: 3 });
         const recordedAt = new Date(now.getTime() - weeksAgo * 7 * DAY - Math.floor(rand() * 6) * DAY - 3_600_000 * (1 + rand() * 5));
-        const fileKey = newFileKey();
         await storeTake(studioId, student.id, exercise, exercise ? plan.key : null, bytes, `${plan.id}-week${week + 1}.mid`, recordedAt);
         made++;
       }

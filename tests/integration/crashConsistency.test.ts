@@ -40,7 +40,9 @@ async function waitUp() {
   for (let i = 0; i < 120; i++) {
     try {
       if ((await fetch(`${BASE}/healthz`)).ok) return;
-    } catch {}
+    } catch {
+      // not answering yet
+    }
     await new Promise((r) => setTimeout(r, 250));
   }
   throw new Error("the server did not come up");
@@ -53,7 +55,7 @@ describe("a crash during uploads", () => {
     join(studio.id, student.id, "student");
     closeDatabase(); // the server owns the database from here
 
-    let orphans = 0;
+    let orphans: number;
     const first = startServer();
     try {
       await waitUp();

@@ -185,8 +185,8 @@ describe("review queue", () => {
     expect(done.status).toBe(302);
     expect(done.location).toBe(`/review?undo=${ids.take}`);
     expect(reviewQueue(ids.studio).map((t) => t.id)).toEqual([second.id]);
-    const page = (await call(review.loader, get(`/review?undo=${ids.take}`, ines))).data as { undo: string };
-    expect(page.undo).toBe(ids.take);
+    const page = (await call(review.loader, get(`/review?undo=${ids.take}`, ines))).data as { undo: string[] };
+    expect(page.undo).toEqual([ids.take]);
 
     await call(review.action, formPost("/review", { intent: "unreview", takeId: ids.take }, ines));
     expect(reviewQueueCount(ids.studio)).toBe(2);

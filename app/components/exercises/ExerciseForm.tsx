@@ -6,18 +6,10 @@ import { Field } from "~/components/Field";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, splitKeys } from "~/utils/exerciseProgression";
 import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 import { ProgressionPreview } from "./ProgressionPreview";
+import type { ExerciseFormValues } from "~/models/exercises.server";
 
-export type ExerciseFormValues = {
-  title: string;
-  keys: string[];
-  progression: string;
-  focusTechniques: string[];
-  tempo: number | null;
-  dueDate: string | null;
-  instructions: string;
-  assignedTo: "studio" | "students";
-  students: string[];
-};
+export type { ExerciseFormValues };
+
 
 export type ExerciseFormErrors = Partial<Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>>;
 

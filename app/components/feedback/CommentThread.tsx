@@ -5,16 +5,9 @@ import type { action as feedbackAction } from "~/routes/takes.$takeId.feedback";
 import { Button } from "~/components/Button";
 import { timeLabel } from "~/utils/noteText";
 
-export type CommentItem = {
-  id: string;
-  authorId: string;
-  authorName: string;
-  body: string;
-  changeIdx: number | null;
-  createdAt: string;
-  unread: boolean;
-  replies: CommentItem[];
-};
+import type { CommentItem } from "~/models/feedback.server";
+
+export type { CommentItem };
 
 /** Posts a comment or reply to the take's feedback route; errors show beside the box. */
 export function CommentComposer({

@@ -86,7 +86,7 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
         )
         .join(""),
     };
-  }, [notes, chords, layout, cells]);
+  }, [notes, chords, layout]);
 
   // The suggested voicing drawn over the change it belongs to: the selected one, or all while the smoother path plays.
   const ghost = useMemo(() => {
