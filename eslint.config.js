@@ -47,7 +47,10 @@ export default tseslint.config(
     files: ["**/*.{ts,tsx,js,mjs}"],
     languageOptions: { globals: { ...globals.browser, ...globals.node } },
     rules: {
-      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", caughtErrors: "none" }],
+      "@typescript-eslint/no-unused-vars": [
+        "error",
+        { argsIgnorePattern: "^_", varsIgnorePattern: "^_", caughtErrors: "none" },
+      ],
       "@typescript-eslint/no-explicit-any": "error",
       "no-control-regex": "off",
     },
@@ -78,7 +81,11 @@ export default tseslint.config(
     ["components", "routes", "models", "db", "auth", "forms", "mail", "takes", "server", "browser"],
     "Pure helpers import only the engine and each other.",
   ),
-  boundary(["app/db/**"], ["components", "routes", "models", "auth", "forms", "mail", "takes"], "The database layer knows no models, auth or views."),
+  boundary(
+    ["app/db/**"],
+    ["components", "routes", "models", "auth", "forms", "mail", "takes"],
+    "The database layer knows no models, auth or views.",
+  ),
   boundary(
     ["app/browser/**"],
     ["components", "routes", "models", "db", "auth", "forms", "mail", "server"],
@@ -90,6 +97,11 @@ export default tseslint.config(
     "Models and server helpers never import views or routes: types belong to the model.",
   ),
   // A component may name a route's action as a type (useFetcher<typeof action>), never import its code.
-  boundary(["app/components/**"], ["routes"], "Components take their data from the route, never import a route's code.", true),
+  boundary(
+    ["app/components/**"],
+    ["routes"],
+    "Components take their data from the route, never import a route's code.",
+    true,
+  ),
   prettier,
 );

@@ -39,28 +39,29 @@ export default function handleRequest(
         <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
       </NonceContext.Provider>,
       {
-      nonce,
-      [readyOption]() {
-        shellRendered = true;
-        const body = new PassThrough({
-          final(callback) {
-            clearTimeout(timeoutId);
-            timeoutId = undefined;
-            callback();
-          },
-        });
-        const stream = createReadableStreamFromReadable(body);
-        responseHeaders.set("Content-Type", "text/html");
-        pipe(body);
-        resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
+        nonce,
+        [readyOption]() {
+          shellRendered = true;
+          const body = new PassThrough({
+            final(callback) {
+              clearTimeout(timeoutId);
+              timeoutId = undefined;
+              callback();
+            },
+          });
+          const stream = createReadableStreamFromReadable(body);
+          responseHeaders.set("Content-Type", "text/html");
+          pipe(body);
+          resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
+        },
+        onShellError(error: unknown) {
+          reject(error);
+        },
+        onError(error: unknown) {
+          responseStatusCode = 500;
+          if (shellRendered) console.error(error);
+        },
       },
-      onShellError(error: unknown) {
-        reject(error);
-      },
-      onError(error: unknown) {
-        responseStatusCode = 500;
-        if (shellRendered) console.error(error);
-      },
-    });
+    );
   });
 }

@@ -44,7 +44,10 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="min-h-screen bg-paper text-ink antialiased">
-        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2">
+        <a
+          href="#main"
+          className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2"
+        >
           Skip to content
         </a>
         <SiteNav user={root?.user ?? null} />
@@ -57,7 +60,10 @@ export function Layout({ children }: { children: React.ReactNode }) {
           {children}
         </main>
         <footer className="no-print mx-auto max-w-6xl px-4 pb-8 text-xs text-ink-soft">
-          Nearnote · practice feedback for keyboard harmony · <Link to="/privacy" className="underline">Privacy</Link>
+          Nearnote · practice feedback for keyboard harmony ·{" "}
+          <Link to="/privacy" className="underline">
+            Privacy
+          </Link>
         </footer>
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />

@@ -40,7 +40,9 @@ const padL = (s: unknown, n: number) => String(s ?? "–").padStart(n);
 export function formatTable(file: string, a: TakeAnalysis): string {
   const s = a.summary;
   const lines: string[] = [];
-  lines.push(`${file}  key ${s.key} (${s.keySource})  ${s.chordCount} chords, ${s.melodyNoteCount} melody notes, ${s.durationSec.toFixed(1)} s`);
+  lines.push(
+    `${file}  key ${s.key} (${s.keySource})  ${s.chordCount} chords, ${s.melodyNoteCount} melody notes, ${s.durationSec.toFixed(1)} s`,
+  );
   lines.push(
     `${pad("#", 4)}${pad("time", 8)}${pad("symbol", 10)}${pad("roman", 8)}${pad("notes", 26)}${pad("inv", 5)}${pad("voicing", 8)}` +
       `${padL("motion", 7)}${padL("best", 6)}  flags / techniques`,
@@ -57,8 +59,12 @@ export function formatTable(file: string, a: TakeAnalysis): string {
       lines.push(`${" ".repeat(12)}smoother: ${hint.noteNames.join(" ")} (${hint.motion} semitones)`);
     }
   });
-  const flagList = Object.entries(s.flags).filter(([, n]) => n > 0).map(([f, n]) => `${f} ×${n}`);
-  const techList = Object.entries(s.techniques).filter(([, n]) => n > 0).map(([t, n]) => `${t} ×${n}`);
+  const flagList = Object.entries(s.flags)
+    .filter(([, n]) => n > 0)
+    .map(([f, n]) => `${f} ×${n}`);
+  const techList = Object.entries(s.techniques)
+    .filter(([, n]) => n > 0)
+    .map(([t, n]) => `${t} ×${n}`);
   lines.push(
     `motion ${s.totalMotion}, best ${s.bestTotalMotion}, smoothness ${s.smoothness.toFixed(2)}, ` +
       `tempo spread ${s.tempo.spread ?? "–"}, score ${s.score}/100`,
@@ -69,7 +75,9 @@ export function formatTable(file: string, a: TakeAnalysis): string {
   if (s.accuracy !== undefined) {
     lines.push(`target ${s.target}: accuracy ${(s.accuracy * 100).toFixed(0)}% over ${s.loops} loop(s)`);
     for (const m of s.mismatches ?? []) {
-      lines.push(`  ${m.kind} at target ${m.targetIndex === null ? "–" : m.targetIndex + 1}, played ${m.playedIndex === null ? "–" : m.playedIndex + 1}${m.expected ? ` (expected ${m.expected})` : ""}`);
+      lines.push(
+        `  ${m.kind} at target ${m.targetIndex === null ? "–" : m.targetIndex + 1}, played ${m.playedIndex === null ? "–" : m.playedIndex + 1}${m.expected ? ` (expected ${m.expected})` : ""}`,
+      );
     }
   }
   return lines.join("\n");
@@ -97,7 +105,9 @@ function main(): number {
       else process.stdout.write(`${formatTable(file, analysis)}\n\n`);
     } catch (e) {
       const known = e instanceof AnalysisError || e instanceof ProgressionError || e instanceof UsageError;
-      const message = known ? (e as Error).message : `could not analyse this file (${String((e as Error)?.message ?? e)})`;
+      const message = known
+        ? (e as Error).message
+        : `could not analyse this file (${String((e as Error)?.message ?? e)})`;
       process.stderr.write(`${file}: ${message.replace(/\s+/g, " ")}\n`.replace(`${file}: ${file}: `, `${file}: `));
       return 1;
     }

@@ -10,7 +10,6 @@ import { longTextureTake, writeTexture } from "./lib/textureTakes";
 
 const { Midi } = tonejsMidi;
 
-
 /** Median wall times (ms) of several functions, run interleaved so machine load hits them alike. */
 export function timeInterleaved(fns: Array<() => unknown>, runs = 25, warmup = 3): number[] {
   for (let i = 0; i < warmup; i++) for (const fn of fns) fn();

@@ -28,7 +28,9 @@ await build({
   sourcemap: true,
   logLevel: "warning",
 });
-console.log(`Node entry points bundled: ${path.relative(process.cwd(), path.join(buildDir, "server"))}/{start,serve,analysis-worker}.js`);
+console.log(
+  `Node entry points bundled: ${path.relative(process.cwd(), path.join(buildDir, "server"))}/{start,serve,analysis-worker}.js`,
+);
 
 const clientDir = path.join(buildDir, "client");
 const report = formatBundleReport(bundleRows(readBuiltManifest(clientDir), builtGzipSize(clientDir)));

@@ -31,5 +31,3 @@ serveBuiltApp(extraEnv);
 console.log(`\nNearnote demo: http://${config.host}:${config.port}`);
 console.log(`Caught e-mail: http://${config.host}:${config.port}/dev/mail`);
 printDemoSignIns();
-
-

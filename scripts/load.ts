@@ -50,7 +50,10 @@ async function signIn(email: string) {
     redirect: "manual",
   });
   if (res.status !== 302) throw new Error(`sign-in of ${email} answered ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
 }
 
 async function measure(name: string, url: string, cookie?: string) {
@@ -67,12 +70,20 @@ async function measure(name: string, url: string, cookie?: string) {
 /** Uploads a generated take of `minutes` minutes as the signed-in student; returns its id. */
 async function uploadLongTake(cookie: string, minutes: number): Promise<string> {
   const form = new FormData();
-  form.append("file", new File([new Uint8Array(generateLongTake(minutes))], `long-${minutes}min.mid`, { type: "audio/midi" }));
+  form.append(
+    "file",
+    new File([new Uint8Array(generateLongTake(minutes))], `long-${minutes}min.mid`, { type: "audio/midi" }),
+  );
   // Encoded first and sent with its length, as a browser sends a form (the server refuses an upload
   // of unknown length); through node:http, as undici's fetch lost this connection on this server.
   const encoded = new Request(`${BASE}/api/takes`, { method: "POST", body: form });
   const body = Buffer.from(await encoded.arrayBuffer());
-  const headers = { cookie, Origin: BASE, "content-type": encoded.headers.get("content-type")!, "content-length": String(body.length) };
+  const headers = {
+    cookie,
+    Origin: BASE,
+    "content-type": encoded.headers.get("content-type")!,
+    "content-length": String(body.length),
+  };
   const { status, text } = await new Promise<{ status: number; text: string }>((resolve, reject) => {
     const req = http.request(`${BASE}/api/takes`, { method: "POST", headers }, (res) => {
       const parts: Buffer[] = [];
@@ -84,18 +95,33 @@ async function uploadLongTake(cookie: string, minutes: number): Promise<string> 
     req.end(body);
   });
   const id = (JSON.parse(text) as { id?: string }).id;
-  if (status !== 201 || !id) throw new Error(`upload of the ${minutes}-minute take answered ${status}: ${text.slice(0, 300)}`);
+  if (status !== 201 || !id)
+    throw new Error(`upload of the ${minutes}-minute take answered ${status}: ${text.slice(0, 300)}`);
   return id;
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 /** Spawn to first answered request, `runs` times, each with a fresh storage folder (so migrations run every time). */
-async function coldStarts(command: string, args: string[], env: Record<string, string>, url: string, runs: number, cwd?: string) {
+async function coldStarts(
+  command: string,
+  args: string[],
+  env: Record<string, string>,
+  url: string,
+  runs: number,
+  cwd?: string,
+) {
   const times: number[] = [];
   for (let i = 0; i < runs; i++) {
     const storage = mkdtempSync(path.join(tmpdir(), "nearnote-cold-"));
-    const r = await measureColdStart(command, args, { ...process.env, STORAGE_DIR: storage, STORAGE_CREATE: "1", ...env }, url, 60_000, cwd);
+    const r = await measureColdStart(
+      command,
+      args,
+      { ...process.env, STORAGE_DIR: storage, STORAGE_CREATE: "1", ...env },
+      url,
+      60_000,
+      cwd,
+    );
     if (r.status !== 200) throw new Error(`${command} ${args.join(" ")}: first answer ${r.status}`);
     times.push(r.ms);
   }
@@ -108,15 +134,29 @@ const times = (x: number) => `${x.toFixed(1)} ×`;
 async function main() {
   buildIfNeeded();
   if (!existsSync("build-hello/server/index.js")) {
-    spawnSync(path.resolve("node_modules/.bin/react-router"), ["build"], { cwd: "scripts/load/hello", stdio: "inherit" });
+    spawnSync(path.resolve("node_modules/.bin/react-router"), ["build"], {
+      cwd: "scripts/load/hello",
+      stdio: "inherit",
+    });
   }
   const startedLoad = loadavg()[0].toFixed(1);
   // Cold starts first, while nothing else of ours runs: the built server as `npm start` runs it,
   // then the same entry point through tsx (as `npm start` did before the server was bundled),
   // then the hello ceiling under react-router-serve.
-  const coldEnv = { NEARNOTE_ACCESS_LOG: "off", HOST: "127.0.0.1", PORT: String(COLD_PORT), NEARNOTE_BUILD_DIR: BUILD_DIR };
+  const coldEnv = {
+    NEARNOTE_ACCESS_LOG: "off",
+    HOST: "127.0.0.1",
+    PORT: String(COLD_PORT),
+    NEARNOTE_BUILD_DIR: BUILD_DIR,
+  };
   const coldUrl = `http://127.0.0.1:${COLD_PORT}/`;
-  const builtCold = await coldStarts(process.execPath, [path.join(BUILD_DIR, "server/start.js")], coldEnv, coldUrl, COLD_RUNS);
+  const builtCold = await coldStarts(
+    process.execPath,
+    [path.join(BUILD_DIR, "server/start.js")],
+    coldEnv,
+    coldUrl,
+    COLD_RUNS,
+  );
   const tsxCold = await coldStarts(path.resolve("node_modules/.bin/tsx"), ["scripts/start.ts"], coldEnv, coldUrl, 1);
   const helloCold = await coldStarts(
     path.resolve("node_modules/.bin/react-router-serve"),
@@ -129,7 +169,10 @@ async function main() {
 
   const storage = mkdtempSync(path.join(tmpdir(), "nearnote-load-"));
   const env = { STORAGE_DIR: storage, NEARNOTE_ACCESS_LOG: "off", HOST: "127.0.0.1", NODE_ENV: "production" };
-  const seeded = spawnSync(path.resolve("node_modules/.bin/tsx"), ["scripts/seed.ts"], { env: { ...process.env, ...env }, encoding: "utf8" });
+  const seeded = spawnSync(path.resolve("node_modules/.bin/tsx"), ["scripts/seed.ts"], {
+    env: { ...process.env, ...env },
+    encoding: "utf8",
+  });
   if (seeded.status !== 0) throw new Error(seeded.stderr);
   const [serve, serveArgs] = serveCommand();
   const app = start(serve, serveArgs, { ...env, PORT: String(APP_PORT), NEARNOTE_BUILD_DIR: BUILD_DIR });
@@ -144,7 +187,9 @@ async function main() {
     await waitFor(`${HELLO}/`);
     const student = await signIn("dara@tidewater.example");
     const teacher = await signIn("ines@tidewater.example");
-    const list = (await (await fetch(`${BASE}/api/takes`, { headers: { cookie: student } })).json()) as { takes: { id: string }[] };
+    const list = (await (await fetch(`${BASE}/api/takes`, { headers: { cookie: student } })).json()) as {
+      takes: { id: string }[];
+    };
     const longTake = await uploadLongTake(student, 10);
 
     // What a phone fetches on a first visit, next to the hello page's first load.
@@ -175,7 +220,9 @@ async function main() {
       "",
       "| page | requests/s | p99 latency | share of the hello ceiling |",
       "|---|---|---|---|",
-      ...rows.map((r) => `| ${r.name} | ${r.rps.toFixed(0)} | ${r.p99} ms | ${((r.rps / ceiling) * 100).toFixed(0)} % |`),
+      ...rows.map(
+        (r) => `| ${r.name} | ${r.rps.toFixed(0)} | ${r.p99} ms | ${((r.rps / ceiling) * 100).toFixed(0)} % |`,
+      ),
     ];
     console.log(table.join("\n"));
     writeSection("## Load (npm run load)", table);
@@ -205,7 +252,9 @@ async function main() {
       "JavaScript each page needs before it responds, from the build's manifest against the budgets (as `npm run build` prints it; also in BUNDLES.md):",
       "",
       "```",
-      formatBundleReport(bundleRows(readBuiltManifest(path.join(BUILD_DIR, "client")), builtGzipSize(path.join(BUILD_DIR, "client")))),
+      formatBundleReport(
+        bundleRows(readBuiltManifest(path.join(BUILD_DIR, "client")), builtGzipSize(path.join(BUILD_DIR, "client"))),
+      ),
       "```",
     ];
     console.log(`\n${weight.join("\n")}`);

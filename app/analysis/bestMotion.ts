@@ -74,7 +74,8 @@ export function isTwoHand(v: readonly number[]): boolean {
  */
 export function keptBass(sortedB: readonly number[]): number[] {
   const b0 = sortedB[0];
-  if (sortedB.length >= 3 && sortedB[1] === b0 + 12 && sortedB[2] - sortedB[1] >= DETACHED_BASS_GAP) return [b0, b0 + 12];
+  if (sortedB.length >= 3 && sortedB[1] === b0 + 12 && sortedB[2] - sortedB[1] >= DETACHED_BASS_GAP)
+    return [b0, b0 + 12];
   return [b0];
 }
 
@@ -236,7 +237,14 @@ function search(
    * placed so far, a[i] joined to the newest note v. Returns a lower bound on any completion:
    * notes of A above a[i] must still join notes at or above v.
    */
-  function fillColumn(out: Float64Array, off: number, prev: Float64Array | null, prevOff: number, j: number, v: number): number {
+  function fillColumn(
+    out: Float64Array,
+    off: number,
+    prev: Float64Array | null,
+    prevOff: number,
+    j: number,
+    v: number,
+  ): number {
     for (let i = 0; i < m; i++) {
       const d = Math.abs(a[i] - v);
       let best: number;
@@ -259,7 +267,14 @@ function search(
     return lowest;
   }
 
-  function place(j: number, prevNote: number, prev: Float64Array | null, prevOff: number, freeLo: number, freeHi: number): void {
+  function place(
+    j: number,
+    prevNote: number,
+    prev: Float64Array | null,
+    prevOff: number,
+    freeLo: number,
+    freeHi: number,
+  ): void {
     if (steps >= PAY_EVERY) pay();
     const notes = notesAt[j];
     const bounds = boundsAt[j];
@@ -301,7 +316,10 @@ function search(
       path[j] = v;
       if (last) {
         const cost = cols[k * m + m - 1];
-        const wins = bestVoicing === null ? cost < bestCost : cost < bestCost || (cost === bestCost && beatsOnTie(path, bestVoicing, aTop));
+        const wins =
+          bestVoicing === null
+            ? cost < bestCost
+            : cost < bestCost || (cost === bestCost && beatsOnTie(path, bestVoicing, aTop));
         if (wins && accepts(path.slice())) {
           bestCost = cost;
           bestVoicing = path.slice();

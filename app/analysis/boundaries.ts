@@ -18,7 +18,10 @@ const SHORT_NOTE_SEC = 0.75;
 const EPS = 1e-9;
 
 /** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
-export function lowestSounding(strikes: readonly Strike[], sounding: ReadonlyMap<NoteEvent, Sounding>): Array<NoteEvent | null> {
+export function lowestSounding(
+  strikes: readonly Strike[],
+  sounding: ReadonlyMap<NoteEvent, Sounding>,
+): Array<NoteEvent | null> {
   const heard = (n: NoteEvent) => heardEndOf(sounding, n);
   const active: NoteEvent[] = [];
   return strikes.map((s) => {
@@ -126,7 +129,10 @@ export type BoundaryRules = {
  * chord, a re-strike of the comping chord, and a short melody note that leaves by step may
  * not.
  */
-export function boundaryRules(input: { strikes: readonly Strike[]; sounding: ReadonlyMap<NoteEvent, Sounding> }): BoundaryRules {
+export function boundaryRules(input: {
+  strikes: readonly Strike[];
+  sounding: ReadonlyMap<NoteEvent, Sounding>;
+}): BoundaryRules {
   const { strikes, sounding } = input;
   const forced = strikes.map(() => false);
   const barred = strikes.map(() => false);
@@ -164,7 +170,12 @@ export function boundaryRules(input: { strikes: readonly Strike[]; sounding: Rea
       if (held > 0 && allAbove) barred[i] = true;
       // A walking note between two strikes of the same comping chord, below both.
       const q = nextMulti[i];
-      if (prevMulti >= 0 && q >= 0 && !forced[i] && strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC) {
+      if (
+        prevMulti >= 0 &&
+        q >= 0 &&
+        !forced[i] &&
+        strikes[q].start - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC
+      ) {
         const below = (k: number) => lowestUpper(strikes[k]) > n.midi;
         const comp = comps[q];
         if (comp && comps[prevMulti] === comp && below(prevMulti) && below(q)) barred[i] = true;
@@ -179,7 +190,13 @@ export function boundaryRules(input: { strikes: readonly Strike[]; sounding: Rea
     if (multi[i]) {
       // Comping re-struck (its upper notes again, perhaps over a walking bass note).
       const comp = comps[i];
-      if (comp && prevMulti >= 0 && !forced[i] && t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC && comp === comps[prevMulti]) {
+      if (
+        comp &&
+        prevMulti >= 0 &&
+        !forced[i] &&
+        t - strikes[prevMulti].start <= RESTRIKE_WITHIN_SEC &&
+        comp === comps[prevMulti]
+      ) {
         barred[i] = true;
       }
       prevMulti = i;
@@ -188,4 +205,3 @@ export function boundaryRules(input: { strikes: readonly Strike[]; sounding: Rea
   }
   return { forced, barred, newBass, lowest };
 }
-

@@ -26,8 +26,15 @@ import { detachedBass, upperStructure } from "./voiceLeading";
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
 /** The parts of a chord report that depend only on its voicing (and the key). */
-type Shown = Omit<ChordReport, "startSec" | "endSec" | "heldNotes" | "graceNotes" | "bassLine" | "nonChordTones" | "pedal" | "techniques">;
-type VoicingFacts = { name: ReturnType<typeof nameChord>; shown: Shown; techniquesWithoutGraces: ChordReport["techniques"] };
+type Shown = Omit<
+  ChordReport,
+  "startSec" | "endSec" | "heldNotes" | "graceNotes" | "bassLine" | "nonChordTones" | "pedal" | "techniques"
+>;
+type VoicingFacts = {
+  name: ReturnType<typeof nameChord>;
+  shown: Shown;
+  techniquesWithoutGraces: ChordReport["techniques"];
+};
 
 /** Names, spelling (rule 21: from the chord's root, in the key) and shape of one voicing. */
 export function voicingFacts(notes: number[], key: Key | null, ctx?: SpellingContext, named?: ChordName): VoicingFacts {
@@ -41,7 +48,10 @@ export function voicingFacts(notes: number[], key: Key | null, ctx?: SpellingCon
     notes,
     noteNames: name.rootPc === null ? notes.map((n) => noteName(n, key)) : chordNoteNames(notes, name, key, ctx),
     root: rootName(name, key, ctx),
-    bass: name.rootPc === null ? spellPc(pc(bassMidi), key) : chordNoteNames([bassMidi], name, key, ctx)[0].replace(/-?\d+$/, ""),
+    bass:
+      name.rootPc === null
+        ? spellPc(pc(bassMidi), key)
+        : chordNoteNames([bassMidi], name, key, ctx)[0].replace(/-?\d+$/, ""),
     symbol: spelledSymbol(name, pc(bassMidi), key, ctx),
     roman: key ? romanOf(name, key, pc(bassMidi), ctx) : null,
     triad: name.triad,
@@ -100,15 +110,23 @@ export function harmonyReport(
   for (const g of h.graces) if (g.note.start < start) start = g.note.start;
   const heldNotes = [...new Set(h.held.map((n) => n.midi))].sort((a, b) => a - b);
   const graces = h.graces.map((g) => ({ note: g.note.midi, resolvesTo: g.target.midi }));
-  const byTime = <T extends { startSec: number; note: number }>(x: T, y: T) => x.startSec - y.startSec || x.note - y.note;
+  const byTime = <T extends { startSec: number; note: number }>(x: T, y: T) =>
+    x.startSec - y.startSec || x.note - y.note;
   return {
     startSec: round3(start),
     endSec: round3(h.end),
     ...facts.shown,
     heldNotes,
-    bassLine: h.bassLine.map((n) => ({ note: n.midi, noteName: noteName(n.midi, key), startSec: round3(n.start) })).sort(byTime),
+    bassLine: h.bassLine
+      .map((n) => ({ note: n.midi, noteName: noteName(n.midi, key), startSec: round3(n.start) }))
+      .sort(byTime),
     nonChordTones: h.nonChordTones
-      .map((t) => ({ note: t.note.midi, noteName: noteName(t.note.midi, key), startSec: round3(t.note.start), kind: t.kind }))
+      .map((t) => ({
+        note: t.note.midi,
+        noteName: noteName(t.note.midi, key),
+        startSec: round3(t.note.start),
+        kind: t.kind,
+      }))
       .sort(byTime),
     graceNotes: h.graces.map((g) => ({
       startSec: round3(g.note.start),
@@ -136,7 +154,12 @@ export function voicingPitches(h: Harmony): number[] {
 }
 
 /** The report of one strike read as a harmony on its own (block chords; tools and tests). */
-export function chordReport(s: Strike, key: Key | null, pedal: PedalSpan[], cache?: Map<string, VoicingFacts>): ChordReport {
+export function chordReport(
+  s: Strike,
+  key: Key | null,
+  pedal: PedalSpan[],
+  cache?: Map<string, VoicingFacts>,
+): ChordReport {
   let end = 0;
   for (const n of s.notes) if (n.end > end) end = n.end;
   const harmony: Harmony = {

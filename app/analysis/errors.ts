@@ -8,7 +8,8 @@ const MESSAGES: Record<AnalysisErrorCode, string> = {
   "no-notes": "This MIDI file has no notes to analyse (drum-channel notes are ignored).",
   "too-long": "This take is longer than 30 minutes: split it into shorter takes.",
   "too-many-notes": "This take has more than 100,000 notes: split it into shorter takes.",
-  "too-complex": "This take is too complex to grade (too many dense chords to compare in time): record a shorter or plainer take.",
+  "too-complex":
+    "This take is too complex to grade (too many dense chords to compare in time): record a shorter or plainer take.",
 };
 
 export class AnalysisError extends Error {

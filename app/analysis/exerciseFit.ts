@@ -25,24 +25,41 @@ export const FIT_CHORDS = 96;
 
 function identity(c: ChordReport): PlayedIdentity {
   const name = nameChord(c.notes, c.notes[0]);
-  return { root: name.rootPc, triad: name.triad, bass: pc(c.notes[0]), pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b) };
+  return {
+    root: name.rootPc,
+    triad: name.triad,
+    bass: pc(c.notes[0]),
+    pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b),
+  };
 }
 
 /** The take's key, from its notes and the names of its chords, with the first and last basses (rule 23). */
 export function heardKey(notes: readonly NoteEvent[], chords: readonly ChordReport[]): Key {
   const names = chords.map((c) => nameChord(c.notes, c.notes[0]));
   const bass = (c: ChordReport | undefined) => (c ? pc(c.notes[0]) : null);
-  return estimateKey([...notes], names, { firstBassPc: bass(chords[0]), lastBassPc: bass(chords[chords.length - 1]) }).key;
+  return estimateKey([...notes], names, { firstBassPc: bass(chords[0]), lastBassPc: bass(chords[chords.length - 1]) })
+    .key;
 }
 
 /** The heard key and each candidate's accuracy against the take's first FIT_CHORDS chords. */
-export function fitCandidates(notes: readonly NoteEvent[], chords: readonly ChordReport[], candidates: readonly FitCandidate[]): FitReport {
-  const played = chords.slice(0, FIT_CHORDS).filter((c) => c.notes.length > 0).map(identity);
+export function fitCandidates(
+  notes: readonly NoteEvent[],
+  chords: readonly ChordReport[],
+  candidates: readonly FitCandidate[],
+): FitReport {
+  const played = chords
+    .slice(0, FIT_CHORDS)
+    .filter((c) => c.notes.length > 0)
+    .map(identity);
   const fits: CandidateFit[] = [];
   for (const c of candidates) {
     try {
       const target = parseProgression(c.target, parseKey(c.key));
-      fits.push({ exerciseId: c.exerciseId, key: c.key, accuracy: played.length ? matchProgression(played, target).accuracy : 0 });
+      fits.push({
+        exerciseId: c.exerciseId,
+        key: c.key,
+        accuracy: played.length ? matchProgression(played, target).accuracy : 0,
+      });
     } catch (e) {
       // A target that no longer parses cannot be the likely exercise.
       if (!(e instanceof ProgressionError)) throw e;
@@ -107,10 +124,18 @@ export function fitWarning(report: FitReport, filed: { exerciseId: string; key: 
   let best: CandidateFit | null = null;
   for (const f of report.fits) {
     if (f === own) continue;
-    if (!best || f.accuracy > best.accuracy || (f.accuracy === best.accuracy && heardTonic(f) > heardTonic(best))) best = f;
+    if (!best || f.accuracy > best.accuracy || (f.accuracy === best.accuracy && heardTonic(f) > heardTonic(best)))
+      best = f;
   }
-  const likely = best && best.accuracy >= LIKELY_MIN_ACCURACY && best.accuracy >= own.accuracy + LIKELY_MARGIN ? best : null;
+  const likely =
+    best && best.accuracy >= LIKELY_MIN_ACCURACY && best.accuracy >= own.accuracy + LIKELY_MARGIN ? best : null;
   const otherKey = !!(heard && filedKey && !sameKeyFamily(heard, filedKey));
   if (!otherKey && !likely && own.accuracy >= FIT_NO_MATCH) return null;
-  return { heardKey: report.heardKey, filedKey: own.key, accuracy: own.accuracy, reason: otherKey ? "key" : "chords", likely };
+  return {
+    heardKey: report.heardKey,
+    filedKey: own.key,
+    accuracy: own.accuracy,
+    reason: otherKey ? "key" : "chords",
+    likely,
+  };
 }

@@ -44,7 +44,8 @@ const EPS = 1e-9;
  * millisecond). See budget.ts for what a step is.
  */
 export const CHANGE_STEPS = 100;
-const sameVoicing = (x: readonly number[], y: readonly number[]) => x.length === y.length && x.every((n, i) => n === y[i]);
+const sameVoicing = (x: readonly number[], y: readonly number[]) =>
+  x.length === y.length && x.every((n, i) => n === y[i]);
 const startsWith = (v: readonly number[], head: readonly number[]) => head.every((n, i) => v[i] === n);
 
 /** Pitch class of a chord's root from its spelled name ("Bb", "F♯"), null when unnamed. */
@@ -68,7 +69,14 @@ export function cleanPrefix(prefix: readonly number[], length: number, b: readon
   return true;
 }
 
-function suggestions(a: number[], b: number[], key: Key | null, played: number, ctx: ChangeContext, best: number[] | null): Suggestion[] {
+function suggestions(
+  a: number[],
+  b: number[],
+  key: Key | null,
+  played: number,
+  ctx: ChangeContext,
+  best: number[] | null,
+): Suggestion[] {
   // Rule 8's limits: the tune when the take has a melody; the bass of a two-hand voicing.
   const keepTop = ctx.hasMelody === true;
   const keepBass = isTwoHand(b);
@@ -79,7 +87,12 @@ function suggestions(a: number[], b: number[], key: Key | null, played: number, 
     if (!found || found.motion >= played) return;
     // Nothing to suggest when it is what was played, or when an earlier suggestion says it.
     if (sameVoicing(found.voicing, b) || out.some((s) => sameVoicing(s.voicing, found.voicing))) return;
-    out.push({ kind, voicing: found.voicing, noteNames: found.voicing.map((n) => noteName(n, key)), motion: found.motion });
+    out.push({
+      kind,
+      voicing: found.voicing,
+      noteNames: found.voicing.map((n) => noteName(n, key)),
+      motion: found.motion,
+    });
   };
   const search = (extra: { keepTop?: boolean; keepBass?: boolean }) =>
     bestMotion(a, b, {
@@ -94,7 +107,10 @@ function suggestions(a: number[], b: number[], key: Key | null, played: number, 
   // The best voicing of rule 8 searched a superset of these candidates in the same order of
   // preference: when it is allowed and clean it is also the smoothest suggestion.
   const bestServes =
-    best !== null && (!keepTop || best[best.length - 1] === top) && (!keepBass || startsWith(best, bassHead)) && raisesNoChordFlag(best.slice());
+    best !== null &&
+    (!keepTop || best[best.length - 1] === top) &&
+    (!keepBass || startsWith(best, bassHead)) &&
+    raisesNoChordFlag(best.slice());
   const smoothest = bestServes ? { motion: motion(a, best!), voicing: best! } : search({});
   // Nothing clean moves less than played: a narrower search finds nothing either.
   if (!smoothest || smoothest.motion >= played) return out;
@@ -106,7 +122,14 @@ function suggestions(a: number[], b: number[], key: Key | null, played: number, 
 }
 
 /** Grades the change from chord `a` (index `from`) to chord `b` (index `to`). */
-export function gradeChange(from: number, to: number, a: ChordReport, b: ChordReport, key: Key | null, ctx: ChangeContext = {}): ChangeReport {
+export function gradeChange(
+  from: number,
+  to: number,
+  a: ChordReport,
+  b: ChordReport,
+  key: Key | null,
+  ctx: ChangeContext = {},
+): ChangeReport {
   const va = a.notes;
   const vb = b.notes;
   const flags: ChangeFlag[] = [];
@@ -171,7 +194,8 @@ export function previousTopNote(a: ChordReport, b: ChordReport, melody: readonly
   if (last >= 0 && melody[last].startSec >= a.startSec - EPS) {
     // Notes begun together: the highest is the top voice.
     let top = melody[last].note;
-    for (let i = last - 1; i >= 0 && melody[i].startSec >= melody[last].startSec - EPS; i--) top = Math.max(top, melody[i].note);
+    for (let i = last - 1; i >= 0 && melody[i].startSec >= melody[last].startSec - EPS; i--)
+      top = Math.max(top, melody[i].note);
     return top;
   }
   return a.notes[a.notes.length - 1];

@@ -71,7 +71,11 @@ function templatePcs(seg: Segment): number[] {
  * the pedal): one sweep over the take, so reading a harmony never looks far back. Listed only
  * for the strikes in `wanted` (where harmonies begin); the others stay undefined.
  */
-function reachingNotes(strikes: readonly Strike[], sounding: ReadInput["sounding"], wanted: readonly boolean[]): NoteEvent[][] {
+function reachingNotes(
+  strikes: readonly Strike[],
+  sounding: ReadInput["sounding"],
+  wanted: readonly boolean[],
+): NoteEvent[][] {
   const active: NoteEvent[] = [];
   const out: NoteEvent[][] = new Array(strikes.length);
   for (let i = 0; i < strikes.length; i++) {
@@ -95,7 +99,13 @@ const bits = (m: number) => {
 };
 
 /** Rule 17 and friends: what each note of one harmony is. */
-function readHarmony(seg: Segment, input: ReadInput, reaching: readonly NoteEvent[][], nextStart: number, afterSilence: boolean): Harmony {
+function readHarmony(
+  seg: Segment,
+  input: ReadInput,
+  reaching: readonly NoteEvent[][],
+  nextStart: number,
+  afterSilence: boolean,
+): Harmony {
   const { strikes, sounding } = input;
   const first = strikes[seg.first];
   const t0 = first.start;
@@ -114,7 +124,8 @@ function readHarmony(seg: Segment, input: ReadInput, reaching: readonly NoteEven
   for (const h of keyHeld) {
     let resolves = false;
     for (let k = seg.first + 1; k < seg.end && !resolves; k++) {
-      for (const n of strikes[k].notes) if (Math.abs(n.midi - h.midi) >= 1 && Math.abs(n.midi - h.midi) <= STEP) resolves = true;
+      for (const n of strikes[k].notes)
+        if (Math.abs(n.midi - h.midi) >= 1 && Math.abs(n.midi - h.midi) <= STEP) resolves = true;
     }
     if (!(fits & bit(h)) && resolves) nonChordTones.push({ note: h, kind: "suspension" });
     else held.push(h);
@@ -237,14 +248,23 @@ function nameKinds(h: Harmony, next: Harmony | undefined, sorted: readonly NoteE
     const x = nct.note;
     let before: NoteEvent | null = null;
     let after: NoteEvent | null = null;
-    for (let i = firstAtOrAfter(sorted, x.start - STEP_WINDOW); i < sorted.length && sorted[i].start <= x.start + STEP_WINDOW; i++) {
+    for (
+      let i = firstAtOrAfter(sorted, x.start - STEP_WINDOW);
+      i < sorted.length && sorted[i].start <= x.start + STEP_WINDOW;
+      i++
+    ) {
       const n = sorted[i];
       const d = Math.abs(n.midi - x.midi);
       if (n === x || d < 1 || d > STEP) continue;
       if (n.start < x.start - EPS && (!before || n.start > before.start)) before = n;
       if (n.start > x.start + EPS && (!after || n.start < after.start)) after = n;
     }
-    if (next && next.voicing.some((n) => n.midi === x.midi) && next.start - x.start <= STEP_WINDOW && x.end >= next.start - 0.05) {
+    if (
+      next &&
+      next.voicing.some((n) => n.midi === x.midi) &&
+      next.start - x.start <= STEP_WINDOW &&
+      x.end >= next.start - 0.05
+    ) {
       nct.kind = "anticipation";
     } else if (before && after) {
       if (after.midi === before.midi) nct.kind = "neighbour";
@@ -261,12 +281,25 @@ export function readHarmonies(input: ReadInput): Reading {
   const segInput = { strikes, sounding, endTime, minHarmonySec: minSec, budget: input.budget };
   const rules = boundaryRules(segInput);
   const raw = segment(segInput, rules);
-  let segs = splitOnNewChord(splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec, rules.lowest), strikes, rules, endTime, minSec, input.budget);
+  let segs = splitOnNewChord(
+    splitOnBassChange(raw, strikes, sounding, rules.forced, endTime, minSec, rules.lowest),
+    strikes,
+    rules,
+    endTime,
+    minSec,
+    input.budget,
+  );
   const starts = new Array<boolean>(strikes.length).fill(false);
   for (const seg of segs) starts[seg.first] = true;
   const reaching = reachingNotes(strikes, sounding, starts);
   const readOne = (list: Segment[], i: number) =>
-    readHarmony(list[i], input, reaching, i + 1 < list.length ? strikes[list[i + 1].first].start : endTime, rules.forced[list[i].first]);
+    readHarmony(
+      list[i],
+      input,
+      reaching,
+      i + 1 < list.length ? strikes[list[i + 1].first].start : endTime,
+      rules.forced[list[i].first],
+    );
   let all = segs.map((_, i) => readOne(segs, i));
   // Neighbours that name the same chord on the same bass are one harmony (a re-struck chord),
   // unless a silence divides them.
@@ -274,7 +307,10 @@ export function readHarmonies(input: ReadInput): Reading {
   const kept: Array<Harmony | null> = [];
   let lastId = "";
   segs.forEach((seg, i) => {
-    const id = identity(all[i].voicing.map((n) => n.midi), input.budget);
+    const id = identity(
+      all[i].voicing.map((n) => n.midi),
+      input.budget,
+    );
     if (merged.length > 0 && !rules.forced[seg.first] && lastId === id && !all[i].solo && !all[i - 1].solo) {
       merged[merged.length - 1] = { ...merged[merged.length - 1], end: seg.end };
       kept[kept.length - 1] = null; // read again below
@@ -292,7 +328,9 @@ export function readHarmonies(input: ReadInput): Reading {
   }
   // A tune played alone is listed as melody and never graded as chords (rule 18).
   const harmonies = all.filter((h) => !h.solo);
-  const solo = all.filter((h) => h.solo).flatMap((h) => strikes.slice(h.firstStrike, h.endStrike).flatMap((s) => s.notes));
+  const solo = all
+    .filter((h) => h.solo)
+    .flatMap((h) => strikes.slice(h.firstStrike, h.endStrike).flatMap((s) => s.notes));
   const allNotes: NoteEvent[] = [];
   for (const s of strikes) {
     for (const n of s.notes) allNotes.push(n);

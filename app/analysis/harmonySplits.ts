@@ -52,7 +52,8 @@ export function splitOnBassChange(
       const p = pc(low.midi);
       const pitches = [...new Set(strikes[k].notes.map((n) => n.midi))].sort((a, b) => a - b);
       // A bass: set apart from the notes struck with it, or lower than the bass before.
-      const isBass = pitches.length >= 2 && (pitches[1] - pitches[0] >= 7 || (bassMidi !== null && pitches[0] < bassMidi));
+      const isBass =
+        pitches.length >= 2 && (pitches[1] - pitches[0] >= 7 || (bassMidi !== null && pitches[0] < bassMidi));
       const stays = later[k - seg.first].every((q) => q === p);
       if (isBass && p !== bassPc && stays && nextStart - strikes[k].start >= minSec - EPS) {
         const lead = strikes.slice(cur.first, k);
@@ -81,7 +82,9 @@ export function identity(pitches: readonly number[], budget?: Budget): string {
   // Naming a chord not seen before is the costliest step here (tonal's detection).
   budget?.spend(NAMING_STEPS);
   const name = nameChord(sorted, sorted[0]);
-  return name.rootPc === null ? `?${[...new Set(sorted.map(pc))].sort((a, b) => a - b).join(",")}/${pc(sorted[0])}` : `${name.rootPc}${name.suffix}/${pc(sorted[0])}`;
+  return name.rootPc === null
+    ? `?${[...new Set(sorted.map(pc))].sort((a, b) => a - b).join(",")}/${pc(sorted[0])}`
+    : `${name.rootPc}${name.suffix}/${pc(sorted[0])}`;
 }
 
 function sameSet(a: readonly number[], b: readonly number[]): boolean {
@@ -104,7 +107,14 @@ function struckChord(strikes: readonly Strike[], k: number): number[] {
  * harmony: block chords change at every strike, and rootless voicings that share most of
  * their notes (F A C E, then F A B E) are still two chords. Comping re-strikes never do.
  */
-export function splitOnNewChord(segs: Segment[], strikes: readonly Strike[], rules: BoundaryRules, endTime: number, minSec: number, budget?: Budget): Segment[] {
+export function splitOnNewChord(
+  segs: Segment[],
+  strikes: readonly Strike[],
+  rules: BoundaryRules,
+  endTime: number,
+  minSec: number,
+  budget?: Budget,
+): Segment[] {
   const out: Segment[] = [];
   for (const seg of segs) {
     let cur: Segment = { ...seg };
@@ -142,4 +152,3 @@ export function splitOnNewChord(segs: Segment[], strikes: readonly Strike[], rul
   }
   return out;
 }
-

@@ -43,7 +43,12 @@ function validNotes(notes: NoteEvent[]): NoteEvent[] {
 
 function identity(c: ChordReport): PlayedIdentity {
   const name = nameChord(c.notes, c.notes[0]);
-  return { root: name.rootPc, triad: name.triad, bass: pc(c.notes[0]), pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b) };
+  return {
+    root: name.rootPc,
+    triad: name.triad,
+    bass: pc(c.notes[0]),
+    pcs: [...new Set(c.notes.map(pc))].sort((a, b) => a - b),
+  };
 }
 
 /** Chord names do not depend on the key (only their spelling does), so they inform the estimate (rule 23). */
@@ -53,7 +58,10 @@ function bestFittingKey(notes: NoteEvent[], harmonies: Harmony[]): Key {
     return nameChord(v, v[0]);
   });
   const bassOf = (h: Harmony | undefined) => (h ? pc(voicingPitches(h)[0]) : null);
-  return estimateKey(notes, names, { firstBassPc: bassOf(harmonies[0]), lastBassPc: bassOf(harmonies[harmonies.length - 1]) }).key;
+  return estimateKey(notes, names, {
+    firstBassPc: bassOf(harmonies[0]),
+    lastBassPc: bassOf(harmonies[harmonies.length - 1]),
+  }).key;
 }
 
 /** Rule 21: the next harmony's bass and root, which spell a diminished seventh. */
@@ -82,7 +90,15 @@ function nameRootless(chords: ChordReport[], match: MatchResult, target: TargetC
     const symbol = spelledSymbol(reading, reading.rootPc!, key);
     const roman = romanOf(reading, key);
     for (let i = r.playedIndex; i < chords.length && chords[i].notes.join() === first.notes.join(); i++) {
-      out[i] = { ...chords[i], root: facts.root, symbol, roman, noteNames: facts.noteNames, triad: facts.triad, quality: facts.quality };
+      out[i] = {
+        ...chords[i],
+        root: facts.root,
+        symbol,
+        roman,
+        noteNames: facts.noteNames,
+        triad: facts.triad,
+        quality: facts.quality,
+      };
     }
   }
   return out;
@@ -123,7 +139,9 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
 
   const voicings = new Map<string, VoicingFacts>();
   const contexts = spellingContexts(reading.harmonies);
-  let chords: ChordReport[] = reading.harmonies.map((h, i) => harmonyReport(h, key, pedal, voicings, budget, contexts[i]));
+  let chords: ChordReport[] = reading.harmonies.map((h, i) =>
+    harmonyReport(h, key, pedal, voicings, budget, contexts[i]),
+  );
   const melodyNotes = reading.melody.map((n) => melodyNote(n, key));
   const changes = gradeChanges(chords, key, {
     hasMelody: reading.hasMelody,
@@ -148,7 +166,12 @@ export function analyseNotes(input: NoteList | NoteEvent[], options: AnalyseOpti
     strikeOnsets: onsets,
     tempos,
     analysisVersion: ANALYSIS_VERSION,
-    match: match && { target: match.target, accuracy: match.accuracy, loops: match.loops, mismatches: match.mismatches },
+    match: match && {
+      target: match.target,
+      accuracy: match.accuracy,
+      loops: match.loops,
+      mismatches: match.mismatches,
+    },
   });
   return { chords, melodyNotes, changes, summary };
 }

@@ -41,8 +41,26 @@ function correlation(x: number[], y: number[]): number {
 
 /** Triads diatonic to each mode: [semitones above the tonic, triad]; minor with both v and V. */
 const DIATONIC: Record<"major" | "minor", Array<[number, Triad]>> = {
-  major: [[0, "major"], [2, "minor"], [4, "minor"], [5, "major"], [7, "major"], [9, "minor"], [11, "diminished"]],
-  minor: [[0, "minor"], [2, "diminished"], [3, "major"], [5, "minor"], [7, "minor"], [7, "major"], [8, "major"], [10, "major"], [11, "diminished"]],
+  major: [
+    [0, "major"],
+    [2, "minor"],
+    [4, "minor"],
+    [5, "major"],
+    [7, "major"],
+    [9, "minor"],
+    [11, "diminished"],
+  ],
+  minor: [
+    [0, "minor"],
+    [2, "diminished"],
+    [3, "major"],
+    [5, "minor"],
+    [7, "minor"],
+    [7, "major"],
+    [8, "major"],
+    [10, "major"],
+    [11, "diminished"],
+  ],
 };
 export const CHORD_EVIDENCE_WEIGHTS = { diatonic: 0.5, tonic: 0.3, ending: 0.1 };
 
@@ -56,7 +74,12 @@ export const BASS_BONUS = 0.1;
 
 const TIE = 1e-9;
 
-type ChordTally = { counts: Map<string, { rootPc: number; triad: Triad; n: number }>; total: number; first: ChordName | null; last: ChordName | null };
+type ChordTally = {
+  counts: Map<string, { rootPc: number; triad: Triad; n: number }>;
+  total: number;
+  first: ChordName | null;
+  last: ChordName | null;
+};
 
 /** Counts chords by root and triad once, so scoring 24 keys does not walk a long take 24 times. */
 function tally(chords: ChordName[]): ChordTally {
@@ -80,12 +103,17 @@ function tally(chords: ChordName[]): ChordTally {
 function chordEvidence(tonic: number, mode: "major" | "minor", t: ChordTally): number {
   if (t.total === 0) return 0;
   const tonicTriad: Triad = mode === "major" ? "major" : "minor";
-  const isTonic = (c: { rootPc: number | null; triad: Triad | null } | null) => !!c && c.rootPc === tonic && c.triad === tonicTriad;
+  const isTonic = (c: { rootPc: number | null; triad: Triad | null } | null) =>
+    !!c && c.rootPc === tonic && c.triad === tonicTriad;
   // A sus chord counts as diatonic on any diatonic root: its missing 3rd cannot clash.
   let diatonic = 0;
   let tonicCount = 0;
   for (const c of t.counts.values()) {
-    if (DIATONIC[mode].some(([iv, triad]) => pc(tonic + iv) === c.rootPc && (triad === c.triad || c.triad === "sus2" || c.triad === "sus4"))) {
+    if (
+      DIATONIC[mode].some(
+        ([iv, triad]) => pc(tonic + iv) === c.rootPc && (triad === c.triad || c.triad === "sus2" || c.triad === "sus4"),
+      )
+    ) {
       diatonic += c.n;
     }
     if (isTonic(c)) tonicCount += c.n;

@@ -193,7 +193,9 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
   const NEG = -(1 << 29);
   const banded = 2 * band + 1 < N + 1;
   const rowWidth = banded ? 2 * band + 1 : N + 1;
-  const at = banded ? (i: number, j: number) => i * rowWidth + (j - i + band) : (i: number, j: number) => i * rowWidth + j;
+  const at = banded
+    ? (i: number, j: number) => i * rowWidth + (j - i + band)
+    : (i: number, j: number) => i * rowWidth + j;
   const move = new Uint8Array((P + 1) * rowWidth);
   let prevRow = new Int32Array(N + 2).fill(NEG);
   let row = new Int32Array(N + 2).fill(NEG);
@@ -256,7 +258,14 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
         const tc = target[t.index];
         const plain = p.root !== null && pc(p.root) === tc.root && p.triad === tc.triad;
         if (!plain) rootless.push({ playedIndex: takeIdx[i - 1], targetIndex: t.index });
-      } else mismatches.push({ kind: v, targetIndex: t.index, playedIndex: takeIdx[i - 1], expected: target[t.index].symbol, pass: t.pass });
+      } else
+        mismatches.push({
+          kind: v,
+          targetIndex: t.index,
+          playedIndex: takeIdx[i - 1],
+          expected: target[t.index].symbol,
+          pass: t.pass,
+        });
       i--;
       j--;
     } else if (how === EXTRA) {
@@ -264,7 +273,13 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
       i--;
     } else {
       const t = seq[j - 1];
-      mismatches.push({ kind: "missing", targetIndex: t.index, playedIndex: null, expected: target[t.index].symbol, pass: t.pass });
+      mismatches.push({
+        kind: "missing",
+        targetIndex: t.index,
+        playedIndex: null,
+        expected: target[t.index].symbol,
+        pass: t.pass,
+      });
       j--;
     }
   }

@@ -23,8 +23,35 @@ const SHARP_NAMES = ["C", "C#", "D", "D#", "E", "F", "F#", "G", "G#", "A", "A#",
 
 /** Lead-sheet suffixes we prefer among tonal's aliases (tonal writes `M`, `Madd9`, ...). */
 const PREFERRED_SUFFIXES = [
-  "", "m", "dim", "aug", "7", "maj7", "m7", "m7b5", "dim7", "sus4", "sus2", "7sus4", "6", "m6",
-  "add9", "madd9", "9", "maj9", "m9", "69", "m69", "11", "m11", "13", "maj13", "m13", "mMaj7", "5", "7b9sus4",
+  "",
+  "m",
+  "dim",
+  "aug",
+  "7",
+  "maj7",
+  "m7",
+  "m7b5",
+  "dim7",
+  "sus4",
+  "sus2",
+  "7sus4",
+  "6",
+  "m6",
+  "add9",
+  "madd9",
+  "9",
+  "maj9",
+  "m9",
+  "69",
+  "m69",
+  "11",
+  "m11",
+  "13",
+  "maj13",
+  "m13",
+  "mMaj7",
+  "5",
+  "7b9sus4",
 ];
 
 const DIMINISHED_TYPES = new Set(["diminished", "half-diminished", "diminished seventh"]);
@@ -86,7 +113,7 @@ function readingOf(slashed: ReturnType<typeof Chord.get>, bassPc: number, order:
   const dimFamily = DIMINISHED_TYPES.has(slashed.type);
   const hasThird = intervals.includes("3m") || intervals.includes("3M");
   const alteredFifth =
-    intervals.includes("5A") || (intervals.includes("5d") && !dimFamily) || /#5|b5/.test(alias) && !dimFamily;
+    intervals.includes("5A") || (intervals.includes("5d") && !dimFamily) || (/#5|b5/.test(alias) && !dimFamily);
   const addedCount = intervals.filter(
     (i) => !CORE_INTERVALS.has(i) && !(!hasThird && (i === "2M" || i === "4P")),
   ).length;

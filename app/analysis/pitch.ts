@@ -188,7 +188,12 @@ export function spellRoot(rootPc: number, key: Key | null): Spelled {
   for (let letter = 0; letter < 7; letter++) {
     const s = onLetter(p, letter);
     if (Math.abs(s.alter) > 1) continue;
-    if (!best || Math.abs(s.alter) < Math.abs(best.alter) || (Math.abs(s.alter) === Math.abs(best.alter) && s.alter < best.alter)) best = s;
+    if (
+      !best ||
+      Math.abs(s.alter) < Math.abs(best.alter) ||
+      (Math.abs(s.alter) === Math.abs(best.alter) && s.alter < best.alter)
+    )
+      best = s;
   }
   return best!;
 }

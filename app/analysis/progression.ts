@@ -93,7 +93,8 @@ export function suffixFor(triad: Triad, required: number[]): string {
   if (found) return found.names[0];
   let best = SUFFIXES.find((s) => s.triad === triad && s.required.length === 0)!;
   for (const s of SUFFIXES) {
-    if (s.triad === triad && s.required.every((r) => required.includes(r)) && s.required.length > best.required.length) best = s;
+    if (s.triad === triad && s.required.every((r) => required.includes(r)) && s.required.length > best.required.length)
+      best = s;
   }
   return best.names[0];
 }
@@ -107,7 +108,11 @@ export function targetPcs(t: TargetChord): number[] {
 
 function badToken(position: number, token: string, why?: string): ProgressionError {
   const detail = why ? ` (${why})` : "";
-  return new ProgressionError(`Token ${position} "${token}" is not a chord symbol or Roman numeral${detail}`, position, token);
+  return new ProgressionError(
+    `Token ${position} "${token}" is not a chord symbol or Roman numeral${detail}`,
+    position,
+    token,
+  );
 }
 
 function parseChordSymbol(token: string, position: number, key: Key): TargetChord {
@@ -124,7 +129,14 @@ function parseChordSymbol(token: string, position: number, key: Key): TargetChor
   }
   const suffix = SUFFIX_BY_NAME.get(rest);
   if (!root || !suffix) throw badToken(position, token);
-  const chord: TargetChord = { root: root.pc, triad: suffix.triad, bass, required: suffix.required.slice(), symbol: "", roman: null };
+  const chord: TargetChord = {
+    root: root.pc,
+    triad: suffix.triad,
+    bass,
+    required: suffix.required.slice(),
+    symbol: "",
+    roman: null,
+  };
   chord.symbol = symbolFor(chord, key, spellPc(chord.root, key));
   chord.roman = romanFor(chord, key);
   return chord;
@@ -137,7 +149,14 @@ function symbolFor(chord: TargetChord, key: Key, rootName: string): string {
 
 function parseRoman(token: string, position: number, key: Key): TargetChord {
   const parts = readRoman(token, key, (why) => badToken(position, token, why));
-  const chord: TargetChord = { root: parts.root, triad: parts.triad, bass: parts.bass, required: parts.required, symbol: "", roman: parts.roman };
+  const chord: TargetChord = {
+    root: parts.root,
+    triad: parts.triad,
+    bass: parts.bass,
+    required: parts.required,
+    symbol: "",
+    roman: parts.roman,
+  };
   chord.symbol = symbolFor(chord, key, parts.rootName);
   return chord;
 }
@@ -198,9 +217,12 @@ export function progressionTokens(text: string): string[] {
 /** Parses a target progression of chord symbols or Roman numerals; throws ProgressionError naming the bad token. */
 export function parseProgression(text: string, key: Key): TargetChord[] {
   const tokens = progressionTokens(text);
-  if (tokens.length === 0) throw new ProgressionError("The progression is empty: write chords like I IV V I or C F G C");
+  if (tokens.length === 0)
+    throw new ProgressionError("The progression is empty: write chords like I IV V I or C F G C");
   if (tokens.length > MAX_PROGRESSION_CHORDS) {
-    throw new ProgressionError(`The progression has ${tokens.length} chords; at most ${MAX_PROGRESSION_CHORDS} are allowed`);
+    throw new ProgressionError(
+      `The progression has ${tokens.length} chords; at most ${MAX_PROGRESSION_CHORDS} are allowed`,
+    );
   }
   return tokens.map((token, i) => {
     if (/^[A-G]/.test(token)) return parseChordSymbol(token, i + 1, key);
@@ -244,7 +266,8 @@ export function transposeProgression(chords: TargetChord[], from: Key, to: Key):
       roman: c.roman,
     };
     const bassName = m?.[3] ? transposeName(m[3], from, to) : null;
-    moved.symbol = rootName + suffixFor(moved.triad, moved.required) + (bassName && moved.bass !== moved.root ? `/${bassName}` : "");
+    moved.symbol =
+      rootName + suffixFor(moved.triad, moved.required) + (bassName && moved.bass !== moved.root ? `/${bassName}` : "");
     return moved;
   });
 }

@@ -76,7 +76,15 @@ const ROMAN_SUFFIX_LIST: RomanSuffix[] = [
   { text: "13#11", required: [10, 6, 9] },
   { text: "13sus4", sus: "sus4", required: [10, 9] },
 ];
-const ROMAN_ALIASES: Record<string, string> = { M7: "maj7", "Δ7": "maj7", "Δ": "maj7", add2: "add9", sus: "sus4", "7sus": "7sus4", "9sus": "9sus4" };
+const ROMAN_ALIASES: Record<string, string> = {
+  M7: "maj7",
+  Δ7: "maj7",
+  Δ: "maj7",
+  add2: "add9",
+  sus: "sus4",
+  "7sus": "7sus4",
+  "9sus": "9sus4",
+};
 const ROMAN_SUFFIXES = new Map<string, RomanSuffix>();
 for (const s of ROMAN_SUFFIX_LIST) if (!ROMAN_SUFFIXES.has(s.text)) ROMAN_SUFFIXES.set(s.text, s);
 
@@ -88,7 +96,14 @@ const thirdOf = (t: Triad) => (t === "minor" || t === "diminished" ? 3 : 4);
 const fifthOf = (t: Triad) => (t === "diminished" ? 6 : t === "augmented" ? 8 : 7);
 
 /** A Roman numeral read in the key; `fail` builds the error naming the token. */
-export type RomanParts = { root: number; triad: Triad; bass: number | null; required: number[]; rootName: string; roman: string };
+export type RomanParts = {
+  root: number;
+  triad: Triad;
+  bass: number | null;
+  required: number[];
+  rootName: string;
+  roman: string;
+};
 
 export function readRoman(token: string, key: Key, fail: (why?: string) => Error): RomanParts {
   const m = /^([b#♭♯]?)(VII|VI|V|IV|III|II|I|vii|vi|v|iv|iii|ii|i)(°|o|ø|\+)?(.*?)(?:\/([b#♭♯]?)([1-7]))?$/.exec(token);
@@ -114,7 +129,8 @@ export function readRoman(token: string, key: Key, fail: (why?: string) => Error
     if (suffix !== "" && suffix !== "7") throw fail("a half-diminished chord takes only 7");
     required = [10];
   } else if (diminished) {
-    if (suffix === "7") required = [9]; // fully diminished seventh
+    if (suffix === "7")
+      required = [9]; // fully diminished seventh
     else if (suffix !== "") throw fail("a diminished chord takes only 7");
   } else {
     const ext = ROMAN_SUFFIXES.get(ROMAN_ALIASES[suffix] ?? suffix);
@@ -140,7 +156,8 @@ export function readRoman(token: string, key: Key, fail: (why?: string) => Error
   }
   const normalisedMark = mark === "o" ? "°" : (mark ?? "");
   const norm = (a: string) => a.replace("♭", "b").replace("♯", "#");
-  const roman = norm(accidental) + numeral + normalisedMark + suffix + (bassDegree ? `/${norm(bassAccidental)}${bassDegree}` : "");
+  const roman =
+    norm(accidental) + numeral + normalisedMark + suffix + (bassDegree ? `/${norm(bassAccidental)}${bassDegree}` : "");
   return { root, triad, bass, required, rootName: spellDegree(key, degree, alter), roman };
 }
 
@@ -153,15 +170,18 @@ function qualityText(triad: Triad, required: number[]): { text: string; seventh:
     return { text: "°", seventh: false };
   }
   const sus = triad === "sus2" || triad === "sus4" ? triad : undefined;
-  const candidates = ROMAN_SUFFIX_LIST.filter((s) => s.sus === sus && (triad !== "augmented" || s.required.length <= 1));
+  const candidates = ROMAN_SUFFIX_LIST.filter(
+    (s) => s.sus === sus && (triad !== "augmented" || s.required.length <= 1),
+  );
   // The entry naming exactly these tones, else the one naming most of them and nothing else.
   let best: RomanSuffix | undefined = candidates.find((s) => exact(s.required));
   if (!best) {
     for (const s of candidates) {
-      if (s.required.every((r) => required.includes(r)) && (!best || s.required.length > best.required.length)) best = s;
+      if (s.required.every((r) => required.includes(r)) && (!best || s.required.length > best.required.length))
+        best = s;
     }
   }
-  const text = best?.text ?? (sus ?? "");
+  const text = best?.text ?? sus ?? "";
   const seventh = !sus && best !== undefined && exact(best.required) && (text === "7" || text === "maj7");
   return { text: (triad === "augmented" ? "+" : "") + text, seventh };
 }
@@ -169,16 +189,27 @@ function qualityText(triad: Triad, required: number[]): { text: string; seventh:
 /** Letter steps above the root of a chord tone `semitones` above it (3rd = 2, 7th = 6, 9th = 1). */
 function letterSteps(semitones: number, triad: Triad): number {
   switch (semitones) {
-    case 0: return 0;
-    case 1: case 2: return 1;
-    case 3: return triad === "minor" || triad === "diminished" ? 2 : 1;
-    case 4: return 2;
-    case 5: return 3;
-    case 6: return triad === "diminished" ? 4 : 3;
-    case 7: return 4;
-    case 8: return triad === "augmented" ? 4 : 5;
-    case 9: return triad === "diminished" ? 6 : 5;
-    default: return 6;
+    case 0:
+      return 0;
+    case 1:
+    case 2:
+      return 1;
+    case 3:
+      return triad === "minor" || triad === "diminished" ? 2 : 1;
+    case 4:
+      return 2;
+    case 5:
+      return 3;
+    case 6:
+      return triad === "diminished" ? 4 : 3;
+    case 7:
+      return 4;
+    case 8:
+      return triad === "augmented" ? 4 : 5;
+    case 9:
+      return triad === "diminished" ? 6 : 5;
+    default:
+      return 6;
   }
 }
 
@@ -195,7 +226,11 @@ export type RomanOptions = {
  * (`I6`, `I64`, `V65`, `V43`, `V42`) and `/degree` for any other bass (`IV/5`). A foreign root is
  * spelled by pitch.ts's `spellRoot` (fewer accidentals, the flat one on a tie: `bII`, not `#I`).
  */
-export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">, key: Key, opts: RomanOptions = {}): string {
+export function romanFor(
+  chord: Pick<TargetChord, "root" | "triad" | "required">,
+  key: Key,
+  opts: RomanOptions = {},
+): string {
   let rootSpelling = opts.root ?? spellRoot(chord.root, key);
   let { degree, alter } = degreeInKey(rootSpelling, key);
   if (Math.abs(alter) > 1) {
@@ -204,7 +239,8 @@ export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">
   }
   // The parser puts vii° and viiø in minor on the raised seventh without an accidental.
   if (key.mode === "minor" && degree === 6 && chord.triad === "diminished") alter -= 1;
-  const numeral = chord.triad === "minor" || chord.triad === "diminished" ? NUMERALS[degree].toLowerCase() : NUMERALS[degree];
+  const numeral =
+    chord.triad === "minor" || chord.triad === "diminished" ? NUMERALS[degree].toLowerCase() : NUMERALS[degree];
   const accidental = alter < 0 ? "b".repeat(-alter) : "#".repeat(alter);
   const { text, seventh } = qualityText(chord.triad, chord.required);
   const head = accidental + numeral;
@@ -217,7 +253,14 @@ export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">
     return head + text + (above === fifthOf(chord.triad) ? "64" : "6");
   }
   if (seventh) {
-    const figure = above === thirdOf(chord.triad) ? "65" : above === fifthOf(chord.triad) ? "43" : above === chord.required[0] ? "42" : null;
+    const figure =
+      above === thirdOf(chord.triad)
+        ? "65"
+        : above === fifthOf(chord.triad)
+          ? "43"
+          : above === chord.required[0]
+            ? "42"
+            : null;
     if (figure) return head + text.replace(/7$/, figure);
   }
   // Any other bass: its scale degree, spelled from the root when it is a chord tone.
@@ -233,4 +276,3 @@ export function romanFor(chord: Pick<TargetChord, "root" | "triad" | "required">
   const bassAccidental = bassDegree.alter < 0 ? "b" : bassDegree.alter > 0 ? "#" : "";
   return `${head}${text}/${bassAccidental}${bassDegree.degree + 1}`;
 }
-

@@ -152,7 +152,10 @@ function candidatesOf(presentMask: number): Int16Array {
   for (let f = 0; f < FLAT_COUNT; f++) if (POPCOUNT[presentMask & FLAT_MASK[f]] >= 2) fs.push(f);
   list = Int16Array.from(fs);
   const missing = Int8Array.from(fs, (f) => FLAT_SIZE[f] - POPCOUNT[presentMask & FLAT_MASK[f]]);
-  CHARGE[presentMask] = Float64Array.from(fs, (f, c) => MISSING_CHARGE * missing[c] + (FLAT_SIZE[f] > 3 ? SEVENTH_CHARGE : 0));
+  CHARGE[presentMask] = Float64Array.from(
+    fs,
+    (f, c) => MISSING_CHARGE * missing[c] + (FLAT_SIZE[f] > 3 ? SEVENTH_CHARGE : 0),
+  );
   TONES[presentMask] = Int8Array.from({ length: 4 * fs.length }, (_, x) => {
     const f = fs[x >> 2];
     return (x & 3) < FLAT_SIZE[f] ? FLAT_TONES[f * 4 + (x & 3)] : 12;
@@ -167,12 +170,21 @@ function candidatesOf(presentMask: number): Int16Array {
  * does not explain (a harmony should begin with notes of its chord). The chord chosen weighs
  * the first strike and the bass up (`bonus`), and prefers the bass as root on a tie.
  */
-export function bestTemplate(w: Float64Array, bonus: Float64Array, bassPc: number | null): { score: number; chord: Template | null } {
+export function bestTemplate(
+  w: Float64Array,
+  bonus: Float64Array,
+  bassPc: number | null,
+): { score: number; chord: Template | null } {
   return bestTemplateAt(w, bonus, 0, bassPc);
 }
 
 /** bestTemplate with the bonus weights read from `bonus` at `at` (twelve of them). */
-function bestTemplateAt(w: Float64Array, bonus: Float64Array, at: number, bassPc: number | null): { score: number; chord: Template | null } {
+function bestTemplateAt(
+  w: Float64Array,
+  bonus: Float64Array,
+  at: number,
+  bassPc: number | null,
+): { score: number; chord: Template | null } {
   let total = 0;
   let present = 0;
   let bonusTotal = 0;
@@ -387,13 +399,18 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
     const i = from[j];
     const tj = T[j];
     struck.fill(0);
-    for (let k = j - 1; k >= i; k--) for (let x = off[k]; x < off[k + 1]; x++) struck[P[x]] += Math.max(0, Math.min(HEARD[x], tj) - START[x]);
+    for (let k = j - 1; k >= i; k--)
+      for (let x = off[k]; x < off[k + 1]; x++) struck[P[x]] += Math.max(0, Math.min(HEARD[x], tj) - START[x]);
     w.set(struck);
     for (let q = downOff[i]; q < downOff[i + 1]; q++) {
       const x = downList[q];
       w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - T[i]);
     }
-    spans.push({ first: i, end: j, chord: bestTemplateAt(w, bonusAt, BONUS_STRIDE * i, bassAt[i] < 0 ? null : bassAt[i]).chord });
+    spans.push({
+      first: i,
+      end: j,
+      chord: bestTemplateAt(w, bonusAt, BONUS_STRIDE * i, bassAt[i] < 0 ? null : bassAt[i]).chord,
+    });
   }
   spans.reverse();
   // Spans of one template are one harmony unless a silence divides them: the search splits

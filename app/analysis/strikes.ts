@@ -160,7 +160,11 @@ export function addHeldNotes(strikes: Strike[]): void {
     for (const n of s.notes) own[n.midi] = k;
     for (const [pitch, n] of down) {
       if (n.end < s.start + HELD_FOR - EPS) down.delete(pitch);
-      else if (n.start < s.start - EPS && !(pitch >= 0 && pitch < 128 ? own[pitch] === k : s.notes.some((x) => x.midi === pitch))) s.held.push(n);
+      else if (
+        n.start < s.start - EPS &&
+        !(pitch >= 0 && pitch < 128 ? own[pitch] === k : s.notes.some((x) => x.midi === pitch))
+      )
+        s.held.push(n);
     }
     for (const n of s.notes) {
       const prev = down.get(n.midi);

@@ -51,9 +51,15 @@ function reportedOnsets(input: Pick<SummaryInput, "chords" | "melodyNotes">): nu
  * voicings in order. Voicing tops and melody notes are merged by onset; notes begun within
  * 80 ms of each other count once, the highest (a melody note struck with its chord).
  */
-export function topLineNotes(chords: readonly Pick<ChordReport, "startSec" | "topNote">[], melody: readonly Pick<MelodyNote, "startSec" | "note">[]): number[] {
+export function topLineNotes(
+  chords: readonly Pick<ChordReport, "startSec" | "topNote">[],
+  melody: readonly Pick<MelodyNote, "startSec" | "note">[],
+): number[] {
   if (melody.length === 0) return chords.map((c) => c.topNote);
-  const events = [...chords.map((c) => ({ t: c.startSec, note: c.topNote })), ...melody.map((m) => ({ t: m.startSec, note: m.note }))];
+  const events = [
+    ...chords.map((c) => ({ t: c.startSec, note: c.topNote })),
+    ...melody.map((m) => ({ t: m.startSec, note: m.note })),
+  ];
   events.sort((x, y) => x.t - y.t || y.note - x.note);
   const out: number[] = [];
   let lastT = -Infinity;

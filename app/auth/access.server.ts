@@ -99,7 +99,11 @@ export async function requireOwner(args: RequestArgs, mode: AccessMode = "page")
  * A co-teacher of the owner's active studio, for removing them: only the owner may, and
  * only a co-teacher (so nobody can remove the owner).
  */
-export async function requireCoTeacherOfOwner(args: RequestArgs, teacherId: string | undefined, mode: AccessMode = "page") {
+export async function requireCoTeacherOfOwner(
+  args: RequestArgs,
+  teacherId: string | undefined,
+  mode: AccessMode = "page",
+) {
   const user = await requireOwner(args, mode);
   const row = teacherId
     ? db()
@@ -190,7 +194,11 @@ export async function requireExerciseAccess(
   return { user, exercise, asTeacher };
 }
 
-export async function requireExerciseEdit(args: RequestArgs, exerciseId: string | undefined, mode: AccessMode = "page") {
+export async function requireExerciseEdit(
+  args: RequestArgs,
+  exerciseId: string | undefined,
+  mode: AccessMode = "page",
+) {
   const result = await requireExerciseAccess(args, exerciseId, mode);
   if (!result.asTeacher) deny(mode, "Only the studio's teachers can change exercises.");
   return result;

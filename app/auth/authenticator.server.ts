@@ -6,7 +6,10 @@ import { checkCredentials, emailSchema } from "~/models/users.server";
 
 export const loginSchema = z.object({
   email: emailSchema,
-  password: z.string({ error: "Enter your password" }).min(1, "Enter your password").max(128, "That password is too long"),
+  password: z
+    .string({ error: "Enter your password" })
+    .min(1, "Enter your password")
+    .max(128, "That password is too long"),
   redirectTo: z.string().optional(),
 });
 

@@ -24,19 +24,35 @@ export function claimAccountMail(kind: AccountMailKind, key: string, now = new D
       const recent = tx
         .select({ sentAt: accountMailSends.sentAt })
         .from(accountMailSends)
-        .where(and(eq(accountMailSends.kind, kind), eq(accountMailSends.key, key), gt(accountMailSends.sentAt, new Date(now.getTime() - DAY_MS))))
+        .where(
+          and(
+            eq(accountMailSends.kind, kind),
+            eq(accountMailSends.key, key),
+            gt(accountMailSends.sentAt, new Date(now.getTime() - DAY_MS)),
+          ),
+        )
         .orderBy(desc(accountMailSends.sentAt))
         .all();
       if (recent.length >= ACCOUNT_MAILS_PER_DAY) {
-        return { ok: false as const, reason: "daily-cap" as const, retryAt: new Date(recent[recent.length - 1].sentAt.getTime() + DAY_MS) };
+        return {
+          ok: false as const,
+          reason: "daily-cap" as const,
+          retryAt: new Date(recent[recent.length - 1].sentAt.getTime() + DAY_MS),
+        };
       }
       const last = recent[0]?.sentAt;
       if (last && last.getTime() > now.getTime() - ACCOUNT_MAIL_INTERVAL_MS) {
-        return { ok: false as const, reason: "too-soon" as const, retryAt: new Date(last.getTime() + ACCOUNT_MAIL_INTERVAL_MS) };
+        return {
+          ok: false as const,
+          reason: "too-soon" as const,
+          retryAt: new Date(last.getTime() + ACCOUNT_MAIL_INTERVAL_MS),
+        };
       }
       tx.insert(accountMailSends).values({ kind, key, sentAt: now }).run();
       // Rows older than the window count for nothing; trim them as we go.
-      tx.delete(accountMailSends).where(lt(accountMailSends.sentAt, new Date(now.getTime() - 2 * DAY_MS))).run();
+      tx.delete(accountMailSends)
+        .where(lt(accountMailSends.sentAt, new Date(now.getTime() - 2 * DAY_MS)))
+        .run();
       return { ok: true as const };
     },
     { behavior: "immediate" },

@@ -62,8 +62,7 @@ export async function getSessionUser(request: Request): Promise<SessionUser | nu
     .where(and(eq(memberships.userId, row.user.id), eq(memberships.status, "active")))
     .orderBy(memberships.createdAt)
     .all();
-  const active =
-    roles.find((r) => r.studioId === row.session.activeStudioId) ?? roles[0] ?? null;
+  const active = roles.find((r) => r.studioId === row.session.activeStudioId) ?? roles[0] ?? null;
   return {
     sessionId,
     id: row.user.id,

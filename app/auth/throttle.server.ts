@@ -27,7 +27,11 @@ function failuresSince(email: string, address: string | null, since: Date) {
   const where = address
     ? and(eq(signInFailures.email, email), eq(signInFailures.address, address), gt(signInFailures.createdAt, since))
     : and(eq(signInFailures.email, email), gt(signInFailures.createdAt, since));
-  const row = db().select({ n: count(), oldest: min(signInFailures.createdAt) }).from(signInFailures).where(where).get();
+  const row = db()
+    .select({ n: count(), oldest: min(signInFailures.createdAt) })
+    .from(signInFailures)
+    .where(where)
+    .get();
   const oldest = row?.oldest ? (row.oldest instanceof Date ? row.oldest : new Date(Number(row.oldest))) : null;
   return { n: row?.n ?? 0, oldest };
 }
@@ -62,7 +66,11 @@ export function claimSignInAttempt(
     (tx) => {
       const state = signInThrottle(email, address, now);
       if (state.blocked) return state;
-      const row = tx.insert(signInFailures).values({ email, address, createdAt: now }).returning({ id: signInFailures.id }).get();
+      const row = tx
+        .insert(signInFailures)
+        .values({ email, address, createdAt: now })
+        .returning({ id: signInFailures.id })
+        .get();
       trimOldFailures(now);
       return { blocked: false as const, attemptId: row.id };
     },

@@ -42,7 +42,8 @@ export function issueUserToken(userId: string, purpose: UserTokenPurpose, now = 
   return token;
 }
 
-export type TokenCheck = { ok: true; userId: string; tokenId: string } | { ok: false; reason: "unknown" | "used" | "expired" };
+export type TokenCheck =
+  { ok: true; userId: string; tokenId: string } | { ok: false; reason: "unknown" | "used" | "expired" };
 
 /** Looks a token up without using it (to decide whether to show a form). */
 export function checkUserToken(token: string, purpose: UserTokenPurpose, now = new Date()): TokenCheck {

@@ -24,7 +24,7 @@ export function beatsBetween(bpm: number, countIn: number, keepGoing: boolean, f
   for (let k = first; k * step < to; k++) {
     const index = k - countIn;
     if (index >= 0 && !keepGoing) break;
-    out.push({ time: k * step, index, accent: (((index % BEATS_PER_BAR) + BEATS_PER_BAR) % BEATS_PER_BAR) === 0 });
+    out.push({ time: k * step, index, accent: ((index % BEATS_PER_BAR) + BEATS_PER_BAR) % BEATS_PER_BAR === 0 });
   }
   return out;
 }
@@ -39,7 +39,12 @@ export type Metronome = {
    * Starts clicking; resolves at once with the time of the take's first beat. Call from a
    * click handler: browsers only let a user gesture start sound.
    */
-  start(options: { bpm: number; countIn: number; keepGoing: boolean; onBeat?: (beat: Beat) => void }): Promise<ClickStart>;
+  start(options: {
+    bpm: number;
+    countIn: number;
+    keepGoing: boolean;
+    onBeat?: (beat: Beat) => void;
+  }): Promise<ClickStart>;
   stop(): void;
 };
 
@@ -100,10 +105,13 @@ export function createMetronome(): Metronome {
       for (const beat of beatsBetween(bpm, countIn, keepGoing, scheduledTo, until)) {
         click(audio, origin + beat.time, beat.accent);
         if (onBeat) {
-          const t = setTimeout(() => {
-            beatTimers.delete(t);
-            onBeat(beat);
-          }, Math.max(0, (beat.time - now) * 1000));
+          const t = setTimeout(
+            () => {
+              beatTimers.delete(t);
+              onBeat(beat);
+            },
+            Math.max(0, (beat.time - now) * 1000),
+          );
           beatTimers.add(t);
         }
       }

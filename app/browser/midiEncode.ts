@@ -69,16 +69,28 @@ export function encodeMidi(input: EncodeInput): Uint8Array {
   track.channel = 0;
   // Onset order, so that a key released and struck again on the same tick is written as
   // note-off then note-on (the writer's sort is stable and keeps each note's on before off).
-  const notes = [...input.notes].filter((n) => Number.isFinite(n.start) && Number.isFinite(n.end)).sort((a, b) => a.start - b.start || a.midi - b.midi);
+  const notes = [...input.notes]
+    .filter((n) => Number.isFinite(n.start) && Number.isFinite(n.end))
+    .sort((a, b) => a.start - b.start || a.midi - b.midi);
   for (const n of notes) {
     const ticks = secondsToTicks(n.start, bpm);
     const endTicks = Math.max(ticks, secondsToTicks(n.end, bpm));
-    track.addNote({ midi: n.midi, ticks, durationTicks: endTicks - ticks, velocity: velocityForWriter(n.velocity), noteOffVelocity: 0 });
+    track.addNote({
+      midi: n.midi,
+      ticks,
+      durationTicks: endTicks - ticks,
+      velocity: velocityForWriter(n.velocity),
+      noteOffVelocity: 0,
+    });
   }
   const spans = [...(input.pedal ?? [])].sort((a, b) => a.start - b.start);
   for (const p of spans) {
     track.addCC({ number: SUSTAIN, ticks: secondsToTicks(p.start, bpm), value: 1 });
-    track.addCC({ number: SUSTAIN, ticks: Math.max(secondsToTicks(p.start, bpm), secondsToTicks(p.end, bpm)), value: 0 });
+    track.addCC({
+      number: SUSTAIN,
+      ticks: Math.max(secondsToTicks(p.start, bpm), secondsToTicks(p.end, bpm)),
+      value: 0,
+    });
   }
   return midi.toArray();
 }

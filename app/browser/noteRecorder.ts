@@ -5,9 +5,7 @@ import { MAX_TAKE_SECONDS } from "~/analysis/errors";
 import type { NoteEvent, NoteList, PedalSpan } from "~/analysis/types";
 
 export type PlayedEvent =
-  | { kind: "on"; midi: number; velocity: number }
-  | { kind: "off"; midi: number }
-  | { kind: "pedal"; down: boolean };
+  { kind: "on"; midi: number; velocity: number } | { kind: "off"; midi: number } | { kind: "pedal"; down: boolean };
 
 const DRUM_CHANNEL = 9; // General MIDI channel 10: drum pads are never harmony (as readMidi.ts)
 const SUSTAIN_CONTROLLER = 64;
@@ -96,7 +94,8 @@ export class NoteRecorder {
   snapshot(nowMs: number): NoteList & { notes: NoteEvent[]; pedal: PedalSpan[] } {
     const now = Math.max(this.lastSec, this.elapsed(nowMs));
     const notes = [...this.closed];
-    for (const [midi, open] of this.sounding) notes.push({ midi, start: open.start, end: now, velocity: open.velocity });
+    for (const [midi, open] of this.sounding)
+      notes.push({ midi, start: open.start, end: now, velocity: open.velocity });
     notes.sort((a, b) => a.start - b.start || a.midi - b.midi);
     const pedal = this.pedalFrom === null ? [...this.spans] : [...this.spans, { start: this.pedalFrom, end: now }];
     return { notes, pedal };

@@ -3,11 +3,25 @@ import { chordReport } from "~/analysis/chords";
 import { gradeChanges } from "~/analysis/grade";
 import { parseKey } from "~/analysis/pitch";
 import type { Strike } from "~/analysis/strikes";
-import { chordIndexAt, chordPlan, midiFrequency, notesInWindow, pairPlan, planEnd, smootherPathPlan, takePlan } from "./playbackPlan";
+import {
+  chordIndexAt,
+  chordPlan,
+  midiFrequency,
+  notesInWindow,
+  pairPlan,
+  planEnd,
+  smootherPathPlan,
+  takePlan,
+} from "./playbackPlan";
 
 const key = parseKey("F");
 function chord(pitches: number[], start: number) {
-  const s: Strike = { start, notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })), graces: [], held: [] };
+  const s: Strike = {
+    start,
+    notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })),
+    graces: [],
+    held: [],
+  };
   return chordReport(s, key, []);
 }
 
@@ -46,7 +60,9 @@ describe("playback plan", () => {
   });
 
   it("hands out notes window by window, each once", () => {
-    const plan = takePlan(Array.from({ length: 10 }, (_, i) => ({ midi: 60 + i, start: i * 0.25, end: i * 0.25 + 0.2, velocity: 0.7 })));
+    const plan = takePlan(
+      Array.from({ length: 10 }, (_, i) => ({ midi: 60 + i, start: i * 0.25, end: i * 0.25 + 0.2, velocity: 0.7 })),
+    );
     const seen: number[] = [];
     let cursor = 0;
     for (let t = 0; t < 3; t += 0.4) {

@@ -31,7 +31,11 @@ export function drawnVoicing(change: Pick<ChangeReport, "suggestions" | "bestVoi
  * The same chords at the same times, each chord after the first voiced as its change's
  * drawn voicing (drawnVoicing); ungraded changes keep the chord as played. Melody notes stay.
  */
-export function smootherPathPlan(chords: readonly ChordReport[], changes: readonly ChangeReport[], melody: readonly MelodyNote[] = []): PlannedNote[] {
+export function smootherPathPlan(
+  chords: readonly ChordReport[],
+  changes: readonly ChangeReport[],
+  melody: readonly MelodyNote[] = [],
+): PlannedNote[] {
   const out: PlannedNote[] = [];
   chords.forEach((c, k) => {
     const change = k > 0 ? changes.find((ch) => ch.to === k) : undefined;
@@ -39,7 +43,8 @@ export function smootherPathPlan(chords: readonly ChordReport[], changes: readon
     const end = Math.max(c.endSec, c.startSec + 0.25);
     for (const midi of voicing) out.push({ midi, start: c.startSec, end, velocity: 0.7 });
   });
-  for (const m of melody) out.push({ midi: m.note, start: m.startSec, end: Math.max(m.endSec, m.startSec + 0.06), velocity: 0.7 });
+  for (const m of melody)
+    out.push({ midi: m.note, start: m.startSec, end: Math.max(m.endSec, m.startSec + 0.06), velocity: 0.7 });
   return out.sort(byStart);
 }
 
@@ -50,7 +55,10 @@ export function chordPlan(voicing: readonly number[], lengthSec = 1.4): PlannedN
 
 /** Two voicings one after the other: the chord before and the suggested chord. */
 export function pairPlan(from: readonly number[], to: readonly number[], lengthSec = 1): PlannedNote[] {
-  return [...chordPlan(from, lengthSec * 0.95), ...chordPlan(to, lengthSec).map((n) => ({ ...n, start: lengthSec, end: lengthSec * 2 }))];
+  return [
+    ...chordPlan(from, lengthSec * 0.95),
+    ...chordPlan(to, lengthSec).map((n) => ({ ...n, start: lengthSec, end: lengthSec * 2 })),
+  ];
 }
 
 export function planEnd(plan: readonly PlannedNote[]): number {
@@ -76,7 +84,12 @@ export function chordIndexAt(chords: ReadonlyArray<{ startSec: number }>, t: num
  * them and the next cursor. The synth calls this every tick with a short look-ahead, so a
  * long take never creates thousands of oscillators at once.
  */
-export function notesInWindow(plan: readonly PlannedNote[], cursor: number, from: number, to: number): { notes: PlannedNote[]; cursor: number } {
+export function notesInWindow(
+  plan: readonly PlannedNote[],
+  cursor: number,
+  from: number,
+  to: number,
+): { notes: PlannedNote[]; cursor: number } {
   const notes: PlannedNote[] = [];
   let i = cursor;
   while (i < plan.length && plan[i].start < to) {
@@ -98,9 +111,11 @@ export function scalePlan(plan: readonly PlannedNote[], speed: number): PlannedN
  */
 export function stretchPlan(notes: readonly NoteEvent[], fromSec: number, toSec: number): PlannedNote[] {
   const EARLY = 0.05;
-  return takePlan(notes.filter((n) => n.start >= fromSec - EARLY && n.start < toSec)).map((n) => ({
-    ...n,
-    start: Math.max(0, n.start - fromSec),
-    end: Math.min(toSec, n.end) - fromSec,
-  })).map((n) => ({ ...n, end: Math.max(n.end, n.start + 0.06) }));
+  return takePlan(notes.filter((n) => n.start >= fromSec - EARLY && n.start < toSec))
+    .map((n) => ({
+      ...n,
+      start: Math.max(0, n.start - fromSec),
+      end: Math.min(toSec, n.end) - fromSec,
+    }))
+    .map((n) => ({ ...n, end: Math.max(n.end, n.start + 0.06) }));
 }

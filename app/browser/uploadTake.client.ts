@@ -25,7 +25,8 @@ export function sendTake(
     };
     xhr.upload.onload = () => on.uploaded();
     xhr.onload = () => resolve({ status: xhr.status, body: (xhr.response as UploadAnswer | null) ?? null });
-    xhr.onerror = () => resolve({ status: 0, body: { error: "The connection dropped. Check your network and try again." } });
+    xhr.onerror = () =>
+      resolve({ status: 0, body: { error: "The connection dropped. Check your network and try again." } });
     xhr.send(form);
   });
 }

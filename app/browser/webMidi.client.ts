@@ -6,8 +6,7 @@ import { parseMidiMessage, type PlayedEvent } from "./noteRecorder";
 export type InputInfo = { id: string; name: string; manufacturer: string };
 
 export type AccessResult =
-  | { ok: true; access: MIDIAccess }
-  | { ok: false; reason: "missing" | "refused" | "failed"; message: string };
+  { ok: true; access: MIDIAccess } | { ok: false; reason: "missing" | "refused" | "failed"; message: string };
 
 const STORAGE_KEY = "nearnote.recorder.input";
 
@@ -28,7 +27,11 @@ export async function requestMidiAccess(): Promise<AccessResult> {
     if (name === "NotAllowedError" || name === "SecurityError") {
       return { ok: false, reason: "refused", message: "Access to MIDI devices was refused." };
     }
-    return { ok: false, reason: "failed", message: e instanceof Error ? e.message : "The MIDI devices could not be opened." };
+    return {
+      ok: false,
+      reason: "failed",
+      message: e instanceof Error ? e.message : "The MIDI devices could not be opened.",
+    };
   }
 }
 
@@ -89,7 +92,11 @@ export function pickInput(inputs: readonly InputInfo[], remembered: RememberedIn
  * `performance.now()` clock (a MIDIMessageEvent's timeStamp is on that clock). Setting
  * `onmidimessage` also opens the port.
  */
-export function listenTo(access: MIDIAccess, inputId: string, onEvent: (event: PlayedEvent, timeMs: number) => void): () => void {
+export function listenTo(
+  access: MIDIAccess,
+  inputId: string,
+  onEvent: (event: PlayedEvent, timeMs: number) => void,
+): () => void {
   const input = access.inputs.get(inputId);
   if (!input) return () => {};
   const handler = (e: MIDIMessageEvent) => {

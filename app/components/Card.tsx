@@ -1,6 +1,12 @@
 import type { HTMLAttributes, ReactNode } from "react";
 
-export function Card({ title, actions, className = "", children, ...rest }: HTMLAttributes<HTMLElement> & { title?: ReactNode; actions?: ReactNode }) {
+export function Card({
+  title,
+  actions,
+  className = "",
+  children,
+  ...rest
+}: HTMLAttributes<HTMLElement> & { title?: ReactNode; actions?: ReactNode }) {
   return (
     <section className={`rounded-lg border border-line bg-card p-5 shadow-sm ${className}`} {...rest}>
       {title || actions ? (

@@ -12,7 +12,10 @@ const tones: Record<FlashTone, string> = {
 
 export function FlashMessage({ tone = "info", children }: { tone?: FlashTone; children: ReactNode }) {
   return (
-    <div role={tone === "error" ? "alert" : "status"} className={`rounded-md border-l-4 px-4 py-3 text-sm ${tones[tone]}`}>
+    <div
+      role={tone === "error" ? "alert" : "status"}
+      className={`rounded-md border-l-4 px-4 py-3 text-sm ${tones[tone]}`}
+    >
       {children}
     </div>
   );

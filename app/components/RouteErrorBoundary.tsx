@@ -12,7 +12,9 @@ export function RouteErrorBoundary() {
         : "Nearnote could not show this page. Try again in a moment.";
   return (
     <section className="mx-auto max-w-xl py-10 text-center">
-      <h1 className="text-2xl font-semibold">{status === 403 ? "Not yours to see" : status === 404 ? "Not found" : "Something went wrong"}</h1>
+      <h1 className="text-2xl font-semibold">
+        {status === 403 ? "Not yours to see" : status === 404 ? "Not found" : "Something went wrong"}
+      </h1>
       <p className="mt-3 text-ink-soft">{message}</p>
       <p className="mt-6">
         <Link to="/board" className="text-tide-dark underline">

@@ -17,7 +17,11 @@ export function navItems(user: NavUser): Item[] {
       { to: "/settings", label: "Settings" },
     ];
   }
-  if (user.role === null) return [{ to: "/home", label: "Home" }, { to: "/settings", label: "Settings" }];
+  if (user.role === null)
+    return [
+      { to: "/home", label: "Home" },
+      { to: "/settings", label: "Settings" },
+    ];
   return [
     { to: "/home", label: "Studio" },
     { to: "/exercises", label: "Exercises" },
@@ -87,23 +91,28 @@ export function SiteNav({ user }: { user: NavUser }) {
   return (
     <nav aria-label="Main" className="no-print border-b border-line bg-card">
       <div className="mx-auto flex max-w-6xl items-center gap-x-6 gap-y-2 px-4 py-3 md:flex-wrap">
-        <NavLink to={user ? "/home" : "/"} className="flex shrink-0 items-center gap-2 text-lg font-semibold text-tide-dark">
+        <NavLink
+          to={user ? "/home" : "/"}
+          className="flex shrink-0 items-center gap-2 text-lg font-semibold text-tide-dark"
+        >
           <img src="/favicon.svg" alt="" width={24} height={24} />
           Nearnote
         </NavLink>
         <NavItems user={user} className="hidden flex-1 flex-wrap gap-4 text-sm md:flex" itemClass="" />
         <Account user={user} className="hidden items-center gap-3 text-sm md:flex" />
         <details ref={menu} className="relative ml-auto md:hidden" data-testid="compact-menu">
-          <summary
-            className="flex cursor-pointer list-none items-center gap-2 rounded-md border border-line bg-white px-3 py-2 text-sm font-semibold text-ink [&::-webkit-details-marker]:hidden"
-          >
+          <summary className="flex cursor-pointer list-none items-center gap-2 rounded-md border border-line bg-white px-3 py-2 text-sm font-semibold text-ink [&::-webkit-details-marker]:hidden">
             <svg aria-hidden="true" viewBox="0 0 16 12" className="h-3 w-4">
               <path d="M0 1h16M0 6h16M0 11h16" stroke="currentColor" strokeWidth="2" />
             </svg>
             Menu
           </summary>
           <div className="absolute right-0 z-30 mt-2 flex w-64 max-w-[calc(100vw-2rem)] flex-col gap-3 rounded-lg border border-line bg-card p-4 shadow-lg">
-            <NavItems user={user} className="flex flex-col gap-1 text-base" itemClass="block rounded px-2 py-2 hover:bg-paper" />
+            <NavItems
+              user={user}
+              className="flex flex-col gap-1 text-base"
+              itemClass="block rounded px-2 py-2 hover:bg-paper"
+            />
             <Account user={user} className="flex flex-col items-start gap-2 border-t border-line pt-3 text-sm" />
           </div>
         </details>

@@ -14,7 +14,10 @@ import {
 
 // Ids are random text (crypto.randomUUID) so that URLs never reveal how many
 // students or takes a studio has.
-const id = () => text("id").primaryKey().$defaultFn(() => crypto.randomUUID());
+const id = () =>
+  text("id")
+    .primaryKey()
+    .$defaultFn(() => crypto.randomUUID());
 const createdAt = () =>
   integer("created_at", { mode: "timestamp_ms" })
     .notNull()
@@ -52,7 +55,9 @@ export const memberships = sqliteTable(
       .notNull()
       .references(() => studios.id, { onDelete: "cascade" }),
     role: text("role", { enum: MEMBERSHIP_ROLES }).notNull(),
-    status: text("status", { enum: ["active", "removed"] }).notNull().default("active"),
+    status: text("status", { enum: ["active", "removed"] })
+      .notNull()
+      .default("active"),
     createdAt: createdAt(),
     removedAt: integer("removed_at", { mode: "timestamp_ms" }),
   },
@@ -99,7 +104,9 @@ export const exercises = sqliteTable(
     tempo: integer("tempo"),
     dueDate: text("due_date"), // YYYY-MM-DD in the studio's time zone
     instructions: text("instructions").notNull().default(""),
-    assignedTo: text("assigned_to", { enum: ["studio", "students"] }).notNull().default("studio"),
+    assignedTo: text("assigned_to", { enum: ["studio", "students"] })
+      .notNull()
+      .default("studio"),
     archivedAt: integer("archived_at", { mode: "timestamp_ms" }),
     // Model answer: the starting voicing the teacher picked (MIDI numbers) for the smoothest
     // path, and optionally the teacher's own recorded model take (stored like takes).
@@ -122,10 +129,7 @@ export const exerciseAssignees = sqliteTable(
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
   },
-  (t) => [
-    primaryKey({ columns: [t.exerciseId, t.userId] }),
-    index("exercise_assignees_user_idx").on(t.userId),
-  ],
+  (t) => [primaryKey({ columns: [t.exerciseId, t.userId] }), index("exercise_assignees_user_idx").on(t.userId)],
 );
 
 export const TAKE_STATUSES = ["pending", "analysed", "failed"] as const;
@@ -434,7 +438,10 @@ export const sentMails = sqliteTable(
     key: text("key").notNull(),
     sentAt: integer("sent_at", { mode: "timestamp_ms" }).notNull(),
   },
-  (t) => [uniqueIndex("sent_mails_user_key_unique").on(t.userId, t.key), index("sent_mails_kind_idx").on(t.kind, t.sentAt)],
+  (t) => [
+    uniqueIndex("sent_mails_user_key_unique").on(t.userId, t.key),
+    index("sent_mails_kind_idx").on(t.kind, t.sentAt),
+  ],
 );
 
 export type Comment = typeof comments.$inferSelect;

@@ -70,20 +70,33 @@ export function parseForm<S extends z.ZodType>(
     else if (key === undefined) formError ??= issue.message;
     else fieldErrors[String(key)] ??= issue.message;
   }
-  return { ok: false, response: formFailure({ form, formError, fieldErrors: Object.keys(fieldErrors).length ? fieldErrors : undefined }) };
+  return {
+    ok: false,
+    response: formFailure({ form, formError, fieldErrors: Object.keys(fieldErrors).length ? fieldErrors : undefined }),
+  };
 }
 
 type FlashInit = { tone?: FlashTone; headers?: HeadersInit };
 
 /** Redirects to `url` and shows `message` once there (a success unless `tone` says otherwise). */
-export async function redirectWithFlash(url: string, message: string, request: Request, { tone = "success", headers }: FlashInit = {}) {
+export async function redirectWithFlash(
+  url: string,
+  message: string,
+  request: Request,
+  { tone = "success", headers }: FlashInit = {},
+) {
   const all = new Headers(headers);
   all.append("Set-Cookie", await flashHeader(request, { tone, message }));
   return redirect(url, { headers: all });
 }
 
 /** Answers `value` on the same page and shows `message` once (for forms that stay where they are). */
-export async function dataWithFlash<T>(value: T, message: string, request: Request, { tone = "success", headers }: FlashInit = {}) {
+export async function dataWithFlash<T>(
+  value: T,
+  message: string,
+  request: Request,
+  { tone = "success", headers }: FlashInit = {},
+) {
   const all = new Headers(headers);
   all.append("Set-Cookie", await flashHeader(request, { tone, message }));
   return data(value, { headers: all });

@@ -91,7 +91,9 @@ export function decodeEncodedWords(value: string): string {
     .replace(/\?=\s+=\?/g, "?==?")
     .replace(/=\?([^?]+)\?([BbQq])\?([^?]*)\?=/g, (_all, _charset: string, enc: string, text: string) => {
       if (enc.toUpperCase() === "B") return Buffer.from(text, "base64").toString("utf8");
-      const bytes = text.replace(/_/g, " ").replace(/=([0-9A-Fa-f]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16)));
+      const bytes = text
+        .replace(/_/g, " ")
+        .replace(/=([0-9A-Fa-f]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16)));
       return Buffer.from(bytes, "latin1").toString("utf8");
     });
 }
@@ -116,7 +118,10 @@ function textOf(raw: string): string {
   const type = headers.get("content-type") ?? "text/plain";
   const boundary = /boundary="?([^";]+)"?/i.exec(type)?.[1];
   if (/^multipart\//i.test(type) && boundary) {
-    const parts = body.split(`--${boundary}`).slice(1).filter((p) => !p.startsWith("--"));
+    const parts = body
+      .split(`--${boundary}`)
+      .slice(1)
+      .filter((p) => !p.startsWith("--"));
     for (const part of parts) {
       const text = textOf(part.replace(/^\n/, ""));
       if (text) return text;

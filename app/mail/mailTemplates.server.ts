@@ -62,7 +62,10 @@ export function resetPasswordMail(to: string, name: string, token: string): Outg
   };
 }
 
-export function confirmSignupMail(to: string, signup: { name: string; studioName: string; token: string }): OutgoingMail {
+export function confirmSignupMail(
+  to: string,
+  signup: { name: string; studioName: string; token: string },
+): OutgoingMail {
   return {
     to,
     subject: "Confirm your e-mail address for Nearnote",

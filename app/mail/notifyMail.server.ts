@@ -40,7 +40,13 @@ export function unsubscribeLink(userId: string, pref: MailPreference) {
 /** The footer every automatic mail ends with. */
 export function mailFooter(userId: string, pref: MailPreference): string[] {
   const what = pref === "feedback" ? "mail when your teacher comments" : "daily digests and due-date reminders";
-  return ["", "--", `To stop ${what}, open this link (no sign-in needed):`, unsubscribeLink(userId, pref), "You can turn it back on in Settings."];
+  return [
+    "",
+    "--",
+    `To stop ${what}, open this link (no sign-in needed):`,
+    unsubscribeLink(userId, pref),
+    "You can turn it back on in Settings.",
+  ];
 }
 
 /**
@@ -48,14 +54,28 @@ export function mailFooter(userId: string, pref: MailPreference): string[] {
  * claim atomic, so two runs (or a run after a restart) never send the same mail twice; a
  * failed send gives the claim back so the next run tries again.
  */
-export async function sendOnce(kind: SentKind, userId: string, key: string, mail: OutgoingMail, now = new Date()): Promise<boolean> {
-  const claimed = db().insert(sentMails).values({ kind, userId, key, sentAt: now }).onConflictDoNothing().returning({ id: sentMails.id }).get();
+export async function sendOnce(
+  kind: SentKind,
+  userId: string,
+  key: string,
+  mail: OutgoingMail,
+  now = new Date(),
+): Promise<boolean> {
+  const claimed = db()
+    .insert(sentMails)
+    .values({ kind, userId, key, sentAt: now })
+    .onConflictDoNothing()
+    .returning({ id: sentMails.id })
+    .get();
   if (!claimed) return false;
   try {
     await sendMail(mail);
     return true;
   } catch (e) {
-    db().delete(sentMails).where(and(eq(sentMails.id, claimed.id))).run();
+    db()
+      .delete(sentMails)
+      .where(and(eq(sentMails.id, claimed.id)))
+      .run();
     throw e;
   }
 }

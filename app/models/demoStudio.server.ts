@@ -7,9 +7,14 @@ import { exercises, memberships, studios, users } from "~/db/schema";
 export const DEMO_PASSWORD = "tidewater-keys";
 export const DEMO_STUDIO = { name: "Tidewater Keys", timeZone: "America/New_York" };
 export const DEMO_TEACHER = { name: "Ines Marlowe", email: "ines@tidewater.example" };
-export const DEMO_STUDENTS = ["Dara Okafor", "Felix Brandt", "Yuki Tanabe", "Samir Haddad", "Lena Voss", "Owen Pryce"].map(
-  (name) => ({ name, email: `${name.split(" ")[0].toLowerCase()}@tidewater.example` }),
-);
+export const DEMO_STUDENTS = [
+  "Dara Okafor",
+  "Felix Brandt",
+  "Yuki Tanabe",
+  "Samir Haddad",
+  "Lena Voss",
+  "Owen Pryce",
+].map((name) => ({ name, email: `${name.split(" ")[0].toLowerCase()}@tidewater.example` }));
 
 export const DEMO_EXERCISES = [
   {

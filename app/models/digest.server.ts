@@ -74,7 +74,14 @@ function lastDigestAt(userId: string): Date | null {
 /** New takes of a studio since a moment, for the digest. */
 function takesSince(studioId: string, since: Date) {
   return db()
-    .select({ id: takes.id, student: users.name, exercise: exercises.title, key: takes.key, status: takes.status, score: takeMetrics.score })
+    .select({
+      id: takes.id,
+      student: users.name,
+      exercise: exercises.title,
+      key: takes.key,
+      status: takes.status,
+      score: takeMetrics.score,
+    })
     .from(takes)
     .innerJoin(users, eq(users.id, takes.studentId))
     .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
@@ -87,7 +94,11 @@ function takesSince(studioId: string, since: Date) {
 export type DigestContent = { subject: string; text: string; takeCount: number; replyCount: number };
 
 /** What a teacher's digest says: new takes and students' replies since `since`; null when there is nothing new. */
-export function digestContent(teacher: { id: string; name: string }, studio: { id: string; name: string }, since: Date): DigestContent | null {
+export function digestContent(
+  teacher: { id: string; name: string },
+  studio: { id: string; name: string },
+  since: Date,
+): DigestContent | null {
   const newTakes = takesSince(studio.id, since);
   const replies = repliesSince(studio.id, since);
   if (newTakes.length === 0 && replies.length === 0) return null;
@@ -96,7 +107,12 @@ export function digestContent(teacher: { id: string; name: string }, studio: { i
     lines.push(`${newTakes.length} new take${newTakes.length === 1 ? "" : "s"}:`);
     for (const t of newTakes) {
       const what = t.exercise ? `${t.exercise}${t.key ? ` in ${pretty(t.key)}` : ""}` : "free practice";
-      const result = t.status === "analysed" && t.score !== null ? `score ${Math.round(t.score)}` : t.status === "failed" ? "could not be analysed" : "waiting";
+      const result =
+        t.status === "analysed" && t.score !== null
+          ? `score ${Math.round(t.score)}`
+          : t.status === "failed"
+            ? "could not be analysed"
+            : "waiting";
       lines.push(`- ${t.student}: ${what}, ${result}. ${link(`/takes/${t.id}`)}`);
     }
     lines.push("");
@@ -106,7 +122,10 @@ export function digestContent(teacher: { id: string; name: string }, studio: { i
     for (const r of replies) lines.push(`- ${r.authorName}: "${r.body.slice(0, 120)}" ${link(`/takes/${r.takeId}`)}`);
     lines.push("");
   }
-  lines.push(`Takes waiting for review: ${reviewQueueCount(studio.id)}. ${link("/review")}`, ...mailFooter(teacher.id, "digest"));
+  lines.push(
+    `Takes waiting for review: ${reviewQueueCount(studio.id)}. ${link("/review")}`,
+    ...mailFooter(teacher.id, "digest"),
+  );
   return {
     subject: `Nearnote digest for ${studio.name}: ${newTakes.length} new take${newTakes.length === 1 ? "" : "s"}`,
     text: lines.join("\n"),
@@ -125,14 +144,29 @@ export async function runDigests(now = new Date(), opts: { anyHour?: boolean } =
       .select({ id: users.id, name: users.name, email: users.email, mailDigest: users.mailDigest })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
-      .where(and(eq(memberships.studioId, studio.id), inArray(memberships.role, ["owner", "teacher"]), eq(memberships.status, "active")))
+      .where(
+        and(
+          eq(memberships.studioId, studio.id),
+          inArray(memberships.role, ["owner", "teacher"]),
+          eq(memberships.status, "active"),
+        ),
+      )
       .all();
     for (const t of teachers) {
       if (!t.mailDigest) continue;
       const since = lastDigestAt(t.id) ?? new Date(now.getTime() - 86_400_000);
       const content = digestContent(t, studio, since);
       if (!content) continue;
-      if (await sendOnce("digest", t.id, `digest:${studio.id}:${today}`, { to: t.email, subject: content.subject, text: content.text }, now)) sent++;
+      if (
+        await sendOnce(
+          "digest",
+          t.id,
+          `digest:${studio.id}:${today}`,
+          { to: t.email, subject: content.subject, text: content.text },
+          now,
+        )
+      )
+        sent++;
     }
   }
   return sent;
@@ -143,10 +177,18 @@ export async function runDueReminders(now = new Date()): Promise<number> {
   let sent = 0;
   for (const studio of db().select().from(studios).all()) {
     const tomorrow = iso(localDate(new Date(now.getTime() + 86_400_000), studio.timeZone));
-    const due = db().select().from(exercises).where(and(eq(exercises.studioId, studio.id), eq(exercises.dueDate, tomorrow))).all();
+    const due = db()
+      .select()
+      .from(exercises)
+      .where(and(eq(exercises.studioId, studio.id), eq(exercises.dueDate, tomorrow)))
+      .all();
     for (const exercise of due.filter((e) => e.archivedAt === null)) {
       for (const s of studentsOfExercise(exercise)) {
-        const handedIn = db().select({ id: takes.id }).from(takes).where(and(eq(takes.exerciseId, exercise.id), eq(takes.studentId, s.id))).get();
+        const handedIn = db()
+          .select({ id: takes.id })
+          .from(takes)
+          .where(and(eq(takes.exerciseId, exercise.id), eq(takes.studentId, s.id)))
+          .get();
         const person = db().select({ mailDigest: users.mailDigest }).from(users).where(eq(users.id, s.id)).get();
         if (handedIn || !person?.mailDigest) continue;
         const mail = {

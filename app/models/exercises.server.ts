@@ -22,13 +22,25 @@ export const exerciseFormSchema = z.object({
     .string()
     .trim()
     .transform((v) => (v === "" ? null : Number(v)))
-    .pipe(z.number().int("Tempo is a whole number of beats per minute.").min(20, "Tempo is 20–300 bpm.").max(300, "Tempo is 20–300 bpm.").nullable())
+    .pipe(
+      z
+        .number()
+        .int("Tempo is a whole number of beats per minute.")
+        .min(20, "Tempo is 20–300 bpm.")
+        .max(300, "Tempo is 20–300 bpm.")
+        .nullable(),
+    )
     .default(null),
   dueDate: z
     .string()
     .trim()
     .transform((v) => v || null)
-    .pipe(z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Pick a date.").nullable())
+    .pipe(
+      z
+        .string()
+        .regex(/^\d{4}-\d{2}-\d{2}$/, "Pick a date.")
+        .nullable(),
+    )
     .default(null),
   instructions: z.string().trim().max(4000, "Keep the instructions under 4,000 characters.").default(""),
   assignedTo: z.enum(["studio", "students"]).default("studio"),
@@ -53,10 +65,15 @@ export function exerciseFields(e: Exercise) {
   };
 }
 
-export type FieldErrors = Partial<Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>>;
+export type FieldErrors = Partial<
+  Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>
+>;
 
 /** Reads the exercise form; returns the input or one message per field at fault. */
-export function readExerciseForm(form: FormData, studioStudentIds: readonly string[]): { ok: true; input: ExerciseInput } | { ok: false; errors: FieldErrors } {
+export function readExerciseForm(
+  form: FormData,
+  studioStudentIds: readonly string[],
+): { ok: true; input: ExerciseInput } | { ok: false; errors: FieldErrors } {
   const raw = {
     ...Object.fromEntries([...form.entries()].filter(([k]) => k !== "focusTechniques" && k !== "students")),
     focusTechniques: form.getAll("focusTechniques").map(String),
@@ -72,13 +89,16 @@ export function readExerciseForm(form: FormData, studioStudentIds: readonly stri
     return { ok: false, errors };
   }
   const d = parsed.data;
-  const keys = d.keyChoice === "all-major" ? ALL_MAJOR_KEYS : d.keyChoice === "all-minor" ? ALL_MINOR_KEYS : splitKeys(d.keys);
+  const keys =
+    d.keyChoice === "all-major" ? ALL_MAJOR_KEYS : d.keyChoice === "all-minor" ? ALL_MINOR_KEYS : splitKeys(d.keys);
   const check = checkProgression(d.progression, keys);
   if (!check.ok) return { ok: false, errors: { [check.field]: check.message } };
   const students = [...new Set(d.students)];
   if (d.assignedTo === "students") {
-    if (students.length === 0) return { ok: false, errors: { students: "Choose at least one student, or set it for the whole studio." } };
-    if (students.some((s) => !studioStudentIds.includes(s))) return { ok: false, errors: { students: "Choose students of this studio." } };
+    if (students.length === 0)
+      return { ok: false, errors: { students: "Choose at least one student, or set it for the whole studio." } };
+    if (students.some((s) => !studioStudentIds.includes(s)))
+      return { ok: false, errors: { students: "Choose students of this studio." } };
   }
   return {
     ok: true,
@@ -89,8 +109,15 @@ export function readExerciseForm(form: FormData, studioStudentIds: readonly stri
 export function createExercise(studioId: string, teacherId: string, input: ExerciseInput): string {
   const { students, ...fields } = input;
   return db().transaction((tx) => {
-    const row = tx.insert(exercises).values({ ...fields, studioId, createdById: teacherId }).returning({ id: exercises.id }).get();
-    if (students.length) tx.insert(exerciseAssignees).values(students.map((userId) => ({ exerciseId: row.id, userId }))).run();
+    const row = tx
+      .insert(exercises)
+      .values({ ...fields, studioId, createdById: teacherId })
+      .returning({ id: exercises.id })
+      .get();
+    if (students.length)
+      tx.insert(exerciseAssignees)
+        .values(students.map((userId) => ({ exerciseId: row.id, userId })))
+        .run();
     return row.id;
   });
 }
@@ -100,16 +127,28 @@ export function updateExercise(exerciseId: string, input: ExerciseInput) {
   db().transaction((tx) => {
     tx.update(exercises).set(fields).where(eq(exercises.id, exerciseId)).run();
     tx.delete(exerciseAssignees).where(eq(exerciseAssignees.exerciseId, exerciseId)).run();
-    if (students.length) tx.insert(exerciseAssignees).values(students.map((userId) => ({ exerciseId, userId }))).run();
+    if (students.length)
+      tx.insert(exerciseAssignees)
+        .values(students.map((userId) => ({ exerciseId, userId })))
+        .run();
   });
 }
 
 export function setArchived(exerciseId: string, archived: boolean) {
-  db().update(exercises).set({ archivedAt: archived ? new Date() : null }).where(eq(exercises.id, exerciseId)).run();
+  db()
+    .update(exercises)
+    .set({ archivedAt: archived ? new Date() : null })
+    .where(eq(exercises.id, exerciseId))
+    .run();
 }
 
 export function assigneeIds(exerciseId: string): string[] {
-  return db().select({ id: exerciseAssignees.userId }).from(exerciseAssignees).where(eq(exerciseAssignees.exerciseId, exerciseId)).all().map((r) => r.id);
+  return db()
+    .select({ id: exerciseAssignees.userId })
+    .from(exerciseAssignees)
+    .where(eq(exerciseAssignees.exerciseId, exerciseId))
+    .all()
+    .map((r) => r.id);
 }
 
 /** The students an exercise is set for: every active student of the studio, or the chosen ones. */
@@ -161,7 +200,12 @@ export function progressByKey(keys: readonly string[], rows: readonly ExerciseTa
     const mine = rows.filter((r) => r.key === key);
     const scores = mine.map((r) => r.score).filter((s): s is number => s !== null);
     const acc = mine.map((r) => r.accuracy).filter((s): s is number => s !== null);
-    return { key, takes: mine, best: scores.length ? Math.max(...scores) : null, bestAccuracy: acc.length ? Math.max(...acc) : null };
+    return {
+      key,
+      takes: mine,
+      best: scores.length ? Math.max(...scores) : null,
+      bestAccuracy: acc.length ? Math.max(...acc) : null,
+    };
   });
 }
 
@@ -187,7 +231,10 @@ export function studentExercises(studentId: string, studioId: string): { today: 
 }
 
 /** One exercise's state for a student (the exercise page), by the same rule. */
-export function studentExerciseState(exercise: Pick<Exercise, "id" | "keys" | "dueDate" | "studioId">, studentId: string): ExerciseState {
+export function studentExerciseState(
+  exercise: Pick<Exercise, "id" | "keys" | "dueDate" | "studioId">,
+  studentId: string,
+): ExerciseState {
   const progress = progressByKey(exercise.keys, takesOfExercise(exercise.id, studentId));
   return exerciseState(exercise, progress, todayIn(studioTimeZone(exercise.studioId)), pretty);
 }

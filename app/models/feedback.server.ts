@@ -2,7 +2,17 @@ import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
 import { db } from "~/db/client.server";
-import { commentReads, comments, exercises, intendedFlags, memberships, takeMetrics, takeReviews, takes, users } from "~/db/schema";
+import {
+  commentReads,
+  comments,
+  exercises,
+  intendedFlags,
+  memberships,
+  takeMetrics,
+  takeReviews,
+  takes,
+  users,
+} from "~/db/schema";
 import { applyIntendedFlags } from "./intendedFlags.server";
 
 // Feedback on takes: comments (whole take or pinned to a change) and replies, who has read
@@ -32,20 +42,37 @@ export const intendSchema = z.object({
 export class FeedbackRefused extends Error {}
 
 function analysisOf(takeId: string) {
-  return db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()?.analysis ?? null;
+  return (
+    db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()
+      ?.analysis ?? null
+  );
 }
 
 /** Adds a comment or a reply; a reply to a reply joins the same thread. Returns the new comment's id. */
-export function addComment(input: { takeId: string; authorId: string; body: string; changeIdx: number | null; parentId: string | null }): string {
+export function addComment(input: {
+  takeId: string;
+  authorId: string;
+  body: string;
+  changeIdx: number | null;
+  parentId: string | null;
+}): string {
   let { changeIdx, parentId } = input;
   // Only someone active in the take's studio may write on it (a removed student reads, never writes).
   const member = db()
     .select({ id: memberships.id })
     .from(takes)
-    .innerJoin(memberships, and(eq(memberships.studioId, takes.studioId), eq(memberships.userId, input.authorId), eq(memberships.status, "active")))
+    .innerJoin(
+      memberships,
+      and(
+        eq(memberships.studioId, takes.studioId),
+        eq(memberships.userId, input.authorId),
+        eq(memberships.status, "active"),
+      ),
+    )
     .where(eq(takes.id, input.takeId))
     .get();
-  if (!member) throw new FeedbackRefused("You are no longer a member of this take's studio, so you cannot write on it.");
+  if (!member)
+    throw new FeedbackRefused("You are no longer a member of this take's studio, so you cannot write on it.");
   if (parentId) {
     const parent = db().select().from(comments).where(eq(comments.id, parentId)).get();
     if (!parent || parent.takeId !== input.takeId) throw new FeedbackRefused("That comment is not on this take.");
@@ -66,7 +93,13 @@ export function addComment(input: { takeId: string; authorId: string; body: stri
 export type CommentView = CommentItem;
 
 export function lastRead(userId: string, takeId: string): Date | null {
-  return db().select().from(commentReads).where(and(eq(commentReads.userId, userId), eq(commentReads.takeId, takeId))).get()?.readAt ?? null;
+  return (
+    db()
+      .select()
+      .from(commentReads)
+      .where(and(eq(commentReads.userId, userId), eq(commentReads.takeId, takeId)))
+      .get()?.readAt ?? null
+  );
 }
 
 export function markRead(userId: string, takeId: string, at = new Date()) {
@@ -102,11 +135,25 @@ export function commentThreads(takeId: string, viewerId: string): CommentView[] 
   return top;
 }
 
-export type IntendedView = { id: string; on: "chord" | "change"; idx: number; flag: string; reason: string; byName: string | null };
+export type IntendedView = {
+  id: string;
+  on: "chord" | "change";
+  idx: number;
+  flag: string;
+  reason: string;
+  byName: string | null;
+};
 
 export function intendedFlagList(takeId: string): IntendedView[] {
   return db()
-    .select({ id: intendedFlags.id, on: intendedFlags.on, idx: intendedFlags.idx, flag: intendedFlags.flag, reason: intendedFlags.reason, byName: users.name })
+    .select({
+      id: intendedFlags.id,
+      on: intendedFlags.on,
+      idx: intendedFlags.idx,
+      flag: intendedFlags.flag,
+      reason: intendedFlags.reason,
+      byName: users.name,
+    })
     .from(intendedFlags)
     .leftJoin(users, eq(users.id, intendedFlags.byId))
     .where(eq(intendedFlags.takeId, takeId))
@@ -122,17 +169,24 @@ function rescore(takeId: string) {
 export function markIntended(takeId: string, byId: string, mark: z.infer<typeof intendSchema>) {
   const analysis = analysisOf(takeId);
   const item = mark.on === "chord" ? analysis?.chords[mark.idx] : analysis?.changes[mark.idx];
-  if (!item || !(item.flags as string[]).includes(mark.flag)) throw new FeedbackRefused("This take has no such flag there.");
+  if (!item || !(item.flags as string[]).includes(mark.flag))
+    throw new FeedbackRefused("This take has no such flag there.");
   db()
     .insert(intendedFlags)
     .values({ takeId, byId, ...mark })
-    .onConflictDoUpdate({ target: [intendedFlags.takeId, intendedFlags.on, intendedFlags.idx, intendedFlags.flag], set: { reason: mark.reason, byId } })
+    .onConflictDoUpdate({
+      target: [intendedFlags.takeId, intendedFlags.on, intendedFlags.idx, intendedFlags.flag],
+      set: { reason: mark.reason, byId },
+    })
     .run();
   rescore(takeId);
 }
 
 export function unmarkIntended(takeId: string, markId: string) {
-  db().delete(intendedFlags).where(and(eq(intendedFlags.id, markId), eq(intendedFlags.takeId, takeId))).run();
+  db()
+    .delete(intendedFlags)
+    .where(and(eq(intendedFlags.id, markId), eq(intendedFlags.takeId, takeId)))
+    .run();
   rescore(takeId);
 }
 
@@ -229,7 +283,16 @@ export function unreadFeedback(studentId: string, studioId: string) {
     )
     .orderBy(desc(comments.createdAt))
     .all();
-  const byTake = new Map<string, { takeId: string; exerciseTitle: string | null; recordedAt: string; count: number; latest: { authorName: string; body: string; changeIdx: number | null } }>();
+  const byTake = new Map<
+    string,
+    {
+      takeId: string;
+      exerciseTitle: string | null;
+      recordedAt: string;
+      count: number;
+      latest: { authorName: string; body: string; changeIdx: number | null };
+    }
+  >();
   for (const r of rows) {
     const entry = byTake.get(r.takeId);
     if (entry) entry.count++;
@@ -261,13 +324,22 @@ export function repliesSince(studioId: string, since: Date) {
  * Everything the take page shows of feedback, for one viewer. Opening the page counts as
  * reading its comments (marking the take reviewed does not happen here: that is a button).
  */
-export function takePageFeedback(viewer: { id: string }, take: { id: string; studentId: string; exerciseId: string | null }, asTeacher: boolean) {
+export function takePageFeedback(
+  viewer: { id: string },
+  take: { id: string; studentId: string; exerciseId: string | null },
+  asTeacher: boolean,
+) {
   const threads = commentThreads(take.id, viewer.id);
   markRead(viewer.id, take.id);
   const focus = take.exerciseId
-    ? (db().select({ f: exercises.focusTechniques }).from(exercises).where(eq(exercises.id, take.exerciseId)).get()?.f ?? [])
+    ? (db().select({ f: exercises.focusTechniques }).from(exercises).where(eq(exercises.id, take.exerciseId)).get()
+        ?.f ?? [])
     : [];
-  const metricsRow = db().select({ score: takeMetrics.score, analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, take.id)).get();
+  const metricsRow = db()
+    .select({ score: takeMetrics.score, analysis: takeMetrics.analysis })
+    .from(takeMetrics)
+    .where(eq(takeMetrics.takeId, take.id))
+    .get();
   return {
     asTeacher,
     canReply: asTeacher || viewer.id === take.studentId,

@@ -26,7 +26,12 @@ type Inviter = { id: string; name: string };
 async function mailInvitation(invitation: Invitation, token: string, inviterName: string) {
   const studio = db().select().from(studios).where(eq(studios.id, invitation.studioId)).get();
   await sendMail(
-    invitationMail(invitation.email, { studioName: studio?.name ?? "a studio", inviterName, role: invitation.role, token }),
+    invitationMail(invitation.email, {
+      studioName: studio?.name ?? "a studio",
+      inviterName,
+      role: invitation.role,
+      token,
+    }),
   );
   db().insert(invitationSends).values({ studioId: invitation.studioId, invitationId: invitation.id }).run();
 }
@@ -165,7 +170,12 @@ export function findInvitationByToken(token: string, now = new Date()): Invitati
   if (row.invitation.acceptedAt) return { ok: false, reason: "used" };
   if (row.invitation.revokedAt) return { ok: false, reason: "revoked" };
   if (row.invitation.expiresAt.getTime() <= now.getTime()) return { ok: false, reason: "expired" };
-  return { ok: true, invitation: row.invitation, studioName: row.studioName, hasAccount: !!findUserByEmail(row.invitation.email) };
+  return {
+    ok: true,
+    invitation: row.invitation,
+    studioName: row.studioName,
+    hasAccount: !!findUserByEmail(row.invitation.email),
+  };
 }
 
 /**
@@ -191,7 +201,12 @@ export async function acceptInvitation(
     else {
       const user = tx
         .insert(users)
-        .values({ name: who.newAccount.name, email: invitation.email, passwordHash: passwordHash!, emailVerifiedAt: now })
+        .values({
+          name: who.newAccount.name,
+          email: invitation.email,
+          passwordHash: passwordHash!,
+          emailVerifiedAt: now,
+        })
         .returning()
         .get();
       userId = user.id;

@@ -34,7 +34,10 @@ export async function removeModelTake(exercise: Pick<Exercise, "id" | "modelFile
  * Stores the teacher's model take from a multipart upload (field `file`), replacing the one
  * before. Returns an error message for the teacher, or null when it was saved.
  */
-export async function storeModelTake(request: Request, exercise: Pick<Exercise, "id" | "modelFileKey">): Promise<string | null> {
+export async function storeModelTake(
+  request: Request,
+  exercise: Pick<Exercise, "id" | "modelFileKey">,
+): Promise<string | null> {
   let files;
   try {
     ({ files } = await receiveUpload(request, { maxFiles: 1, defaultName: "model.mid" }));
@@ -48,7 +51,9 @@ export async function storeModelTake(request: Request, exercise: Pick<Exercise, 
   const saved = { fileKey: file.fileKey, name: file.originalName };
   try {
     const bytes = await readTakeFile(saved.fileKey);
-    const checked = bytes ? await readNotesInWorker(bytes) : ({ ok: false, error: new AnalysisError("no-notes").message } as const);
+    const checked = bytes
+      ? await readNotesInWorker(bytes)
+      : ({ ok: false, error: new AnalysisError("no-notes").message } as const);
     if (!checked.ok) {
       await removeTakeFile(saved.fileKey);
       return `This is not a MIDI take Nearnote can play: ${checked.error}`;

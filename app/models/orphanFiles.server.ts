@@ -6,7 +6,11 @@ import { listStoredTakeFiles, removeStoredFile, takeFileNames } from "~/takes/ta
 /** Hashes of every file key a row refers to: takes and exercises' model takes. */
 function referencedHashes(): Set<string> {
   const keys = [
-    ...db().select({ k: takes.fileKey }).from(takes).all().map((r) => r.k),
+    ...db()
+      .select({ k: takes.fileKey })
+      .from(takes)
+      .all()
+      .map((r) => r.k),
     ...db()
       .select({ k: exercises.modelFileKey })
       .from(exercises)

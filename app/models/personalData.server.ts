@@ -31,7 +31,12 @@ export async function removeTakesWithFiles(where: SQL, alsoInTransaction?: (tx: 
     const rows = tx.select({ id: takes.id, fileKey: takes.fileKey }).from(takes).where(where).all();
     for (let i = 0; i < rows.length; i += 500) {
       tx.delete(takes)
-        .where(inArray(takes.id, rows.slice(i, i + 500).map((r) => r.id)))
+        .where(
+          inArray(
+            takes.id,
+            rows.slice(i, i + 500).map((r) => r.id),
+          ),
+        )
         .run();
     }
     alsoInTransaction?.(tx);
@@ -76,7 +81,13 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
     .orderBy(takes.recordedAt)
     .all();
   const membershipRows = db()
-    .select({ studio: studios.name, role: memberships.role, status: memberships.status, joinedAt: memberships.createdAt, removedAt: memberships.removedAt })
+    .select({
+      studio: studios.name,
+      role: memberships.role,
+      status: memberships.status,
+      joinedAt: memberships.createdAt,
+      removedAt: memberships.removedAt,
+    })
     .from(memberships)
     .innerJoin(studios, eq(studios.id, memberships.studioId))
     .where(
@@ -117,7 +128,13 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
     studios: membershipRows,
     takes: takeJson,
     progressReports: db()
-      .select({ studio: studios.name, fromDate: progressReports.fromDate, toDate: progressReports.toDate, summary: progressReports.summary, createdAt: progressReports.createdAt })
+      .select({
+        studio: studios.name,
+        fromDate: progressReports.fromDate,
+        toDate: progressReports.toDate,
+        summary: progressReports.summary,
+        createdAt: progressReports.createdAt,
+      })
       .from(progressReports)
       .innerJoin(studios, eq(studios.id, progressReports.studioId))
       .where(
@@ -130,7 +147,12 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
       ? {}
       : {
           commentsWritten: db()
-            .select({ takeId: comments.takeId, changeIdx: comments.changeIdx, body: comments.body, createdAt: comments.createdAt })
+            .select({
+              takeId: comments.takeId,
+              changeIdx: comments.changeIdx,
+              body: comments.body,
+              createdAt: comments.createdAt,
+            })
             .from(comments)
             .where(eq(comments.authorId, userId))
             .all(),
@@ -157,7 +179,12 @@ export async function buildPersonalExport(userId: string, options: { studioId?: 
             .where(eq(sessions.userId, userId))
             .all(),
           invitationsReceived: db()
-            .select({ studio: studios.name, role: invitations.role, createdAt: invitations.createdAt, acceptedAt: invitations.acceptedAt })
+            .select({
+              studio: studios.name,
+              role: invitations.role,
+              createdAt: invitations.createdAt,
+              acceptedAt: invitations.acceptedAt,
+            })
             .from(invitations)
             .innerJoin(studios, eq(studios.id, invitations.studioId))
             .where(eq(invitations.email, user.email))
@@ -178,7 +205,12 @@ export async function deletePersonData(userId: string) {
   const user = db().select().from(users).where(eq(users.id, userId)).get();
   if (!user) return;
   const fileKeys = db().transaction((tx) => {
-    const keys = tx.select({ fileKey: takes.fileKey }).from(takes).where(eq(takes.studentId, userId)).all().map((r) => r.fileKey);
+    const keys = tx
+      .select({ fileKey: takes.fileKey })
+      .from(takes)
+      .where(eq(takes.studentId, userId))
+      .all()
+      .map((r) => r.fileKey);
     tx.delete(takes).where(eq(takes.studentId, userId)).run();
     tx.delete(invitations).where(eq(invitations.email, user.email)).run();
     tx.delete(users).where(eq(users.id, userId)).run();

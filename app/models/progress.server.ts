@@ -5,7 +5,14 @@ import { and, asc, eq, gte, inArray, isNotNull, lte, max, sql } from "drizzle-or
 import type { TechniqueName } from "~/analysis/types";
 import { db } from "~/db/client.server";
 import { exercises, memberships, studios, takeMetrics, takes, users } from "~/db/schema";
-import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween, type Figures, type WeekSums } from "~/utils/progressFigures";
+import {
+  combineSums,
+  EMPTY_SUMS,
+  figuresFrom,
+  weeksBetween,
+  type Figures,
+  type WeekSums,
+} from "~/utils/progressFigures";
 import { weekKey } from "~/utils/weeks";
 
 export type StudentRef = { id: string; name: string; email: string };
@@ -115,16 +122,30 @@ export function periodFigures(studioId: string, studentId: string, fromWeek: str
 export type ExerciseFigures = Figures & { exerciseId: string | null; title: string };
 
 /** Figures per exercise over the range ("free practice" for takes without one). */
-export function exerciseFigures(studioId: string, studentId: string, fromWeek: string, toWeek: string): ExerciseFigures[] {
+export function exerciseFigures(
+  studioId: string,
+  studentId: string,
+  fromWeek: string,
+  toWeek: string,
+): ExerciseFigures[] {
   const rows = sumsBy(studioId, { fromWeek, toWeek, studentIds: [studentId] }, "exercise");
   const ids = rows.map((r) => r.group).filter((g): g is string => g !== null);
   const titles = new Map(
     ids.length
-      ? db().select({ id: exercises.id, title: exercises.title }).from(exercises).where(inArray(exercises.id, ids)).all().map((e) => [e.id, e.title])
+      ? db()
+          .select({ id: exercises.id, title: exercises.title })
+          .from(exercises)
+          .where(inArray(exercises.id, ids))
+          .all()
+          .map((e) => [e.id, e.title])
       : [],
   );
   return rows
-    .map((r) => ({ exerciseId: r.group, title: r.group ? (titles.get(r.group) ?? "Exercise") : "Free practice", ...figuresFrom(r.sums) }))
+    .map((r) => ({
+      exerciseId: r.group,
+      title: r.group ? (titles.get(r.group) ?? "Exercise") : "Free practice",
+      ...figuresFrom(r.sums),
+    }))
     .sort((a, b) => (a.exerciseId === null ? 1 : b.exerciseId === null ? -1 : a.title.localeCompare(b.title)));
 }
 
@@ -137,14 +158,31 @@ export function lastTakeDates(studioId: string, studentIds: string[]): Map<strin
     .where(and(eq(takes.studioId, studioId), inArray(takes.studentId, studentIds), isNotNull(takes.recordedAt)))
     .groupBy(takes.studentId)
     .all();
-  return new Map(rows.filter((r) => r.last).map((r) => [r.studentId, new Date(r.last as unknown as number).toISOString()]));
+  return new Map(
+    rows.filter((r) => r.last).map((r) => [r.studentId, new Date(r.last as unknown as number).toISOString()]),
+  );
 }
 
 /** Techniques first used in the period: used in it and never in any earlier week. */
-export function techniquesGained(studioId: string, studentId: string, fromWeek: string, toWeek: string): TechniqueName[] {
-  const before = weeklySums(studioId, { fromWeek: "0000-W01", toWeek: weeksBefore(fromWeek), studentIds: [studentId] }).get(studentId);
+export function techniquesGained(
+  studioId: string,
+  studentId: string,
+  fromWeek: string,
+  toWeek: string,
+): TechniqueName[] {
+  const before = weeklySums(studioId, {
+    fromWeek: "0000-W01",
+    toWeek: weeksBefore(fromWeek),
+    studentIds: [studentId],
+  }).get(studentId);
   const earlier = combineSums([...(before?.values() ?? [])]).techniques;
-  const during = figuresFrom(combineSums([...(weeklySums(studioId, { fromWeek, toWeek, studentIds: [studentId] }).get(studentId)?.values() ?? [])])).techniques;
+  const during = figuresFrom(
+    combineSums([
+      ...(weeklySums(studioId, { fromWeek, toWeek, studentIds: [studentId] })
+        .get(studentId)
+        ?.values() ?? []),
+    ]),
+  ).techniques;
   return (Object.keys(during) as TechniqueName[]).filter((t) => during[t] > 0 && !(earlier[t] ?? 0));
 }
 

@@ -11,7 +11,10 @@ export const DEFAULT_WEEKS = 12;
 export const isoDate = z
   .string()
   .regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-01-31")
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), "Not a real date");
+  .refine(
+    (s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
+    "Not a real date",
+  );
 
 const schema = z.object({
   metric: z.enum(METRIC_IDS).default("score"),
@@ -20,7 +23,14 @@ const schema = z.object({
   to: isoDate.optional(),
 });
 
-export type ProgressQuery = { metric: MetricId; studentIds: string[]; from: string; to: string; fromWeek: string; toWeek: string };
+export type ProgressQuery = {
+  metric: MetricId;
+  studentIds: string[];
+  from: string;
+  to: string;
+  fromWeek: string;
+  toWeek: string;
+};
 
 export function todayIn(timeZone: string, now = new Date()): string {
   const d = localDate(now, timeZone);
@@ -53,6 +63,10 @@ export function parseProgressQuery(
   const fromDate = from ?? weekStart(shiftWeek(toWeek, -(DEFAULT_WEEKS - 1)));
   const fromWeek = weekOfDate(fromDate);
   if (fromDate > toDate) return { ok: false, error: "from must not be after to." };
-  if (fromWeek < shiftWeek(toWeek, -(MAX_WEEKS - 1))) return { ok: false, error: `At most ${MAX_WEEKS} weeks at a time.` };
-  return { ok: true, query: { metric, studentIds: [...new Set(student)], from: fromDate, to: toDate, fromWeek, toWeek } };
+  if (fromWeek < shiftWeek(toWeek, -(MAX_WEEKS - 1)))
+    return { ok: false, error: `At most ${MAX_WEEKS} weeks at a time.` };
+  return {
+    ok: true,
+    query: { metric, studentIds: [...new Set(student)], from: fromDate, to: toDate, fromWeek, toWeek },
+  };
 }

@@ -2,7 +2,14 @@ import { and, desc, eq } from "drizzle-orm";
 import { db } from "~/db/client.server";
 import { progressReports, users } from "~/db/schema";
 
-export function saveProgressReport(r: { studioId: string; studentId: string; fromDate: string; toDate: string; summary: string; createdById: string }) {
+export function saveProgressReport(r: {
+  studioId: string;
+  studentId: string;
+  fromDate: string;
+  toDate: string;
+  summary: string;
+  createdById: string;
+}) {
   return db().insert(progressReports).values(r).returning().get();
 }
 
@@ -10,7 +17,9 @@ export function getProgressReport(studioId: string, studentId: string, id: strin
   return db()
     .select()
     .from(progressReports)
-    .where(and(eq(progressReports.id, id), eq(progressReports.studioId, studioId), eq(progressReports.studentId, studentId)))
+    .where(
+      and(eq(progressReports.id, id), eq(progressReports.studioId, studioId), eq(progressReports.studentId, studentId)),
+    )
     .get();
 }
 

@@ -7,7 +7,10 @@ import { sendMail, type OutgoingMail } from "~/mail/mail.server";
 import { link } from "~/mail/mailTemplates.server";
 import { currentWeek, studioStudents } from "./progress.server";
 
-export function practiceReminderMail(to: string, p: { studentName: string; teacherName: string; studioName: string }): OutgoingMail {
+export function practiceReminderMail(
+  to: string,
+  p: { studentName: string; teacherName: string; studioName: string },
+): OutgoingMail {
   return {
     to,
     subject: `${p.teacherName} is looking forward to your next take`,
@@ -35,7 +38,16 @@ export function studentsWithoutTakesThisWeek(studioId: string, now = new Date())
     db()
       .selectDistinct({ id: takes.studentId })
       .from(takes)
-      .where(and(eq(takes.studioId, studioId), eq(takes.weekKey, week), inArray(takes.studentId, students.map((s) => s.id))))
+      .where(
+        and(
+          eq(takes.studioId, studioId),
+          eq(takes.weekKey, week),
+          inArray(
+            takes.studentId,
+            students.map((s) => s.id),
+          ),
+        ),
+      )
       .all()
       .map((r) => r.id),
   );
@@ -65,7 +77,9 @@ export async function sendPracticeReminders(
       alreadyReminded++;
       continue;
     }
-    await sendMail(practiceReminderMail(s.email, { studentName: s.name, teacherName: teacher.name, studioName: studio.name }));
+    await sendMail(
+      practiceReminderMail(s.email, { studentName: s.name, teacherName: teacher.name, studioName: studio.name }),
+    );
     sent.push(s.name);
   }
   return { sent, alreadyReminded };

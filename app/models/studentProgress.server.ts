@@ -5,12 +5,19 @@ import { combineSums, EMPTY_SUMS, figuresFrom, weeksBetween } from "~/utils/prog
 import type { ChartData } from "./board.server";
 import { exerciseFigures, techniquesGained, weeklySums, type WeekFigures } from "./progress.server";
 
-export function studentProgress(studioId: string, student: { id: string; name: string }, fromWeek: string, toWeek: string) {
+export function studentProgress(
+  studioId: string,
+  student: { id: string; name: string },
+  fromWeek: string,
+  toWeek: string,
+) {
   const sums = weeklySums(studioId, { fromWeek, toWeek, studentIds: [student.id] }).get(student.id) ?? new Map();
   const keys = weeksBetween(fromWeek, toWeek);
   const weeks: WeekFigures[] = keys.map((week) => ({ week, ...figuresFrom(sums.get(week) ?? EMPTY_SUMS) }));
   const total = figuresFrom(combineSums([...sums.values()]));
-  const weeksUsed = Object.fromEntries(TECHNIQUES.map((t) => [t, weeks.filter((w) => w.techniques[t] > 0).length])) as Record<TechniqueName, number>;
+  const weeksUsed = Object.fromEntries(
+    TECHNIQUES.map((t) => [t, weeks.filter((w) => w.techniques[t] > 0).length]),
+  ) as Record<TechniqueName, number>;
   const series = (metric: "score" | "smoothness"): ChartData => ({
     metric,
     weeks: keys,

@@ -10,7 +10,11 @@ export function setStudioTimeZone(studioId: string, timeZone: string): number {
   if (!isValidTimeZone(timeZone)) throw new Error(`Unknown time zone: ${timeZone}`);
   return db().transaction((tx) => {
     tx.update(studios).set({ timeZone }).where(eq(studios.id, studioId)).run();
-    const rows = tx.select({ id: takes.id, recordedAt: takes.recordedAt, weekKey: takes.weekKey }).from(takes).where(eq(takes.studioId, studioId)).all();
+    const rows = tx
+      .select({ id: takes.id, recordedAt: takes.recordedAt, weekKey: takes.weekKey })
+      .from(takes)
+      .where(eq(takes.studioId, studioId))
+      .all();
     let moved = 0;
     for (const r of rows) {
       const key = weekKey(r.recordedAt, timeZone);
@@ -24,6 +28,7 @@ export function setStudioTimeZone(studioId: string, timeZone: string): number {
 
 /** Zone names the runtime knows, for the settings select. */
 export function timeZoneNames(): string[] {
-  const names = (Intl as unknown as { supportedValuesOf?: (k: string) => string[] }).supportedValuesOf?.("timeZone") ?? [];
+  const names =
+    (Intl as unknown as { supportedValuesOf?: (k: string) => string[] }).supportedValuesOf?.("timeZone") ?? [];
   return names.includes("UTC") ? names : ["UTC", ...names];
 }

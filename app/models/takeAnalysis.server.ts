@@ -9,9 +9,17 @@ import { applyIntendedFlags } from "./intendedFlags.server";
 export type { AnalysisOutcome };
 
 /** What the engine needs to know about the exercise a take belongs to: its target in the take's key. */
-export function exerciseTarget(database: Db | Tx, exerciseId: string | null, key: string | null = null): string | undefined {
+export function exerciseTarget(
+  database: Db | Tx,
+  exerciseId: string | null,
+  key: string | null = null,
+): string | undefined {
   if (!exerciseId) return undefined;
-  const row = database.select({ p: exercises.progression, keys: exercises.keys }).from(exercises).where(eq(exercises.id, exerciseId)).get();
+  const row = database
+    .select({ p: exercises.progression, keys: exercises.keys })
+    .from(exercises)
+    .where(eq(exercises.id, exerciseId))
+    .get();
   return row && targetTextForKey(row.p, row.keys, key);
 }
 
@@ -19,7 +27,10 @@ export function exerciseTarget(database: Db | Tx, exerciseId: string | null, key
  * Runs the engine on a take's bytes on this thread. Only for the command line
  * (seeding, benchmarks): the server analyses uploads with `analyseInWorker`.
  */
-export function analyseTakeBytes(bytes: Uint8Array, options: { key?: string | null; target?: string }): AnalysisOutcome {
+export function analyseTakeBytes(
+  bytes: Uint8Array,
+  options: { key?: string | null; target?: string },
+): AnalysisOutcome {
   return analyseTake(bytes, options);
 }
 

@@ -8,12 +8,7 @@ import { readTakeFile, removeTakeFilesAfterRows } from "~/takes/takeFiles.server
 import { fitNotice, type FitNotice } from "~/takes/exerciseFitText";
 import { weekKey } from "~/utils/weeks";
 import { studioTimeZone } from "./progress.server";
-import {
-  clearAnalysisRows,
-  exerciseTarget,
-  writeAnalysisRows,
-  type AnalysisOutcome,
-} from "./takeAnalysis.server";
+import { clearAnalysisRows, exerciseTarget, writeAnalysisRows, type AnalysisOutcome } from "./takeAnalysis.server";
 
 export type TakeView = {
   take: {
@@ -145,7 +140,10 @@ export type TakeListRow = {
   accuracy: number | null;
 };
 
-export function listTakesForStudent(studentId: string, opts: { studioId?: string; limit?: number } = {}): TakeListRow[] {
+export function listTakesForStudent(
+  studentId: string,
+  opts: { studioId?: string; limit?: number } = {},
+): TakeListRow[] {
   const rows = db()
     .select({
       id: takes.id,
@@ -211,9 +209,18 @@ export async function deleteTake(takeId: string) {
 function writeOutcome(take: Pick<Take, "id" | "fileKey">, outcome: AnalysisOutcome): boolean {
   return db().transaction((tx) => {
     const set = outcome.ok
-      ? { status: "analysed" as const, error: null, durationSec: outcome.analysis.summary.durationSec, analysisVersion: ANALYSIS_VERSION }
+      ? {
+          status: "analysed" as const,
+          error: null,
+          durationSec: outcome.analysis.summary.durationSec,
+          analysisVersion: ANALYSIS_VERSION,
+        }
       : { status: "failed" as const, error: outcome.error, analysisVersion: ANALYSIS_VERSION };
-    const updated = tx.update(takes).set(set).where(and(eq(takes.id, take.id), eq(takes.fileKey, take.fileKey))).run();
+    const updated = tx
+      .update(takes)
+      .set(set)
+      .where(and(eq(takes.id, take.id), eq(takes.fileKey, take.fileKey)))
+      .run();
     if (updated.changes !== 1) return false;
     if (outcome.ok) writeAnalysisRows(tx, take.id, outcome.analysis);
     else clearAnalysisRows(tx, take.id);
@@ -227,7 +234,10 @@ export async function reanalyseTake(takeId: string): Promise<"analysed" | "faile
   if (!take) return null;
   const bytes = await readTakeFile(take.fileKey);
   if (!bytes) return null;
-  const outcome = await analyseInWorker(bytes, { key: take.key, target: exerciseTarget(db(), take.exerciseId, take.key) });
+  const outcome = await analyseInWorker(bytes, {
+    key: take.key,
+    target: exerciseTarget(db(), take.exerciseId, take.key),
+  });
   if (!writeOutcome(take, outcome)) return null;
   return outcome.ok ? "analysed" : "failed";
 }
@@ -244,7 +254,11 @@ export type Replacement = Omit<NewTake, "studentId" | "studioId">;
 export function replaceTakeRecord(takeId: string, expectedFileKey: string, r: Replacement): string | null {
   const { outcome, ...fields } = r;
   return db().transaction((tx) => {
-    const take = tx.select({ studioId: takes.studioId }).from(takes).where(and(eq(takes.id, takeId), eq(takes.fileKey, expectedFileKey))).get();
+    const take = tx
+      .select({ studioId: takes.studioId })
+      .from(takes)
+      .where(and(eq(takes.id, takeId), eq(takes.fileKey, expectedFileKey)))
+      .get();
     if (!take) return null;
     tx.update(takes)
       .set({
@@ -273,7 +287,11 @@ export function fitNoticeForTake(takeId: string): FitNotice | null {
   if (!row?.fit) return null;
   const likelyId = row.fit.likely?.exerciseId;
   const likely = likelyId
-    ? db().select({ title: exercises.title }).from(exercises).where(and(eq(exercises.id, likelyId), isNull(exercises.archivedAt))).get()
+    ? db()
+        .select({ title: exercises.title })
+        .from(exercises)
+        .where(and(eq(exercises.id, likelyId), isNull(exercises.archivedAt)))
+        .get()
     : undefined;
   return fitNotice(row.fit, row.title, new Map(likely && likelyId ? [[likelyId, likely.title]] : [])) ?? null;
 }

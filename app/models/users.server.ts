@@ -6,7 +6,12 @@ import { consumeUserToken, DAY_MS, hashToken, issueUserToken, newToken } from "~
 import { db } from "~/db/client.server";
 import { memberships, pendingSignups, sessions, studios, users, type User } from "~/db/schema";
 import { sendMail, sendMailLater } from "~/mail/mail.server";
-import { confirmSignupMail, existingAccountMail, resetPasswordMail, verifyEmailMail } from "~/mail/mailTemplates.server";
+import {
+  confirmSignupMail,
+  existingAccountMail,
+  resetPasswordMail,
+  verifyEmailMail,
+} from "~/mail/mailTemplates.server";
 
 export const emailSchema = z
   .string({ error: "Enter your e-mail address" })
@@ -27,7 +32,11 @@ export function normaliseEmail(email: string) {
 }
 
 export function findUserByEmail(email: string): User | undefined {
-  return db().select().from(users).where(eq(users.email, normaliseEmail(email))).get();
+  return db()
+    .select()
+    .from(users)
+    .where(eq(users.email, normaliseEmail(email)))
+    .get();
 }
 
 export function getUser(id: string): User | undefined {
@@ -82,7 +91,8 @@ export async function startSignup(input: SignupInput, now = new Date()): Promise
   sendMailLater(confirmSignupMail(email, { name: input.name, studioName: input.studioName, token }));
 }
 
-export type SignupConfirmation = { kind: "created"; user: User; studioId: string } | { kind: "taken" } | { kind: "invalid" };
+export type SignupConfirmation =
+  { kind: "created"; user: User; studioId: string } | { kind: "taken" } | { kind: "invalid" };
 
 /**
  * Opening a sign-up link: the address is proven, so the teacher, their studio and the owner
@@ -92,7 +102,11 @@ export type SignupConfirmation = { kind: "created"; user: User; studioId: string
 export function confirmSignup(token: string, now = new Date()): SignupConfirmation {
   return db().transaction(
     (tx) => {
-      const pending = tx.select().from(pendingSignups).where(eq(pendingSignups.tokenHash, hashToken(token))).get();
+      const pending = tx
+        .select()
+        .from(pendingSignups)
+        .where(eq(pendingSignups.tokenHash, hashToken(token)))
+        .get();
       if (!pending) return { kind: "invalid" as const };
       tx.delete(pendingSignups).where(eq(pendingSignups.id, pending.id)).run();
       if (pending.expiresAt.getTime() <= now.getTime()) return { kind: "invalid" as const };
@@ -116,7 +130,10 @@ export function confirmSignup(token: string, now = new Date()): SignupConfirmati
  * Mails a fresh confirmation link to the person's current address, within the account mail
  * limits (one a minute, a few a day per account, however often the address changes).
  */
-export async function sendVerificationMail(user: Pick<User, "id" | "email" | "name">, now = new Date()): Promise<MailClaim> {
+export async function sendVerificationMail(
+  user: Pick<User, "id" | "email" | "name">,
+  now = new Date(),
+): Promise<MailClaim> {
   const claim = claimAccountMail("verify-email", accountKey(user.id), now);
   if (!claim.ok) return claim;
   const token = issueUserToken(user.id, "verify-email", now);
@@ -152,7 +169,9 @@ export async function setPassword(userId: string, password: string, keepSessionI
   db().transaction((tx) => {
     tx.update(users).set({ passwordHash }).where(eq(users.id, userId)).run();
     tx.delete(sessions)
-      .where(keepSessionId ? and(eq(sessions.userId, userId), ne(sessions.id, keepSessionId)) : eq(sessions.userId, userId))
+      .where(
+        keepSessionId ? and(eq(sessions.userId, userId), ne(sessions.id, keepSessionId)) : eq(sessions.userId, userId),
+      )
       .run();
   });
 }
@@ -166,7 +185,10 @@ export function updateMailPreferences(userId: string, prefs: { mailOnFeedback: b
 }
 
 /** A new address must be confirmed again before it counts as verified. */
-export async function changeEmail(userId: string, email: string): Promise<{ kind: "taken" } | { kind: "changed"; mail: MailClaim }> {
+export async function changeEmail(
+  userId: string,
+  email: string,
+): Promise<{ kind: "taken" } | { kind: "changed"; mail: MailClaim }> {
   const normalised = normaliseEmail(email);
   const other = findUserByEmail(normalised);
   if (other && other.id !== userId) return { kind: "taken" };

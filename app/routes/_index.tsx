@@ -7,7 +7,10 @@ import { PracticeCare } from "~/components/PracticeCare";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Nearnote · hear what your practice is doing" },
-  { name: "description", content: "Chord-by-chord feedback on keyboard harmony practice, for students and their teachers." },
+  {
+    name: "description",
+    content: "Chord-by-chord feedback on keyboard harmony practice, for students and their teachers.",
+  },
 ];
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -65,7 +68,12 @@ function ChangeSketch() {
   const y = (n: number) => 150 - (n - 50) * 9;
   return (
     <figure className="rounded-lg border border-line bg-card p-4">
-      <svg viewBox="0 0 240 160" role="img" aria-label="F major moving to B flat major over F: three semitones in all" className="w-full">
+      <svg
+        viewBox="0 0 240 160"
+        role="img"
+        aria-label="F major moving to B flat major over F: three semitones in all"
+        className="w-full"
+      >
         {from.map((n, i) => (
           <g key={n}>
             <rect x={30} y={y(n) - 5} width={60} height={10} rx={3} fill="#0d6b70" />

@@ -14,7 +14,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (request.method !== "DELETE") return Response.json({ error: "Use DELETE." }, { status: 405 });
   requireSameOrigin(request);
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId, "api");
-  if (take.studentId !== user.id) return Response.json({ error: "Only the student who played a take can delete it." }, { status: 403 });
+  if (take.studentId !== user.id)
+    return Response.json({ error: "Only the student who played a take can delete it." }, { status: 403 });
   await deleteTake(take.id);
   return new Response(null, { status: 204 });
 }

@@ -1,6 +1,12 @@
 import { z } from "zod";
 import type { Route } from "./+types/api.takes";
-import { requireSameOrigin, requireStudent, requireStudentOfTeacher, requireUser, isTeacherRole } from "~/auth/access.server";
+import {
+  requireSameOrigin,
+  requireStudent,
+  requireStudentOfTeacher,
+  requireUser,
+  isTeacherRole,
+} from "~/auth/access.server";
 import { uploadOneTake } from "~/takes/takeUpload.server";
 import { listTakesForStudent } from "~/models/takes.server";
 

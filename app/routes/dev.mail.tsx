@@ -21,7 +21,11 @@ export default function DevMail({ loaderData }: Route.ComponentProps) {
       <DataTable
         caption="Caught messages, newest first"
         isEmpty={loaderData.messages.length === 0}
-        empty={<EmptyState title="No mail yet">Sign up, invite someone or reset a password, and the message appears here.</EmptyState>}
+        empty={
+          <EmptyState title="No mail yet">
+            Sign up, invite someone or reset a password, and the message appears here.
+          </EmptyState>
+        }
         head={
           <tr>
             <th className="px-4 py-2">When</th>

@@ -31,7 +31,9 @@ import { db } from "~/db/client.server";
 import { exercises } from "~/db/schema";
 import { eq } from "drizzle-orm";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.exercise.title} · Nearnote` : "Exercise · Nearnote" }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.exercise.title} · Nearnote` : "Exercise · Nearnote" },
+];
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const { user, exercise, asTeacher } = await requireExerciseAccess({ request, context }, params.exerciseId);
@@ -39,7 +41,10 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const rows = takesOfExercise(exercise.id, asTeacher ? undefined : user.id);
   const students = asTeacher
     ? studentsOfExercise(exercise).map((s) => {
-        const progress = progressByKey(exercise.keys, rows.filter((r) => r.studentId === s.id));
+        const progress = progressByKey(
+          exercise.keys,
+          rows.filter((r) => r.studentId === s.id),
+        );
         return { id: s.id, name: s.name, progress, done: isDone(progress) };
       })
     : [];
@@ -86,15 +91,23 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     case "archive":
     case "unarchive":
       setArchived(exercise.id, input.intent === "archive");
-      return done(input.intent === "archive" ? "Exercise archived: students no longer see it as due." : "Exercise brought back.");
+      return done(
+        input.intent === "archive" ? "Exercise archived: students no longer see it as due." : "Exercise brought back.",
+      );
     case "remove-model-take":
       await removeModelTake(exercise);
       return done("Model take removed.");
     case "model-start": {
-      const notes = input.notes.split(",").map(Number).sort((a, b) => a - b);
+      const notes = input.notes
+        .split(",")
+        .map(Number)
+        .sort((a, b) => a - b);
       const first = targetChordsInKey(exercise.progression, exercise.keys, exercise.keys[0])[0];
       if (notes.some((n) => n < 21 || n > 108) || !fitsFirstChord(notes, first)) {
-        return formFailure({ form, fieldErrors: { notes: `The starting voicing must use exactly the tones of ${pretty(first.symbol)}.` } });
+        return formFailure({
+          form,
+          fieldErrors: { notes: `The starting voicing must use exactly the tones of ${pretty(first.symbol)}.` },
+        });
       }
       db().update(exercises).set({ modelStart: notes }).where(eq(exercises.id, exercise.id)).run();
       return done("Starting voicing saved; the model answer follows from it.");
@@ -114,7 +127,9 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
         actions={
           asTeacher ? (
             <>
-              <ButtonLink to={`/exercises/${exercise.id}/edit`} variant="secondary">Edit</ButtonLink>
+              <ButtonLink to={`/exercises/${exercise.id}/edit`} variant="secondary">
+                Edit
+              </ButtonLink>
               <Form method="post">
                 <input type="hidden" name="intent" value={exercise.archived ? "unarchive" : "archive"} />
                 <Button variant="secondary">{exercise.archived ? "Bring back" : "Archive"}</Button>
@@ -133,15 +148,32 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
       <ExerciseFacts exercise={exercise} expanded={expanded} />
 
       <Card title="Model answer">
-        <ModelAnswer progression={exercise.progression} keys={exercise.keys} start={exercise.modelStart} tempo={exercise.tempo} canEdit={asTeacher} focus={exercise.focusTechniques} modelTake={modelTake} />
+        <ModelAnswer
+          progression={exercise.progression}
+          keys={exercise.keys}
+          start={exercise.modelStart}
+          tempo={exercise.tempo}
+          canEdit={asTeacher}
+          focus={exercise.focusTechniques}
+          modelTake={modelTake}
+        />
         {asTeacher ? (
           <div className="mt-4 flex flex-wrap items-end gap-3 border-t border-line pt-4">
-            <Form method="post" action="?intent=model-take" encType="multipart/form-data" className="flex flex-wrap items-end gap-2">
+            <Form
+              method="post"
+              action="?intent=model-take"
+              encType="multipart/form-data"
+              className="flex flex-wrap items-end gap-2"
+            >
               <label className="flex flex-col gap-1 text-sm">
-                <span className="font-semibold">{modelTake ? "Replace the model take" : "Attach a model take of your own"}</span>
+                <span className="font-semibold">
+                  {modelTake ? "Replace the model take" : "Attach a model take of your own"}
+                </span>
                 <input type="file" name="file" accept=".mid,.midi,audio/midi" required className="text-sm" />
               </label>
-              <Button variant="secondary" pending={navigation.state === "submitting"}>Attach</Button>
+              <Button variant="secondary" pending={navigation.state === "submitting"}>
+                Attach
+              </Button>
             </Form>
             {modelTake ? (
               <Form method="post">
@@ -159,32 +191,38 @@ export default function ExercisePage({ loaderData, actionData }: Route.Component
         </Card>
       ) : (
         <>
-        <Card title="Your takes">
-          <KeyProgressTable keys={exercise.keys} rows={[{ id: "me", name: "You", progress: mine ?? [], done: state?.kind === "done" }]} />
+          <Card title="Your takes">
+            <KeyProgressTable
+              keys={exercise.keys}
+              rows={[{ id: "me", name: "You", progress: mine ?? [], done: state?.kind === "done" }]}
+            />
+            {!exercise.archived ? (
+              <div className="mt-4 flex flex-wrap gap-2">
+                {exercise.keys.map((k) => (
+                  <Link
+                    key={k}
+                    to={`/takes/new?exercise=${exercise.id}&key=${encodeURIComponent(k)}`}
+                    className={buttonClass("primary")}
+                  >
+                    Upload or record in {pretty(k)}
+                  </Link>
+                ))}
+              </div>
+            ) : null}
+          </Card>
+          {/* Record straight from a MIDI keyboard, graded live; the table above refreshes after an upload. */}
           {!exercise.archived ? (
-            <div className="mt-4 flex flex-wrap gap-2">
-              {exercise.keys.map((k) => (
-                <Link key={k} to={`/takes/new?exercise=${exercise.id}&key=${encodeURIComponent(k)}`} className={buttonClass("primary")}>
-                  Upload or record in {pretty(k)}
-                </Link>
-              ))}
-            </div>
+            <RecordPanel
+              exerciseId={exercise.id}
+              exerciseKeys={exercise.keys}
+              tempo={exercise.tempo}
+              uploadHref={`/takes/new?exercise=${exercise.id}`}
+              onUploaded={() => void revalidator.revalidate()}
+            />
           ) : null}
-        </Card>
-        {/* Record straight from a MIDI keyboard, graded live; the table above refreshes after an upload. */}
-        {!exercise.archived ? (
-          <RecordPanel
-            exerciseId={exercise.id}
-            exerciseKeys={exercise.keys}
-            tempo={exercise.tempo}
-            uploadHref={`/takes/new?exercise=${exercise.id}`}
-            onUploaded={() => void revalidator.revalidate()}
-          />
-        ) : null}
         </>
       )}
       <PracticeCare />
     </div>
   );
 }
-

@@ -27,10 +27,23 @@ export async function action({ request, context }: Route.ActionArgs) {
 export default function NewExercise({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <div className="flex flex-col gap-6">
-      <PageHeader title="New exercise" lead="Set focused practice: the chords to play, in which keys, and what to listen for." />
+      <PageHeader
+        title="New exercise"
+        lead="Set focused practice: the chords to play, in which keys, and what to listen for."
+      />
       <Card>
         <ExerciseForm
-          values={{ title: "", keys: [], progression: "", focusTechniques: [], tempo: null, dueDate: null, instructions: "", assignedTo: "studio", students: [] }}
+          values={{
+            title: "",
+            keys: [],
+            progression: "",
+            focusTechniques: [],
+            tempo: null,
+            dueDate: null,
+            instructions: "",
+            assignedTo: "studio",
+            students: [],
+          }}
           errors={actionData?.fieldErrors ?? {}}
           students={loaderData.students}
           submitLabel="Set exercise"

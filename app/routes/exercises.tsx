@@ -15,7 +15,8 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser({ request, context });
   const active = user.active;
   if (!active) return { role: "none" as const, teacher: null, student: null };
-  if (isTeacherRole(active.role)) return { role: "teacher" as const, teacher: listExercisesForTeacher(active.studioId), student: null };
+  if (isTeacherRole(active.role))
+    return { role: "teacher" as const, teacher: listExercisesForTeacher(active.studioId), student: null };
   const set = studentExercises(user.id, active.studioId).exercises;
   return {
     role: "student" as const,
@@ -30,38 +31,61 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
     <div className="flex flex-col gap-6">
       <PageHeader
         title="Exercises"
-        lead={teacher ? "What you have set, who it is for and how many have sent a take." : "What your teacher has set, key by key."}
+        lead={
+          teacher
+            ? "What you have set, who it is for and how many have sent a take."
+            : "What your teacher has set, key by key."
+        }
         actions={teacher ? <ButtonLink to="/exercises/new">New exercise</ButtonLink> : null}
       />
       {teacher ? (
         teacher.length === 0 ? (
           <EmptyState title="No exercises yet" action={<ButtonLink to="/exercises/new">Set the first one</ButtonLink>}>
-            An exercise names the chords to play, the keys and what to listen for; students' takes are graded against it.
+            An exercise names the chords to play, the keys and what to listen for; students' takes are graded against
+            it.
           </EmptyState>
         ) : (
           <Card>
             <table className="w-full text-sm">
               <thead>
                 <tr className="border-b border-line text-left text-ink-soft">
-                  <th scope="col" className="py-2 pr-4">Exercise</th>
-                  <th scope="col" className="hidden py-2 pr-4 sm:table-cell">Keys</th>
-                  <th scope="col" className="py-2 pr-4">Due</th>
-                  <th scope="col" className="py-2 pr-4">Takes sent</th>
-                  <th scope="col" className="hidden py-2 sm:table-cell">State</th>
+                  <th scope="col" className="py-2 pr-4">
+                    Exercise
+                  </th>
+                  <th scope="col" className="hidden py-2 pr-4 sm:table-cell">
+                    Keys
+                  </th>
+                  <th scope="col" className="py-2 pr-4">
+                    Due
+                  </th>
+                  <th scope="col" className="py-2 pr-4">
+                    Takes sent
+                  </th>
+                  <th scope="col" className="hidden py-2 sm:table-cell">
+                    State
+                  </th>
                 </tr>
               </thead>
               <tbody>
                 {teacher.map((e) => (
                   <tr key={e.id} className={`border-b border-line/60 ${e.archived ? "text-ink-soft" : ""}`}>
                     <td className="py-2 pr-4">
-                      <Link to={`/exercises/${e.id}`} className="font-semibold text-tide-dark hover:underline">{e.title}</Link>
+                      <Link to={`/exercises/${e.id}`} className="font-semibold text-tide-dark hover:underline">
+                        {e.title}
+                      </Link>
                       <div className="break-words font-mono text-xs text-ink-soft">{pretty(e.progression)}</div>
                     </td>
-                    <td className="hidden py-2 pr-4 sm:table-cell">{e.keys.length === 12 ? "all twelve" : e.keys.map(pretty).join(", ")}</td>
-                    <td className="whitespace-nowrap py-2 pr-4">{e.dueDate ? dayLabel(`${e.dueDate}T12:00:00Z`) : "–"}</td>
+                    <td className="hidden py-2 pr-4 sm:table-cell">
+                      {e.keys.length === 12 ? "all twelve" : e.keys.map(pretty).join(", ")}
+                    </td>
+                    <td className="whitespace-nowrap py-2 pr-4">
+                      {e.dueDate ? dayLabel(`${e.dueDate}T12:00:00Z`) : "–"}
+                    </td>
                     <td className="py-2 pr-4">
                       {e.handedIn} of {e.setFor}
-                      {e.assignedTo === "students" ? <span className="ml-1 text-xs text-ink-soft">(chosen students)</span> : null}
+                      {e.assignedTo === "students" ? (
+                        <span className="ml-1 text-xs text-ink-soft">(chosen students)</span>
+                      ) : null}
                     </td>
                     <td className="hidden py-2 sm:table-cell">{e.archived ? "archived" : "open"}</td>
                   </tr>
@@ -73,7 +97,9 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
       ) : student ? (
         <>
           <section aria-labelledby="due-heading" className="flex flex-col gap-3">
-            <h2 id="due-heading" className="text-lg font-semibold">To do</h2>
+            <h2 id="due-heading" className="text-lg font-semibold">
+              To do
+            </h2>
             {student.due.length === 0 ? (
               <p className="text-sm text-ink-soft">Nothing due: every exercise has a take in each key.</p>
             ) : (
@@ -81,7 +107,9 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
             )}
           </section>
           <section aria-labelledby="done-heading" className="flex flex-col gap-3">
-            <h2 id="done-heading" className="text-lg font-semibold">Done</h2>
+            <h2 id="done-heading" className="text-lg font-semibold">
+              Done
+            </h2>
             {student.done.length === 0 ? (
               <p className="text-sm text-ink-soft">Exercises with a take in every key appear here.</p>
             ) : (
@@ -90,7 +118,9 @@ export default function Exercises({ loaderData }: Route.ComponentProps) {
           </section>
         </>
       ) : (
-        <EmptyState title="You are not in a studio yet">Join a studio through your teacher's invitation to see exercises.</EmptyState>
+        <EmptyState title="You are not in a studio yet">
+          Join a studio through your teacher's invitation to see exercises.
+        </EmptyState>
       )}
     </div>
   );

@@ -31,7 +31,10 @@ export async function loader({ request, context }: Route.LoaderArgs) {
       : null;
   const teacher =
     active && active.role !== "student"
-      ? { toReview: reviewQueueCount(active.studioId), week: teacherWeek(active.studioId, { id: user.id, emailVerified: user.emailVerified }) }
+      ? {
+          toReview: reviewQueueCount(active.studioId),
+          week: teacherWeek(active.studioId, { id: user.id, emailVerified: user.emailVerified }),
+        }
       : null;
   return { name: user.name, active, studios: user.studios, student, teacher };
 }
@@ -42,7 +45,11 @@ export default function Home({ loaderData }: Route.ComponentProps) {
     <div className="flex flex-col gap-6">
       <PageHeader
         title={`Hello, ${name.split(" ")[0]}`}
-        lead={active ? `${active.studioName} · ${active.role === "student" ? "student" : "teacher"}` : "You are not in a studio yet."}
+        lead={
+          active
+            ? `${active.studioName} · ${active.role === "student" ? "student" : "teacher"}`
+            : "You are not in a studio yet."
+        }
       />
       {student ? <UnreadFeedback items={student.unread} /> : null}
       {student ? (

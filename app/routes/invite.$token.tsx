@@ -50,7 +50,11 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const { invitation } = found;
   const current = await currentUser({ request, context });
   if (current && current.email !== invitation.email) {
-    return formFailure({ form, formError: `This invitation is for ${invitation.email}. Sign out of ${current.email} first.`, status: 403 });
+    return formFailure({
+      form,
+      formError: `This invitation is for ${invitation.email}. Sign out of ${current.email} first.`,
+      status: 403,
+    });
   }
   const existing = findUserByEmail(invitation.email);
   let userId: string | null;
@@ -104,7 +108,8 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
           {actionData?.formError ? <FlashMessage tone="error">{actionData.formError}</FlashMessage> : null}
           {loaderData.signedInAs && loaderData.signedInAs !== loaderData.email ? (
             <FlashMessage tone="info">
-              You are signed in as {loaderData.signedInAs}. This invitation is for {loaderData.email}: sign out first to accept it.
+              You are signed in as {loaderData.signedInAs}. This invitation is for {loaderData.email}: sign out first to
+              accept it.
             </FlashMessage>
           ) : null}
           {loaderData.hasAccount ? (
@@ -113,7 +118,14 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
               {loaderData.signedInAs === loaderData.email ? (
                 <p className="text-sm text-ink-soft">You are signed in with this address.</p>
               ) : (
-                <Field label="Your Nearnote password" name="password" type="password" autoComplete="current-password" required error={errors.password} />
+                <Field
+                  label="Your Nearnote password"
+                  name="password"
+                  type="password"
+                  autoComplete="current-password"
+                  required
+                  error={errors.password}
+                />
               )}
               <Button pending={pending} pendingLabel="Joining…">
                 Join the studio
@@ -122,9 +134,31 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
           ) : (
             <>
               <input type="hidden" name="intent" value="create" />
-              <Field label="Your name" name="name" autoComplete="name" required defaultValue={values.name ?? ""} error={errors.name} />
-              <Field label="Choose a password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
-              <Field label="The same again" name="confirm" type="password" autoComplete="new-password" required error={errors.confirm} />
+              <Field
+                label="Your name"
+                name="name"
+                autoComplete="name"
+                required
+                defaultValue={values.name ?? ""}
+                error={errors.name}
+              />
+              <Field
+                label="Choose a password"
+                name="password"
+                type="password"
+                autoComplete="new-password"
+                required
+                hint="At least 10 characters."
+                error={errors.password}
+              />
+              <Field
+                label="The same again"
+                name="confirm"
+                type="password"
+                autoComplete="new-password"
+                required
+                error={errors.confirm}
+              />
               <Button pending={pending} pendingLabel="Joining…">
                 Create my account
               </Button>
@@ -133,7 +167,11 @@ export default function Invite({ loaderData }: Route.ComponentProps) {
         </Form>
       </Card>
       <p className="text-sm text-ink-soft">
-        What Nearnote stores and who sees it: <Link to="/privacy" className="text-tide-dark underline">privacy</Link>.
+        What Nearnote stores and who sees it:{" "}
+        <Link to="/privacy" className="text-tide-dark underline">
+          privacy
+        </Link>
+        .
       </p>
     </div>
   );

@@ -3,7 +3,13 @@ import type { Route } from "./+types/login";
 import { requireAnonymous } from "~/auth/access.server";
 import { authenticator, InvalidCredentialsError, loginSchema } from "~/auth/authenticator.server";
 import { createUserSession, safeRedirect } from "~/auth/session.server";
-import { claimSignInAttempt, clearSignInFailures, clientAddress, forgetSignInAttempt, retryMessage } from "~/auth/throttle.server";
+import {
+  claimSignInAttempt,
+  clearSignInFailures,
+  clientAddress,
+  forgetSignInAttempt,
+  retryMessage,
+} from "~/auth/throttle.server";
 import { formFailure, parseForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
@@ -31,7 +37,12 @@ export async function action({ request, context }: Route.ActionArgs) {
   const throttle = claimSignInAttempt(email, address);
   if (throttle.blocked) {
     const seconds = Math.max(1, Math.ceil((throttle.retryAt.getTime() - Date.now()) / 1000));
-    return formFailure({ form, formError: retryMessage(throttle.retryAt), status: 429, headers: { "Retry-After": String(seconds) } });
+    return formFailure({
+      form,
+      formError: retryMessage(throttle.retryAt),
+      status: 429,
+      headers: { "Retry-After": String(seconds) },
+    });
   }
 
   try {
@@ -61,8 +72,23 @@ export default function Login() {
         <Form method="post" className="flex flex-col gap-4" noValidate>
           {failure?.formError ? <FlashMessage tone="error">{failure.formError}</FlashMessage> : null}
           <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? "/home"} />
-          <Field label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={values.email ?? ""} error={errors.email} />
-          <Field label="Password" name="password" type="password" autoComplete="current-password" required error={errors.password} />
+          <Field
+            label="E-mail"
+            name="email"
+            type="email"
+            autoComplete="email"
+            required
+            defaultValue={values.email ?? ""}
+            error={errors.email}
+          />
+          <Field
+            label="Password"
+            name="password"
+            type="password"
+            autoComplete="current-password"
+            required
+            error={errors.password}
+          />
           <Button pending={navigation.state === "submitting"} pendingLabel="Signing in…">
             Sign in
           </Button>

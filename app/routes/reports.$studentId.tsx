@@ -17,7 +17,11 @@ import { getProgressReport, listProgressReports, saveProgressReport } from "~/mo
 import { studentProgress } from "~/models/studentProgress.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `Progress report: ${data.student.name}, ${data.from} to ${data.to} · Nearnote` : "Progress report · Nearnote" },
+  {
+    title: data
+      ? `Progress report: ${data.student.name}, ${data.from} to ${data.to} · Nearnote`
+      : "Progress report · Nearnote",
+  },
 ];
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
@@ -34,7 +38,11 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const parsed = parseProgressQuery(url, studioTimeZone(studioId));
   if (!parsed.ok) throw redirect(`/reports/${params.studentId}`);
   const q = parsed.query;
-  const student = db().select({ id: users.id, name: users.name }).from(users).where(eq(users.id, params.studentId)).get()!;
+  const student = db()
+    .select({ id: users.id, name: users.name })
+    .from(users)
+    .where(eq(users.id, params.studentId))
+    .get()!;
   return {
     student,
     studioName: user.active.studioName,
@@ -51,7 +59,11 @@ const saveSchema = z.object({
   intent: z.literal("save"),
   from: isoDate,
   to: isoDate,
-  summary: z.string().trim().min(1, "Write a few words for the student first").max(5000, "Keep the summary under 5,000 characters"),
+  summary: z
+    .string()
+    .trim()
+    .min(1, "Write a few words for the student first")
+    .max(5000, "Keep the summary under 5,000 characters"),
 });
 
 export async function action({ request, params, context }: Route.ActionArgs) {
@@ -61,8 +73,19 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!parsed.ok) return parsed.response;
   const { from, to, summary } = parsed.data;
   if (from > to) return formFailure({ form, fieldErrors: { to: "The period must end after it starts" } });
-  const report = saveProgressReport({ studioId: user.active.studioId, studentId: params.studentId, fromDate: from, toDate: to, summary, createdById: user.id });
-  return redirectWithFlash(`/reports/${params.studentId}?report=${report.id}`, "Report saved. Print it or save it as a PDF from the browser.", request);
+  const report = saveProgressReport({
+    studioId: user.active.studioId,
+    studentId: params.studentId,
+    fromDate: from,
+    toDate: to,
+    summary,
+    createdById: user.id,
+  });
+  return redirectWithFlash(
+    `/reports/${params.studentId}?report=${report.id}`,
+    "Report saved. Print it or save it as a PDF from the browser.",
+    request,
+  );
 }
 
 export default function Report({ loaderData: d, actionData }: Route.ComponentProps) {

@@ -32,7 +32,12 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = parseForm(schema, form);
   if (!parsed.ok) return parsed.response;
   const used = consumeUserToken(parsed.data.token, "reset-password");
-  if (!used.ok) return formFailure({ form, formError: "This link has expired or was already used. Ask for a new one.", status: 410 });
+  if (!used.ok)
+    return formFailure({
+      form,
+      formError: "This link has expired or was already used. Ask for a new one.",
+      status: 410,
+    });
   // Every session of this person ends: whoever knew the old password is signed out.
   await setPassword(used.userId, parsed.data.password);
   throw await redirectWithFlash("/login", "Your password is changed. Sign in with the new one.", request);
@@ -45,7 +50,9 @@ export default function ResetPassword({ loaderData }: Route.ComponentProps) {
     return (
       <div className="mx-auto max-w-md">
         <Card title="This link does not work">
-          <p className="text-ink-soft">It has expired (links work for one hour), was already used, or was replaced by a newer one.</p>
+          <p className="text-ink-soft">
+            It has expired (links work for one hour), was already used, or was replaced by a newer one.
+          </p>
           <Link to="/forgot-password" className="mt-4 inline-block text-tide-dark underline">
             Ask for a new link
           </Link>
@@ -61,8 +68,23 @@ export default function ResetPassword({ loaderData }: Route.ComponentProps) {
         <Form method="post" className="flex flex-col gap-4" noValidate>
           {actionData?.formError ? <FlashMessage tone="error">{actionData.formError}</FlashMessage> : null}
           <input type="hidden" name="token" value={loaderData.token} />
-          <Field label="New password" name="password" type="password" autoComplete="new-password" required hint="At least 10 characters." error={errors.password} />
-          <Field label="The same again" name="confirm" type="password" autoComplete="new-password" required error={errors.confirm} />
+          <Field
+            label="New password"
+            name="password"
+            type="password"
+            autoComplete="new-password"
+            required
+            hint="At least 10 characters."
+            error={errors.password}
+          />
+          <Field
+            label="The same again"
+            name="confirm"
+            type="password"
+            autoComplete="new-password"
+            required
+            error={errors.confirm}
+          />
           <Button pending={navigation.state === "submitting"} pendingLabel="Saving…">
             Save the new password
           </Button>

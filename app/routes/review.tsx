@@ -59,7 +59,9 @@ export async function action({ request, context }: Route.ActionArgs) {
     parsed.data.intent === "review"
       ? `${changed} ${plural} marked as heard.`
       : `${changed} ${plural} back on the list to listen to.`;
-  return redirectWithFlash(`/review${back.size ? `?${back}` : ""}`, message, request, { tone: parsed.data.intent === "review" ? "success" : "info" });
+  return redirectWithFlash(`/review${back.size ? `?${back}` : ""}`, message, request, {
+    tone: parsed.data.intent === "review" ? "success" : "info",
+  });
 }
 
 export default function Review({ loaderData, actionData }: Route.ComponentProps) {

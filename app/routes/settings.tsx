@@ -11,7 +11,15 @@ import { flashHeader } from "~/server/flash.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { applyOwnershipPlan, planOwnershipOnLeave } from "~/models/studios.server";
 import { mailRetryMessage } from "~/auth/mailLimits.server";
-import { changeEmail, emailSchema, getUser, nameSchema, setPassword, updateMailPreferences, updateName } from "~/models/users.server";
+import {
+  changeEmail,
+  emailSchema,
+  getUser,
+  nameSchema,
+  setPassword,
+  updateMailPreferences,
+  updateName,
+} from "~/models/users.server";
 import { AccountSections } from "~/components/settings/AccountSections";
 
 export const meta: Route.MetaFunction = () => [{ title: "Settings · Nearnote" }];
@@ -31,7 +39,10 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 }
 
 const checkbox = z.preprocess((v) => v === "on" || v === "true", z.boolean());
-const currentPassword = z.string({ error: "Enter your current password" }).min(1, "Enter your current password").max(128);
+const currentPassword = z
+  .string({ error: "Enter your current password" })
+  .min(1, "Enter your current password")
+  .max(128);
 const actionSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("profile"), name: nameSchema }),
   z.object({ intent: z.literal("email"), email: emailSchema, currentPassword }),
@@ -68,20 +79,29 @@ export async function action({ request, context }: Route.ActionArgs) {
       updateName(user.id, values.name);
       return saved("Your name is saved.");
     case "prefs":
-      updateMailPreferences(user.id, { mailOnFeedback: values.mailOnFeedback === true, mailDigest: values.mailDigest === true });
+      updateMailPreferences(user.id, {
+        mailOnFeedback: values.mailOnFeedback === true,
+        mailDigest: values.mailDigest === true,
+      });
       return saved("Your mail preferences are saved.");
     case "email": {
       const result = await changeEmail(user.id, values.email);
-      if (result.kind === "taken") return formFailure({ form, fieldErrors: { email: "Another account uses this address" } });
+      if (result.kind === "taken")
+        return formFailure({ form, fieldErrors: { email: "Another account uses this address" } });
       if (!result.mail.ok) {
-        return saved(`Your e-mail is now ${values.email}. No link was sent: ${mailRetryMessage(result.mail)} Then ask for one with "Send a new link".`);
+        return saved(
+          `Your e-mail is now ${values.email}. No link was sent: ${mailRetryMessage(result.mail)} Then ask for one with "Send a new link".`,
+        );
       }
       return saved(`Your e-mail is now ${values.email}. Open the link we sent there to confirm it.`);
     }
     case "password": {
       // Every session ends, this one included; this device gets a fresh one.
       await setPassword(user.id, values.password);
-      const flash = await flashHeader(request, { tone: "success", message: "Password changed. You were signed out everywhere else." });
+      const flash = await flashHeader(request, {
+        tone: "success",
+        message: "Password changed. You were signed out everywhere else.",
+      });
       return createUserSession(user.id, "/settings", { "Set-Cookie": flash }, user.active?.studioId);
     }
     case "delete-account": {
@@ -96,7 +116,9 @@ export async function action({ request, context }: Route.ActionArgs) {
       applyOwnershipPlan(plan);
       await deletePersonData(user.id);
       const signOut = { "Set-Cookie": await sessionCookie().serialize("", { maxAge: 0 }) };
-      throw await redirectWithFlash("/", "Your account and everything in it are deleted.", request, { headers: signOut });
+      throw await redirectWithFlash("/", "Your account and everything in it are deleted.", request, {
+        headers: signOut,
+      });
     }
   }
 }

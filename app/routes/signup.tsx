@@ -16,7 +16,11 @@ const signupSchema = z.object({
   name: nameSchema,
   email: emailSchema,
   password: passwordSchema,
-  studioName: z.string({ error: "Name your studio" }).trim().min(1, "Name your studio").max(80, "Use at most 80 characters"),
+  studioName: z
+    .string({ error: "Name your studio" })
+    .trim()
+    .min(1, "Name your studio")
+    .max(80, "Use at most 80 characters"),
 });
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -51,30 +55,53 @@ export default function Signup() {
           <div className="flex flex-col gap-3">
             <h2 className="text-lg font-semibold">Check your inbox</h2>
             <p>
-              We sent a link to <strong>{actionData.email}</strong>. Open it to confirm your address: your studio is created
-              then, and you are signed in. The link works for 24 hours.
+              We sent a link to <strong>{actionData.email}</strong>. Open it to confirm your address: your studio is
+              created then, and you are signed in. The link works for 24 hours.
             </p>
-            <p className="text-sm text-ink-soft">Nothing there after a few minutes? Look in the spam folder, or fill in the form again.</p>
+            <p className="text-sm text-ink-soft">
+              Nothing there after a few minutes? Look in the spam folder, or fill in the form again.
+            </p>
           </div>
         ) : (
-        <Form method="post" className="flex flex-col gap-4" noValidate>
-          {failed?.formError ? <FlashMessage tone="error">{failed.formError}</FlashMessage> : null}
-          <Field label="Your name" name="name" autoComplete="name" required defaultValue={values.name ?? ""} error={errors.name} />
-          <Field label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={values.email ?? ""} error={errors.email} />
-          <Field
-            label="Password"
-            name="password"
-            type="password"
-            autoComplete="new-password"
-            required
-            hint="At least 10 characters."
-            error={errors.password}
-          />
-          <Field label="Studio name" name="studioName" required defaultValue={values.studioName ?? ""} error={errors.studioName} />
-          <Button pending={navigation.state === "submitting"} pendingLabel="Creating your studio…">
-            Create studio
-          </Button>
-        </Form>
+          <Form method="post" className="flex flex-col gap-4" noValidate>
+            {failed?.formError ? <FlashMessage tone="error">{failed.formError}</FlashMessage> : null}
+            <Field
+              label="Your name"
+              name="name"
+              autoComplete="name"
+              required
+              defaultValue={values.name ?? ""}
+              error={errors.name}
+            />
+            <Field
+              label="E-mail"
+              name="email"
+              type="email"
+              autoComplete="email"
+              required
+              defaultValue={values.email ?? ""}
+              error={errors.email}
+            />
+            <Field
+              label="Password"
+              name="password"
+              type="password"
+              autoComplete="new-password"
+              required
+              hint="At least 10 characters."
+              error={errors.password}
+            />
+            <Field
+              label="Studio name"
+              name="studioName"
+              required
+              defaultValue={values.studioName ?? ""}
+              error={errors.studioName}
+            />
+            <Button pending={navigation.state === "submitting"} pendingLabel="Creating your studio…">
+              Create studio
+            </Button>
+          </Form>
         )}
       </Card>
       <p className="text-sm text-ink-soft">
@@ -82,7 +109,11 @@ export default function Signup() {
         <Link to="/login" className="text-tide-dark underline">
           Sign in
         </Link>
-        . See what we store on the <Link to="/privacy" className="text-tide-dark underline">privacy page</Link>.
+        . See what we store on the{" "}
+        <Link to="/privacy" className="text-tide-dark underline">
+          privacy page
+        </Link>
+        .
       </p>
     </div>
   );

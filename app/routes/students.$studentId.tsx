@@ -20,7 +20,9 @@ import { parseProgressQuery } from "~/models/progressQuery.server";
 import { studentProgress } from "~/models/studentProgress.server";
 import { listTakesForStudent } from "~/models/takes.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.student.name ?? "Student"} · Progress · Nearnote` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.student.name ?? "Student"} · Progress · Nearnote` },
+];
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const { user, membership } = await requireStudentOfTeacher({ request, context }, params.studentId);
@@ -28,7 +30,11 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const parsed = parseProgressQuery(new URL(request.url), studioTimeZone(studioId));
   if (!parsed.ok) throw redirect(`/students/${params.studentId}`);
   const q = parsed.query;
-  const student = db().select({ id: users.id, name: users.name, email: users.email }).from(users).where(eq(users.id, params.studentId)).get()!;
+  const student = db()
+    .select({ id: users.id, name: users.name, email: users.email })
+    .from(users)
+    .where(eq(users.id, params.studentId))
+    .get()!;
   return {
     timeZone: studioTimeZone(studioId),
     student,
@@ -50,14 +56,18 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
         lead={`${d.student.email}${d.removed ? " · removed from the studio" : ""} · progress from ${period}`}
         actions={
           <>
-            <ButtonLink to="/board" variant="quiet">Board</ButtonLink>
+            <ButtonLink to="/board" variant="quiet">
+              Board
+            </ButtonLink>
             <ButtonLink to={reportHref}>Printable report</ButtonLink>
           </>
         }
       />
       <PeriodForm from={d.from} to={d.to} />
       {d.total.takes === 0 ? (
-        <EmptyState title="No takes in this period">Choose a longer period above, or send a reminder from the board.</EmptyState>
+        <EmptyState title="No takes in this period">
+          Choose a longer period above, or send a reminder from the board.
+        </EmptyState>
       ) : null}
       <div className="grid gap-6 md:grid-cols-2">
         <Card title="Mean score per week">
@@ -80,12 +90,23 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
         </Card>
       </div>
       <section aria-labelledby="weeks-heading" className="flex flex-col gap-3">
-        <h2 id="weeks-heading" className="text-lg font-semibold">Week by week</h2>
-        <WeeklyFiguresTable weeks={d.weeks} total={d.total} caption={`${d.student.name}'s figures per week, ${period}`} />
+        <h2 id="weeks-heading" className="text-lg font-semibold">
+          Week by week
+        </h2>
+        <WeeklyFiguresTable
+          weeks={d.weeks}
+          total={d.total}
+          caption={`${d.student.name}'s figures per week, ${period}`}
+        />
       </section>
       <div className="grid gap-6 md:grid-cols-2">
         <Card title="Techniques">
-          <TechniqueTable totals={d.total.techniques} weeksUsed={d.weeksUsed} weekCount={d.weeks.length} gained={d.gained} />
+          <TechniqueTable
+            totals={d.total.techniques}
+            weeksUsed={d.weeksUsed}
+            weekCount={d.weeks.length}
+            gained={d.gained}
+          />
         </Card>
         <Card title="Per exercise">
           {d.exercises.length === 0 ? (
@@ -96,8 +117,8 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
                 <li key={e.exerciseId ?? "free"} className="flex flex-wrap justify-between gap-2 py-2">
                   <span className="font-semibold">{e.title}</span>
                   <span className="text-ink-soft">
-                    {e.takes} take{e.takes === 1 ? "" : "s"} · score {formatMetric("score", e.score)} · smoothness {formatMetric("smoothness", e.smoothness)} ·
-                    accuracy {formatMetric("accuracy", e.accuracy)}
+                    {e.takes} take{e.takes === 1 ? "" : "s"} · score {formatMetric("score", e.score)} · smoothness{" "}
+                    {formatMetric("smoothness", e.smoothness)} · accuracy {formatMetric("accuracy", e.accuracy)}
                   </span>
                 </li>
               ))}
@@ -106,11 +127,15 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
         </Card>
       </div>
       <section aria-labelledby="takes-heading" className="flex flex-col gap-3">
-        <h2 id="takes-heading" className="text-lg font-semibold">Takes</h2>
+        <h2 id="takes-heading" className="text-lg font-semibold">
+          Takes
+        </h2>
         <DataTable
           caption={`${d.student.name}'s latest takes`}
           isEmpty={d.takes.length === 0}
-          empty={<EmptyState title="No takes yet">Takes appear here as soon as {d.student.name} uploads one.</EmptyState>}
+          empty={
+            <EmptyState title="No takes yet">Takes appear here as soon as {d.student.name} uploads one.</EmptyState>
+          }
           head={
             <tr>
               <th className="px-4 py-2">Recorded ({d.timeZone})</th>
@@ -125,10 +150,20 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
             <tr key={t.id}>
               <td className="px-4 py-2">
                 <Link to={`/takes/${t.id}`} className="text-tide-dark hover:underline">
-                  {new Date(t.recordedAt).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: d.timeZone })}
+                  {new Date(t.recordedAt).toLocaleString("en-GB", {
+                    dateStyle: "medium",
+                    timeStyle: "short",
+                    timeZone: d.timeZone,
+                  })}
                 </Link>
               </td>
-              <td className="px-4 py-2">{t.status === "failed" ? <span className="text-brick">Could not be analysed</span> : (t.exerciseTitle ?? "Free practice")}</td>
+              <td className="px-4 py-2">
+                {t.status === "failed" ? (
+                  <span className="text-brick">Could not be analysed</span>
+                ) : (
+                  (t.exerciseTitle ?? "Free practice")
+                )}
+              </td>
               <td className="px-4 py-2 text-right tabular-nums">{formatMetric("score", t.score)}</td>
               <td className="px-4 py-2 text-right tabular-nums">{formatMetric("smoothness", t.smoothness)}</td>
               <td className="px-4 py-2 text-right tabular-nums">{formatMetric("accuracy", t.accuracy)}</td>

@@ -48,7 +48,10 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 /** Addresses may be separated by commas, semicolons, spaces or new lines. */
 function splitAddresses(raw: string) {
-  return raw.split(/[\s,;]+/).map((s) => s.trim()).filter(Boolean);
+  return raw
+    .split(/[\s,;]+/)
+    .map((s) => s.trim())
+    .filter(Boolean);
 }
 
 const inviteSchema = z.object({
@@ -74,19 +77,30 @@ export async function action({ request, context }: Route.ActionArgs) {
   const parsed = parseForm(actionSchema, form);
   if (!parsed.ok) return parsed.response;
   const input = parsed.data;
-  const done = (message: string) => dataWithFlash({ ok: true as const, intent: input.intent, message }, message, request);
+  const done = (message: string) =>
+    dataWithFlash({ ok: true as const, intent: input.intent, message }, message, request);
 
   switch (input.intent) {
     case "invite": {
       if (!user.emailVerified) {
-        return formFailure({ form, formError: "Confirm your e-mail address first: open the link we mailed you, or ask for a new one in Settings.", status: 403 });
+        return formFailure({
+          form,
+          formError:
+            "Confirm your e-mail address first: open the link we mailed you, or ask for a new one in Settings.",
+          status: 403,
+        });
       }
       if (input.role === "teacher" && user.active.role !== "owner") {
-        return formFailure({ form, fieldErrors: { role: "Only the studio's owner can invite co-teachers" }, status: 403 });
+        return formFailure({
+          form,
+          fieldErrors: { role: "Only the studio's owner can invite co-teachers" },
+          status: 403,
+        });
       }
       const addresses = splitAddresses(input.emails);
       const bad = addresses.filter((a) => !emailSchema.safeParse(a).success);
-      if (bad.length) return formFailure({ form, fieldErrors: { emails: `Not valid e-mail addresses: ${bad.join(", ")}` } });
+      if (bad.length)
+        return formFailure({ form, fieldErrors: { emails: `Not valid e-mail addresses: ${bad.join(", ")}` } });
       if (addresses.length > DAILY_INVITATION_LIMIT) {
         return formFailure({ form, fieldErrors: { emails: `At most ${DAILY_INVITATION_LIMIT} addresses at once` } });
       }
@@ -100,14 +114,19 @@ export async function action({ request, context }: Route.ActionArgs) {
       return done(`${sent} invitation${sent === 1 ? "" : "s"} sent.${skipped ? ` Skipped: ${skipped}.` : ""}`);
     }
     case "revoke": {
-      if (!revokeInvitation(studioId, input.invitationId)) throw data("There is no such pending invitation.", { status: 404 });
+      if (!revokeInvitation(studioId, input.invitationId))
+        throw data("There is no such pending invitation.", { status: 404 });
       return done("Invitation withdrawn: its link no longer works.");
     }
     case "resend": {
       const result = await resendInvitation(studioId, input.invitationId, inviter);
       if (result === "not-found") throw data("There is no such pending invitation.", { status: 404 });
       if (result === "over-limit") {
-        return formFailure({ form, formError: `The studio has sent ${DAILY_INVITATION_LIMIT} invitations today. Try again tomorrow.`, status: 429 });
+        return formFailure({
+          form,
+          formError: `The studio has sent ${DAILY_INVITATION_LIMIT} invitations today. Try again tomorrow.`,
+          status: 429,
+        });
       }
       return done("Invitation sent again with a new link, valid for 7 days.");
     }
@@ -116,16 +135,25 @@ export async function action({ request, context }: Route.ActionArgs) {
       await requireStudentOfTeacher({ request, context }, input.studentId);
       if (input.intent === "remove") {
         removeMember(studioId, input.studentId, "student");
-        return done("Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.");
+        return done(
+          "Student removed from the studio. Their takes stay here, marked inactive, and can still be exported.",
+        );
       }
-      if (input.confirm !== "yes") return formFailure({ form, fieldErrors: { confirm: "Tick the box to confirm that this cannot be undone" } });
+      if (input.confirm !== "yes")
+        return formFailure({ form, fieldErrors: { confirm: "Tick the box to confirm that this cannot be undone" } });
       const { accountDeleted } = await deleteStudentData(studioId, input.studentId);
-      return done(accountDeleted ? "The student's takes and account are deleted for good." : "The student's takes in this studio are deleted for good.");
+      return done(
+        accountDeleted
+          ? "The student's takes and account are deleted for good."
+          : "The student's takes in this studio are deleted for good.",
+      );
     }
     case "remove-teacher": {
       await requireCoTeacherOfOwner({ request, context }, input.teacherId);
       removeMember(studioId, input.teacherId, "teacher");
-      return done("Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.");
+      return done(
+        "Co-teacher removed: they no longer see the board, exports or students' data. You can invite them again.",
+      );
     }
   }
 }
@@ -136,13 +164,20 @@ export default function Students({ loaderData }: Route.ComponentProps) {
   const busy = (intent: string, id?: string) =>
     navigation.state === "submitting" &&
     navigation.formData?.get("intent") === intent &&
-    (!id || [navigation.formData?.get("studentId"), navigation.formData?.get("teacherId"), navigation.formData?.get("invitationId")].includes(id));
+    (!id ||
+      [
+        navigation.formData?.get("studentId"),
+        navigation.formData?.get("teacherId"),
+        navigation.formData?.get("invitationId"),
+      ].includes(id));
   const failure = failureOf(actionData);
   const { students, teachers, pending } = loaderData;
   return (
     <div className="flex flex-col gap-6">
       <PageHeader title="Students" lead={`Everyone in ${loaderData.studioName}, and the invitations on their way.`} />
-      {failure?.formError && failure.intent !== "invite" ? <FlashMessage tone="error">{failure.formError}</FlashMessage> : null}
+      {failure?.formError && failure.intent !== "invite" ? (
+        <FlashMessage tone="error">{failure.formError}</FlashMessage>
+      ) : null}
       <InviteForm
         isOwner={loaderData.isOwner}
         emailVerified={loaderData.emailVerified}
@@ -151,12 +186,16 @@ export default function Students({ loaderData }: Route.ComponentProps) {
         pending={busy("invite")}
       />
       <section aria-labelledby="roster-heading" className="flex flex-col gap-3">
-        <h2 id="roster-heading" className="text-lg font-semibold">Students</h2>
+        <h2 id="roster-heading" className="text-lg font-semibold">
+          Students
+        </h2>
         <DataTable
           caption="Students of the studio"
           cards
           isEmpty={students.length === 0}
-          empty={<EmptyState title="No students yet">Invite them above: each gets a link to set a password.</EmptyState>}
+          empty={
+            <EmptyState title="No students yet">Invite them above: each gets a link to set a password.</EmptyState>
+          }
           head={
             <tr>
               <th className="px-4 py-2">Name</th>
@@ -172,7 +211,11 @@ export default function Students({ loaderData }: Route.ComponentProps) {
               key={s.userId}
               person={{ ...s, joinedAt: String(s.joinedAt) }}
               busy={busy}
-              confirmError={failure?.intent === "delete-data" && failure.values?.studentId === s.userId ? failure.fieldErrors?.confirm : undefined}
+              confirmError={
+                failure?.intent === "delete-data" && failure.values?.studentId === s.userId
+                  ? failure.fieldErrors?.confirm
+                  : undefined
+              }
             />
           ))}
         </DataTable>
@@ -189,7 +232,12 @@ export default function Students({ loaderData }: Route.ComponentProps) {
                 <Form method="post">
                   <input type="hidden" name="intent" value="remove-teacher" />
                   <input type="hidden" name="teacherId" value={t.userId} />
-                  <Button variant="secondary" pending={busy("remove-teacher", t.userId)} pendingLabel="Removing…" aria-label={`Remove ${t.name}`}>
+                  <Button
+                    variant="secondary"
+                    pending={busy("remove-teacher", t.userId)}
+                    pendingLabel="Removing…"
+                    aria-label={`Remove ${t.name}`}
+                  >
                     Remove
                   </Button>
                 </Form>
@@ -199,7 +247,9 @@ export default function Students({ loaderData }: Route.ComponentProps) {
         </ul>
       </Card>
       <section aria-labelledby="pending-heading" className="flex flex-col gap-3">
-        <h2 id="pending-heading" className="text-lg font-semibold">Pending invitations</h2>
+        <h2 id="pending-heading" className="text-lg font-semibold">
+          Pending invitations
+        </h2>
         <DataTable
           caption="Invitations not yet accepted"
           cards

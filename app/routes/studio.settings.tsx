@@ -49,9 +49,9 @@ export default function StudioSettings({ loaderData: d }: Route.ComponentProps) 
       <PageHeader title="Studio settings" lead={d.studioName} />
       <Card title="Time zone">
         <p className="mb-4 max-w-2xl text-sm text-ink-soft">
-          Weeks on the progress board run Monday to Sunday in this time zone, so a take recorded late on Sunday evening counts for that
-          week. Changing it moves every take of the studio to the week it falls in under the new zone. It is now {d.localTime} there,
-          week {d.week}.
+          Weeks on the progress board run Monday to Sunday in this time zone, so a take recorded late on Sunday evening
+          counts for that week. Changing it moves every take of the studio to the week it falls in under the new zone.
+          It is now {d.localTime} there, week {d.week}.
         </p>
         {d.canEdit ? (
           <Form method="post" className="flex flex-wrap items-end gap-3">

@@ -50,7 +50,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       case "comment": {
         const { body, changeIdx, parentId } = input;
         // Teachers start threads; the student who played the take replies to them.
-        if (!asTeacher && (user.id !== take.studentId || !parentId)) deny("page", "Only a reply to your teacher is possible here.");
+        if (!asTeacher && (user.id !== take.studentId || !parentId))
+          deny("page", "Only a reply to your teacher is possible here.");
         const id = addComment({ takeId: take.id, authorId: user.id, body, changeIdx, parentId });
         await sendFeedbackNotice(id).catch((e) => console.error("[nearnote] feedback mail failed:", e));
         const anchor = changeIdx === null ? "#feedback" : `#change-${changeIdx}`;

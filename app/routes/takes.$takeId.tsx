@@ -31,7 +31,11 @@ import { deleteTake, fitNoticeForTake, getTakeView, moveTake } from "~/models/ta
 import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote` : "Take · Nearnote" },
+  {
+    title: data
+      ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote`
+      : "Take · Nearnote",
+  },
 ];
 
 /** The first flagged change is where a student's attention should go first. */
@@ -47,8 +51,19 @@ function firstToLookAt(analysis: TakeAnalysis): number | null {
  * the other windows from /api/takes/:id/window. What needs the whole take (the next step,
  * where the differences from the exercise sit) is worked out here.
  */
-function analysisForPage(analysis: TakeAnalysis, notes: Parameters<typeof windowOf>[1], asked: number | null, heard: string | null, intended: Parameters<typeof nextStep>[3]) {
-  const initialSelected = analysis.changes.length === 0 ? null : asked !== null ? Math.min(asked, analysis.changes.length - 1) : firstToLookAt(analysis);
+function analysisForPage(
+  analysis: TakeAnalysis,
+  notes: Parameters<typeof windowOf>[1],
+  asked: number | null,
+  heard: string | null,
+  intended: Parameters<typeof nextStep>[3],
+) {
+  const initialSelected =
+    analysis.changes.length === 0
+      ? null
+      : asked !== null
+        ? Math.min(asked, analysis.changes.length - 1)
+        : firstToLookAt(analysis);
   return {
     summary: analysis.summary,
     timeline: timelineOf(analysis, notes),
@@ -79,17 +94,30 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   // The key the notes suggest, for a take checked against an exercise ("this sounds like D major").
   const heard = view.analysis?.summary.target !== undefined ? heardKey(view.notes, view.analysis.chords) : null;
   const { notes, pedal: _pedal, analysis, ...rest } = view;
-  const windowed = analysis ? { ...analysisForPage(analysis, notes, asked, heard, feedback.intended), version: windowVersion(take) } : null;
+  const windowed = analysis
+    ? { ...analysisForPage(analysis, notes, asked, heard, feedback.intended), version: windowVersion(take) }
+    : null;
   return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id) };
 }
 
 const CHOOSE = "Choose an exercise and a key.";
 const actionSchema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("delete"), confirm: z.literal("yes", { error: "Tick the box to confirm: a deleted take cannot be brought back." }) }),
+  z.object({
+    intent: z.literal("delete"),
+    confirm: z.literal("yes", { error: "Tick the box to confirm: a deleted take cannot be brought back." }),
+  }),
   z.object({
     intent: z.literal("move"),
-    exerciseId: z.string({ error: CHOOSE }).trim().max(64, CHOOSE).transform((v) => v || null),
-    key: z.string({ error: CHOOSE }).trim().max(8, CHOOSE).transform((v) => v || null),
+    exerciseId: z
+      .string({ error: CHOOSE })
+      .trim()
+      .max(64, CHOOSE)
+      .transform((v) => v || null),
+    key: z
+      .string({ error: CHOOSE })
+      .trim()
+      .max(8, CHOOSE)
+      .transform((v) => v || null),
   }),
 ]);
 
@@ -102,12 +130,19 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     requireActiveInStudio(user, take.studioId);
     const result = await replaceTakeFromForm(request, user, take);
     if ((result.status === 201 || result.status === 422) && result.body.id) {
-      const message = result.status === 201 ? "Take replaced and analysed." : "Take replaced, but the new file could not be analysed.";
+      const message =
+        result.status === 201
+          ? "Take replaced and analysed."
+          : "Take replaced, but the new file could not be analysed.";
       return redirectWithFlash(`/takes/${result.body.id}`, message, request);
     }
     const replaceForm = new FormData();
     replaceForm.set("intent", "replace");
-    return formFailure({ form: replaceForm, formError: result.body.error ?? "The new file could not be saved.", status: result.status });
+    return formFailure({
+      form: replaceForm,
+      formError: result.body.error ?? "The new file could not be saved.",
+      status: result.status,
+    });
   }
 
   const form = await request.formData();
@@ -126,22 +161,38 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     if (!exercise) return formFailure({ form, formError: "That exercise is not one of yours." });
     key ??= exercise.keys[0] ?? null;
     if (key && !exercise.keys.includes(key)) {
-      return formFailure({ form, formError: `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.` });
+      return formFailure({
+        form,
+        formError: `This exercise is set in ${exercise.keys.map(pretty).join(", ")}, not ${pretty(key)}.`,
+      });
     }
   }
   await moveTake(take.id, exerciseId, key);
-  return redirectWithFlash(`/takes/${take.id}`, exerciseId ? "Take moved and graded against the exercise again." : "Take moved to free practice.", request);
+  return redirectWithFlash(
+    `/takes/${take.id}`,
+    exerciseId ? "Take moved and graded against the exercise again." : "Take moved to free practice.",
+    request,
+  );
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
   const { view, windowed, isOwner, exercises, feedback, fit } = loaderData;
   // The flags list and the exercise's grading read chords and changes from the time line and the first window.
   const analysis = useMemo(
-    () => (windowed ? { ...stitchWindows(windowed.timeline, new Map([[windowed.firstWindow.from, windowed.firstWindow]])), summary: windowed.summary } : null),
+    () =>
+      windowed
+        ? {
+            ...stitchWindows(windowed.timeline, new Map([[windowed.firstWindow.from, windowed.firstWindow]])),
+            summary: windowed.summary,
+          }
+        : null,
     [windowed],
   );
   // Changes a comment is pinned to carry a mark in the change list and under the roll.
-  const commented = useMemo(() => new Set(feedback.threads.flatMap((t) => (t.changeIdx === null ? [] : [t.changeIdx]))), [feedback.threads]);
+  const commented = useMemo(
+    () => new Set(feedback.threads.flatMap((t) => (t.changeIdx === null ? [] : [t.changeIdx]))),
+    [feedback.threads],
+  );
   const { take } = view;
   const actionData = useActionData<typeof action>();
   const failure = failureOf(actionData);
@@ -176,7 +227,8 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       />
       {take.note ? (
         <blockquote className="rounded-md border-l-4 border-tide bg-card px-4 py-2 text-sm">
-          <span className="font-semibold">{isOwner ? "Your note" : `${take.studentName.split(" ")[0]}'s note`}:</span> {take.note}
+          <span className="font-semibold">{isOwner ? "Your note" : `${take.studentName.split(" ")[0]}'s note`}:</span>{" "}
+          {take.note}
         </blockquote>
       ) : null}
 
@@ -185,9 +237,26 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
 
       {take.status === "analysed" && windowed ? (
         // Keyed by the recording: after a replace (same take, new file) selection and playback start afresh.
-        <TakeAnalysisView key={`${take.id}:${take.recordedAt}:${take.size}`} takeId={take.id} version={windowed.version} summary={windowed.summary} timeline={windowed.timeline} firstWindow={windowed.firstWindow} step={windowed.step} placed={windowed.placed} initialSelected={windowed.initialSelected} durationSec={take.durationSec} commented={commented}
+        <TakeAnalysisView
+          key={`${take.id}:${take.recordedAt}:${take.size}`}
+          takeId={take.id}
+          version={windowed.version}
+          summary={windowed.summary}
+          timeline={windowed.timeline}
+          firstWindow={windowed.firstWindow}
+          step={windowed.step}
+          placed={windowed.placed}
+          initialSelected={windowed.initialSelected}
+          durationSec={take.durationSec}
+          commented={commented}
           changeExtras={(i) => (
-            <ChangeComments takeId={take.id} changeIdx={i} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
+            <ChangeComments
+              takeId={take.id}
+              changeIdx={i}
+              threads={feedback.threads}
+              canStart={feedback.asTeacher}
+              canReply={feedback.canReply}
+            />
           )}
         />
       ) : (
@@ -204,8 +273,8 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
             <dd>{timeLabel(take.createdAt)}</dd>
           </dl>
           <p className="mt-3 text-sm text-ink-soft">
-            The file is kept, so nothing is lost: it is analysed again when the engine improves. You can also replace it with a
-            new recording below.
+            The file is kept, so nothing is lost: it is analysed again when the engine improves. You can also replace it
+            with a new recording below.
           </p>
         </Card>
       )}
@@ -217,11 +286,23 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
       ) : null}
       {take.status === "analysed" && analysis ? (
         <Card title="Flags">
-          <IntendedFlags takeId={take.id} analysis={analysis} marks={feedback.intended} asTeacher={feedback.asTeacher} score={feedback.score} engineScore={feedback.engineScore} />
+          <IntendedFlags
+            takeId={take.id}
+            analysis={analysis}
+            marks={feedback.intended}
+            asTeacher={feedback.asTeacher}
+            score={feedback.score}
+            engineScore={feedback.engineScore}
+          />
         </Card>
       ) : null}
       <Card title="Feedback">
-        <FeedbackPanel takeId={take.id} threads={feedback.threads} canStart={feedback.asTeacher} canReply={feedback.canReply} />
+        <FeedbackPanel
+          takeId={take.id}
+          threads={feedback.threads}
+          canStart={feedback.asTeacher}
+          canReply={feedback.canReply}
+        />
       </Card>
 
       {isOwner ? (

@@ -21,9 +21,16 @@ export const meta: Route.MetaFunction = () => [{ title: "Upload takes · Nearnot
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireStudent({ request, context });
-  const exercises = listExercisesForStudent(user.id, user.active.studioId).map((e) => ({ id: e.id, title: e.title, keys: e.keys, tempo: e.tempo }));
+  const exercises = listExercisesForStudent(user.id, user.active.studioId).map((e) => ({
+    id: e.id,
+    title: e.title,
+    keys: e.keys,
+    tempo: e.tempo,
+  }));
   const url = new URL(request.url);
-  const exerciseId = exercises.some((e) => e.id === url.searchParams.get("exercise")) ? url.searchParams.get("exercise")! : "";
+  const exerciseId = exercises.some((e) => e.id === url.searchParams.get("exercise"))
+    ? url.searchParams.get("exercise")!
+    : "";
   const chosen = exercises.find((e) => e.id === exerciseId);
   const key = url.searchParams.get("key") ?? "";
   return { exercises, exerciseId, key: chosen && !chosen.keys.includes(key) ? "" : key };
@@ -123,7 +130,11 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
       >
         <Card title="What these takes are for">
           <div className="flex flex-col gap-4">
-            <ExerciseKeyFields exercises={loaderData.exercises} defaultExerciseId={loaderData.exerciseId} defaultKey={loaderData.key} />
+            <ExerciseKeyFields
+              exercises={loaderData.exercises}
+              defaultExerciseId={loaderData.exerciseId}
+              defaultKey={loaderData.key}
+            />
             <div className="flex flex-col gap-1">
               <label htmlFor={`${inputId}-note`} className="text-sm font-semibold">
                 Note for your teacher <span className="font-normal text-ink-soft">(optional)</span>
@@ -165,8 +176,13 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                 ))}
               </svg>
               <span className="font-semibold">Choose MIDI files, or drop them here</span>
-              <span className="text-sm text-ink-soft">.mid or .midi, up to 2 MiB each; up to {MAX_FILES} at a time without JavaScript</span>
-              <span className={`${hydrated ? "" : "hidden"} mt-2 rounded-md border border-line bg-card px-3 py-2 text-sm font-semibold`} aria-hidden="true">
+              <span className="text-sm text-ink-soft">
+                .mid or .midi, up to 2 MiB each; up to {MAX_FILES} at a time without JavaScript
+              </span>
+              <span
+                className={`${hydrated ? "" : "hidden"} mt-2 rounded-md border border-line bg-card px-3 py-2 text-sm font-semibold`}
+                aria-hidden="true"
+              >
                 Choose files
               </span>
               <input
@@ -182,7 +198,11 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                   e.currentTarget.value = "";
                 }}
                 // With JavaScript the rows below list the files, so the browser's own "no file chosen" text is hidden.
-                className={hydrated ? "sr-only" : "mt-2 w-full max-w-full min-w-0 text-sm file:mr-3 file:rounded-md file:border file:border-line file:bg-card file:px-3 file:py-2 file:font-semibold"}
+                className={
+                  hydrated
+                    ? "sr-only"
+                    : "mt-2 w-full max-w-full min-w-0 text-sm file:mr-3 file:rounded-md file:border file:border-line file:bg-card file:px-3 file:py-2 file:font-semibold"
+                }
               />
             </label>
             <div className="mt-4 flex flex-col gap-4">
@@ -195,7 +215,9 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                       id={`${inputId}-${row.key}-exercise`}
                       fileName={row.fileName}
                       exercises={loaderData.exercises}
-                      fallbackTitle={loaderData.exercises.find((e) => e.id === formExerciseId)?.title ?? "free practice"}
+                      fallbackTitle={
+                        loaderData.exercises.find((e) => e.id === formExerciseId)?.title ?? "free practice"
+                      }
                       value={row.choice}
                       onChange={(choice) => update(row.key, (r) => ({ ...r, choice }))}
                     />
@@ -205,7 +227,11 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                 }
               />
               <div className="flex flex-wrap items-center gap-3">
-                <Button pending={sending || navigation.state === "submitting"} pendingLabel="Uploading…" disabled={hydrated && ready === 0}>
+                <Button
+                  pending={sending || navigation.state === "submitting"}
+                  pendingLabel="Uploading…"
+                  disabled={hydrated && ready === 0}
+                >
                   {ready > 1 ? `Upload ${ready} takes` : "Upload"}
                 </Button>
                 {rows.length > 0 && rows.every(isFinished) ? (
@@ -221,7 +247,9 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
         </div>
       </form>
       {/* The forms that move a take to its likely exercise sit outside the upload form (no nesting). */}
-      {shown.map((row) => (row.fit && row.takeId ? <MoveToLikelyForm key={row.key} takeId={row.takeId} notice={row.fit} /> : null))}
+      {shown.map((row) =>
+        row.fit && row.takeId ? <MoveToLikelyForm key={row.key} takeId={row.takeId} notice={row.fit} /> : null,
+      )}
       <PracticeCare />
     </div>
   );

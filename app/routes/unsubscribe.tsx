@@ -21,7 +21,8 @@ const WORDS: Record<MailPreference, string> = {
 
 function personFor(token: string | null) {
   const read = token ? readUnsubscribeToken(token) : null;
-  if (!read) throw data("This unsubscribe link is not valid. You can change which mail you get in Settings.", { status: 400 });
+  if (!read)
+    throw data("This unsubscribe link is not valid. You can change which mail you get in Settings.", { status: 400 });
   const user = db().select().from(users).where(eq(users.id, read.userId)).get();
   if (!user) throw data("This account no longer exists.", { status: 410 });
   return { user, pref: read.pref };
@@ -30,7 +31,12 @@ function personFor(token: string | null) {
 export async function loader({ request }: Route.LoaderArgs) {
   const token = new URL(request.url).searchParams.get("token");
   const { user, pref } = personFor(token);
-  return { token: token ?? "", email: user.email, what: WORDS[pref], on: pref === "feedback" ? user.mailOnFeedback : user.mailDigest };
+  return {
+    token: token ?? "",
+    email: user.email,
+    what: WORDS[pref],
+    on: pref === "feedback" ? user.mailOnFeedback : user.mailDigest,
+  };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -50,9 +56,13 @@ export default function Unsubscribe({ loaderData, actionData }: Route.ComponentP
       <PageHeader title="Unsubscribe" />
       <Card>
         {actionData?.done ? (
-          <p role="status">Done: {loaderData.email} will no longer get {actionData.what}. You can turn it back on in Settings.</p>
+          <p role="status">
+            Done: {loaderData.email} will no longer get {actionData.what}. You can turn it back on in Settings.
+          </p>
         ) : !loaderData.on ? (
-          <p>{loaderData.email} already gets no {loaderData.what}.</p>
+          <p>
+            {loaderData.email} already gets no {loaderData.what}.
+          </p>
         ) : (
           <Form method="post" className="flex flex-col gap-3">
             <p>

@@ -22,7 +22,9 @@ export const headers: Route.HeadersFunction = () => ({ "Referrer-Policy": "no-re
 export async function loader({ request }: Route.LoaderArgs) {
   const token = new URL(request.url).searchParams.get("token");
   if (!token) return data({ state: "missing" as const }, { status: 400 });
-  const confirmed = { "Set-Cookie": await flashHeader(request, { tone: "success", message: "Your e-mail address is confirmed." }) };
+  const confirmed = {
+    "Set-Cookie": await flashHeader(request, { tone: "success", message: "Your e-mail address is confirmed." }),
+  };
   if (verifyEmailToken(token)) throw redirect("/home", { headers: confirmed });
   const signup = confirmSignup(token);
   if (signup.kind === "created") throw await createUserSession(signup.user.id, "/home", confirmed, signup.studioId);

@@ -15,7 +15,9 @@ function fileKeysIn(dbFile: string): string[] {
   const copy = new Database(dbFile, { readonly: true });
   try {
     const rows = copy
-      .prepare("select file_key as k from takes union select model_file_key from exercises where model_file_key is not null")
+      .prepare(
+        "select file_key as k from takes union select model_file_key from exercises where model_file_key is not null",
+      )
       .all() as { k: string }[];
     return rows.map((r) => r.k);
   } finally {
@@ -26,7 +28,8 @@ function fileKeysIn(dbFile: string): string[] {
 async function addOpenFile(zip: Zip, name: string, handle: FileHandle) {
   const entry = new ZipPassThrough(name);
   zip.add(entry);
-  for await (const chunk of handle.createReadStream({ autoClose: false, start: 0 })) entry.push(new Uint8Array(chunk as Buffer));
+  for await (const chunk of handle.createReadStream({ autoClose: false, start: 0 }))
+    entry.push(new Uint8Array(chunk as Buffer));
   entry.push(new Uint8Array(0), true);
 }
 
@@ -112,7 +115,8 @@ const SQLITE_HEADER = "SQLite format 3\0"; // the first 16 bytes of every SQLite
 function safeTakePath(name: string): string | null {
   const rel = name.slice("takes/".length);
   const parts = rel.split("/");
-  if (!rel || rel.includes("\\") || parts.some((p) => p === "" || p === "." || p === ".." || /[\u0000-\u001f]/.test(p))) return null;
+  if (!rel || rel.includes("\\") || parts.some((p) => p === "" || p === "." || p === ".." || /[\u0000-\u001f]/.test(p)))
+    return null;
   return rel;
 }
 
@@ -130,13 +134,17 @@ export function restoreBackup(archive: Uint8Array, databasePath: string, storage
   }
   const db = entries["nearnote.db"];
   if (!db) throw new Error("This file is not a Nearnote backup (no nearnote.db inside).");
-  if (new TextDecoder().decode(db.subarray(0, 16)) !== SQLITE_HEADER) throw new Error("This backup's nearnote.db is not a SQLite database.");
+  if (new TextDecoder().decode(db.subarray(0, 16)) !== SQLITE_HEADER)
+    throw new Error("This backup's nearnote.db is not a SQLite database.");
   const takeEntries: [string, Uint8Array][] = [];
   for (const [name, bytes] of Object.entries(entries)) {
     if (name === "nearnote.db") continue;
     if (name.startsWith("takes/") && name.endsWith("/")) continue; // a folder entry
     const rel = name.startsWith("takes/") ? safeTakePath(name) : null;
-    if (!rel) throw new Error(`Refusing this backup: the entry ${JSON.stringify(name)} is not a take file inside takes/. Nothing was changed.`);
+    if (!rel)
+      throw new Error(
+        `Refusing this backup: the entry ${JSON.stringify(name)} is not a take file inside takes/. Nothing was changed.`,
+      );
     takeEntries.push([rel, bytes]);
   }
 

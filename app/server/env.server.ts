@@ -10,9 +10,9 @@ const schema = z.object({
     .string()
     .min(32, "SESSION_SECRET must be at least 32 characters (e.g. `openssl rand -hex 32`)")
     .optional(),
-  APP_URL: z.url({ protocol: /^https?$/, error: "APP_URL must be an http:// or https:// URL" }).default(
-    "http://127.0.0.1:3000",
-  ),
+  APP_URL: z
+    .url({ protocol: /^https?$/, error: "APP_URL must be an http:// or https:// URL" })
+    .default("http://127.0.0.1:3000"),
   SMTP_URL: z
     .string()
     .regex(/^smtps?:\/\//, "SMTP_URL must start with smtp:// or smtps://")
@@ -107,7 +107,8 @@ export function loadOrCreateSecret(storageDir: string, log = console.warn): stri
  */
 export function ensureStorageDir(storageDir: string, create: boolean, log = console.warn) {
   if (existsSync(storageDir)) {
-    if (!statSync(storageDir).isDirectory()) throw new ConfigError(`Nearnote cannot start: STORAGE_DIR ${storageDir} is not a folder.`);
+    if (!statSync(storageDir).isDirectory())
+      throw new ConfigError(`Nearnote cannot start: STORAGE_DIR ${storageDir} is not a folder.`);
     return;
   }
   if (!create) {

@@ -11,7 +11,9 @@ import type { AnalysisOutcome, AnalysisTask, NotesOutcome } from "./analysisWork
 // take never holds up anyone else's request. One core stays free for the server.
 // The entry is resolved from the project folder, like the migrations, so the
 // built server, the scripts and the tests all find the same file.
-export const ANALYSIS_WORKER_ENTRY = path.resolve(process.env.ANALYSIS_WORKER_ENTRY ?? "app/takes/analysisWorker/entry.mjs");
+export const ANALYSIS_WORKER_ENTRY = path.resolve(
+  process.env.ANALYSIS_WORKER_ENTRY ?? "app/takes/analysisWorker/entry.mjs",
+);
 
 let pool: Piscina<AnalysisTask, AnalysisOutcome | NotesOutcome> | undefined;
 
@@ -39,7 +41,10 @@ const TOO_COMPLEX = () => {
  * worker starts on it (not while it waits in the queue); past it the take is
  * "too complex to grade" and that worker is ended and replaced.
  */
-async function runLimited<T extends AnalysisOutcome | NotesOutcome>(task: AnalysisTask, timeLimitMs: number): Promise<T> {
+async function runLimited<T extends AnalysisOutcome | NotesOutcome>(
+  task: AnalysisTask,
+  timeLimitMs: number,
+): Promise<T> {
   const abort = new AbortController();
   const { port1, port2 } = new MessageChannel();
   let timer: NodeJS.Timeout | undefined;
@@ -51,7 +56,10 @@ async function runLimited<T extends AnalysisOutcome | NotesOutcome>(task: Analys
     }, timeLimitMs);
   });
   try {
-    return (await analysisPool().run({ ...task, started: port2 }, { signal: abort.signal, transferList: [port2] })) as T;
+    return (await analysisPool().run(
+      { ...task, started: port2 },
+      { signal: abort.signal, transferList: [port2] },
+    )) as T;
   } catch (e) {
     if (timedOut) return TOO_COMPLEX() as T;
     throw e;

@@ -4,7 +4,13 @@
 
 export type LaneChord = { startSec: number; endSec: number; symbol: string | null; roman: string | null };
 export type LaneCell = { index: number; x: number; w: number; showSymbol: boolean; showRoman: boolean };
-export type LaneMark = { key: string; x: number; label: string; tone: "mismatch" | "flag" | "comment"; change: number | null };
+export type LaneMark = {
+  key: string;
+  x: number;
+  label: string;
+  tone: "mismatch" | "flag" | "comment";
+  change: number | null;
+};
 export type PlacedMark = LaneMark & { w: number; row: number; left: number };
 
 /** Width of a label in the lanes' 12 px font: a little over half the size per character, plus padding. */
@@ -99,23 +105,49 @@ export function laneMarks(
   placed.forEach((p, i) => {
     const expected = p.mismatch.expected ? pretty(p.mismatch.expected) : "";
     if (p.onChord !== null && chords[p.onChord]) {
-      const label = p.mismatch.kind === "extra" ? "extra" : p.mismatch.kind === "wrong-bass" ? `bass: ${expected}` : `want ${expected}`;
+      const label =
+        p.mismatch.kind === "extra"
+          ? "extra"
+          : p.mismatch.kind === "wrong-bass"
+            ? `bass: ${expected}`
+            : `want ${expected}`;
       marks.push({ key: `m${i}`, x: mid(p.onChord), label, tone: "mismatch", change: changeTo(p.onChord) });
     } else if (p.afterChord !== null) {
       const next = chords[p.afterChord + 1];
       const last = chords[chords.length - 1];
       const x = (next ? next.startSec : last ? Math.max(last.endSec, last.startSec) : 0) * pxPerSec;
-      marks.push({ key: `m${i}`, x, label: `${expected} missing`, tone: "mismatch", change: changeTo(p.afterChord + 1) });
+      marks.push({
+        key: `m${i}`,
+        x,
+        label: `${expected} missing`,
+        tone: "mismatch",
+        change: changeTo(p.afterChord + 1),
+      });
     }
   });
   chords.forEach((c, k) => {
-    if (c.flags.length) marks.push({ key: `cf${k}`, x: mid(k), label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "), tone: "flag", change: changeTo(k) });
+    if (c.flags.length)
+      marks.push({
+        key: `cf${k}`,
+        x: mid(k),
+        label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "),
+        tone: "flag",
+        change: changeTo(k),
+      });
   });
   changes.forEach((c, i) => {
     const to = chords[c.to];
     if (!to) return;
-    if (c.flags.length) marks.push({ key: `xf${i}`, x: to.startSec * pxPerSec, label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "), tone: "flag", change: i });
-    if (commented.has(i)) marks.push({ key: `cm${i}`, x: to.startSec * pxPerSec + 1, label: "comment", tone: "comment", change: i });
+    if (c.flags.length)
+      marks.push({
+        key: `xf${i}`,
+        x: to.startSec * pxPerSec,
+        label: c.flags.map((f) => FLAG_MARKS[f] ?? f).join(", "),
+        tone: "flag",
+        change: i,
+      });
+    if (commented.has(i))
+      marks.push({ key: `cm${i}`, x: to.startSec * pxPerSec + 1, label: "comment", tone: "comment", change: i });
   });
   return marks;
 }

@@ -16,7 +16,11 @@ export function keyWords(name: string): string {
 }
 
 /** The warning with the titles of the exercises it names, or nothing when the take fits. */
-export function fitNotice(warning: FitWarning | null | undefined, filedTitle: string, titles: ReadonlyMap<string, string>): FitNotice | undefined {
+export function fitNotice(
+  warning: FitWarning | null | undefined,
+  filedTitle: string,
+  titles: ReadonlyMap<string, string>,
+): FitNotice | undefined {
   if (!warning) return undefined;
   const likelyTitle = warning.likely ? titles.get(warning.likely.exerciseId) : undefined;
   return {
@@ -29,7 +33,8 @@ export function fitNotice(warning: FitWarning | null | undefined, filedTitle: st
 /** One plain sentence: what the take sounds like against what the exercise asks for. */
 export function fitSentence(n: FitNotice): string {
   const share = `the take plays ${percent(n.accuracy)} of its chords`;
-  if (n.reason === "key" && n.filedKey) return `This sounds like ${keyWords(n.heardKey)}; “${n.exerciseTitle}” is in ${keyWords(n.filedKey)} (${share}).`;
+  if (n.reason === "key" && n.filedKey)
+    return `This sounds like ${keyWords(n.heardKey)}; “${n.exerciseTitle}” is in ${keyWords(n.filedKey)} (${share}).`;
   return `This does not sound like “${n.exerciseTitle}”: ${share}.`;
 }
 

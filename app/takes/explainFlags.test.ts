@@ -10,7 +10,12 @@ import { explainChange, explainChordFlag, FLAG_TITLES } from "./explainFlags";
 import { intervalName, pretty, voicingLabel } from "~/utils/noteText";
 
 function chord(pitches: number[], key: Key, start = 0) {
-  const s: Strike = { start, notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })), graces: [], held: [] };
+  const s: Strike = {
+    start,
+    notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })),
+    graces: [],
+    held: [],
+  };
   return chordReport(s, key, []);
 }
 
@@ -93,7 +98,9 @@ describe("chord flags in words", () => {
   it("too many notes: nine distinct pitches are not graded (RULES.md rule 8)", () => {
     const c = chord([48, 50, 52, 53, 55, 57, 59, 60, 62], key);
     expect(c.flags).toContain("too-many-notes");
-    expect(explainChordFlag("too-many-notes", c, key).text).toMatch(/^This chord has 9 different notes; chords of more than 8 are not graded/);
+    expect(explainChordFlag("too-many-notes", c, key).text).toMatch(
+      /^This chord has 9 different notes; chords of more than 8 are not graded/,
+    );
   });
 
   it("a change carries the flags of the chord it arrives at after its own", () => {
@@ -120,6 +127,13 @@ describe("text helpers", () => {
   });
 
   it("interval names (common practice)", () => {
-    expect([1, 3, 6, 7, 12, 16].map(intervalName)).toEqual(["minor 2nd", "minor 3rd", "tritone", "perfect 5th", "octave", "major 10th"]);
+    expect([1, 3, 6, 7, 12, 16].map(intervalName)).toEqual([
+      "minor 2nd",
+      "minor 3rd",
+      "tritone",
+      "perfect 5th",
+      "octave",
+      "major 10th",
+    ]);
   });
 });

@@ -36,7 +36,8 @@ function rootPositionLeap(change: ChangeReport, from: ChordReport, to: ChordRepo
   const sizes = moves.map(Math.abs);
   const lo = Math.min(...sizes);
   const hi = Math.max(...sizes);
-  const jump = lo === hi ? `${semitones(lo)} ${direction(moves[0])}` : `${direction(moves[0])}, by ${lo} to ${hi} semitones`;
+  const jump =
+    lo === hi ? `${semitones(lo)} ${direction(moves[0])}` : `${direction(moves[0])}, by ${lo} to ${hi} semitones`;
   const best = bestClause(change, key);
   return `Both chords are in root position and every note jumped ${jump}${best ? `; ${best}` : ""}.`;
 }
@@ -68,7 +69,9 @@ function doubledBassThird(chord: ChordReport, key: Key | null): string {
   const name = chord.symbol ? pretty(chord.symbol) : "this chord";
   return `The 3rd of ${name}, ${pretty(chord.bass)}, is in the bass and sounds again at ${doubles
     .map((n) => noteLabel(n, key))
-    .join(" and ")}. With the 3rd in the bass, leave it out of the hand above (on top, or an octave above the bass, it is fine).`;
+    .join(
+      " and ",
+    )}. With the 3rd in the bass, leave it out of the hand above (on top, or an octave above the bass, it is fine).`;
 }
 
 function muddyLowInterval(chord: ChordReport, key: Key | null): string {
@@ -94,7 +97,10 @@ function pedalBlur(change: ChangeReport, _from: ChordReport, to: ChordReport, ke
   return `The pedal stayed down into ${name}, so ${carried || "notes of the previous chord"} went on sounding under it and do not belong to it. Lift the pedal as the new chord sounds and press it again just after.`;
 }
 
-const CHANGE_FLAG_TEXT: Record<ChangeFlag, (change: ChangeReport, from: ChordReport, to: ChordReport, key: Key | null) => string> = {
+const CHANGE_FLAG_TEXT: Record<
+  ChangeFlag,
+  (change: ChangeReport, from: ChordReport, to: ChordReport, key: Key | null) => string
+> = {
   "root-position-leap": rootPositionLeap,
   "top-line-leap": topLineLeap,
   "pedal-blur": pedalBlur,

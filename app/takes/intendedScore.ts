@@ -27,19 +27,21 @@ export function scoreWithIntended(analysis: TakeAnalysis, marks: readonly Intend
   let flaggedItems = 0;
   chords.forEach((c, i) => {
     const left = c.flags.filter((f) => !isIntended(marks, "chord", i, f));
-    for (const f of c.flags) if (!left.includes(f)) {
-      flags[f as FlagName]--;
-      excluded++;
-    }
+    for (const f of c.flags)
+      if (!left.includes(f)) {
+        flags[f as FlagName]--;
+        excluded++;
+      }
     if (left.length) flaggedItems++;
   });
   let graded = 0;
   changes.forEach((c, i) => {
     const left = c.flags.filter((f) => !isIntended(marks, "change", i, f));
-    for (const f of c.flags) if (!left.includes(f)) {
-      flags[f as FlagName]--;
-      excluded++;
-    }
+    for (const f of c.flags)
+      if (!left.includes(f)) {
+        flags[f as FlagName]--;
+        excluded++;
+      }
     if (c.graded) {
       graded++;
       if (left.length) flaggedItems++;

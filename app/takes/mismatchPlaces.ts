@@ -11,9 +11,14 @@ import type { ChordReport, Mismatch, TakeAnalysis } from "~/analysis/types";
 export type PlacedMismatch = { mismatch: Mismatch; onChord: number | null; afterChord: number | null };
 
 const sameTarget = (x: TargetChord, y: TargetChord) =>
-  x.root === y.root && x.triad === y.triad && x.bass === y.bass && x.required.length === y.required.length && x.required.every((r) => y.required.includes(r));
+  x.root === y.root &&
+  x.triad === y.triad &&
+  x.bass === y.bass &&
+  x.required.length === y.required.length &&
+  x.required.every((r) => y.required.includes(r));
 
-const playedId = (c: ChordReport) => `${pc(c.notes[0])}|${[...new Set(c.notes.map(pc))].sort((a, b) => a - b).join(",")}`;
+const playedId = (c: ChordReport) =>
+  `${pc(c.notes[0])}|${[...new Set(c.notes.map(pc))].sort((a, b) => a - b).join(",")}`;
 
 /** Index of the first chord of each run of identical chords (the engine's collapsed take). */
 function collapsedTake(chords: readonly ChordReport[]): number[] {
@@ -72,7 +77,12 @@ export function placeMismatches(analysis: Pick<TakeAnalysis, "chords" | "summary
 
 export type StripMark = { on: string[]; before: string[] };
 
-const KIND_WORDS: Record<Mismatch["kind"], string> = { missing: "missing", extra: "extra", "wrong-chord": "wrong chord", "wrong-bass": "wrong bass" };
+const KIND_WORDS: Record<Mismatch["kind"], string> = {
+  missing: "missing",
+  extra: "extra",
+  "wrong-chord": "wrong chord",
+  "wrong-bass": "wrong bass",
+};
 
 /**
  * Labels for the take page's chord strip, by chord index: what is wrong with the chord itself

@@ -24,8 +24,22 @@ export const FLAG_ORDER: readonly FlagName[] = [
 
 export type NextStep =
   | { kind: "off-exercise"; heardKey: string | null; exerciseKey: string; accuracy: number; text: string }
-  | { kind: "motion"; change: number; extra: number; fix: { from: number[]; to: number[] } | null; title: string; text: string }
-  | { kind: "flag"; change: number | null; flag: FlagName; fix: { from: number[]; to: number[] } | null; title: string; text: string }
+  | {
+      kind: "motion";
+      change: number;
+      extra: number;
+      fix: { from: number[]; to: number[] } | null;
+      title: string;
+      text: string;
+    }
+  | {
+      kind: "flag";
+      change: number | null;
+      flag: FlagName;
+      fix: { from: number[]; to: number[] } | null;
+      title: string;
+      text: string;
+    }
   | { kind: "clean"; text: string };
 
 /** "D major", "A♭ major", "F♯ minor" from a key name the engine writes ("D", "Ab", "F#m"). */
@@ -43,11 +57,15 @@ export function keyWords(name: string): string {
  * The key the notes and chords themselves suggest, whatever key the take was given (the
  * engine's own estimate, rule 23 of RULES.md), as a key name ("D", "Gm").
  */
-export function heardKey(notes: ReadonlyArray<{ midi: number; start: number; end: number }>, chords: readonly ChordReport[]): string | null {
+export function heardKey(
+  notes: ReadonlyArray<{ midi: number; start: number; end: number }>,
+  chords: readonly ChordReport[],
+): string | null {
   if (notes.length === 0) return null;
   const names = chords.map((c) => nameChord(c.notes, c.notes[0]));
   const bass = (c: ChordReport | undefined) => (c ? c.notes[0] % 12 : null);
-  return estimateKey([...notes], names, { firstBassPc: bass(chords[0]), lastBassPc: bass(chords[chords.length - 1]) }).key.name;
+  return estimateKey([...notes], names, { firstBassPc: bass(chords[0]), lastBassPc: bass(chords[chords.length - 1]) })
+    .key.name;
 }
 
 const sameKey = (a: string, b: string) => {
@@ -60,7 +78,8 @@ const sameKey = (a: string, b: string) => {
   }
 };
 
-const chordName = (c: ChordReport | undefined) => (c ? (c.symbol ? pretty(c.symbol) : c.noteNames.map(pretty).join(" ")) : "?");
+const chordName = (c: ChordReport | undefined) =>
+  c ? (c.symbol ? pretty(c.symbol) : c.noteNames.map(pretty).join(" ")) : "?";
 
 function fixOf(change: ChangeReport, chords: readonly ChordReport[]): { from: number[]; to: number[] } | null {
   const from = chords[change.from]?.notes;
@@ -79,13 +98,18 @@ export function extraMotion(change: ChangeReport): number {
  * the exercise's key only when the take missed most of the exercise's chords.
  */
 export function nextStep(
-  analysis: { chords: readonly ChordReport[]; changes: readonly ChangeReport[]; summary: Pick<Summary, "key" | "target" | "accuracy"> },
+  analysis: {
+    chords: readonly ChordReport[];
+    changes: readonly ChangeReport[];
+    summary: Pick<Summary, "key" | "target" | "accuracy">;
+  },
   heard: string | null,
   key: Key | null,
   /** flags the teacher marked as intended: never named as the thing to fix */
   intended: ReadonlyArray<{ on: "chord" | "change"; idx: number; flag: string }> = [],
 ): NextStep {
-  const isIntended = (on: "chord" | "change", idx: number, flag: string) => intended.some((m) => m.on === on && m.idx === idx && m.flag === flag);
+  const isIntended = (on: "chord" | "change", idx: number, flag: string) =>
+    intended.some((m) => m.on === on && m.idx === idx && m.flag === flag);
   const { chords, changes, summary } = analysis;
   if (summary.target !== undefined && summary.accuracy !== undefined && summary.accuracy < OFF_EXERCISE_ACCURACY) {
     const exerciseKey = summary.key;
@@ -111,13 +135,17 @@ export function nextStep(
     const title = `Change ${worst + 1}: ${chordName(chords[c.from])} → ${chordName(chords[c.to])}`;
     const text =
       `Your hand moved ${c.motion} semitones here, ${worstExtra} more than needed. ` +
-      (fix ? `Try ${voicingLabel(fix.to, key)} for ${chordName(chords[c.to])}: it moves ${c.bestMotion}.` : `${c.bestMotion} would do.`);
+      (fix
+        ? `Try ${voicingLabel(fix.to, key)} for ${chordName(chords[c.to])}: it moves ${c.bestMotion}.`
+        : `${c.bestMotion} would do.`);
     return { kind: "motion", change: worst, extra: worstExtra, fix, title, text };
   }
 
   // No change moved more than it had to: the flag that matters most, at its first place.
   for (const flag of FLAG_ORDER) {
-    const onChange = changes.findIndex((c, i) => c.flags.includes(flag as ChangeFlag) && !isIntended("change", i, flag));
+    const onChange = changes.findIndex(
+      (c, i) => c.flags.includes(flag as ChangeFlag) && !isIntended("change", i, flag),
+    );
     if (onChange !== -1) {
       const c = changes[onChange];
       const e = explainChange(c, [...chords], key).find((x) => x.flag === flag);
@@ -145,5 +173,8 @@ export function nextStep(
       };
     }
   }
-  return { kind: "clean", text: "Every change moved as little as it could and nothing was flagged. Keep the same hand shapes and try it a little faster." };
+  return {
+    kind: "clean",
+    text: "Every change moved as little as it could and nothing was flagged. Keep the same hand shapes and try it a little faster.",
+  };
 }

@@ -17,7 +17,12 @@ export function packNotes(notes: readonly NoteEvent[]): number[] {
 export function unpackNotes(packed: readonly number[]): NoteEvent[] {
   const notes: NoteEvent[] = [];
   for (let i = 0; i + 3 < packed.length; i += 4) {
-    notes.push({ midi: packed[i], start: packed[i + 1] / 1000, end: packed[i + 2] / 1000, velocity: packed[i + 3] / 127 });
+    notes.push({
+      midi: packed[i],
+      start: packed[i + 1] / 1000,
+      end: packed[i + 2] / 1000,
+      velocity: packed[i + 3] / 127,
+    });
   }
   return notes;
 }

@@ -25,13 +25,30 @@ describe("piano roll geometry", () => {
   });
 
   it("stays inside MIDI's 0..127", () => {
-    const l = rollLayout([{ midi: 0, start: 0, end: 1 }, { midi: 127, start: 0, end: 1 }], 1);
+    const l = rollLayout(
+      [
+        { midi: 0, start: 0, end: 1 },
+        { midi: 127, start: 0, end: 1 },
+      ],
+      1,
+    );
     expect([l.lowest, l.highest]).toEqual([0, 127]);
   });
 
   it("knows the black keys (C♯ D♯ F♯ G♯ A♯)", () => {
     expect([60, 61, 62, 63, 64, 65, 66, 67, 68, 69, 70, 71].map(isBlackKey)).toEqual([
-      false, true, false, true, false, false, true, false, true, false, true, false,
+      false,
+      true,
+      false,
+      true,
+      false,
+      false,
+      true,
+      false,
+      true,
+      false,
+      true,
+      false,
     ]);
   });
 
@@ -58,7 +75,12 @@ describe("piano roll geometry", () => {
 describe("piano roll drawing helpers", () => {
   it("draws many boxes as one path, rounded to a tenth of a pixel", async () => {
     const { boxesPath } = await import("./pianoRoll");
-    expect(boxesPath([{ x: 0, y: 10, w: 20.04, h: 8 }, { x: 1.26, y: 0, w: 2, h: 3 }])).toBe("M0 10h20v8h-20zM1.3 0h2v3h-2z");
+    expect(
+      boxesPath([
+        { x: 0, y: 10, w: 20.04, h: 8 },
+        { x: 1.26, y: 0, w: 2, h: 3 },
+      ]),
+    ).toBe("M0 10h20v8h-20zM1.3 0h2v3h-2z");
     expect(boxesPath([])).toBe("");
   });
 

@@ -110,7 +110,11 @@ export function boxesPath(boxes: Iterable<{ x: number; y: number; w: number; h: 
 }
 
 /** Index of the chord whose shaded span contains time t, or null (for clicks on the roll). */
-export function chordAtTime(chords: ReadonlyArray<{ startSec: number; endSec: number }>, t: number, slackSec = 0.05): number | null {
+export function chordAtTime(
+  chords: ReadonlyArray<{ startSec: number; endSec: number }>,
+  t: number,
+  slackSec = 0.05,
+): number | null {
   let lo = 0;
   let hi = chords.length;
   while (lo < hi) {

@@ -3,7 +3,14 @@
 import { SCORE_WEIGHTS } from "~/analysis/score";
 import type { ScoreParts } from "~/analysis/types";
 
-export type ScorePartRow = { part: keyof ScoreParts; label: string; what: string; weight: number; value: number; points: number };
+export type ScorePartRow = {
+  part: keyof ScoreParts;
+  label: string;
+  what: string;
+  weight: number;
+  value: number;
+  points: number;
+};
 
 const LABELS: Record<keyof ScoreParts, { label: string; what: string }> = {
   smoothness: { label: "Smoothness", what: "best motion ÷ motion played" },

@@ -51,9 +51,24 @@ export class UploadRefused extends Error {
 }
 
 const fieldsSchema = z.object({
-  exerciseId: z.string().trim().max(64).optional().transform((v) => v || undefined),
-  key: z.string().trim().max(8).optional().transform((v) => v || undefined),
-  recordedAt: z.string().trim().max(40).optional().transform((v) => v || undefined),
+  exerciseId: z
+    .string()
+    .trim()
+    .max(64)
+    .optional()
+    .transform((v) => v || undefined),
+  key: z
+    .string()
+    .trim()
+    .max(8)
+    .optional()
+    .transform((v) => v || undefined),
+  recordedAt: z
+    .string()
+    .trim()
+    .max(40)
+    .optional()
+    .transform((v) => v || undefined),
   note: z.string().max(2000, "Keep the note under 2,000 characters.").optional().default(""),
 });
 type UploadFields = z.infer<typeof fieldsSchema>;
@@ -80,14 +95,20 @@ export async function receiveUpload(
     const form = await parseFormData(request, { maxFileSize: MAX_TAKE_BYTES, maxFiles }, async (file: FileUpload) => {
       if (!file.name && file.size === 0) return null; // an empty file input
       const fileKey = newFileKey();
-      files.push({ fieldName: file.fieldName, fileKey, originalName: cleanName(file.name, defaultName), lastModified: file.lastModified });
+      files.push({
+        fieldName: file.fieldName,
+        fileKey,
+        originalName: cleanName(file.name, defaultName),
+        lastModified: file.lastModified,
+      });
       await takeStorage().put(fileKey, file);
       return fileKey;
     });
     return { form, files };
   } catch (e) {
     await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
-    if (e instanceof MaxFileSizeExceededError || e instanceof MaxTotalSizeExceededError) throw new UploadRefused(413, tooBig());
+    if (e instanceof MaxFileSizeExceededError || e instanceof MaxTotalSizeExceededError)
+      throw new UploadRefused(413, tooBig());
     if (e instanceof MaxFilesExceededError) throw new UploadRefused(413, `Send at most ${maxFiles} files at once.`);
     if (e instanceof FormDataParseError || e instanceof MultipartParseError || isMalformedText(e)) {
       throw new UploadRefused(400, "The upload could not be read; try sending the file again.");
@@ -108,7 +129,10 @@ function tooBig() {
 /** Keeps the client's name for display only: no path, no control characters. */
 export function cleanName(name: string, fallback = "take.mid"): string {
   const base = name.split(/[\\/]/).pop() ?? "";
-  const clean = base.replace(/[\u0000-\u001f\u007f]/g, "").trim().slice(0, 200);
+  const clean = base
+    .replace(/[\u0000-\u001f\u007f]/g, "")
+    .trim()
+    .slice(0, 200);
   return clean || fallback;
 }
 
@@ -124,7 +148,9 @@ function parseRecordedAt(value: string | undefined, fallback: number | undefined
 
 /** Every open exercise of the student in each of its keys, as the engine compares a take with them. */
 function fitCandidatesOf(exercises: readonly ExerciseOption[]): FitCandidate[] {
-  return exercises.flatMap((e) => e.keys.map((key) => ({ exerciseId: e.id, key, target: targetTextForKey(e.progression, e.keys, key) })));
+  return exercises.flatMap((e) =>
+    e.keys.map((key) => ({ exerciseId: e.id, key, target: targetTextForKey(e.progression, e.keys, key) })),
+  );
 }
 
 /** Where an ingested file goes: a new take in a studio, or in place of an existing take. */
@@ -160,7 +186,8 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
       const exercise = open.find((e) => e.id === fields.exerciseId);
       if (!exercise) return fail(400, "That exercise is not one of yours.");
       key ??= exercise.keys[0] ?? null;
-      if (key && !exercise.keys.includes(key)) return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
+      if (key && !exercise.keys.includes(key))
+        return fail(400, `This exercise is set in ${exercise.keys.join(", ")}, not ${key}.`);
       target = targetTextForKey(exercise.progression, exercise.keys, key);
       candidates = fitCandidatesOf(open);
     }
@@ -168,13 +195,17 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
       try {
         parseKey(key);
       } catch (e) {
-        if (e instanceof ProgressionError) return fail(400, `"${key}" is not a key Nearnote knows (try D, Ab, F# or Gm).`);
+        if (e instanceof ProgressionError)
+          return fail(400, `"${key}" is not a key Nearnote knows (try D, Ab, F# or Gm).`);
         throw e;
       }
     }
 
     const outcome = await analyseInWorker(bytes, { key, target, candidates });
-    const warning = outcome.ok && outcome.fit && fields.exerciseId ? fitWarning(outcome.fit, { exerciseId: fields.exerciseId, key }) : null;
+    const warning =
+      outcome.ok && outcome.fit && fields.exerciseId
+        ? fitWarning(outcome.fit, { exerciseId: fields.exerciseId, key })
+        : null;
     const record = {
       exerciseId: fields.exerciseId ?? null,
       key,
@@ -191,7 +222,8 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
     try {
       if (to.replacing) {
         const replaced = replaceTakeRecord(to.replacing.id, to.replacing.fileKey, record);
-        if (!replaced) return fail(409, "This take was replaced or deleted meanwhile; open it again to see what it holds now.");
+        if (!replaced)
+          return fail(409, "This take was replaced or deleted meanwhile; open it again to see what it holds now.");
         await removeTakeFilesAfterRows([replaced]);
         id = to.replacing.id;
       } else {
@@ -200,7 +232,11 @@ async function ingest(user: SessionUser, file: Stored, fields: UploadFields, to:
     } catch (e) {
       // The same content arriving twice at once: the unique index decides.
       if (e instanceof Error && /UNIQUE constraint failed: takes\.student_id/.test(e.message)) {
-        const twin = db().select({ id: takes.id }).from(takes).where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash))).get();
+        const twin = db()
+          .select({ id: takes.id })
+          .from(takes)
+          .where(and(eq(takes.studentId, user.id), eq(takes.contentHash, contentHash)))
+          .get();
         return fail(409, "You have uploaded this take already.", { id: twin?.id });
       }
       throw e;
@@ -276,7 +312,9 @@ export async function uploadTakesFromForm(request: Request, user: SessionUser): 
     const results: UploadResult[] = [];
     for (const [i, f] of files.entries()) {
       try {
-        results.push(await ingest(user, f, fieldsForChoice(fields, choices.data[i]), { studioId: user.active!.studioId }));
+        results.push(
+          await ingest(user, f, fieldsForChoice(fields, choices.data[i]), { studioId: user.active!.studioId }),
+        );
       } catch (e) {
         // The files not reached yet have no row either.
         await Promise.all(files.slice(i + 1).map((rest) => removeTakeFile(rest.fileKey).catch(() => {})));

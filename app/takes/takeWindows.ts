@@ -3,7 +3,15 @@
 // first window of changes; further windows come from /api/takes/:id/window?from=N as the
 // student scrolls or jumps. A window holds WINDOW_SIZE changes, the chords they join, and
 // the notes and melody notes that sound in its stretch of time.
-import type { ChangeFlag, ChangeReport, ChordFlag, ChordReport, MelodyNote, NoteEvent, TakeAnalysis } from "~/analysis/types";
+import type {
+  ChangeFlag,
+  ChangeReport,
+  ChordFlag,
+  ChordReport,
+  MelodyNote,
+  NoteEvent,
+  TakeAnalysis,
+} from "~/analysis/types";
 import { packNotes, unpackNotes } from "./packNotes";
 
 /** Changes per window (the change list shows the same number per page). */
@@ -59,7 +67,13 @@ export function packMelody(notes: readonly MelodyNote[]): PackedMelody {
 
 export function unpackMelody({ names, packed }: PackedMelody): MelodyNote[] {
   const out: MelodyNote[] = [];
-  for (let i = 0; i + 3 < packed.length; i += 4) out.push({ startSec: packed[i] / 1000, endSec: packed[i + 1] / 1000, note: packed[i + 2], noteName: names[packed[i + 3]] });
+  for (let i = 0; i + 3 < packed.length; i += 4)
+    out.push({
+      startSec: packed[i] / 1000,
+      endSec: packed[i + 1] / 1000,
+      note: packed[i + 2],
+      noteName: names[packed[i + 3]],
+    });
   return out;
 }
 
@@ -73,7 +87,10 @@ export function windowCount(changeCount: number): number {
   return Math.max(1, Math.ceil(changeCount / WINDOW_SIZE));
 }
 
-export function timelineOf(analysis: Pick<TakeAnalysis, "chords" | "changes">, notes: readonly NoteEvent[] = []): Timeline {
+export function timelineOf(
+  analysis: Pick<TakeAnalysis, "chords" | "changes">,
+  notes: readonly NoteEvent[] = [],
+): Timeline {
   const labels: Timeline["labels"] = [];
   const labelIdx = new Map<string, number>();
   const nums: number[] = [];
@@ -133,7 +150,11 @@ function windowTimes(chords: readonly ChordReport[], from: number, changeCount: 
  * take): its changes, the chords they join (the last window also every chord after), and the
  * notes and melody notes that start in its stretch of time.
  */
-export function windowOf(analysis: Pick<TakeAnalysis, "chords" | "changes" | "melodyNotes">, notes: readonly NoteEvent[], from: number): TakeWindow {
+export function windowOf(
+  analysis: Pick<TakeAnalysis, "chords" | "changes" | "melodyNotes">,
+  notes: readonly NoteEvent[],
+  from: number,
+): TakeWindow {
   const { chords, changes } = analysis;
   const last = (windowCount(changes.length) - 1) * WINDOW_SIZE;
   const start = Math.min(windowStart(Number.isFinite(from) ? from : 0), last);
@@ -151,8 +172,13 @@ export function windowOf(analysis: Pick<TakeAnalysis, "chords" | "changes" | "me
 }
 
 /** Every window of a take, in order (for tests and for playing the whole take). */
-export function allWindows(analysis: Pick<TakeAnalysis, "chords" | "changes" | "melodyNotes">, notes: readonly NoteEvent[]): TakeWindow[] {
-  return Array.from({ length: windowCount(analysis.changes.length) }, (_, w) => windowOf(analysis, notes, w * WINDOW_SIZE));
+export function allWindows(
+  analysis: Pick<TakeAnalysis, "chords" | "changes" | "melodyNotes">,
+  notes: readonly NoteEvent[],
+): TakeWindow[] {
+  return Array.from({ length: windowCount(analysis.changes.length) }, (_, w) =>
+    windowOf(analysis, notes, w * WINDOW_SIZE),
+  );
 }
 
 /** The time line read back: each chord's start, end, symbol, Roman numeral and flags, each change's flags. */

@@ -17,22 +17,22 @@ describe("take words", () => {
 
   it("says each kind of exercise mismatch with chord numbers counted from 1", () => {
     const chords = [chord("Eb", ["Eb4", "G4", "Bb4"]), chord(null, ["C4", "Db4"])];
-    expect(mismatchWords({ kind: "wrong-chord", targetIndex: 1, playedIndex: 0, expected: "Bb/D", pass: 0 }, chords)).toBe(
-      "Chord 2 of the exercise: played E♭, expected B♭/D.",
-    );
+    expect(
+      mismatchWords({ kind: "wrong-chord", targetIndex: 1, playedIndex: 0, expected: "Bb/D", pass: 0 }, chords),
+    ).toBe("Chord 2 of the exercise: played E♭, expected B♭/D.");
     expect(mismatchWords({ kind: "missing", targetIndex: 2, playedIndex: null, expected: "Cm", pass: 0 }, chords)).toBe(
       "Chord 3 of the exercise: Cm was not played.",
     );
-    expect(mismatchWords({ kind: "extra", targetIndex: null, playedIndex: 1, expected: null, pass: null }, chords)).toBe(
-      "Played chord 2: C4 D♭4 is not in the exercise.",
-    );
-    expect(mismatchWords({ kind: "wrong-bass", targetIndex: 1, playedIndex: 0, expected: "Bb/D", pass: 0 }, chords)).toContain(
-      "played E♭, expected B♭/D",
-    );
+    expect(
+      mismatchWords({ kind: "extra", targetIndex: null, playedIndex: 1, expected: null, pass: null }, chords),
+    ).toBe("Played chord 2: C4 D♭4 is not in the exercise.");
+    expect(
+      mismatchWords({ kind: "wrong-bass", targetIndex: 1, playedIndex: 0, expected: "Bb/D", pass: 0 }, chords),
+    ).toContain("played E♭, expected B♭/D");
     // A take that plays the exercise three times says which time through.
-    expect(mismatchWords({ kind: "wrong-chord", targetIndex: 2, playedIndex: 0, expected: "Db", pass: 1 }, chords, 3)).toBe(
-      "Second time through, chord 3: played E♭, expected D♭.",
-    );
+    expect(
+      mismatchWords({ kind: "wrong-chord", targetIndex: 2, playedIndex: 0, expected: "Db", pass: 1 }, chords, 3),
+    ).toBe("Second time through, chord 3: played E♭, expected D♭.");
   });
 
   it("has plain words for every technique the engine names", () => {

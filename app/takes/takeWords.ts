@@ -8,7 +8,10 @@ export const TECHNIQUE_WORDS: Record<TechniqueName, { label: string; text: strin
   "open-voicing": { label: "Open voicings", text: "the middle note dropped an octave to spread the chord" },
   "slash-bass": { label: "Another tone in the bass", text: "a left-hand bass on the 3rd, 5th or 7th of the chord" },
   "grace-to-third": { label: "Grace note into the 3rd", text: "a quick note a step below the 3rd, sliding into it" },
-  "smooth-top-line": { label: "Smooth top line", text: "at least three changes in four moved the top note by 2 semitones or less" },
+  "smooth-top-line": {
+    label: "Smooth top line",
+    text: "at least three changes in four moved the top note by 2 semitones or less",
+  },
 };
 
 const INVERSION_WORDS = ["root position", "1st inversion", "2nd inversion", "3rd inversion"];
@@ -18,7 +21,10 @@ const INVERSION_SHORT = ["root pos.", "1st inv.", "2nd inv.", "3rd inv."];
  * "1st inversion", "root position", or "other bass" when the bass is not a chord tone (rule 5).
  * Over a detached bass it names the hand's own inversion (`upperInversion`).
  */
-export function inversionWords(chord: Pick<ChordReport, "inversion" | "upperInversion" | "detachedBass">, short = false): string {
+export function inversionWords(
+  chord: Pick<ChordReport, "inversion" | "upperInversion" | "detachedBass">,
+  short = false,
+): string {
   const inv = chord.detachedBass !== null && chord.upperInversion !== null ? chord.upperInversion : chord.inversion;
   const words = short ? INVERSION_SHORT : INVERSION_WORDS;
   return inv === null ? "other bass" : (words[inv] ?? "other bass");

@@ -16,18 +16,36 @@ describe("upload rows", () => {
   });
 
   it("201 shows the figures and links the new take", () => {
-    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 201, { id: "t1", status: "analysed", analysis: { summary } });
-    expect(row).toMatchObject({ stage: "analysed", takeId: "t1", chordCount: 12, smoothness: 0.75, score: 68, error: null });
+    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 201, {
+      id: "t1",
+      status: "analysed",
+      analysis: { summary },
+    });
+    expect(row).toMatchObject({
+      stage: "analysed",
+      takeId: "t1",
+      chordCount: 12,
+      smoothness: 0.75,
+      score: 68,
+      error: null,
+    });
     expect(isFinished(row)).toBe(true);
   });
 
   it("422 keeps the link to the stored failed take with the engine's message", () => {
-    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 422, { id: "t2", status: "failed", error: "cut short" });
+    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 422, {
+      id: "t2",
+      status: "failed",
+      error: "cut short",
+    });
     expect(row).toMatchObject({ stage: "failed", takeId: "t2", error: "cut short" });
   });
 
   it("409 links the take uploaded before", () => {
-    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 409, { id: "t0", error: "You have uploaded this take already." });
+    const row = rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 409, {
+      id: "t0",
+      error: "You have uploaded this take already.",
+    });
     expect(row).toMatchObject({ stage: "duplicate", takeId: "t0" });
   });
 
@@ -38,7 +56,9 @@ describe("upload rows", () => {
       expect(row.takeId).toBeNull();
       expect(row.error).toBeTruthy();
     }
-    expect(rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 415, { error: "Not MIDI." }).error).toBe("Not MIDI.");
+    expect(rowFromAnswer(newRow("a", { name: "x.mid", size: 10 }), 415, { error: "Not MIDI." }).error).toBe(
+      "Not MIDI.",
+    );
   });
 
   it("a row is unfinished while ready, uploading or analysing", () => {

@@ -25,7 +25,13 @@ export type UploadRow = {
   fit: FitNotice | null;
 };
 
-export type UploadAnswer = { id?: string; status?: string; error?: string; analysis?: Pick<TakeAnalysis, "summary">; fit?: FitNotice };
+export type UploadAnswer = {
+  id?: string;
+  status?: string;
+  error?: string;
+  analysis?: Pick<TakeAnalysis, "summary">;
+  fit?: FitNotice;
+};
 
 export type TakeFieldValues = { exerciseId?: string; key?: string; note?: string };
 
@@ -76,17 +82,33 @@ export function rowFromAnswer(row: UploadRow, status: number, body: UploadAnswer
   const base = { ...row, progress: 1, takeId: body?.id ?? null };
   if (status === 201 && body?.analysis) {
     const s = body.analysis.summary;
-    return { ...base, stage: "analysed", error: null, chordCount: s.chordCount, smoothness: s.smoothness, score: s.score, fit: body.fit ?? null };
+    return {
+      ...base,
+      stage: "analysed",
+      error: null,
+      chordCount: s.chordCount,
+      smoothness: s.smoothness,
+      score: s.score,
+      fit: body.fit ?? null,
+    };
   }
-  if (status === 409) return { ...base, stage: "duplicate", error: body?.error ?? "You have uploaded this take already." };
-  if (status === 422) return { ...base, stage: "failed", error: body?.error ?? "This MIDI file could not be analysed." };
-  if (status === 401) return { ...base, stage: "refused", takeId: null, error: "Your session has ended: sign in again, then upload." };
+  if (status === 409)
+    return { ...base, stage: "duplicate", error: body?.error ?? "You have uploaded this take already." };
+  if (status === 422)
+    return { ...base, stage: "failed", error: body?.error ?? "This MIDI file could not be analysed." };
+  if (status === 401)
+    return { ...base, stage: "refused", takeId: null, error: "Your session has ended: sign in again, then upload." };
   const fallback =
-    status === 413 ? "This file is over 2 MiB." : status === 415 ? "This is not a MIDI file." : `The upload failed (error ${status || "network"}). Try again.`;
+    status === 413
+      ? "This file is over 2 MiB."
+      : status === 415
+        ? "This is not a MIDI file."
+        : `The upload failed (error ${status || "network"}). Try again.`;
   return { ...base, stage: "refused", takeId: null, error: body?.error ?? fallback };
 }
 
-export const isFinished = (row: UploadRow) => row.stage !== "ready" && row.stage !== "uploading" && row.stage !== "analysing";
+export const isFinished = (row: UploadRow) =>
+  row.stage !== "ready" && row.stage !== "uploading" && row.stage !== "analysing";
 
 export function formatBytes(n: number): string {
   if (n < 1024) return `${n} B`;

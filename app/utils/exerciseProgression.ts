@@ -38,7 +38,9 @@ export function targetChordsInKey(progression: string, keys: readonly string[], 
   const wanted = readKey(key);
   if (!usesChordSymbols(progression)) return parseProgression(progression, wanted);
   const written = parseProgression(progression, home);
-  return home.tonic === wanted.tonic && home.mode === wanted.mode ? written : transposeProgression(written, home, wanted);
+  return home.tonic === wanted.tonic && home.mode === wanted.mode
+    ? written
+    : transposeProgression(written, home, wanted);
 }
 
 /**
@@ -58,20 +60,28 @@ export function targetTextForKey(progression: string, keys: readonly string[], k
 
 /** Checks the keys and the progression together and expands the progression in every key. */
 export function checkProgression(progression: string, keys: readonly string[]): ProgressionCheck {
-  if (keys.length === 0) return { ok: false, field: "keys", message: "Name at least one key, e.g. D or Gm.", position: null, token: null };
+  if (keys.length === 0)
+    return { ok: false, field: "keys", message: "Name at least one key, e.g. D or Gm.", position: null, token: null };
   const parsed: Key[] = [];
   for (const k of keys) {
     try {
       parsed.push(readKey(k));
     } catch {
-      return { ok: false, field: "keys", message: `"${k}" is not a key Nearnote knows (try D, Ab, F# or Gm).`, position: null, token: k };
+      return {
+        ok: false,
+        field: "keys",
+        message: `"${k}" is not a key Nearnote knows (try D, Ab, F# or Gm).`,
+        position: null,
+        token: k,
+      };
     }
   }
   if (usesChordSymbols(progression) && parsed.some((k) => k.mode !== parsed[0].mode)) {
     return {
       ok: false,
       field: "keys",
-      message: "Chord symbols are moved from the first key to the others, so all keys must be major, or all minor. Roman numerals work in any mix.",
+      message:
+        "Chord symbols are moved from the first key to the others, so all keys must be major, or all minor. Roman numerals work in any mix.",
       position: null,
       token: null,
     };
@@ -85,7 +95,8 @@ export function checkProgression(progression: string, keys: readonly string[]): 
       })),
     };
   } catch (e) {
-    if (e instanceof ProgressionError) return { ok: false, field: "progression", message: e.message, position: e.position, token: e.token };
+    if (e instanceof ProgressionError)
+      return { ok: false, field: "progression", message: e.message, position: e.position, token: e.token };
     throw e;
   }
 }

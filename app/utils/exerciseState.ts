@@ -41,7 +41,13 @@ export function exerciseState(
   const keysTotal = progress.length;
   const keysDone = keysTotal - missing.length;
   if (keysTotal > 0 && missing.length === 0) {
-    return { kind: "done", keysDone, keysTotal, label: "Done", detail: keysTotal === 1 ? "Your take is in." : `A take in each of the ${keysTotal} keys is in.` };
+    return {
+      kind: "done",
+      keysDone,
+      keysTotal,
+      label: "Done",
+      detail: keysTotal === 1 ? "Your take is in." : `A take in each of the ${keysTotal} keys is in.`,
+    };
   }
   const left =
     missing.length === 1
@@ -51,7 +57,13 @@ export function exerciseState(
         : `Takes in ${missing.length} of ${keysTotal} keys still to send.`;
   if (!exercise.dueDate) return { kind: "open", keysDone, keysTotal, label: "To do", detail: left };
   const words = dueWords(exercise.dueDate, today);
-  return { kind: exercise.dueDate < today ? "overdue" : "due", keysDone, keysTotal, label: capital(words), detail: left };
+  return {
+    kind: exercise.dueDate < today ? "overdue" : "due",
+    keysDone,
+    keysTotal,
+    label: capital(words),
+    detail: left,
+  };
 }
 
 /** Exercises to do first (overdue, then by due day, then undated), done ones last. */

@@ -76,7 +76,11 @@ export function shiftStart(voicing: readonly number[], fromTonic: number, toToni
  * tones (bass fixed when the target names one) with the least motion from the previous one.
  * With focus techniques the path follows them (see focusedPath).
  */
-export function modelPath(chords: readonly TargetChord[], start: readonly number[], options: ModelOptions = {}): ModelPath {
+export function modelPath(
+  chords: readonly TargetChord[],
+  start: readonly number[],
+  options: ModelOptions = {},
+): ModelPath {
   if (chords.length === 0) return { steps: [], totalMotion: 0, choices: [] };
   if (options.focus?.length) return focusedPath(chords, start, options);
   const first = [...start].sort((a, b) => a - b);
@@ -114,7 +118,10 @@ export function spreadOpen(voicing: readonly number[]): number[] {
 function withAddedSecond(chord: TargetChord): TargetChord {
   if ((chord.triad !== "major" && chord.triad !== "minor") || chord.required.length > 0) return chord;
   const required = [...chord.required, 2];
-  const symbol = chord.symbol.replace(/^([A-G][#b]?)([^/]*)(\/.*)?$/, (_, root: string, _suffix: string, bass = "") => root + suffixFor(chord.triad, required) + bass);
+  const symbol = chord.symbol.replace(
+    /^([A-G][#b]?)([^/]*)(\/.*)?$/,
+    (_, root: string, _suffix: string, bass = "") => root + suffixFor(chord.triad, required) + bass,
+  );
   return { ...chord, required, symbol };
 }
 
@@ -126,7 +133,12 @@ function nearest(p: number, near: number): number {
 
 /** The grace note for a chord: a half step below its 3rd in the voicing (or a whole step when that is a chord tone). */
 function graceFor(chord: TargetChord, voicing: readonly number[]): number | null {
-  const third = chord.triad === "major" || chord.triad === "augmented" ? 4 : chord.triad === "minor" || chord.triad === "diminished" ? 3 : null;
+  const third =
+    chord.triad === "major" || chord.triad === "augmented"
+      ? 4
+      : chord.triad === "minor" || chord.triad === "diminished"
+        ? 3
+        : null;
   if (third === null) return null;
   const thirdNote = voicing.find((n) => pc(n) === pc(chord.root + third));
   if (thirdNote === undefined) return null;
@@ -153,7 +165,8 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
   let first = [...start].sort((a, b) => a - b);
   if (focus.has("added-second") && chords[0] !== chordsIn[0]) {
     const second = pc(chords[0].root + 2);
-    if (!first.some((n) => pc(n) === second)) first = [...first, nearest(second, first[first.length - 1] - 3)].sort((a, b) => a - b);
+    if (!first.some((n) => pc(n) === second))
+      first = [...first, nearest(second, first[first.length - 1] - 3)].sort((a, b) => a - b);
   }
   if (focus.has("open-voicing") && !isOpen(first)) first = spreadOpen(first);
   let bass = leftHand ? nearest(chords[0].bass ?? chords[0].root, 43) : null;
@@ -161,7 +174,14 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
     while (bass > LEFT_HAND_TOP || bass >= first[0] - 7) bass -= 12;
     first = first.filter((n) => n !== bass);
   }
-  const steps: ModelStep[] = [{ symbol: chords[0].symbol, roman: chords[0].roman, voicing: bass === null ? first : [bass, ...first], motion: null }];
+  const steps: ModelStep[] = [
+    {
+      symbol: chords[0].symbol,
+      roman: chords[0].roman,
+      voicing: bass === null ? first : [bass, ...first],
+      motion: null,
+    },
+  ];
   const basses: number[] = bass === null ? [] : [bass];
   let total = 0;
   const missedOpen: string[] = [];
@@ -179,7 +199,9 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
       top: focus.has("smooth-top-line"),
     };
     const test = (open: boolean, top: boolean) => (v: number[]) =>
-      (namedBass === null || pc(v[0]) === namedBass) && (!open || isOpen(v)) && (!top || Math.abs(v[v.length - 1] - prevTop) <= 2);
+      (namedBass === null || pc(v[0]) === namedBass) &&
+      (!open || isOpen(v)) &&
+      (!top || Math.abs(v[v.length - 1] - prevTop) <= 2);
     let found = bestMotion(prev, seed, { accept: test(wants.open, wants.top) });
     if (!found && wants.top) {
       missedTop.push(pretty(chord.symbol));
@@ -201,7 +223,8 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
     total += m;
     steps.push({ symbol: chord.symbol, roman: chord.roman, voicing, motion: m });
   }
-  if (focus.has("grace-to-third")) for (const [i, s] of steps.entries()) s.grace = graceFor(chords[i], leftHand ? s.voicing.slice(1) : s.voicing);
+  if (focus.has("grace-to-third"))
+    for (const [i, s] of steps.entries()) s.grace = graceFor(chords[i], leftHand ? s.voicing.slice(1) : s.voicing);
 
   // One sentence per choice, in the order a student reads the path.
   choices.push(
@@ -218,7 +241,13 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
     );
   }
   if (focus.has("added-second")) {
-    const added = chords.flatMap((c, i) => (c !== chordsIn[i] ? [`${name(steps[i].voicing.find((n) => pc(n) === pc(c.root + 2)) ?? c.root).replace(/-?\d+$/, "")} in ${pretty(chordsIn[i].symbol)}`] : []));
+    const added = chords.flatMap((c, i) =>
+      c !== chordsIn[i]
+        ? [
+            `${name(steps[i].voicing.find((n) => pc(n) === pc(c.root + 2)) ?? c.root).replace(/-?\d+$/, "")} in ${pretty(chordsIn[i].symbol)}`,
+          ]
+        : [],
+    );
     choices.push(
       added.length
         ? `Each plain major or minor triad adds its 2nd, as the exercise practises: ${[...new Set(added)].join(", ")}.`
@@ -228,7 +257,9 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
   if (focus.has("inversion")) {
     const inverted = steps.flatMap((s, i) => {
       const low = leftHand ? s.voicing[1] : s.voicing[0];
-      return pc(low) === chords[i].root ? [] : [`${pretty(chords[i].symbol)} with ${name(low).replace(/-?\d+$/, "")} lowest`];
+      return pc(low) === chords[i].root
+        ? []
+        : [`${pretty(chords[i].symbol)} with ${name(low).replace(/-?\d+$/, "")} lowest`];
     });
     choices.push(
       inverted.length
@@ -238,13 +269,23 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
   }
   if (leftHand) {
     const line = steps.map((s) => name(s.voicing[0])).join(" → ");
-    const slashes = steps.flatMap((s, i) => (pc(s.voicing[0]) === chords[i].root ? [] : [`${pretty(chords[i].symbol.split("/")[0])}/${name(s.voicing[0]).replace(/-?\d+$/, "")}`]));
+    const slashes = steps.flatMap((s, i) =>
+      pc(s.voicing[0]) === chords[i].root
+        ? []
+        : [`${pretty(chords[i].symbol.split("/")[0])}/${name(s.voicing[0]).replace(/-?\d+$/, "")}`],
+    );
     choices.push(
       `The left hand plays the bass apart from the chord: ${line}${slashes.length ? `, so ${[...new Set(slashes)].join(", ")} sound as slash chords` : ""}.`,
     );
   }
   if (focus.has("grace-to-third")) {
-    const graces = steps.flatMap((s, i) => (s.grace == null ? [] : [`${name(s.grace).replace(/-?\d+$/, "")} to ${name(s.grace + (pc(s.grace + 1) === pc(chords[i].root + 3) || pc(s.grace + 1) === pc(chords[i].root + 4) ? 1 : 2)).replace(/-?\d+$/, "")} in ${pretty(chords[i].symbol)}`]));
+    const graces = steps.flatMap((s, i) =>
+      s.grace == null
+        ? []
+        : [
+            `${name(s.grace).replace(/-?\d+$/, "")} to ${name(s.grace + (pc(s.grace + 1) === pc(chords[i].root + 3) || pc(s.grace + 1) === pc(chords[i].root + 4) ? 1 : 2)).replace(/-?\d+$/, "")} in ${pretty(chords[i].symbol)}`,
+          ],
+    );
     choices.push(
       graces.length
         ? `A grace note a step below each 3rd slides into it: ${graces.join(", ")}.`
@@ -263,17 +304,27 @@ function focusedPath(chordsIn: readonly TargetChord[], start: readonly number[],
 }
 
 /** The path as notes for the synth: each chord held two beats at the exercise's tempo (72 bpm without one). */
-export function pathPlan(steps: readonly ModelStep[], tempo: number | null): Array<{ midi: number; start: number; end: number; velocity: number }> {
+export function pathPlan(
+  steps: readonly ModelStep[],
+  tempo: number | null,
+): Array<{ midi: number; start: number; end: number; velocity: number }> {
   const beat = 60 / (tempo ?? 72);
   return steps.flatMap((s, i) => [
     // A grace note sounds just before its chord and stops as the chord sounds.
-    ...(s.grace == null ? [] : [{ midi: s.grace, start: Math.max(0, i * 2 * beat - 0.09), end: i * 2 * beat, velocity: 0.5 }]),
+    ...(s.grace == null
+      ? []
+      : [{ midi: s.grace, start: Math.max(0, i * 2 * beat - 0.09), end: i * 2 * beat, velocity: 0.5 }]),
     ...s.voicing.map((midi) => ({ midi, start: i * 2 * beat, end: (i * 2 + 1.9) * beat, velocity: 0.7 })),
   ]);
 }
 
 /** The starting voicing for one key: the teacher's (picked in the first key) moved there, when it still fits. */
-export function startForKey(saved: readonly number[] | null, homeTonic: number, keyTonic: number, first: TargetChord): number[] {
+export function startForKey(
+  saved: readonly number[] | null,
+  homeTonic: number,
+  keyTonic: number,
+  first: TargetChord,
+): number[] {
   if (saved && saved.length) {
     const moved = shiftStart(saved, homeTonic, keyTonic);
     if (fitsFirstChord(moved, first)) return moved;

@@ -68,7 +68,10 @@ export function combineSums(list: WeekSums[]): WeekSums {
 }
 
 export function figuresFrom(s: WeekSums): Figures {
-  const techniques = Object.fromEntries(TECHNIQUES.map((t) => [t, s.techniques[t] ?? 0])) as Record<TechniqueName, number>;
+  const techniques = Object.fromEntries(TECHNIQUES.map((t) => [t, s.techniques[t] ?? 0])) as Record<
+    TechniqueName,
+    number
+  >;
   return {
     takes: s.takes,
     practiceMinutes: s.durationSec / 60,
@@ -100,10 +103,30 @@ type MetricInfo = { label: string; short: string; higherIsBetter: boolean; forma
 export const METRICS: Record<MetricId, MetricInfo> = {
   score: { label: "Mean score", short: "Score", higherIsBetter: true, format: (v) => v.toFixed(0) },
   smoothness: { label: "Smoothness", short: "Smooth", higherIsBetter: true, format: (v) => `${Math.round(v * 100)}%` },
-  motionPerChange: { label: "Motion per change (semitones)", short: "Motion", higherIsBetter: false, format: (v) => v.toFixed(1) },
-  leapsPer10: { label: "Root-position leaps per 10 changes", short: "Leaps/10", higherIsBetter: false, format: (v) => v.toFixed(1) },
-  accuracy: { label: "Accuracy on exercises", short: "Accuracy", higherIsBetter: true, format: (v) => `${Math.round(v * 100)}%` },
-  practiceMinutes: { label: "Practice minutes", short: "Minutes", higherIsBetter: true, format: (v) => (v < 10 ? v.toFixed(1) : v.toFixed(0)) },
+  motionPerChange: {
+    label: "Motion per change (semitones)",
+    short: "Motion",
+    higherIsBetter: false,
+    format: (v) => v.toFixed(1),
+  },
+  leapsPer10: {
+    label: "Root-position leaps per 10 changes",
+    short: "Leaps/10",
+    higherIsBetter: false,
+    format: (v) => v.toFixed(1),
+  },
+  accuracy: {
+    label: "Accuracy on exercises",
+    short: "Accuracy",
+    higherIsBetter: true,
+    format: (v) => `${Math.round(v * 100)}%`,
+  },
+  practiceMinutes: {
+    label: "Practice minutes",
+    short: "Minutes",
+    higherIsBetter: true,
+    format: (v) => (v < 10 ? v.toFixed(1) : v.toFixed(0)),
+  },
   takes: { label: "Takes", short: "Takes", higherIsBetter: true, format: (v) => v.toFixed(0) },
   changes: { label: "Chord changes", short: "Changes", higherIsBetter: true, format: (v) => v.toFixed(0) },
 };

@@ -16,7 +16,6 @@ const WEEKS = 52;
 const TAKES_PER_WEEK = 5;
 const RUNS = 15;
 
-
 async function timeAsync(fn: () => Promise<unknown>, runs = RUNS, warmup = 2) {
   for (let i = 0; i < warmup; i++) await fn();
   const times: number[] = [];
@@ -44,14 +43,26 @@ export async function benchProgressBoard(): Promise<string[]> {
   try {
     const timeZone = "America/New_York";
     const studio = db().insert(studios).values({ name: "Bench Harbour Studio", timeZone }).returning().get();
-    const teacher = db().insert(users).values({ email: "teacher@bench.example", name: "Bench Teacher", passwordHash: "x", emailVerifiedAt: new Date() }).returning().get();
+    const teacher = db()
+      .insert(users)
+      .values({ email: "teacher@bench.example", name: "Bench Teacher", passwordHash: "x", emailVerifiedAt: new Date() })
+      .returning()
+      .get();
     db().insert(memberships).values({ studioId: studio.id, userId: teacher.id, role: "owner" }).run();
     const stand_in = { chords: [], melodyNotes: [], changes: [], summary: {} } as unknown as TakeAnalysis;
     const now = Date.now();
     const seedStart = performance.now();
     db().transaction((tx) => {
       for (let s = 0; s < STUDENTS; s++) {
-        const student = tx.insert(users).values({ email: `student${s}@bench.example`, name: `Bench Student ${String(s + 1).padStart(2, "0")}`, passwordHash: "x" }).returning().get();
+        const student = tx
+          .insert(users)
+          .values({
+            email: `student${s}@bench.example`,
+            name: `Bench Student ${String(s + 1).padStart(2, "0")}`,
+            passwordHash: "x",
+          })
+          .returning()
+          .get();
         tx.insert(memberships).values({ studioId: studio.id, userId: student.id, role: "student" }).run();
         const rand = seededRandom(s + 1);
         for (let w = 0; w < WEEKS; w++) {
@@ -91,7 +102,11 @@ export async function benchProgressBoard(): Promise<string[]> {
                 score: Math.round(40 + 55 * skill),
                 accuracy: 0.6 + 0.4 * skill,
                 flags: { "root-position-leap": 2 },
-                techniques: { inversion: Math.round(changes * skill), "open-voicing": Math.round(changes * skill * 0.5), "smooth-top-line": skill > 0.5 ? 1 : 0 },
+                techniques: {
+                  inversion: Math.round(changes * skill),
+                  "open-voicing": Math.round(changes * skill * 0.5),
+                  "smooth-top-line": skill > 0.5 ? 1 : 0,
+                },
                 topLine: [],
                 analysis: stand_in,
               })
@@ -105,7 +120,11 @@ export async function benchProgressBoard(): Promise<string[]> {
     /** One loader call as the server makes it, the body read to the end; returns the body text (if any). */
     const run = (handler: unknown, url: string) => async () => {
       const request = new Request(`http://127.0.0.1:3000${url}`, { headers: { Cookie: cookie } });
-      const result = await (handler as (a: unknown) => Promise<unknown>)({ request, params: {}, context: new RouterContextProvider() });
+      const result = await (handler as (a: unknown) => Promise<unknown>)({
+        request,
+        params: {},
+        context: new RouterContextProvider(),
+      });
       return result instanceof Response ? await result.text() : JSON.stringify(result);
     };
     const today = new Date(now).toISOString().slice(0, 10);

@@ -9,7 +9,6 @@ import { BUILD_DIR, buildIfNeeded } from "../lib/runApp";
 import { generateLongTake } from "../lib/takeGenerator";
 import { median } from "./stats";
 
-
 /** Points the app at a throwaway storage folder; call before any app module touches the database. */
 export function useScratchStorage(label: string) {
   const dir = mkdtempSync(path.join(tmpdir(), `nearnote-bench-${label}-`));
@@ -37,7 +36,11 @@ export async function benchTakePage(): Promise<string[]> {
   const { newFileKey, takeStorage } = await import("~/takes/takeFiles.server");
 
   const studio = db().insert(studios).values({ name: "Bench studio" }).returning().get();
-  const student = db().insert(users).values({ email: "bench@student.example", name: "Bench Student", passwordHash: "x" }).returning().get();
+  const student = db()
+    .insert(users)
+    .values({ email: "bench@student.example", name: "Bench Student", passwordHash: "x" })
+    .returning()
+    .get();
   db().insert(memberships).values({ userId: student.id, studioId: studio.id, role: "student" }).run();
   const bytes = generateLongTake(10);
   const fileKey = newFileKey();
@@ -55,7 +58,11 @@ export async function benchTakePage(): Promise<string[]> {
     recordedAt: new Date(),
     outcome: analyseTakeBytes(bytes, {}),
   });
-  const session = db().insert(sessions).values({ userId: student.id, expiresAt: new Date(Date.now() + 86_400_000) }).returning().get();
+  const session = db()
+    .insert(sessions)
+    .values({ userId: student.id, expiresAt: new Date(Date.now() + 86_400_000) })
+    .returning()
+    .get();
   const cookie = (await sessionCookie().serialize(session.id)).split(";")[0];
 
   const build = (await import(pathToFileURL(path.join(BUILD_DIR, "server/index.js")).href)) as ServerBuild;

@@ -30,7 +30,14 @@ export async function benchWorkerPool(): Promise<string[]> {
   const smallMs = performance.now() - t0;
 
   const storage = mkdtempSync(path.join(tmpdir(), "nearnote-bench-pool-"));
-  const env = { ...process.env, STORAGE_DIR: storage, NEARNOTE_ACCESS_LOG: "off", HOST: "127.0.0.1", PORT: String(PORT), NODE_ENV: "production" };
+  const env = {
+    ...process.env,
+    STORAGE_DIR: storage,
+    NEARNOTE_ACCESS_LOG: "off",
+    HOST: "127.0.0.1",
+    PORT: String(PORT),
+    NODE_ENV: "production",
+  };
   const tsx = path.resolve("node_modules/.bin/tsx");
   const seeded = spawnSync(tsx, ["scripts/seed.ts"], { env, encoding: "utf8" });
   if (seeded.status !== 0) throw new Error(seeded.stderr);
@@ -52,7 +59,10 @@ export async function benchWorkerPool(): Promise<string[]> {
       headers: { Origin: BASE },
       redirect: "manual",
     });
-    const cookie = login.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const cookie = login.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     // Let the start-up work (orphan sweep, re-analysis of outdated takes) finish first.
     await new Promise((r) => setTimeout(r, 3000));
     const idle: number[] = [];
@@ -63,7 +73,11 @@ export async function benchWorkerPool(): Promise<string[]> {
     form.append("file", new File([new Uint8Array(bytes)], "dense.mid", { type: "audio/midi" }));
     const started = performance.now();
     let done = false;
-    const upload = fetch(`${BASE}/api/takes`, { method: "POST", body: form, headers: { Cookie: cookie, Origin: BASE } }).then(async (r) => {
+    const upload = fetch(`${BASE}/api/takes`, {
+      method: "POST",
+      body: form,
+      headers: { Cookie: cookie, Origin: BASE },
+    }).then(async (r) => {
       done = true;
       const body = (await r.json()) as { error?: string };
       return { status: r.status, error: body.error, ms: performance.now() - started };
@@ -75,7 +89,8 @@ export async function benchWorkerPool(): Promise<string[]> {
       await new Promise((r) => setTimeout(r, 100));
     }
     const result = await upload;
-    const fmt = (xs: number[]) => `median ${median(xs).toFixed(0)} ms, max ${Math.max(...xs).toFixed(0)} ms (${xs.length} requests)`;
+    const fmt = (xs: number[]) =>
+      `median ${median(xs).toFixed(0)} ms, max ${Math.max(...xs).toFixed(0)} ms (${xs.length} requests)`;
     return [
       "## Worst-case upload and the worker pool",
       `40 random eight-key chords (${small.length} bytes) analysed on one thread: ${smallMs.toFixed(0)} ms (${smallOutcome.ok ? "graded" : smallOutcome.error})`,

@@ -45,7 +45,11 @@ export function parseManifest(source: string): BrowserManifest {
 /** The routes from the root down to `id`. */
 export function routeChain(manifest: BrowserManifest, id: string): ManifestRoute[] {
   const chain: ManifestRoute[] = [];
-  for (let r: ManifestRoute | undefined = manifest.routes[id]; r; r = r.parentId ? manifest.routes[r.parentId] : undefined) {
+  for (
+    let r: ManifestRoute | undefined = manifest.routes[id];
+    r;
+    r = r.parentId ? manifest.routes[r.parentId] : undefined
+  ) {
     if (chain.includes(r)) throw new Error(`route ${id} has a parent cycle`);
     chain.unshift(r);
   }
@@ -69,7 +73,13 @@ export function pageScripts(manifest: BrowserManifest, id: string): string[] {
   return [...files];
 }
 
-export type PageRow = { id: string; url: string; files: number; gzipBytes: number; budget?: { label: string; bytes: number } };
+export type PageRow = {
+  id: string;
+  url: string;
+  files: number;
+  gzipBytes: number;
+  budget?: { label: string; bytes: number };
+};
 
 /**
  * One row per page (a route below the root with a component and a path or an index;
@@ -101,7 +111,9 @@ export function formatBundleReport(rows: PageRow[]): string {
     const budget = r.budget
       ? `  ${r.budget.label} budget ${kb(r.budget.bytes)}: ${r.gzipBytes <= r.budget.bytes ? "within" : "OVER"}`
       : "";
-    lines.push(`  ${r.url.padEnd(width)}  ${kb(r.gzipBytes).padStart(9)}  ${String(r.files).padStart(2)} files${budget}`);
+    lines.push(
+      `  ${r.url.padEnd(width)}  ${kb(r.gzipBytes).padStart(9)}  ${String(r.files).padStart(2)} files${budget}`,
+    );
   }
   return lines.join("\n");
 }

@@ -23,12 +23,20 @@ export function denseChordTake(chords: number, seed = 7): Uint8Array {
     const list = [...keys];
     // Each chord starts a moment after the one before is released.
     list.forEach((noteNumber, i) =>
-      track.push({ deltaTime: c > 0 && i === 0 ? 48 - HELD_TICKS : 0, type: "noteOn", channel: 0, noteNumber, velocity: 70 + Math.floor(rand() * 40) }),
+      track.push({
+        deltaTime: c > 0 && i === 0 ? 48 - HELD_TICKS : 0,
+        type: "noteOn",
+        channel: 0,
+        noteNumber,
+        velocity: 70 + Math.floor(rand() * 40),
+      }),
     );
     list.forEach((noteNumber, i) =>
       track.push({ deltaTime: i === 0 ? HELD_TICKS : 0, type: "noteOff", channel: 0, noteNumber, velocity: 0 }),
     );
   }
   track.push({ deltaTime: 0, type: "endOfTrack", meta: true });
-  return new Uint8Array(writeMidi({ header: { format: 0, numTracks: 1, ticksPerBeat: TICKS_PER_BEAT }, tracks: [track] }));
+  return new Uint8Array(
+    writeMidi({ header: { format: 0, numTracks: 1, ticksPerBeat: TICKS_PER_BEAT }, tracks: [track] }),
+  );
 }

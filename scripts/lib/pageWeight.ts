@@ -12,15 +12,19 @@ type Fetched = { status: number; wireBytes: number; body: Buffer };
 /** GET with gzip accepted; wireBytes is the body as sent (compressed when the server compressed it). */
 function getRaw(url: string, headers: Record<string, string>): Promise<Fetched> {
   return new Promise((resolve, reject) => {
-    const req = http.get(url, { headers: { "accept-encoding": "gzip", "user-agent": PHONE_USER_AGENT, ...headers } }, (res) => {
-      const parts: Buffer[] = [];
-      res.on("data", (d: Buffer) => parts.push(d));
-      res.on("end", () => {
-        const raw = Buffer.concat(parts);
-        resolve({ status: res.statusCode ?? 0, wireBytes: raw.length, body: raw });
-      });
-      res.on("error", reject);
-    });
+    const req = http.get(
+      url,
+      { headers: { "accept-encoding": "gzip", "user-agent": PHONE_USER_AGENT, ...headers } },
+      (res) => {
+        const parts: Buffer[] = [];
+        res.on("data", (d: Buffer) => parts.push(d));
+        res.on("end", () => {
+          const raw = Buffer.concat(parts);
+          resolve({ status: res.statusCode ?? 0, wireBytes: raw.length, body: raw });
+        });
+        res.on("error", reject);
+      },
+    );
     req.on("error", reject);
   });
 }
@@ -54,7 +58,13 @@ export async function firstLoad(url: string, cookie?: string): Promise<FirstLoad
     html = page.body.toString("utf8");
   }
   const origin = new URL(url).origin;
-  const result: FirstLoad = { requests: 1, bytes: page.wireBytes, htmlBytes: page.wireBytes, scriptBytes: 0, styleBytes: 0 };
+  const result: FirstLoad = {
+    requests: 1,
+    bytes: page.wireBytes,
+    htmlBytes: page.wireBytes,
+    scriptBytes: 0,
+    styleBytes: 0,
+  };
   for (const asset of linkedAssets(html)) {
     const got = await getRaw(origin + asset, {});
     if (got.status !== 200) throw new Error(`${asset} answered ${got.status}`);

@@ -34,7 +34,11 @@ export const SAMPLE_TAKES: SampleTake[] = [
     target: "I IV V I",
     shows: { techniques: ["inversion", "smooth-top-line"], accuracy: 1 },
     build: () =>
-      render(twice(exercise("three-chord-smoothing-d").smooth), { bpm: 80, roll: 0.025, velocitySpread: 0.15, jitter: 0.01, twoTracks: true, seed: 11 }, "Three-chord smoothing in D"),
+      render(
+        twice(exercise("three-chord-smoothing-d").smooth),
+        { bpm: 80, roll: 0.025, velocitySpread: 0.15, jitter: 0.01, twoTracks: true, seed: 11 },
+        "Three-chord smoothing in D",
+      ),
   },
   {
     file: "sunday-ballad-ab.mid",
@@ -56,7 +60,11 @@ export const SAMPLE_TAKES: SampleTake[] = [
     target: "iiø7 V7 i",
     shows: { techniques: ["added-second", "grace-to-third", "open-voicing"], graceNotes: true, accuracy: 1 },
     build: () =>
-      render(twice(exercise("minor-colour-g").smooth), { bpm: 72, bassOffset: -0.12, jitter: 0.01, twoTracks: true, seed: 13 }, "Minor colour in G minor"),
+      render(
+        twice(exercise("minor-colour-g").smooth),
+        { bpm: 72, bassOffset: -0.12, jitter: 0.01, twoTracks: true, seed: 13 },
+        "Minor colour in G minor",
+      ),
   },
   {
     file: "falling-bass-eb.mid",
@@ -64,7 +72,12 @@ export const SAMPLE_TAKES: SampleTake[] = [
     key: "Eb",
     target: "Eb Bb/D Cm Cm/Bb Ab",
     shows: { techniques: ["slash-bass", "inversion"], accuracy: 1 },
-    build: () => render(exercise("falling-bass-eb").smooth, { bpm: 76, jitter: 0.01, velocitySpread: 0.12, seed: 14 }, "Falling bass in Eb"),
+    build: () =>
+      render(
+        exercise("falling-bass-eb").smooth,
+        { bpm: 76, jitter: 0.01, velocitySpread: 0.12, seed: 14 },
+        "Falling bass in Eb",
+      ),
   },
   {
     file: "held-bass-d.mid",
@@ -90,7 +103,11 @@ export const SAMPLE_TAKES: SampleTake[] = [
     target: "I IV V I",
     shows: { flags: ["root-position-leap"] },
     build: () =>
-      render(exercise("three-chord-smoothing-d").clumsy, { bpm: 80, jitter: 0.04, velocitySpread: 0.2, seed: 16 }, "Root-position leaps in D"),
+      render(
+        exercise("three-chord-smoothing-d").clumsy,
+        { bpm: 80, jitter: 0.04, velocitySpread: 0.2, seed: 16 },
+        "Root-position leaps in D",
+      ),
   },
   {
     file: "clumsy-top-line-d.mid",
@@ -116,7 +133,11 @@ export const SAMPLE_TAKES: SampleTake[] = [
     target: "Eb Bb/D Cm Cm/Bb Ab",
     shows: { flags: ["doubled-bass-third", "muddy-low-interval"] },
     build: () =>
-      render(exercise("falling-bass-eb").clumsy, { bpm: 76, jitter: 0.03, twoTracks: true, seed: 18 }, "Falling bass, first try"),
+      render(
+        exercise("falling-bass-eb").clumsy,
+        { bpm: 76, jitter: 0.03, twoTracks: true, seed: 18 },
+        "Falling bass, first try",
+      ),
   },
   {
     file: "forearm-cluster.mid",

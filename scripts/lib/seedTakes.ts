@@ -18,7 +18,12 @@ const WEEKS = 12;
  * chords: who played which texture, for which exercise (null: free practice), how long ago.
  */
 const TEXTURED: Array<{ email: string; file: string; exercise: string | null; weeksAgo: number }> = [
-  { email: "lena@tidewater.example", file: "texture-pedalled-ballad-ab.mid", exercise: "Sunday ballad in A♭", weeksAgo: 1 },
+  {
+    email: "lena@tidewater.example",
+    file: "texture-pedalled-ballad-ab.mid",
+    exercise: "Sunday ballad in A♭",
+    weeksAgo: 1,
+  },
   { email: "dara@tidewater.example", file: "texture-broken-chords-d.mid", exercise: null, weeksAgo: 0 },
   { email: "yuki@tidewater.example", file: "texture-shells-melody-bb.mid", exercise: null, weeksAgo: 1 },
   { email: "felix@tidewater.example", file: "texture-melody-over-chords-c.mid", exercise: null, weeksAgo: 2 },
@@ -58,8 +63,18 @@ export async function seedDemoTakes(database: Db, studioId: string, now = new Da
         const plan = EXERCISES[Math.floor(rand() * EXERCISES.length)];
         const exercise = studioExercises.find((e) => e.title === plan.title) ?? null;
         const bytes = generateTake({ exercise: plan, skill, seed: si * 1000 + week * 10 + t, loops: 3 });
-        const recordedAt = new Date(now.getTime() - weeksAgo * 7 * DAY - Math.floor(rand() * 6) * DAY - 3_600_000 * (1 + rand() * 5));
-        await storeTake(studioId, student.id, exercise, exercise ? plan.key : null, bytes, `${plan.id}-week${week + 1}.mid`, recordedAt);
+        const recordedAt = new Date(
+          now.getTime() - weeksAgo * 7 * DAY - Math.floor(rand() * 6) * DAY - 3_600_000 * (1 + rand() * 5),
+        );
+        await storeTake(
+          studioId,
+          student.id,
+          exercise,
+          exercise ? plan.key : null,
+          bytes,
+          `${plan.id}-week${week + 1}.mid`,
+          recordedAt,
+        );
         made++;
       }
     }

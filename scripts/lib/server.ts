@@ -38,7 +38,10 @@ export async function createApp(buildDir: string) {
     for (const [k, v] of Object.entries(BASE_HEADERS)) res.setHeader(k, v);
     res.setHeader("Content-Security-Policy", contentSecurityPolicy(null));
   };
-  app.use("/assets", express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }));
+  app.use(
+    "/assets",
+    express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }),
+  );
   app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }));
   if (config.accessLog) app.use(morgan("tiny"));
   // Sign-in throttling keys on the client address. Unless a trusted proxy sets it

@@ -189,7 +189,12 @@ export function writeTake(performed: ReturnType<typeof performChords>, timing: H
     left.channel = 1;
   }
   for (const n of performed.notes) {
-    (n.hand === "lh" ? left : right).addNote({ midi: n.midi, time: n.time, duration: n.duration, velocity: n.velocity });
+    (n.hand === "lh" ? left : right).addNote({
+      midi: n.midi,
+      time: n.time,
+      duration: n.duration,
+      velocity: n.velocity,
+    });
   }
   for (const p of performed.pedal) {
     right.addCC({ number: 64, value: 1, time: p.on });
@@ -251,6 +256,15 @@ export function generateLongTake(minutes = 10, seed = 42): Uint8Array {
     const c = base[i % base.length];
     plan.push({ lh: c.lh.map((n) => n + shift), rh: c.rh.map((n) => n + shift) });
   }
-  const timing: HumanTiming = { bpm, beats: slotBeats, jitter: 0.015, roll: 0.012, velocitySpread: 0.12, twoTracks: true, pedal: true, seed };
+  const timing: HumanTiming = {
+    bpm,
+    beats: slotBeats,
+    jitter: 0.015,
+    roll: 0.012,
+    velocitySpread: 0.12,
+    twoTracks: true,
+    pedal: true,
+    seed,
+  };
   return writeTake(performChords(plan, timing), timing, "Benchmark take");
 }

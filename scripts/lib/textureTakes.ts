@@ -46,7 +46,8 @@ export type TextureTake = {
   };
 };
 
-const chord = (at: number, len: number, midis: number[], hand: "lh" | "rh" = "rh"): BeatNote[] => midis.map((midi) => ({ midi, at, len, hand }));
+const chord = (at: number, len: number, midis: number[], hand: "lh" | "rh" = "rh"): BeatNote[] =>
+  midis.map((midi) => ({ midi, at, len, hand }));
 const line = (at: number, items: Array<[number, number]>, hand: "lh" | "rh" = "rh"): BeatNote[] => {
   const out: BeatNote[] = [];
   let t = at;
@@ -59,10 +60,32 @@ const line = (at: number, items: Array<[number, number]>, hand: "lh" | "rh" = "r
 const bars = <T>(n: number, per: (bar: number) => T[]): T[] => Array.from({ length: n }, (_, i) => per(i)).flat();
 
 // MIDI numbers: C4 = 60.
-const C2 = 36, D2 = 38, E2 = 40, F2 = 41, G2 = 43, A2 = 45, B2 = 47;
-const C3 = 48, D3 = 50, E3 = 52, F3 = 53, G3 = 55, A3 = 57, B3 = 59;
-const C4 = 60, D4 = 62, E4 = 64, F4 = 65, G4 = 67, A4 = 69, B4 = 71;
-const C5 = 72, D5 = 74, E5 = 76, F5 = 77, G5 = 79;
+const C2 = 36,
+  D2 = 38,
+  E2 = 40,
+  F2 = 41,
+  G2 = 43,
+  A2 = 45,
+  B2 = 47;
+const C3 = 48,
+  D3 = 50,
+  E3 = 52,
+  F3 = 53,
+  G3 = 55,
+  A3 = 57,
+  B3 = 59;
+const C4 = 60,
+  D4 = 62,
+  E4 = 64,
+  F4 = 65,
+  G4 = 67,
+  A4 = 69,
+  B4 = 71;
+const C5 = 72,
+  D5 = 74,
+  E5 = 76,
+  F5 = 77,
+  G5 = 79;
 
 /** F7 B♭7 F7 C7: a walking bass in quarters, by bar (shared by the two walking-bass takes). */
 const WALKING_BASS = [
@@ -75,7 +98,8 @@ const WALKING_BASS = [
 export const TEXTURE_TAKES: TextureTake[] = [
   {
     file: "texture-pedalled-ballad-ab.mid",
-    about: "vi IV I V in A♭: a left-hand octave struck and let go under the pedal, the right hand re-striking its chord on every beat",
+    about:
+      "vi IV I V in A♭: a left-hand octave struck and let go under the pedal, the right hand re-striking its chord on every beat",
     key: "Ab",
     target: "vi IV I V",
     bpm: 66,
@@ -90,7 +114,12 @@ export const TEXTURE_TAKES: TextureTake[] = [
       return [...chord(b * 4, 0.9, [lo, lo + 12], "lh"), ...[0, 1, 2, 3].flatMap((k) => chord(b * 4 + k, 0.8, rh))];
     }),
     pedal: [0, 1, 2, 3].map((b) => [b * 4 + 0.15, b * 4 + 3.9] as [number, number]),
-    expect: { symbols: ["Fm", "Db", "Ab", "Eb"], basses: ["F", "Db", "Ab", "Eb"], accuracy: 1, notTechniques: ["slash-bass"] },
+    expect: {
+      symbols: ["Fm", "Db", "Ab", "Eb"],
+      basses: ["F", "Db", "Ab", "Eb"],
+      accuracy: 1,
+      notTechniques: ["slash-bass"],
+    },
   },
   {
     file: "texture-broken-chords-d.mid",
@@ -109,13 +138,20 @@ export const TEXTURE_TAKES: TextureTake[] = [
       const third = [4, 3, 4, 4][b];
       const pattern = [root, root + 7, root + 12, root + 12 + third];
       return [
-        ...[0, 2].flatMap((half) => pattern.map((m, k) => ({ midi: m, at: b * 4 + half + k * 0.5, len: 0.45, hand: "lh" as const }))),
+        ...[0, 2].flatMap((half) =>
+          pattern.map((m, k) => ({ midi: m, at: b * 4 + half + k * 0.5, len: 0.45, hand: "lh" as const })),
+        ),
         ...chord(b * 4, 1.8, rh),
         ...chord(b * 4 + 2, 1.8, rh),
       ];
     }),
     pedal: [0, 1, 2, 3].map((b) => [b * 4 + 0.15, b * 4 + 3.9] as [number, number]),
-    expect: { symbols: ["D", "Bm", "G", "A"], basses: ["D", "B", "G", "A"], accuracy: 1, notTechniques: ["slash-bass"] },
+    expect: {
+      symbols: ["D", "Bm", "G", "A"],
+      basses: ["D", "B", "G", "A"],
+      accuracy: 1,
+      notTechniques: ["slash-bass"],
+    },
   },
   {
     file: "texture-arpeggios-c.mid",
@@ -134,7 +170,10 @@ export const TEXTURE_TAKES: TextureTake[] = [
         [B3, D4, G4, B4],
       ][b];
       const run = [...up, up[2], up[1], up[0], up[1]];
-      return [...chord(b * 4, 3.9, [root], "lh"), ...run.map((m, k) => ({ midi: m, at: b * 4 + k * 0.5, len: 0.45, hand: "rh" as const }))];
+      return [
+        ...chord(b * 4, 3.9, [root], "lh"),
+        ...run.map((m, k) => ({ midi: m, at: b * 4 + k * 0.5, len: 0.45, hand: "rh" as const })),
+      ];
     }),
     expect: { symbols: ["C", "Am", "F", "G"], basses: ["C", "A", "F", "G"], accuracy: 1, melody: false },
   },
@@ -147,10 +186,24 @@ export const TEXTURE_TAKES: TextureTake[] = [
     seed: 104,
     notes: bars(4, (b) => {
       const walk = WALKING_BASS[b];
-      const shell = [[A3, E4 - 1], [A3 - 1, D4], [A3, E4 - 1], [B3 - 1, E4]][b];
-      return [...chord(b * 4, 3.9, shell), ...walk.map((m, k) => ({ midi: m, at: b * 4 + k, len: 0.95, hand: "lh" as const }))];
+      const shell = [
+        [A3, E4 - 1],
+        [A3 - 1, D4],
+        [A3, E4 - 1],
+        [B3 - 1, E4],
+      ][b];
+      return [
+        ...chord(b * 4, 3.9, shell),
+        ...walk.map((m, k) => ({ midi: m, at: b * 4 + k, len: 0.95, hand: "lh" as const })),
+      ];
     }),
-    expect: { symbols: ["F7", "Bb7", "F7", "C7"], basses: ["F", "Bb", "F", "C"], bassLine: true, accuracy: 1, notTechniques: ["slash-bass"] },
+    expect: {
+      symbols: ["F7", "Bb7", "F7", "C7"],
+      basses: ["F", "Bb", "F", "C"],
+      bassLine: true,
+      accuracy: 1,
+      notTechniques: ["slash-bass"],
+    },
   },
   {
     file: "texture-walking-bass-comping-f.mid",
@@ -161,7 +214,12 @@ export const TEXTURE_TAKES: TextureTake[] = [
     seed: 105,
     notes: bars(4, (b) => {
       const walk = WALKING_BASS[b];
-      const comp = [[A3, C4, E4 - 1], [A3 - 1, D4, F4], [A3, C4, E4 - 1], [B3 - 1, E4, G4]][b];
+      const comp = [
+        [A3, C4, E4 - 1],
+        [A3 - 1, D4, F4],
+        [A3, C4, E4 - 1],
+        [B3 - 1, E4, G4],
+      ][b];
       const second = b % 2 === 0 ? 2.5 : 2;
       return [
         ...chord(b * 4, 0.4, comp),
@@ -169,7 +227,13 @@ export const TEXTURE_TAKES: TextureTake[] = [
         ...walk.map((m, k) => ({ midi: m, at: b * 4 + k, len: 0.9, hand: "lh" as const })),
       ];
     }),
-    expect: { symbols: ["F7", "Bb7", "F7", "C7"], basses: ["F", "Bb", "F", "C"], bassLine: true, accuracy: 1, notTechniques: ["slash-bass"] },
+    expect: {
+      symbols: ["F7", "Bb7", "F7", "C7"],
+      basses: ["F", "Bb", "F", "C"],
+      bassLine: true,
+      accuracy: 1,
+      notTechniques: ["slash-bass"],
+    },
   },
   {
     file: "texture-melody-over-chords-c.mid",
@@ -183,12 +247,39 @@ export const TEXTURE_TAKES: TextureTake[] = [
       ...chord(4, 3.9, [A2, E3, C4], "lh"),
       ...chord(8, 3.9, [F2, C3, A3], "lh"),
       ...chord(12, 3.9, [G2, D3, B3], "lh"),
-      ...line(0, [[E5, 1], [D5, 0.5], [C5, 1.5], [B4, 0.5], [C5, 0.5]]),
-      ...line(4, [[C5, 1], [D5, 0.5], [C5, 1], [B4, 0.5], [A4, 1]]),
-      ...line(8, [[A4, 1], [G4, 0.5], [F4, 1.5], [A4, 1]]),
-      ...line(12, [[D5, 1], [C5, 0.5], [B4, 2.5]]),
+      ...line(0, [
+        [E5, 1],
+        [D5, 0.5],
+        [C5, 1.5],
+        [B4, 0.5],
+        [C5, 0.5],
+      ]),
+      ...line(4, [
+        [C5, 1],
+        [D5, 0.5],
+        [C5, 1],
+        [B4, 0.5],
+        [A4, 1],
+      ]),
+      ...line(8, [
+        [A4, 1],
+        [G4, 0.5],
+        [F4, 1.5],
+        [A4, 1],
+      ]),
+      ...line(12, [
+        [D5, 1],
+        [C5, 0.5],
+        [B4, 2.5],
+      ]),
     ],
-    expect: { symbols: ["C", "Am", "F", "G"], basses: ["C", "A", "F", "G"], melody: true, nonChordTones: ["passing", "neighbour"], accuracy: 1 },
+    expect: {
+      symbols: ["C", "Am", "F", "G"],
+      basses: ["C", "A", "F", "G"],
+      melody: true,
+      nonChordTones: ["passing", "neighbour"],
+      accuracy: 1,
+    },
   },
   {
     file: "texture-shells-melody-bb.mid",
@@ -201,11 +292,30 @@ export const TEXTURE_TAKES: TextureTake[] = [
       ...chord(0, 3.9, [C3, B3 - 1, E4 - 1], "lh"),
       ...chord(4, 3.9, [F2, E3 - 1, A3], "lh"),
       ...chord(8, 7.9, [B2 - 1, A3, D4], "lh"),
-      ...line(0, [[G5, 1], [F5, 0.5], [E5 - 1, 1.5], [D5, 1]]),
-      ...line(4, [[C5, 1.5], [B4 - 1, 0.5], [A4, 2]]),
-      ...line(8, [[B4 - 1, 2], [C5, 1], [D5, 5]]),
+      ...line(0, [
+        [G5, 1],
+        [F5, 0.5],
+        [E5 - 1, 1.5],
+        [D5, 1],
+      ]),
+      ...line(4, [
+        [C5, 1.5],
+        [B4 - 1, 0.5],
+        [A4, 2],
+      ]),
+      ...line(8, [
+        [B4 - 1, 2],
+        [C5, 1],
+        [D5, 5],
+      ]),
     ],
-    expect: { symbols: ["Cm7", "F7", "Bbmaj7"], basses: ["C", "F", "Bb"], melody: true, nonChordTones: ["passing"], accuracy: 1 },
+    expect: {
+      symbols: ["Cm7", "F7", "Bbmaj7"],
+      basses: ["C", "F", "Bb"],
+      melody: true,
+      nonChordTones: ["passing"],
+      accuracy: 1,
+    },
   },
   {
     file: "texture-rootless-ii-v-i-c.mid",
@@ -236,7 +346,11 @@ export const TEXTURE_TAKES: TextureTake[] = [
       ...chord(r * 12 + 8, 3.9, [C2], "lh"),
       ...chord(r * 12 + 8, 3.9, [E3, G3, B3, D4]),
     ]),
-    expect: { symbols: ["Dm9", "G13", "Cmaj9", "Dm9", "G13", "Cmaj9"], basses: ["D", "G", "C", "D", "G", "C"], accuracy: 1 },
+    expect: {
+      symbols: ["Dm9", "G13", "Cmaj9", "Dm9", "G13", "Cmaj9"],
+      basses: ["D", "G", "C", "D", "G", "C"],
+      accuracy: 1,
+    },
   },
   {
     file: "texture-moving-finger-g.mid",
@@ -281,7 +395,12 @@ export const TEXTURE_TAKES: TextureTake[] = [
     bpm: 72,
     seed: 112,
     notes: [
-      ...[[F3, [A3, C4], G3 + 1], [B2 - 1, [D4, F4], C4 + 1], [C3, [E4, G4], D4 + 1], [F3, [A3, C4], G3 + 1]].flatMap(([bass, rh, grace], k) => {
+      ...[
+        [F3, [A3, C4], G3 + 1],
+        [B2 - 1, [D4, F4], C4 + 1],
+        [C3, [E4, G4], D4 + 1],
+        [F3, [A3, C4], G3 + 1],
+      ].flatMap(([bass, rh, grace], k) => {
         const [third, fifth] = rh as number[];
         return [
           { midi: bass as number, at: k * 2, len: 1.9, hand: "lh" as const },
@@ -291,7 +410,12 @@ export const TEXTURE_TAKES: TextureTake[] = [
         ];
       }),
     ],
-    expect: { symbols: ["F", "Bb", "C", "F"], basses: ["F", "Bb", "C", "F"], nonChordTones: ["grace"], techniques: ["grace-to-third"] },
+    expect: {
+      symbols: ["F", "Bb", "C", "F"],
+      basses: ["F", "Bb", "C", "F"],
+      nonChordTones: ["grace"],
+      techniques: ["grace-to-third"],
+    },
   },
   {
     file: "texture-altered-sevenths-c.mid",
@@ -324,7 +448,11 @@ export const TEXTURE_TAKES: TextureTake[] = [
         [D3, [C4, F4 + 1, A4]],
         [G2, [B3, D4, G4]],
       ][b] as [number, number[]];
-      return [{ midi: bass, at: b * 3, len: 0.95, hand: "lh" as const }, ...chord(b * 3 + 1, 0.9, rh), ...chord(b * 3 + 2, 0.9, rh)];
+      return [
+        { midi: bass, at: b * 3, len: 0.95, hand: "lh" as const },
+        ...chord(b * 3 + 1, 0.9, rh),
+        ...chord(b * 3 + 2, 0.9, rh),
+      ];
     }),
     pedal: [0, 1, 2, 3].map((b) => [b * 3 + 0.1, b * 3 + 2.9] as [number, number]),
     expect: { symbols: ["G", "C", "D7", "G"], basses: ["G", "C", "D", "G"], accuracy: 1 },
@@ -357,7 +485,13 @@ export function performTexture(t: TextureTake) {
   const notes = t.notes.map((n) => {
     const start = onset(n);
     const end = timeOf(n.at + n.len) - 0.02;
-    return { midi: n.midi, time: start, duration: Math.max(0.05, end - start), velocity: Math.min(1, Math.max(0.25, 0.65 + 0.08 * gaussian(rand))), hand: n.hand };
+    return {
+      midi: n.midi,
+      time: start,
+      duration: Math.max(0.05, end - start),
+      velocity: Math.min(1, Math.max(0.25, 0.65 + 0.08 * gaussian(rand))),
+      hand: n.hand,
+    };
   });
   const pedal = (t.pedal ?? []).map(([on, off]) => ({ on: timeOf(on), off: timeOf(off) }));
   return { notes, pedal };
@@ -375,7 +509,13 @@ export function writeTexture(t: TextureTake): Uint8Array {
   const left = midi.addTrack();
   left.name = "Left hand";
   left.channel = 1;
-  for (const n of played.notes) (n.hand === "lh" ? left : right).addNote({ midi: n.midi, time: n.time, duration: n.duration, velocity: n.velocity });
+  for (const n of played.notes)
+    (n.hand === "lh" ? left : right).addNote({
+      midi: n.midi,
+      time: n.time,
+      duration: n.duration,
+      velocity: n.velocity,
+    });
   for (const p of played.pedal) {
     right.addCC({ number: 64, value: 1, time: p.on });
     right.addCC({ number: 64, value: 0, time: p.off });

@@ -8,7 +8,13 @@ async function expectNoSeriousViolations(page: Page, label: string) {
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
   const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
   expect(
-    serious.map((v) => `${label}: ${v.id} (${v.impact}) ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`),
+    serious.map(
+      (v) =>
+        `${label}: ${v.id} (${v.impact}) ${v.help} → ${v.nodes
+          .map((n) => n.target.join(" "))
+          .slice(0, 3)
+          .join(", ")}`,
+    ),
   ).toEqual([]);
 }
 
@@ -55,13 +61,16 @@ test("teacher pages: board and a printable report", async ({ page }) => {
 
 test("the take page works from the keyboard alone", async ({ page }) => {
   await signIn(page, "yuki@tidewater.example");
-  const { takes } = (await (await page.request.get("/api/takes")).json()) as { takes: { id: string; rootPositionLeaps: number | null }[] };
+  const { takes } = (await (await page.request.get("/api/takes")).json()) as {
+    takes: { id: string; rootPositionLeaps: number | null }[];
+  };
   const flagged = takes.find((t) => (t.rootPositionLeaps ?? 0) > 0) ?? takes[0];
   await page.goto(`/takes/${flagged.id}`);
   await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
   // Tab to the play button and press it, without the mouse.
   const play = page.getByRole("button", { name: /play take/i });
-  for (let i = 0; i < 40 && !(await play.evaluate((el) => el === document.activeElement)); i++) await page.keyboard.press("Tab");
+  for (let i = 0; i < 40 && !(await play.evaluate((el) => el === document.activeElement)); i++)
+    await page.keyboard.press("Tab");
   await expect(play).toBeFocused();
   await page.keyboard.press("Enter");
   await expect(page.getByRole("button", { name: /stop/i }).first()).toBeEnabled();

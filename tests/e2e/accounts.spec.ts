@@ -13,7 +13,10 @@ async function openMail(page: Page, to: string, subject: RegExp) {
   await expect(page.getByRole("heading", { name: subject })).toBeVisible();
 }
 
-test("a teacher signs up, verifies, invites a student, and the student joins from the mailed link", async ({ page, browser }) => {
+test("a teacher signs up, verifies, invites a student, and the student joins from the mailed link", async ({
+  page,
+  browser,
+}) => {
   const run = Date.now().toString(36);
   const teacherEmail = `teacher-${run}@harbour.example`;
   const studentEmail = `student-${run}@harbour.example`;
@@ -59,7 +62,9 @@ test("a teacher signs up, verifies, invites a student, and the student joins fro
   await student.waitForURL(/\/home$/);
   await expect(student.getByRole("heading", { name: "Hello, Pip" })).toBeVisible();
   await expect(student.getByText("Welcome to Harbour Lights.")).toBeVisible();
-  await expect(student.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Students" })).toHaveCount(0);
+  await expect(student.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Students" })).toHaveCount(
+    0,
+  );
 
   // The same link does not work twice.
   await student.goBack();
@@ -70,7 +75,11 @@ test("a teacher signs up, verifies, invites a student, and the student joins fro
 
   // The teacher sees the new student on the roster.
   await page.reload();
-  await expect(page.getByRole("table", { name: "Students of the studio" }).getByRole("cell", { name: "Pip Lindqvist", exact: true })).toBeVisible();
+  await expect(
+    page
+      .getByRole("table", { name: "Students of the studio" })
+      .getByRole("cell", { name: "Pip Lindqvist", exact: true }),
+  ).toBeVisible();
 });
 
 test("a signed-out visitor is sent to sign in and brought back", async ({ page }) => {

@@ -2,7 +2,9 @@ import { readFileSync } from "node:fs";
 import { parse } from "csv-parse/sync";
 import { expect, signIn, test } from "./fixtures";
 
-test("the demo teacher sorts the board, switches the chart in place, downloads the CSV and opens a report", async ({ page }) => {
+test("the demo teacher sorts the board, switches the chart in place, downloads the CSV and opens a report", async ({
+  page,
+}) => {
   // Board, chart, CSV, student page and a saved report in one run: more than the default minute on a busy machine.
   test.setTimeout(120_000);
   await signIn(page, "ines@tidewater.example");
@@ -37,7 +39,9 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   const caption = page.getByTestId("chart-caption");
   await expect(caption).toContainText("Mean score per week");
   await expect(page.locator(".recharts-line").first()).toBeVisible();
-  const apiCall = page.waitForResponse((r) => r.url().includes("/board.data?") && r.url().includes("metric=smoothness") && r.status() === 200);
+  const apiCall = page.waitForResponse(
+    (r) => r.url().includes("/board.data?") && r.url().includes("metric=smoothness") && r.status() === 200,
+  );
   await page.getByLabel("Metric").selectOption("smoothness");
   await apiCall;
   await expect(caption).toContainText("Smoothness per week");
@@ -45,10 +49,18 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   expect(await page.evaluate(() => (window as unknown as { boardMarker?: string }).boardMarker)).toBe("still here");
   // The screen-reader table follows the chart: percentages now, not scores.
   await page.getByText("Show the chart as a table").click();
-  await expect(page.getByRole("table", { name: /smoothness per week/i }).getByRole("cell").first()).toContainText(/%|–/);
+  await expect(
+    page
+      .getByRole("table", { name: /smoothness per week/i })
+      .getByRole("cell")
+      .first(),
+  ).toContainText(/%|–/);
 
   // Download the CSV for the current choice: one row per student per week of the range.
-  const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download CSV" }).click()]);
+  const [download] = await Promise.all([
+    page.waitForEvent("download"),
+    page.getByRole("link", { name: "Download CSV" }).click(),
+  ]);
   expect(download.suggestedFilename()).toMatch(/^nearnote-progress-\d{4}-\d{2}-\d{2}-to-\d{4}-\d{2}-\d{2}\.csv$/);
   const records: Record<string, string>[] = parse(readFileSync(await download.path()), { columns: true });
   const students = new Set(records.map((r) => r["Student ID"]));
@@ -64,7 +76,9 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   await expect(page.getByRole("heading", { level: 1, name: "Dara Okafor" })).toBeVisible();
   await page.getByRole("link", { name: "Printable report" }).click();
   await expect(page.getByRole("article", { name: "Dara Okafor" })).toBeVisible();
-  await page.getByLabel(/a few sentences/i).fill("Dara's changes got much smoother this term; next, open voicings in A♭.");
+  await page
+    .getByLabel(/a few sentences/i)
+    .fill("Dara's changes got much smoother this term; next, open voicings in A♭.");
   await page.getByRole("button", { name: "Save report" }).click();
   await expect(page).toHaveURL(/report=/);
   await expect(page.getByRole("article")).toContainText("open voicings in A♭");

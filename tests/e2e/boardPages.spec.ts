@@ -5,7 +5,9 @@ import { expect, signIn, test } from "./fixtures";
 // pages have no serious or critical violation.
 async function seriousViolations(page: import("@playwright/test").Page) {
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
-  return results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.help}`);
+  return results.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map((v) => `${v.id}: ${v.help}`);
 }
 
 test("a student's progress page and the studio time zone are readable and reachable", async ({ page }) => {

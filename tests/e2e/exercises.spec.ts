@@ -26,15 +26,28 @@ function blockChordTake(): Buffer {
   ];
   const events: MidiEvent[] = [];
   for (const chord of chords) {
-    chord.forEach((n, i) => events.push({ deltaTime: i === 0 ? 40 : 0, type: "noteOn", channel: 0, noteNumber: n, velocity } as MidiEvent));
-    chord.forEach((n, i) => events.push({ deltaTime: i === 0 ? 440 : 0, type: "noteOff", channel: 0, noteNumber: n, velocity: 0 } as MidiEvent));
+    chord.forEach((n, i) =>
+      events.push({ deltaTime: i === 0 ? 40 : 0, type: "noteOn", channel: 0, noteNumber: n, velocity } as MidiEvent),
+    );
+    chord.forEach((n, i) =>
+      events.push({
+        deltaTime: i === 0 ? 440 : 0,
+        type: "noteOff",
+        channel: 0,
+        noteNumber: n,
+        velocity: 0,
+      } as MidiEvent),
+    );
   }
   events.push({ deltaTime: 0, type: "endOfTrack", meta: true } as MidiEvent);
   const data = { header: { format: 0, numTracks: 1, ticksPerBeat: 480 }, tracks: [events] } as MidiData;
   return Buffer.from(writeMidi(data));
 }
 
-test("the teacher sets an exercise, the student sends a take, the teacher comments on a flagged change, the student reads it there", async ({ browser, consoleErrors }) => {
+test("the teacher sets an exercise, the student sends a take, the teacher comments on a flagged change, the student reads it there", async ({
+  browser,
+  consoleErrors,
+}) => {
   // Two people, two sign-ins and an upload on a shared two-core machine: more than the default minute.
   test.setTimeout(180_000);
   const title = `Block chords in D ${Date.now() % 100000}`;
@@ -68,13 +81,18 @@ test("the teacher sets an exercise, the student sends a take, the teacher commen
   await student.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Exercises" }).click();
   await student.getByRole("link", { name: title, exact: true }).click();
   await student.getByRole("link", { name: "Upload or record in D" }).click();
-  await student.getByLabel("MIDI files").setInputFiles({ name: "block-chords.mid", mimeType: "audio/midi", buffer: blockChordTake() });
+  await student
+    .getByLabel("MIDI files")
+    .setInputFiles({ name: "block-chords.mid", mimeType: "audio/midi", buffer: blockChordTake() });
   await student.getByRole("button", { name: /^Upload/ }).click();
   await expect(student.getByTestId("upload-row").first()).toHaveAttribute("data-stage", "analysed");
 
   // The teacher opens the take from the exercise and pins a comment to the flagged change.
   await teacher.goto(exerciseUrl);
-  await teacher.getByRole("row", { name: /Dara Okafor/ }).getByRole("link", { name: /latest/ }).click();
+  await teacher
+    .getByRole("row", { name: /Dara Okafor/ })
+    .getByRole("link", { name: /latest/ })
+    .click();
   await expect(teacher.getByRole("heading", { level: 1, name: title })).toBeVisible();
   await expect(teacher.getByTestId("grading-accuracy")).toHaveText("100%");
   await expect(teacher.getByRole("heading", { name: "Change 1: D → G" })).toBeVisible();
@@ -122,7 +140,15 @@ test("the teacher's exercise pages and review queue pass axe", async ({ page }) 
   const check = async (label: string) => {
     const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
     const serious = results.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-    expect(serious.map((v) => `${label}: ${v.id} ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`)).toEqual([]);
+    expect(
+      serious.map(
+        (v) =>
+          `${label}: ${v.id} ${v.help} → ${v.nodes
+            .map((n) => n.target.join(" "))
+            .slice(0, 3)
+            .join(", ")}`,
+      ),
+    ).toEqual([]);
   };
   await signIn(page, "ines@tidewater.example");
   await page.goto("/exercises");

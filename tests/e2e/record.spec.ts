@@ -10,7 +10,11 @@ type Scripted = { at: number; data: number[] };
 
 declare global {
   interface Window {
-    __fakeMidi: { play: (events: Scripted[]) => Promise<void>; send: (data: number[]) => void; listening: () => boolean };
+    __fakeMidi: {
+      play: (events: Scripted[]) => Promise<void>;
+      send: (data: number[]) => void;
+      listening: () => boolean;
+    };
   }
 }
 
@@ -52,7 +56,8 @@ function installFakeMidi(mode: string) {
     removeEventListener() {},
   };
   Object.defineProperty(nav, "requestMIDIAccess", { configurable: true, value: () => Promise.resolve(access) });
-  const deliver = (data: number[], timeStamp: number) => input.onmidimessage?.({ data: new Uint8Array(data), timeStamp });
+  const deliver = (data: number[], timeStamp: number) =>
+    input.onmidimessage?.({ data: new Uint8Array(data), timeStamp });
   window.__fakeMidi = {
     listening: () => input.onmidimessage !== null,
     send: (data) => deliver(data, performance.now()),
@@ -86,7 +91,9 @@ async function openRecorder(page: Page) {
   return page.getByTestId("record-panel");
 }
 
-test("a student records I IV V I in D, sees each change graded while playing, uploads once and finds the same on the take page", async ({ page }) => {
+test("a student records I IV V I in D, sees each change graded while playing, uploads once and finds the same on the take page", async ({
+  page,
+}) => {
   await page.addInitScript(installFakeMidi, "keyboard");
   const posts: string[] = [];
   page.on("request", (r) => {
@@ -127,12 +134,18 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await expect(symbols).toHaveText(["D", "G/D", "A/C♯"]);
   await expect(panel.getByTestId("live-chord").last()).toHaveAttribute("data-settled", "yes");
   const motions = panel.getByTestId("live-change-motion");
-  await expect(motions).toHaveText(["moved 3 · best 3 · as smooth as it gets", "moved 6 · best 6 · as smooth as it gets"]);
+  await expect(motions).toHaveText([
+    "moved 3 · best 3 · as smooth as it gets",
+    "moved 6 · best 6 · as smooth as it gets",
+  ]);
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
 
   // Back to D, then a block leap up to G: every voice +5 in root position (RULES.md worked
   // example): motion 15, best 3, flagged.
-  await page.evaluate((events) => window.__fakeMidi.play(events), [...chord(0, [62, 66, 69]), ...chord(500, [67, 71, 74], 600)].sort(byTime));
+  await page.evaluate(
+    (events) => window.__fakeMidi.play(events),
+    [...chord(0, [62, 66, 69]), ...chord(500, [67, 71, 74], 600)].sort(byTime),
+  );
   await expect(symbols).toHaveText(["D", "G/D", "A/C♯", "D", "G"]);
   await expect(motions.last()).toHaveAttribute("data-motion", "15");
   await expect(motions.last()).toHaveAttribute("data-best", "3");
@@ -143,10 +156,18 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await panel.getByRole("button", { name: "Stop" }).click();
   await expect(panel.getByTestId("record-status")).toContainText("Recording finished");
   await expect(panel).toContainText(/recording-\d{4}-\d{2}-\d{2}-\d{4}\.mid/);
-  await expect(motions.evaluateAll((els) => els.map((e) => e.getAttribute("data-motion")))).resolves.toEqual(["3", "6", "3", "15"]);
+  await expect(motions.evaluateAll((els) => els.map((e) => e.getAttribute("data-motion")))).resolves.toEqual([
+    "3",
+    "6",
+    "3",
+    "15",
+  ]);
 
   // axe-core (Deque's rules engine, WCAG 2.x A/AA): no serious or critical violation in the panel.
-  const axe = await new AxeBuilder({ page }).include('[data-testid="record-panel"]').withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  const axe = await new AxeBuilder({ page })
+    .include('[data-testid="record-panel"]')
+    .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"])
+    .analyze();
   expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => v.id)).toEqual([]);
 
   // Play it back in the browser, then stop.
@@ -175,7 +196,9 @@ test("a student records I IV V I in D, sees each change graded while playing, up
   await expect(page.getByRole("heading", { level: 1, name: "Three-chord smoothing in D" })).toBeVisible();
   await expect(page.getByTestId("chord-symbol")).toHaveText(["D", "G/D", "A/C♯", "D", "G"]);
   await expect(page.getByTestId("change-motion")).toHaveText(["3", "6", "3", "15"]);
-  await expect(page.getByTestId("change-row").last().getByTestId("flag-explanation")).toContainText("Whole hand jumped");
+  await expect(page.getByTestId("change-row").last().getByTestId("flag-explanation")).toContainText(
+    "Whole hand jumped",
+  );
   await page.screenshot({ path: "test-results/record-take-page.png", fullPage: true });
 });
 
@@ -187,7 +210,9 @@ test("a recording in progress asks before the tab is closed", async ({ page }) =
   await panel.getByRole("button", { name: "Record" }).click();
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
   // The keyboard used is remembered for the next visit.
-  expect(await page.evaluate(() => localStorage.getItem("nearnote.recorder.input"))).toBe(JSON.stringify({ id: "scripted-1", name: "Scripted keyboard" }));
+  expect(await page.evaluate(() => localStorage.getItem("nearnote.recorder.input"))).toBe(
+    JSON.stringify({ id: "scripted-1", name: "Scripted keyboard" }),
+  );
   await page.evaluate((events) => window.__fakeMidi.play(events), chord(0, [62, 66, 69], 300));
   await expect(panel.getByTestId("live-chord-symbol")).toHaveText(["D"]);
   await page.screenshot({ path: "test-results/record-live.png", fullPage: true });
@@ -219,7 +244,9 @@ test("when MIDI access is refused the panel says so plainly, with no console err
   await page.screenshot({ path: "test-results/record-refused.png", fullPage: true });
 });
 
-test("on an exercise page the panel records at the exercise's tempo and key, and the take joins the exercise", async ({ page }) => {
+test("on an exercise page the panel records at the exercise's tempo and key, and the take joins the exercise", async ({
+  page,
+}) => {
   await page.addInitScript(installFakeMidi, "keyboard");
   await signIn(page, "dara@tidewater.example");
   await page.goto("/exercises");
@@ -234,7 +261,12 @@ test("on an exercise page the panel records at the exercise's tempo and key, and
   await expect(panel.getByTestId("record-status")).toContainText("Recording");
   await page.evaluate(
     (events) => window.__fakeMidi.play(events),
-    [...chord(0, [62, 66, 69]), ...chord(500, [62, 67, 71]), ...chord(1000, [61, 64, 69]), ...chord(1500, [62, 66, 69])].sort(byTime),
+    [
+      ...chord(0, [62, 66, 69]),
+      ...chord(500, [62, 67, 71]),
+      ...chord(1000, [61, 64, 69]),
+      ...chord(1500, [62, 66, 69]),
+    ].sort(byTime),
   );
   await expect(panel.getByTestId("live-chord-symbol")).toHaveText(["D", "G/D", "A/C♯", "D"]);
   await panel.getByRole("button", { name: "Stop" }).click();

@@ -20,7 +20,13 @@ async function seriousViolations(page: Page, label: string) {
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
   return results.violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${label}: ${v.id} (${v.impact}) ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`);
+    .map(
+      (v) =>
+        `${label}: ${v.id} (${v.impact}) ${v.help} → ${v.nodes
+          .map((n) => n.target.join(" "))
+          .slice(0, 3)
+          .join(", ")}`,
+    );
 }
 
 /** Visible text set smaller than 12 px: the element and its size. */
@@ -38,7 +44,8 @@ function smallText(page: Page) {
       const svg = el.closest("svg");
       const scale = svg?.getScreenCTM()?.a ?? 1;
       const size = parseFloat(style.fontSize) * scale;
-      if (size < 11.9) small.push(`${el.tagName.toLowerCase()} "${node.textContent.trim().slice(0, 30)}" ${size.toFixed(1)}px`);
+      if (size < 11.9)
+        small.push(`${el.tagName.toLowerCase()} "${node.textContent.trim().slice(0, 30)}" ${size.toFixed(1)}px`);
     }
     return small;
   });
@@ -63,7 +70,10 @@ async function checkPage(page: Page, label: string, size: (typeof SIZES)[number]
     wide: [...document.body.querySelectorAll<HTMLElement>("*")]
       .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 0.5)
       .slice(0, 5)
-      .map((el) => `${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} ${Math.round(el.getBoundingClientRect().right)}`),
+      .map(
+        (el) =>
+          `${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} ${Math.round(el.getBoundingClientRect().right)}`,
+      ),
   }));
   expect(widths.doc, `${label} at ${size.name}: document width (${widths.wide.join("; ")})`).toBe(widths.view);
   expect(await seriousViolations(page, `${label} at ${size.name}`)).toEqual([]);
@@ -99,7 +109,9 @@ for (const size of SIZES) {
       await expect(page.getByTestId("model-choices").locator("li").first()).toBeVisible();
       await checkPage(page, "exercise", size);
       await page.goto("/home");
-      await expect(page.getByTestId("home-exercise").filter({ hasText: title }).getByTestId("exercise-state")).toHaveText(listState);
+      await expect(
+        page.getByTestId("home-exercise").filter({ hasText: title }).getByTestId("exercise-state"),
+      ).toHaveText(listState);
 
       await page.goto("/takes/new");
       await checkPage(page, "upload", size);
@@ -132,7 +144,12 @@ test.describe("on a phone", () => {
  * chords one a second; the velocity varies per run so the file is new to the studio each time.
  */
 function balladInAb(): Buffer {
-  const chords = [[53, 60, 65, 68], [49, 61, 65, 68], [44, 60, 63, 68], [51, 58, 63, 67]];
+  const chords = [
+    [53, 60, 65, 68],
+    [49, 61, 65, 68],
+    [44, 60, 63, 68],
+    [51, 58, 63, 67],
+  ];
   const seq = [...chords, ...chords, [44, 60, 63, 68]];
   const velocity = 60 + Math.floor(Math.random() * 40);
   const notes = seq.flatMap((c, i) => c.map((midi) => ({ midi, start: i, end: i + 0.9, velocity })));
@@ -142,10 +159,15 @@ function balladInAb(): Buffer {
 test("upload of a file under the wrong exercise shows the warning and moves it in one click", async ({ page }) => {
   await signIn(page, "lena@tidewater.example");
   await page.goto("/exercises");
-  const smoothing = page.getByTestId("student-exercise").filter({ hasText: "Three-chord smoothing in D" }).getByRole("link", { name: "Three-chord smoothing in D" });
+  const smoothing = page
+    .getByTestId("student-exercise")
+    .filter({ hasText: "Three-chord smoothing in D" })
+    .getByRole("link", { name: "Three-chord smoothing in D" });
   const href = await smoothing.getAttribute("href");
   await page.goto(`/takes/new?exercise=${href!.split("/").pop()}`);
-  await page.getByLabel("MIDI files").setInputFiles({ name: "ballad.mid", mimeType: "audio/midi", buffer: balladInAb() });
+  await page
+    .getByLabel("MIDI files")
+    .setInputFiles({ name: "ballad.mid", mimeType: "audio/midi", buffer: balladInAb() });
   const row = page.getByTestId("upload-row");
   // The file's own exercise starts as the one chosen above.
   await expect(row.getByLabel(/Exercise for this file/)).toHaveValue("");

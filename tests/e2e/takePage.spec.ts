@@ -30,19 +30,31 @@ async function axeSerious(page: Page): Promise<string[]> {
   const results = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
   return results.violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
-    .map((v) => `${v.id} (${v.impact}) ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).slice(0, 3).join(", ")}`);
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}) ${v.help} → ${v.nodes
+          .map((n) => n.target.join(" "))
+          .slice(0, 3)
+          .join(", ")}`,
+    );
 }
 
 for (const size of SIZES) {
-  test(`the take page at ${size.width}×${size.height}: next step first, one page scroll, readable labels`, async ({ page }) => {
+  test(`the take page at ${size.width}×${size.height}: next step first, one page scroll, readable labels`, async ({
+    page,
+  }) => {
     test.setTimeout(150_000);
     await page.setViewportSize({ width: size.width, height: size.height });
     await signIn(page, "dara@tidewater.example");
-    const { takes } = (await (await page.request.get("/api/takes")).json()) as { takes: { id: string; status: string }[] };
+    const { takes } = (await (await page.request.get("/api/takes")).json()) as {
+      takes: { id: string; status: string }[];
+    };
     // A demo take with a change that moved more than it had to and that follows its exercise.
     let chosen: { id: string; worst: { index: number; extra: number } } | null = null;
     for (const t of takes.filter((t) => t.status === "analysed")) {
-      const { analysis } = (await (await page.request.get(`/api/takes/${t.id}`)).json()) as { analysis: Analysis | null };
+      const { analysis } = (await (await page.request.get(`/api/takes/${t.id}`)).json()) as {
+        analysis: Analysis | null;
+      };
       if (!analysis || (analysis.summary.accuracy !== undefined && analysis.summary.accuracy < 0.5)) continue;
       const worst = costliest(analysis.changes);
       if (worst) {
@@ -90,7 +102,10 @@ for (const size of SIZES) {
     await expect(loop).toHaveAttribute("aria-pressed", "false");
 
     // No sideways scroll of the document; the roll scrolls inside its own strip.
-    const widths = await page.evaluate(() => ({ doc: document.documentElement.scrollWidth, view: document.documentElement.clientWidth }));
+    const widths = await page.evaluate(() => ({
+      doc: document.documentElement.scrollWidth,
+      view: document.documentElement.clientWidth,
+    }));
     expect(widths.doc).toBe(widths.view);
     expect(widths.view).toBe(size.width);
     // One page scroll: no element scrolls vertically inside the page.
@@ -110,7 +125,13 @@ for (const size of SIZES) {
         .filter((el) => {
           const r = el.getBoundingClientRect();
           const cs = getComputedStyle(el);
-          return r.width > 0 && r.height > 0 && cs.visibility !== "hidden" && !el.closest(".sr-only") && parseFloat(cs.fontSize) < 12;
+          return (
+            r.width > 0 &&
+            r.height > 0 &&
+            cs.visibility !== "hidden" &&
+            !el.closest(".sr-only") &&
+            parseFloat(cs.fontSize) < 12
+          );
         })
         .map((el) => `${el.tagName} ${getComputedStyle(el).fontSize} "${el.textContent!.trim().slice(0, 30)}"`),
     );
@@ -124,12 +145,20 @@ for (const size of SIZES) {
     if (size.name === "desktop") {
       await page.goto("/privacy");
       await expect(page.getByTestId("piano-credit")).toContainText("Salamander Grand Piano V3 by Alexander Holm");
-      await expect(page.getByTestId("piano-credit").getByRole("link", { name: "Creative Commons Attribution 3.0" })).toBeVisible();
+      await expect(
+        page.getByTestId("piano-credit").getByRole("link", { name: "Creative Commons Attribution 3.0" }),
+      ).toBeVisible();
       await page.goBack();
       await expect(page.getByTestId("next-step")).toBeVisible();
     }
     // Close-ups for a person to look at: the roll with its lanes, and the change drawn as voice leading.
-    await page.getByTestId("roll-scroller").locator("xpath=../..").screenshot({ path: `test-results/screens/take-${size.name}-roll.png` });
-    await page.getByRole("heading", { name: /^Change \d+: / }).locator("xpath=../..").screenshot({ path: `test-results/screens/take-${size.name}-change.png` });
+    await page
+      .getByTestId("roll-scroller")
+      .locator("xpath=../..")
+      .screenshot({ path: `test-results/screens/take-${size.name}-roll.png` });
+    await page
+      .getByRole("heading", { name: /^Change \d+: / })
+      .locator("xpath=../..")
+      .screenshot({ path: `test-results/screens/take-${size.name}-change.png` });
   });
 }

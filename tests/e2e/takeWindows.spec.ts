@@ -6,14 +6,19 @@ type Chord = { symbol: string | null };
 
 // A ten-minute take's page carries only its first window of changes; jumping to the last
 // change, and scrolling the roll to the end, fetch the windows that hold them.
-test("the 10-minute take: jumping to its last change and scrolling the roll to the end show them", async ({ page, baseURL }) => {
+test("the 10-minute take: jumping to its last change and scrolling the roll to the end show them", async ({
+  page,
+  baseURL,
+}) => {
   test.setTimeout(180_000);
   await signIn(page, "dara@tidewater.example");
   const form = { file: { name: "long-10min.mid", mimeType: "audio/midi", buffer: Buffer.from(generateLongTake(10)) } };
   const up = await page.request.post("/api/takes", { multipart: form, headers: { Origin: baseURL! } });
   expect(up.status()).toBe(201);
   const { id } = (await up.json()) as { id: string };
-  const { analysis } = (await (await page.request.get(`/api/takes/${id}`)).json()) as { analysis: { chords: Chord[]; changes: Change[] } };
+  const { analysis } = (await (await page.request.get(`/api/takes/${id}`)).json()) as {
+    analysis: { chords: Chord[]; changes: Change[] };
+  };
   const count = analysis.changes.length;
   expect(count).toBeGreaterThan(200);
 
@@ -24,7 +29,9 @@ test("the 10-minute take: jumping to its last change and scrolling the roll to t
 
   // The roll scrolled to its end asks for the last window (the notes and chords drawn there).
   const lastWindow = Math.floor((count - 1) / 40) * 40;
-  const fetched = page.waitForResponse((r) => r.url().includes(`/api/takes/${id}/window?from=${lastWindow}&`) && r.status() === 200);
+  const fetched = page.waitForResponse(
+    (r) => r.url().includes(`/api/takes/${id}/window?from=${lastWindow}&`) && r.status() === 200,
+  );
   await page.getByTestId("roll-scroller").evaluate((el) => el.scrollTo({ left: el.scrollWidth }));
   await fetched;
 

@@ -16,7 +16,9 @@ test("a student uploads two takes, reads one change by change and plays it", asy
   const upload = page.getByRole("button", { name: /^Upload/ });
   await expect(upload).toBeDisabled();
 
-  await page.getByLabel("MIDI files").setInputFiles([sample("clumsy-root-position-d.mid"), sample("three-chord-smoothing-d.mid")]);
+  await page
+    .getByLabel("MIDI files")
+    .setInputFiles([sample("clumsy-root-position-d.mid"), sample("three-chord-smoothing-d.mid")]);
   const rows = page.getByTestId("upload-row");
   await expect(rows).toHaveCount(2);
   await expect(rows.filter({ hasText: "Ready to upload" })).toHaveCount(2);
@@ -47,7 +49,10 @@ test("a student uploads two takes, reads one change by change and plays it", asy
   // The first flagged change is selected; its smoothest voicing is drawn and playable.
   await expect(page.getByRole("heading", { name: "Change 1: D → G" })).toBeVisible();
   await expect(page.getByTestId("suggestion").first()).toContainText("Smoothest: D–G–B, moves 3");
-  await expect(page.getByTestId("suggestion").first().getByRole("img")).toHaveAttribute("aria-label", /D4 to D4 0, F♯4 to G4 \+1, A4 to B4 \+2/);
+  await expect(page.getByTestId("suggestion").first().getByRole("img")).toHaveAttribute(
+    "aria-label",
+    /D4 to D4 0, F♯4 to G4 \+1, A4 to B4 \+2/,
+  );
 
   // Keyboard: the arrow keys move through the changes from the piano roll.
   await page.getByRole("group", { name: /^Piano roll/ }).focus();
@@ -126,7 +131,9 @@ test("the same file twice links to the take uploaded before", async ({ page, con
   const bytes = readFileSync(sample("clumsy-top-line-d.mid")).toString("base64");
   const dropped = await page.evaluateHandle((b64) => {
     const data = new DataTransfer();
-    data.items.add(new File([Uint8Array.from(atob(b64), (c) => c.charCodeAt(0))], "clumsy-top-line-d.mid", { type: "audio/midi" }));
+    data.items.add(
+      new File([Uint8Array.from(atob(b64), (c) => c.charCodeAt(0))], "clumsy-top-line-d.mid", { type: "audio/midi" }),
+    );
     return data;
   }, bytes);
   await page.getByText("Choose MIDI files, or drop them here").dispatchEvent("drop", { dataTransfer: dropped });
@@ -134,7 +141,10 @@ test("the same file twice links to the take uploaded before", async ({ page, con
   await page.getByRole("button", { name: "Upload" }).click();
   await expect(rows.nth(1)).toHaveAttribute("data-stage", "duplicate");
   allowRefusals(consoleErrors, [409]);
-  const first = await rows.nth(0).getByRole("link", { name: /Open take/ }).getAttribute("href");
+  const first = await rows
+    .nth(0)
+    .getByRole("link", { name: /Open take/ })
+    .getAttribute("href");
   await expect(rows.nth(1).getByRole("link", { name: "Open the earlier take" })).toHaveAttribute("href", first!);
 });
 
@@ -148,7 +158,9 @@ test("a student moves a take to an exercise, replaces it, then deletes it", asyn
   await expect(page.getByRole("heading", { level: 1, name: "Free practice take" })).toBeVisible();
 
   const move = page.getByRole("form", { name: "Move to another exercise" });
-  await move.getByLabel("Exercise").selectOption({ label: (await move.getByRole("option", { name: /Sunday ballad/ }).textContent())! });
+  await move
+    .getByLabel("Exercise")
+    .selectOption({ label: (await move.getByRole("option", { name: /Sunday ballad/ }).textContent())! });
   await move.getByRole("button", { name: "Move take" }).click();
   await expect(page.getByText("Take moved and graded against the exercise again.")).toBeVisible();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Sunday ballad");
@@ -190,7 +202,11 @@ test("the student home: due exercises, a sortable takes table and the weekly cha
   const item = page.getByTestId("home-exercise").filter({ hasText: "Three-chord smoothing in D" });
   const state = (await item.getByTestId("exercise-state").innerText()).trim();
   if (state === "Done") await expect(item.getByRole("link", { name: /Send a take/ })).toHaveCount(0);
-  else await expect(item.getByRole("link", { name: /Send a take of Three-chord smoothing in D/ })).toHaveAttribute("href", /exercise=.+&key=D$/);
+  else
+    await expect(item.getByRole("link", { name: /Send a take of Three-chord smoothing in D/ })).toHaveAttribute(
+      "href",
+      /exercise=.+&key=D$/,
+    );
 
   const table = page.getByRole("table", { name: /Your latest takes/ });
   const scoreHeader = table.getByRole("columnheader", { name: "Score" });
@@ -198,7 +214,9 @@ test("the student home: due exercises, a sortable takes table and the weekly cha
   const sortedOnce = await scoreHeader.getAttribute("aria-sort");
   expect(["ascending", "descending"]).toContain(sortedOnce);
   const scores = async () =>
-    (await table.getByTestId("take-row").locator("td:last-child").allTextContents()).map(Number).filter((n) => !Number.isNaN(n));
+    (await table.getByTestId("take-row").locator("td:last-child").allTextContents())
+      .map(Number)
+      .filter((n) => !Number.isNaN(n));
   const first = await scores();
   expect(first).toEqual([...first].sort((a, b) => (sortedOnce === "ascending" ? a - b : b - a)));
   // Keyboard: the header is a button, so Enter sorts the other way.
@@ -230,9 +248,16 @@ test.describe("without JavaScript", () => {
   });
 });
 
-test("a teacher reads a student's take without the student's controls; another student is refused", async ({ page, consoleErrors }) => {
+test("a teacher reads a student's take without the student's controls; another student is refused", async ({
+  page,
+  consoleErrors,
+}) => {
   await signIn(page, "dara@tidewater.example");
-  const href = await page.getByRole("table", { name: /Your latest takes/ }).getByRole("link").first().getAttribute("href");
+  const href = await page
+    .getByRole("table", { name: /Your latest takes/ })
+    .getByRole("link")
+    .first()
+    .getAttribute("href");
   expect(href).toMatch(/^\/takes\/.+/);
   await page.getByRole("button", { name: "Sign out" }).click();
 

@@ -21,7 +21,14 @@ type Persona = (typeof PERSONAS)[number];
 type Expect = number | "login";
 type Row = Record<Persona, Expect>;
 
-const row = (anon: Expect, studentA: Expect, studentB: Expect, teacher: Expect, coTeacher: Expect, otherTeacher: Expect): Row => ({
+const row = (
+  anon: Expect,
+  studentA: Expect,
+  studentB: Expect,
+  teacher: Expect,
+  coTeacher: Expect,
+  otherTeacher: Expect,
+): Row => ({
   anon,
   studentA,
   studentB,
@@ -92,7 +99,10 @@ const EXPECTED: Record<string, Expectation> = {
   exercises: { GET: signedIn() },
   "exercises/new": { GET: teachers(), POST: teachers(400) },
   "exercises/:exerciseId": { GET: row("login", 200, 200, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
-  "exercises/:exerciseId/edit": { GET: row("login", 403, 403, 200, 200, 403), POST: row("login", 403, 403, 400, 400, 403) },
+  "exercises/:exerciseId/edit": {
+    GET: row("login", 403, 403, 200, 200, 403),
+    POST: row("login", 403, 403, 400, 400, 403),
+  },
   review: { GET: teachers(), POST: teachers(400) },
   // Feedback is posted from the take page; opening its URL goes back to the take.
   "takes/:takeId/feedback": { GET: ownedByA("login", 302), POST: ownedByA("login", 400) },
@@ -109,7 +119,8 @@ function leaves(nodes: RouteNode[], parentPath = "", parentFiles: string[] = [])
   return nodes.flatMap((node) => {
     const full = [parentPath, node.path ?? ""].filter(Boolean).join("/");
     const files = [...parentFiles, node.file];
-    const here = node.index || (node.path !== undefined && !node.children?.length) ? [{ key: full || "/", url: full, files }] : [];
+    const here =
+      node.index || (node.path !== undefined && !node.children?.length) ? [{ key: full || "/", url: full, files }] : [];
     return [...here, ...(node.children ? leaves(node.children, full, files) : [])];
   });
 }
@@ -140,9 +151,15 @@ type Module = { loader?: unknown; action?: unknown };
 /** Sends the request through the app's real handler: root and layout middleware, then the route's loader or action. */
 async function statusOf(leaf: Leaf, method: "GET" | "POST", persona: Persona, query = "", actionMethod = "POST") {
   const { url } = urlFor(leaf, method === "GET" ? query : "");
-  const headers: Record<string, string> = { Cookie: jars[persona].header(), Origin: ORIGIN, "Sec-Fetch-Site": "same-origin" };
+  const headers: Record<string, string> = {
+    Cookie: jars[persona].header(),
+    Origin: ORIGIN,
+    "Sec-Fetch-Site": "same-origin",
+  };
   const request =
-    method === "POST" ? new Request(url, { method: actionMethod, body: new URLSearchParams(), headers }) : new Request(url, { headers });
+    method === "POST"
+      ? new Request(url, { method: actionMethod, body: new URLSearchParams(), headers })
+      : new Request(url, { headers });
   return ask(request);
 }
 
@@ -152,7 +169,9 @@ const app = useFreshApp();
 function wipeDatabase() {
   const client = db().$client;
   const tables = client
-    .prepare("select name from sqlite_master where type='table' and name not like 'sqlite_%' and name not like '__drizzle%'")
+    .prepare(
+      "select name from sqlite_master where type='table' and name not like 'sqlite_%' and name not like '__drizzle%'",
+    )
     .all() as { name: string }[];
   client.pragma("foreign_keys = OFF");
   for (const t of tables) client.prepare(`delete from "${t.name}"`).run();
@@ -179,9 +198,18 @@ async function seedFixtures() {
   const exercise = makeExercise(studio.id);
   db()
     .insert(invitations)
-    .values({ studioId: studio.id, email: "new@tidewater.example", role: "student", tokenHash: hashToken("matrix-invite"), expiresAt: new Date(Date.now() + 86_400_000) })
+    .values({
+      studioId: studio.id,
+      email: "new@tidewater.example",
+      role: "student",
+      tokenHash: hashToken("matrix-invite"),
+      expiresAt: new Date(Date.now() + 86_400_000),
+    })
     .run();
-  const message = storeMessage(process.env.MAIL_CATCHER_DIR!, Buffer.from("Subject: Hello\r\n\r\nBody"), { from: "a@x", to: ["b@x"] });
+  const message = storeMessage(process.env.MAIL_CATCHER_DIR!, Buffer.from("Subject: Hello\r\n\r\nBody"), {
+    from: "a@x",
+    to: ["b@x"],
+  });
 
   FIXTURE_PARAMS = {
     token: "matrix-invite",
@@ -209,8 +237,14 @@ beforeEach(async () => {
 describe("access matrix", () => {
   it("has an expectation for every route in app/routes.ts, and none for routes that are gone", () => {
     const keys = ALL.map((l) => l.key);
-    expect(keys.filter((k) => !(k in EXPECTED)), "routes without a line in EXPECTED").toEqual([]);
-    expect(Object.keys(EXPECTED).filter((k) => !keys.includes(k)), "EXPECTED lines for routes that no longer exist").toEqual([]);
+    expect(
+      keys.filter((k) => !(k in EXPECTED)),
+      "routes without a line in EXPECTED",
+    ).toEqual([]);
+    expect(
+      Object.keys(EXPECTED).filter((k) => !keys.includes(k)),
+      "EXPECTED lines for routes that no longer exist",
+    ).toEqual([]);
   });
 
   for (const leaf of ALL) {

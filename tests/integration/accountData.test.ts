@@ -5,7 +5,18 @@ import { strFromU8, unzipSync } from "fflate";
 import { describe, expect, it } from "vitest";
 import { getSessionUser, resetSessionCookieForTests } from "~/auth/session.server";
 import { db } from "~/db/client.server";
-import { accountMailSends, comments, invitations, memberships, progressReports, sessions, studios, takes, userTokens, users } from "~/db/schema";
+import {
+  accountMailSends,
+  comments,
+  invitations,
+  memberships,
+  progressReports,
+  sessions,
+  studios,
+  takes,
+  userTokens,
+  users,
+} from "~/db/schema";
 import { resetEnvForTests } from "~/server/env.server";
 import { takeStorage as takeFileStorage } from "~/takes/takeFiles.server";
 import * as exportMine from "~/routes/api.me.export";
@@ -16,7 +27,19 @@ import * as reset from "~/routes/reset-password";
 import * as settings from "~/routes/settings";
 import * as students from "~/routes/students";
 import { useFreshApp } from "../support/setup";
-import { call, get, join, linkIn, makeStudio, makeTakeRow, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
+import {
+  call,
+  get,
+  join,
+  linkIn,
+  makeStudio,
+  makeTakeRow,
+  makeUser,
+  PASSWORD,
+  post,
+  signIn,
+  useMailCatcher,
+} from "./accountsKit";
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
@@ -36,7 +59,9 @@ async function storeTake(studentId: string, studioId: string, name: string) {
 function takeFilesOnDisk(): string[] {
   const dir = path.join(app.storageDir, "takes");
   if (!existsSync(dir)) return [];
-  return readdirSync(dir, { recursive: true, withFileTypes: true }).filter((e) => e.isFile()).map((e) => e.name);
+  return readdirSync(dir, { recursive: true, withFileTypes: true })
+    .filter((e) => e.isFile())
+    .map((e) => e.name);
 }
 
 describe("password reset", () => {
@@ -61,26 +86,48 @@ describe("password reset", () => {
     expect(row.expiresAt.getTime() - row.createdAt.getTime()).toBe(60 * 60 * 1000);
 
     expect((await call(reset.loader, get(link))).data).toMatchObject({ valid: true });
-    const done = await call(reset.action, post("/reset-password", { token, password: "a-brand-new-password", confirm: "a-brand-new-password" }));
+    const done = await call(
+      reset.action,
+      post("/reset-password", { token, password: "a-brand-new-password", confirm: "a-brand-new-password" }),
+    );
     expect(done.status).toBe(302);
     expect(done.location).toBe("/login");
     expect(await getSessionUser(get("/home", oldJar))).toBeNull();
     expect(db().select().from(sessions).all()).toHaveLength(0);
     expect((await call(login.action, post("/login", { email: user.email, password: PASSWORD }))).status).toBe(401);
-    expect((await call(login.action, post("/login", { email: user.email, password: "a-brand-new-password" }))).status).toBe(302);
-    const again = await call(reset.action, post("/reset-password", { token, password: "yet-another-password", confirm: "yet-another-password" }));
+    expect(
+      (await call(login.action, post("/login", { email: user.email, password: "a-brand-new-password" }))).status,
+    ).toBe(302);
+    const again = await call(
+      reset.action,
+      post("/reset-password", { token, password: "yet-another-password", confirm: "yet-another-password" }),
+    );
     expect(again.status).toBe(410);
     expect((await call(reset.loader, get(link))).status).toBe(410);
 
     // Asking again within a minute answers the same but sends nothing more.
-    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
+    db()
+      .update(accountMailSends)
+      .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
+      .run();
     await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
     const sentBefore = mail.all().length;
     expect((await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).status).toBe(200);
     expect(mail.all()).toHaveLength(sentBefore);
     const late = new URL("http://x" + linkIn(mail.latestTo("dara@tidewater.example"))).searchParams.get("token")!;
-    db().update(userTokens).set({ expiresAt: new Date(Date.now() - 1) }).where(eq(userTokens.userId, user.id)).run();
-    expect((await call(reset.action, post("/reset-password", { token: late, password: "yet-another-password", confirm: "yet-another-password" }))).status).toBe(410);
+    db()
+      .update(userTokens)
+      .set({ expiresAt: new Date(Date.now() - 1) })
+      .where(eq(userTokens.userId, user.id))
+      .run();
+    expect(
+      (
+        await call(
+          reset.action,
+          post("/reset-password", { token: late, password: "yet-another-password", confirm: "yet-another-password" }),
+        )
+      ).status,
+    ).toBe(410);
   });
 });
 
@@ -88,15 +135,32 @@ describe("account settings", () => {
   it("changes the name, the mail preferences, and the e-mail only with the password (then unverified)", async () => {
     const user = makeUser("dara@tidewater.example", "Dara");
     const jar = await signIn(login, user.email);
-    expect((await call(settings.action, post("/settings", { intent: "profile", name: "Dara Okafor" }, jar))).status).toBe(200);
+    expect(
+      (await call(settings.action, post("/settings", { intent: "profile", name: "Dara Okafor" }, jar))).status,
+    ).toBe(200);
     await call(settings.action, post("/settings", { intent: "prefs", mailOnFeedback: "on" }, jar));
-    const noPassword = await call(settings.action, post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: "wrong" }, jar));
+    const noPassword = await call(
+      settings.action,
+      post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: "wrong" }, jar),
+    );
     expect(noPassword.status).toBe(400);
-    expect(noPassword.data).toMatchObject({ fieldErrors: { currentPassword: expect.any(String) }, values: { email: "dara.o@tidewater.example" } });
-    const changed = await call(settings.action, post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar));
+    expect(noPassword.data).toMatchObject({
+      fieldErrors: { currentPassword: expect.any(String) },
+      values: { email: "dara.o@tidewater.example" },
+    });
+    const changed = await call(
+      settings.action,
+      post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar),
+    );
     expect(changed.status).toBe(200);
     const row = db().select().from(users).where(eq(users.id, user.id)).get()!;
-    expect(row).toMatchObject({ name: "Dara Okafor", email: "dara.o@tidewater.example", mailOnFeedback: true, mailDigest: false, emailVerifiedAt: null });
+    expect(row).toMatchObject({
+      name: "Dara Okafor",
+      email: "dara.o@tidewater.example",
+      mailOnFeedback: true,
+      mailDigest: false,
+      emailVerifiedAt: null,
+    });
     expect(mail.latestTo("dara.o@tidewater.example").subject).toMatch(/confirm/i);
   });
 
@@ -104,9 +168,28 @@ describe("account settings", () => {
     const user = makeUser("dara@tidewater.example");
     const laptop = await signIn(login, user.email);
     const phone = await signIn(login, user.email);
-    const mismatch = await call(settings.action, post("/settings", { intent: "password", currentPassword: PASSWORD, password: "a-brand-new-password", confirm: "nope" }, laptop));
+    const mismatch = await call(
+      settings.action,
+      post(
+        "/settings",
+        { intent: "password", currentPassword: PASSWORD, password: "a-brand-new-password", confirm: "nope" },
+        laptop,
+      ),
+    );
     expect(mismatch.status).toBe(400);
-    const result = await call(settings.action, post("/settings", { intent: "password", currentPassword: PASSWORD, password: "a-brand-new-password", confirm: "a-brand-new-password" }, laptop));
+    const result = await call(
+      settings.action,
+      post(
+        "/settings",
+        {
+          intent: "password",
+          currentPassword: PASSWORD,
+          password: "a-brand-new-password",
+          confirm: "a-brand-new-password",
+        },
+        laptop,
+      ),
+    );
     expect(result.status).toBe(302);
     expect(await getSessionUser(get("/home", phone))).toBeNull();
     expect(await getSessionUser(get("/home", laptop))).toBeNull();
@@ -136,24 +219,44 @@ describe("download my data", () => {
     await storeTake(dara.id, studio.id, "tuesday.mid");
     await storeTake(felix.id, studio.id, "felix.mid");
     const ines = makeUser("ines@tidewater.example", "Ines Marlowe");
-    db().insert(comments).values({ takeId: monday.id, authorId: ines.id, changeIdx: 2, body: "Keep the top note on A here." }).run();
-    db().insert(progressReports).values({ studioId: studio.id, studentId: dara.id, fromDate: "2026-11-01", toDate: "2026-11-30", summary: "Smoother changes this month." }).run();
+    db()
+      .insert(comments)
+      .values({ takeId: monday.id, authorId: ines.id, changeIdx: 2, body: "Keep the top note on A here." })
+      .run();
+    db()
+      .insert(progressReports)
+      .values({
+        studioId: studio.id,
+        studentId: dara.id,
+        fromDate: "2026-11-01",
+        toDate: "2026-11-30",
+        summary: "Smoother changes this month.",
+      })
+      .run();
     const jar = await signIn(login, dara.email);
     const response = await call(exportMine.loader, get("/api/me/export", jar));
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toBe("application/zip");
-    expect(response.headers.get("content-disposition")).toMatch(/attachment; filename="nearnote-my-data-\d{4}-\d\d-\d\d\.zip"/);
+    expect(response.headers.get("content-disposition")).toMatch(
+      /attachment; filename="nearnote-my-data-\d{4}-\d\d-\d\d\.zip"/,
+    );
     const files = unzipSync(new Uint8Array(await (response.data as Response).arrayBuffer()));
     expect(Object.keys(files).sort()).toEqual(["nearnote-data.json", "takes/001-monday.mid", "takes/002-tuesday.mid"]);
     expect(files["takes/001-monday.mid"]).toEqual(MIDI);
     const json = strFromU8(files["nearnote-data.json"]);
     const doc = JSON.parse(json);
     expect(doc.person).toMatchObject({ name: "Dara Okafor", email: "dara@tidewater.example" });
-    expect(doc.studios).toEqual([expect.objectContaining({ studio: "Tidewater Keys", role: "student", status: "active" })]);
+    expect(doc.studios).toEqual([
+      expect.objectContaining({ studio: "Tidewater Keys", role: "student", status: "active" }),
+    ]);
     expect(doc.takes.map((t: { originalName: string }) => t.originalName)).toEqual(["monday.mid", "tuesday.mid"]);
     expect(doc.takes[0].file).toBe("takes/001-monday.mid");
-    expect(doc.takes[0].comments).toEqual([expect.objectContaining({ author: "Ines Marlowe", changeIdx: 2, body: "Keep the top note on A here." })]);
-    expect(doc.progressReports).toEqual([expect.objectContaining({ studio: "Tidewater Keys", summary: "Smoother changes this month." })]);
+    expect(doc.takes[0].comments).toEqual([
+      expect.objectContaining({ author: "Ines Marlowe", changeIdx: 2, body: "Keep the top note on A here." }),
+    ]);
+    expect(doc.progressReports).toEqual([
+      expect.objectContaining({ studio: "Tidewater Keys", summary: "Smoother changes this month." }),
+    ]);
     expect(json).not.toContain("$2");
     expect(json).not.toContain("felix");
   });
@@ -178,10 +281,16 @@ describe("removing a student and deleting data", () => {
 
   it("removes a student: takes stay, membership inactive, still exportable by the teacher", async () => {
     const { dara, take, jar } = await setup();
-    expect((await call(students.action, post("/students", { intent: "remove", studentId: dara.id }, jar))).status).toBe(200);
-    expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({ status: "removed" });
+    expect((await call(students.action, post("/students", { intent: "remove", studentId: dara.id }, jar))).status).toBe(
+      200,
+    );
+    expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({
+      status: "removed",
+    });
     expect(db().select().from(takes).where(eq(takes.id, take.id)).get()).toBeDefined();
-    const roster = (await call(students.loader, get("/students", jar))).data as { students: { userId: string; status: string; takeCount: number }[] };
+    const roster = (await call(students.loader, get("/students", jar))).data as {
+      students: { userId: string; status: string; takeCount: number }[];
+    };
     expect(roster.students).toEqual([expect.objectContaining({ userId: dara.id, status: "removed", takeCount: 1 })]);
     const zip = await call(exportStudent.loader, get(`/api/students/${dara.id}/export`, jar), { studentId: dara.id });
     expect(zip.status).toBe(200);
@@ -196,10 +305,16 @@ describe("removing a student and deleting data", () => {
   it("deletes a student's data for good only when confirmed: takes, files, and the account when in no other studio", async () => {
     const { dara, jar } = await setup();
     expect(takeFilesOnDisk().length).toBeGreaterThan(0);
-    const unconfirmed = await call(students.action, post("/students", { intent: "delete-data", studentId: dara.id }, jar));
+    const unconfirmed = await call(
+      students.action,
+      post("/students", { intent: "delete-data", studentId: dara.id }, jar),
+    );
     expect(unconfirmed.status).toBe(400);
     expect(db().select().from(takes).all()).toHaveLength(1);
-    const done = await call(students.action, post("/students", { intent: "delete-data", studentId: dara.id, confirm: "yes" }, jar));
+    const done = await call(
+      students.action,
+      post("/students", { intent: "delete-data", studentId: dara.id, confirm: "yes" }, jar),
+    );
     expect(done.status).toBe(200);
     expect(db().select().from(takes).all()).toHaveLength(0);
     expect(takeFilesOnDisk()).toEqual([]);
@@ -212,8 +327,17 @@ describe("removing a student and deleting data", () => {
     const other = makeStudio("Harbour Lights");
     const stranger = makeUser("owen@harbour.example");
     join(other.id, stranger.id, "student");
-    expect((await call(students.action, post("/students", { intent: "delete-data", studentId: stranger.id, confirm: "yes" }, jar))).status).toBe(403);
-    expect((await call(students.action, post("/students", { intent: "remove", studentId: ines.id }, jar))).status).toBe(403);
+    expect(
+      (
+        await call(
+          students.action,
+          post("/students", { intent: "delete-data", studentId: stranger.id, confirm: "yes" }, jar),
+        )
+      ).status,
+    ).toBe(403);
+    expect((await call(students.action, post("/students", { intent: "remove", studentId: ines.id }, jar))).status).toBe(
+      403,
+    );
     expect(db().select().from(users).where(eq(users.id, stranger.id)).get()).toBeDefined();
   });
 });
@@ -224,19 +348,36 @@ describe("deleting one's own account", () => {
     const dara = makeUser("dara@tidewater.example", "Dara Okafor");
     join(studio.id, dara.id, "student");
     await storeTake(dara.id, studio.id, "monday.mid");
-    db().insert(invitations).values({ studioId: studio.id, email: dara.email, role: "student", tokenHash: "h", expiresAt: new Date() }).run();
+    db()
+      .insert(invitations)
+      .values({ studioId: studio.id, email: dara.email, role: "student", tokenHash: "h", expiresAt: new Date() })
+      .run();
     const jar = await signIn(login, dara.email);
     expect(takeFilesOnDisk().length).toBeGreaterThan(0);
     await call(forgot.action, post("/forgot-password", { email: dara.email }));
     await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
     makeUser("ines@tidewater.example");
     // Reset mail is limited per address, known or not: let a minute pass.
-    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
+    db()
+      .update(accountMailSends)
+      .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
+      .run();
     await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
-    expect(mail.all().map((m) => m.to[0]).sort()).toEqual(["dara@tidewater.example", "ines@tidewater.example"]);
-    const wrong = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: "nope", confirm: "yes" }, jar));
+    expect(
+      mail
+        .all()
+        .map((m) => m.to[0])
+        .sort(),
+    ).toEqual(["dara@tidewater.example", "ines@tidewater.example"]);
+    const wrong = await call(
+      settings.action,
+      post("/settings", { intent: "delete-account", currentPassword: "nope", confirm: "yes" }, jar),
+    );
     expect(wrong.status).toBe(400);
-    const done = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar));
+    const done = await call(
+      settings.action,
+      post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar),
+    );
     expect(done.status).toBe(302);
     expect(done.location).toBe("/");
     expect(done.headers.getSetCookie().some((c) => /^nearnote_session=;.*Max-Age=0/i.test(c))).toBe(true);
@@ -260,10 +401,19 @@ describe("deleting one's own account", () => {
     join(shared.id, marta.id, "teacher");
     join(solo.id, ines.id, "owner");
     const jar = await signIn(login, ines.email);
-    const done = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar));
+    const done = await call(
+      settings.action,
+      post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar),
+    );
     expect(done.status).toBe(302);
     expect(db().select().from(memberships).where(eq(memberships.userId, marta.id)).get()?.role).toBe("owner");
-    expect(db().select().from(studios).all().map((s) => s.name)).toEqual(["Tidewater Keys"]);
+    expect(
+      db()
+        .select()
+        .from(studios)
+        .all()
+        .map((s) => s.name),
+    ).toEqual(["Tidewater Keys"]);
 
     const lone = makeStudio("Harbour Lights");
     const owen = makeUser("owen@harbour.example");
@@ -271,7 +421,10 @@ describe("deleting one's own account", () => {
     join(lone.id, owen.id, "owner");
     join(lone.id, kid.id, "student");
     const owenJar = await signIn(login, owen.email);
-    const blocked = await call(settings.action, post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, owenJar));
+    const blocked = await call(
+      settings.action,
+      post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, owenJar),
+    );
     expect(blocked.status).toBe(409);
     expect((blocked.data as { formError: string }).formError).toMatch(/Harbour Lights still has students/);
     expect(db().select().from(users).where(eq(users.id, owen.id)).get()).toBeDefined();

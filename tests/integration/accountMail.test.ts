@@ -24,7 +24,10 @@ const mail = useMailCatcher(app);
 /** Moves every logged account mail back in time, as if that much time had passed. */
 const age = (ms: number) => {
   for (const row of db().select().from(accountMailSends).all()) {
-    db().update(accountMailSends).set({ sentAt: new Date(row.sentAt.getTime() - ms) }).run();
+    db()
+      .update(accountMailSends)
+      .set({ sentAt: new Date(row.sentAt.getTime() - ms) })
+      .run();
   }
 };
 
@@ -57,8 +60,14 @@ describe("answer first, mail after", () => {
   it("/forgot-password answers known and unknown addresses alike while the mail server has not even greeted", async () => {
     const sockets = await silentMailServer();
     makeUser("dara@tidewater.example");
-    expect(await answer(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).toEqual({ ok: true, email: "dara@tidewater.example" });
-    expect(await answer(forgot.action, post("/forgot-password", { email: "nobody@tidewater.example" }))).toEqual({ ok: true, email: "nobody@tidewater.example" });
+    expect(await answer(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).toEqual({
+      ok: true,
+      email: "dara@tidewater.example",
+    });
+    expect(await answer(forgot.action, post("/forgot-password", { email: "nobody@tidewater.example" }))).toEqual({
+      ok: true,
+      email: "nobody@tidewater.example",
+    });
     // The known address's mail is under way only now, after both answers.
     await expect.poll(() => sockets.length).toBe(1);
   });
@@ -67,8 +76,14 @@ describe("answer first, mail after", () => {
     const sockets = await silentMailServer();
     makeUser("ines@tidewater.example");
     const form = { name: "Ines Marlowe", password: "tidewater-keys", studioName: "Tidewater Keys" };
-    expect(await answer(signup.action, post("/signup", { ...form, email: "ines@tidewater.example" }))).toEqual({ ok: true, email: "ines@tidewater.example" });
-    expect(await answer(signup.action, post("/signup", { ...form, email: "felix@tidewater.example" }))).toEqual({ ok: true, email: "felix@tidewater.example" });
+    expect(await answer(signup.action, post("/signup", { ...form, email: "ines@tidewater.example" }))).toEqual({
+      ok: true,
+      email: "ines@tidewater.example",
+    });
+    expect(await answer(signup.action, post("/signup", { ...form, email: "felix@tidewater.example" }))).toEqual({
+      ok: true,
+      email: "felix@tidewater.example",
+    });
     await expect.poll(() => sockets.length).toBe(2);
   });
 });
@@ -77,7 +92,10 @@ describe("limits on account mail", () => {
   it("ten posts to /verify after an e-mail change send one link; the rest say when to ask again", async () => {
     const user = makeUser("dara@tidewater.example");
     const jar = await signIn(login, user.email);
-    await call(settings.action, post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar));
+    await call(
+      settings.action,
+      post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar),
+    );
     for (let i = 0; i < 10; i++) {
       const r = await call(verify.action, post("/verify", {}, jar));
       expect(r.location).toBe("/settings");
@@ -96,7 +114,10 @@ describe("limits on account mail", () => {
     const user = makeUser("dara@tidewater.example");
     const jar = await signIn(login, user.email);
     for (let i = 0; i < 10; i++) {
-      await call(settings.action, post("/settings", { intent: "email", email: `dara+${i}@tidewater.example`, currentPassword: PASSWORD }, jar));
+      await call(
+        settings.action,
+        post("/settings", { intent: "email", email: `dara+${i}@tidewater.example`, currentPassword: PASSWORD }, jar),
+      );
       await call(verify.action, post("/verify", {}, jar));
       age(2 * 60 * 1000); // two minutes later
     }
@@ -116,7 +137,12 @@ describe("limits on account mail", () => {
       await call(signup.action, post("/signup", { ...form, email: "ines@tidewater.example" }));
       await call(signup.action, post("/signup", { ...form, email: "felix@tidewater.example" }));
     }
-    expect(mail.all().map((m) => m.to[0]).sort()).toEqual(["felix@tidewater.example", "ines@tidewater.example"]);
+    expect(
+      mail
+        .all()
+        .map((m) => m.to[0])
+        .sort(),
+    ).toEqual(["felix@tidewater.example", "ines@tidewater.example"]);
   });
 
   it("reset links: one a minute and at most a few a day per account", async () => {

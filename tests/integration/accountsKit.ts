@@ -39,7 +39,11 @@ export async function call(handler: unknown, request: Request, params: Record<st
   await mailSettled();
   if (value instanceof Response) {
     const type = value.headers.get("content-type") ?? "";
-    const data = type.includes("json") ? await value.clone().json() : type.startsWith("text") ? await value.clone().text() : value;
+    const data = type.includes("json")
+      ? await value.clone().json()
+      : type.startsWith("text")
+        ? await value.clone().text()
+        : value;
     return { status: value.status, thrown, headers: value.headers, location: value.headers.get("location"), data };
   }
   if (value && typeof value === "object" && (value as { type?: string }).type === "DataWithResponseInit") {
@@ -81,7 +85,12 @@ export function get(pathAndQuery: string, jar?: CookieJar, headers: Record<strin
   return new Request(ORIGIN + pathAndQuery, { headers: { ...headers, ...(jar ? { Cookie: jar.header() } : {}) } });
 }
 
-export function post(pathAndQuery: string, fields: Record<string, string>, jar?: CookieJar, headers: Record<string, string> = {}) {
+export function post(
+  pathAndQuery: string,
+  fields: Record<string, string>,
+  jar?: CookieJar,
+  headers: Record<string, string> = {},
+) {
   return new Request(ORIGIN + pathAndQuery, {
     method: "POST",
     body: new URLSearchParams(fields),
@@ -152,7 +161,11 @@ export function join(studioId: string, userId: string, role: MembershipRole) {
 }
 
 export function makeExercise(studioId: string, title = "Three-chord smoothing in D") {
-  return db().insert(exercises).values({ studioId, title, keys: ["D"], progression: "I IV V I" }).returning().get();
+  return db()
+    .insert(exercises)
+    .values({ studioId, title, keys: ["D"], progression: "I IV V I" })
+    .returning()
+    .get();
 }
 
 export function makeTakeRow(studentId: string, studioId: string, fileKey: string, originalName = "take.mid") {

@@ -64,7 +64,11 @@ describe("the analysis pool", () => {
     form.append("file", new File([new Uint8Array(worst())], "dense.mid", { type: "audio/midi" }));
     const r = await call(
       apiTakes.action,
-      new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } }),
+      new Request(`${ORIGIN}/api/takes`, {
+        method: "POST",
+        body: form,
+        headers: { Cookie: jar.header(), Origin: ORIGIN },
+      }),
     );
     expect(r.status).toBe(422);
     expect(r.data).toMatchObject({ status: "failed", error: TOO_COMPLEX });
@@ -84,7 +88,11 @@ describe("the analysis pool", () => {
     form.append("file", new File([sample("held-bass-d.mid")], "held.mid", { type: "audio/midi" }));
     const up = await call(
       apiTakes.action,
-      new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } }),
+      new Request(`${ORIGIN}/api/takes`, {
+        method: "POST",
+        body: form,
+        headers: { Cookie: jar.header(), Origin: ORIGIN },
+      }),
     );
     expect(up.status).toBe(201);
     const id = (up.data as { id: string }).id;
@@ -96,6 +104,10 @@ describe("the analysis pool", () => {
     expect(await reanalyseTake(id)).toBe("failed");
     expect(db().select().from(takes).where(eq(takes.id, id)).get()!.error).toBe(TOO_COMPLEX);
     await moveTake(id, exercise.id, "D");
-    expect(db().select().from(takes).where(eq(takes.id, id)).get()).toMatchObject({ exerciseId: exercise.id, status: "failed", error: TOO_COMPLEX });
+    expect(db().select().from(takes).where(eq(takes.id, id)).get()).toMatchObject({
+      exerciseId: exercise.id,
+      status: "failed",
+      error: TOO_COMPLEX,
+    });
   }, 60_000);
 });

@@ -36,7 +36,11 @@ describe("a worst-case upload", () => {
     form.append("file", new File([new Uint8Array(denseChordTake(12_400))], "dense.mid", { type: "audio/midi" }));
     const started = Date.now();
     let uploadDone = false;
-    const upload = fetch(`${base}/api/takes`, { method: "POST", body: form, headers: { Cookie: cookie, Origin: base } }).then(async (r) => {
+    const upload = fetch(`${base}/api/takes`, {
+      method: "POST",
+      body: form,
+      headers: { Cookie: cookie, Origin: base },
+    }).then(async (r) => {
       uploadDone = true;
       return { status: r.status, body: (await r.json()) as { status?: string; error?: string } };
     });

@@ -11,12 +11,29 @@ import * as signup from "~/routes/signup";
 import * as students from "~/routes/students";
 import * as verify from "~/routes/verify";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, linkIn, makeStudio, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
+import {
+  call,
+  CookieJar,
+  get,
+  join,
+  linkIn,
+  makeStudio,
+  makeUser,
+  PASSWORD,
+  post,
+  signIn,
+  useMailCatcher,
+} from "./accountsKit";
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
 
-const teacherForm = { name: "Ines Marlowe", email: "Ines@Tidewater.example", password: "tidewater-keys", studioName: "Tidewater Keys" };
+const teacherForm = {
+  name: "Ines Marlowe",
+  email: "Ines@Tidewater.example",
+  password: "tidewater-keys",
+  studioName: "Tidewater Keys",
+};
 
 describe("teacher sign-up and e-mail verification", () => {
   it("creates nothing until the mailed link is opened; the link creates the verified owner and studio and signs them in", async () => {
@@ -46,11 +63,18 @@ describe("teacher sign-up and e-mail verification", () => {
     expect(db().select().from(memberships).where(eq(memberships.userId, user.id)).get()!.role).toBe("owner");
     const jar = new CookieJar().take(opened.headers);
     const me = await getSessionUser(get("/home", jar));
-    expect(me).toMatchObject({ email: "ines@tidewater.example", emailVerified: true, active: { studioName: "Tidewater Keys", role: "owner" } });
+    expect(me).toMatchObject({
+      email: "ines@tidewater.example",
+      emailVerified: true,
+      active: { studioName: "Tidewater Keys", role: "owner" },
+    });
     expect((await call(verify.loader, get(link))).status).toBe(410);
     expect(db().select().from(pendingSignups).all()).toHaveLength(0);
 
-    const invited = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    const invited = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
+    );
     expect(invited.status).toBe(200);
     expect(mail.latestTo("dara@tidewater.example").subject).toContain("Tidewater Keys");
   });
@@ -67,21 +91,40 @@ describe("teacher sign-up and e-mail verification", () => {
     expect(notice.subject).toBe("You already have a Nearnote account");
     expect(notice.text).not.toMatch(/token=/);
     // Nothing changed for the existing account, and nothing new was created for it.
-    expect(db().select().from(users).where(eq(users.email, existing.email)).get()!.passwordHash).toBe(existing.passwordHash);
-    expect(db().select().from(pendingSignups).all().map((p) => p.email)).toEqual(["felix@tidewater.example"]);
-    expect((await call(login.action, post("/login", { email: existing.email, password: "someone-elses-guess" }))).status).toBe(401);
+    expect(db().select().from(users).where(eq(users.email, existing.email)).get()!.passwordHash).toBe(
+      existing.passwordHash,
+    );
+    expect(
+      db()
+        .select()
+        .from(pendingSignups)
+        .all()
+        .map((p) => p.email),
+    ).toEqual(["felix@tidewater.example"]);
+    expect(
+      (await call(login.action, post("/login", { email: existing.email, password: "someone-elses-guess" }))).status,
+    ).toBe(401);
   });
 
   it("says an address is taken only when a sign-up link is opened: one link wins, a link for an address taken since says so", async () => {
     await call(signup.action, post("/signup", teacherForm));
     const first = linkIn(mail.latestTo("ines@tidewater.example"));
-    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
+    db()
+      .update(accountMailSends)
+      .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
+      .run();
     await call(signup.action, post("/signup", { ...teacherForm, studioName: "Tidewater Keys Evenings" }));
     const second = linkIn(mail.latestTo("ines@tidewater.example"));
     expect(second).not.toBe(first);
     expect((await call(verify.loader, get(second))).status).toBe(302);
     expect((await call(verify.loader, get(first))).status).toBe(410);
-    expect(db().select().from(studios).all().map((st) => st.name)).toEqual(["Tidewater Keys Evenings"]);
+    expect(
+      db()
+        .select()
+        .from(studios)
+        .all()
+        .map((st) => st.name),
+    ).toEqual(["Tidewater Keys Evenings"]);
     // A sign-up still waiting when someone else (here an invitation) took the address says so when opened.
     await call(signup.action, post("/signup", { ...teacherForm, email: "dara@tidewater.example" }));
     const late = linkIn(mail.latestTo("dara@tidewater.example"));
@@ -92,7 +135,10 @@ describe("teacher sign-up and e-mail verification", () => {
   });
 
   it("keeps the typed values on a bad form, with an error beside each bad field", async () => {
-    const bad = await call(signup.action, post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }));
+    const bad = await call(
+      signup.action,
+      post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }),
+    );
     expect(bad.status).toBe(400);
     const body = bad.data as { fieldErrors: Record<string, string>; values: Record<string, string> };
     expect(Object.keys(body.fieldErrors).sort()).toEqual(["email", "name", "password", "studioName"]);
@@ -104,7 +150,10 @@ describe("teacher sign-up and e-mail verification", () => {
 describe("sign-in and sign-out", () => {
   it("signs in with a redirect that sets an httpOnly, SameSite=Lax, 30-day cookie and a new session each time", async () => {
     const user = makeUser("dara@tidewater.example");
-    const first = await call(login.action, post("/login", { email: "DARA@tidewater.example", password: PASSWORD, redirectTo: "/settings" }));
+    const first = await call(
+      login.action,
+      post("/login", { email: "DARA@tidewater.example", password: PASSWORD, redirectTo: "/settings" }),
+    );
     expect(first.status).toBe(302);
     expect(first.location).toBe("/settings");
     const cookie = first.headers.getSetCookie().find((c) => c.startsWith("nearnote_session="))!;
@@ -113,21 +162,35 @@ describe("sign-in and sign-out", () => {
     expect(cookie).toMatch(/Max-Age=2592000/); // 30 days in seconds
     expect(cookie).not.toMatch(/Secure/i); // APP_URL is http in tests
     const second = await call(login.action, post("/login", { email: "dara@tidewater.example", password: PASSWORD }));
-    const ids = db().select().from(sessions).where(eq(sessions.userId, user.id)).all().map((s) => s.id);
+    const ids = db()
+      .select()
+      .from(sessions)
+      .where(eq(sessions.userId, user.id))
+      .all()
+      .map((s) => s.id);
     expect(new Set(ids).size).toBe(2);
     expect(second.headers.getSetCookie()[0]).not.toBe(cookie);
   });
 
   it("never redirects to another site after sign-in", async () => {
     makeUser("dara@tidewater.example");
-    const result = await call(login.action, post("/login", { email: "dara@tidewater.example", password: PASSWORD, redirectTo: "//evil.example/x" }));
+    const result = await call(
+      login.action,
+      post("/login", { email: "dara@tidewater.example", password: PASSWORD, redirectTo: "//evil.example/x" }),
+    );
     expect(result.location).toBe("/home");
   });
 
   it("answers a wrong password and an unknown e-mail alike, without a cookie", async () => {
     makeUser("dara@tidewater.example");
-    const wrong = await call(login.action, post("/login", { email: "dara@tidewater.example", password: "not-the-password" }));
-    const unknown = await call(login.action, post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }));
+    const wrong = await call(
+      login.action,
+      post("/login", { email: "dara@tidewater.example", password: "not-the-password" }),
+    );
+    const unknown = await call(
+      login.action,
+      post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }),
+    );
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect((wrong.data as { formError: string }).formError).toBe((unknown.data as { formError: string }).formError);
@@ -155,7 +218,10 @@ describe("sign-in and sign-out", () => {
   it("refuses a cross-site sign-out post", async () => {
     makeUser("dara@tidewater.example");
     const jar = await signIn(login, "dara@tidewater.example");
-    const result = await call(logout.action, post("/logout", {}, jar, { Origin: "https://evil.example", "Sec-Fetch-Site": "cross-site" }));
+    const result = await call(
+      logout.action,
+      post("/logout", {}, jar, { Origin: "https://evil.example", "Sec-Fetch-Site": "cross-site" }),
+    );
     expect(result.status).toBe(403);
     expect(db().select().from(sessions).all()).toHaveLength(1);
   });
@@ -166,7 +232,10 @@ describe("sessions and verification links", () => {
     const user = makeUser("dara@tidewater.example");
     const jar = await signIn(login, user.email);
     expect(await getSessionUser(get("/home", jar))).not.toBeNull();
-    db().update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).run();
+    db()
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .run();
     expect(await getSessionUser(get("/home", jar))).toBeNull();
   });
 
@@ -175,11 +244,17 @@ describe("sessions and verification links", () => {
     join(makeStudio("Tidewater Keys").id, user.id, "owner");
     const jar = await signIn(login, user.email);
     // Unverified (say, after changing the address): the studio cannot invite anyone.
-    const refused = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    const refused = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
+    );
     expect(refused.status).toBe(403);
     expect((await call(verify.action, post("/verify", {}, jar))).location).toBe("/settings");
     const first = linkIn(mail.latestTo("ines@tidewater.example"));
-    db().update(accountMailSends).set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) }).run();
+    db()
+      .update(accountMailSends)
+      .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
+      .run();
     const resent = await call(verify.action, post("/verify", {}, jar));
     expect(resent.location).toBe("/settings");
     const second = linkIn(mail.latestTo("ines@tidewater.example"));
@@ -187,13 +262,19 @@ describe("sessions and verification links", () => {
     expect((await call(verify.loader, get(first))).status).toBe(410);
     expect((await call(verify.loader, get(second))).status).toBe(302);
     expect((await getSessionUser(get("/home", jar)))?.emailVerified).toBe(true);
-    expect((await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar))).status).toBe(200);
+    expect(
+      (await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar)))
+        .status,
+    ).toBe(200);
   });
 });
 
 describe("throttling failed sign-ins", () => {
   const attempt = (password: string, address = "203.0.113.7") =>
-    call(login.action, post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }));
+    call(
+      login.action,
+      post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }),
+    );
 
   it("answers 429 with when to retry after 5 failures in 15 minutes, even for the right password", async () => {
     makeUser("dara@tidewater.example");
@@ -201,21 +282,27 @@ describe("throttling failed sign-ins", () => {
     const blocked = await attempt(PASSWORD);
     expect(blocked.status).toBe(429);
     expect(Number(blocked.headers.get("Retry-After"))).toBeGreaterThan(14 * 60);
-    expect((blocked.data as { formError: string }).formError).toMatch(/Try again in 15 minutes \(after \d\d:\d\d UTC\)/);
+    expect((blocked.data as { formError: string }).formError).toMatch(
+      /Try again in 15 minutes \(after \d\d:\d\d UTC\)/,
+    );
     // Another address is not blocked by these failures.
     expect((await attempt(PASSWORD, "198.51.100.4")).status).toBe(302);
   });
 
   it("caps failures for one e-mail across addresses, so a forged X-Forwarded-For does not help", async () => {
     makeUser("dara@tidewater.example");
-    for (let i = 0; i < MAX_FAILURES_PER_EMAIL; i++) expect((await attempt("wrong-password", `192.0.2.${i}`)).status).toBe(401);
+    for (let i = 0; i < MAX_FAILURES_PER_EMAIL; i++)
+      expect((await attempt("wrong-password", `192.0.2.${i}`)).status).toBe(401);
     expect((await attempt(PASSWORD, "192.0.2.200")).status).toBe(429);
   });
 
   it("lets people try again once the failures are older than 15 minutes, and a success clears them", async () => {
     makeUser("dara@tidewater.example");
     for (let i = 0; i < 5; i++) await attempt("wrong-password");
-    db().update(signInFailures).set({ createdAt: new Date(Date.now() - 16 * 60 * 1000) }).run();
+    db()
+      .update(signInFailures)
+      .set({ createdAt: new Date(Date.now() - 16 * 60 * 1000) })
+      .run();
     expect((await attempt(PASSWORD)).status).toBe(302);
     for (let i = 0; i < 4; i++) await attempt("wrong-password");
     expect((await attempt(PASSWORD)).status).toBe(302);

@@ -22,8 +22,14 @@ function snapshot() {
     file_key: string;
     content_hash: string;
   }[];
-  const metrics = db().$client.prepare("select take_id, total_motion, best_total_motion, score from take_metrics order by take_id").all();
-  const chords = (db().$client.prepare("select sum(json_array_length(analysis, '$.chords')) n from take_metrics").get() as { n: number }).n;
+  const metrics = db()
+    .$client.prepare("select take_id, total_motion, best_total_motion, score from take_metrics order by take_id")
+    .all();
+  const chords = (
+    db().$client.prepare("select sum(json_array_length(analysis, '$.chords')) n from take_metrics").get() as {
+      n: number;
+    }
+  ).n;
   return { rows, metrics, chords };
 }
 
@@ -140,11 +146,21 @@ describe("backup and restore", () => {
     const evilArchive = (name: string) => zipSync({ "nearnote.db": new Uint8Array(dbBytes), [name]: strToU8("x") });
     closeDatabase();
     const dbBefore = statSync(env().databasePath).mtimeMs;
-    for (const name of ["takes/../../escaped", "takes/ab/../../../escaped", "takes/..\\..\\escaped", "other/file", "/etc/escaped"]) {
-      expect(() => restoreBackup(evilArchive(name), env().databasePath, env().storageDir), name).toThrow(/Nothing was changed/);
+    for (const name of [
+      "takes/../../escaped",
+      "takes/ab/../../../escaped",
+      "takes/..\\..\\escaped",
+      "other/file",
+      "/etc/escaped",
+    ]) {
+      expect(() => restoreBackup(evilArchive(name), env().databasePath, env().storageDir), name).toThrow(
+        /Nothing was changed/,
+      );
     }
     // A nearnote.db that is not a database is refused too.
-    expect(() => restoreBackup(zipSync({ "nearnote.db": strToU8("hello") }), env().databasePath, env().storageDir)).toThrow(/not a SQLite/);
+    expect(() =>
+      restoreBackup(zipSync({ "nearnote.db": strToU8("hello") }), env().databasePath, env().storageDir),
+    ).toThrow(/not a SQLite/);
     expect(statSync(env().databasePath).mtimeMs).toBe(dbBefore);
     expect(storedTakeFiles(app.storageDir)).toHaveLength(2);
     expect(existsSync(path.join(app.storageDir, "..", "escaped"))).toBe(false);

@@ -38,8 +38,17 @@ beforeEach(async () => {
   join(studio.id, coTeacher.id, "teacher");
   join(other.id, otherTeacher.id, "owner");
   for (const p of Object.values(people)) join(studio.id, p.id, "student");
-  s = { studio: studio.id, other: other.id, ...Object.fromEntries(Object.entries(people).map(([k, v]) => [k, v.id])) } as typeof s;
-  jars = { owner: await jarFor(owner.id), coTeacher: await jarFor(coTeacher.id), student: await jarFor(people.climber.id), otherTeacher: await jarFor(otherTeacher.id) };
+  s = {
+    studio: studio.id,
+    other: other.id,
+    ...Object.fromEntries(Object.entries(people).map(([k, v]) => [k, v.id])),
+  } as typeof s;
+  jars = {
+    owner: await jarFor(owner.id),
+    coTeacher: await jarFor(coTeacher.id),
+    student: await jarFor(people.climber.id),
+    otherTeacher: await jarFor(otherTeacher.id),
+  };
 });
 
 const DAY = 86_400_000;
@@ -49,7 +58,8 @@ const NOW = new Date("2026-12-02T12:00:00Z");
 
 describe("board statuses and trend", () => {
   it("tells improving, slipping, level, stopped and new apart from the week sums", () => {
-    const take = (studentId: string, n: number, score: number) => insertHandTake({ studentId, studioId: s.studio, at: weeksAgo(n), score, changes: 4, motion: 8, best: 4 });
+    const take = (studentId: string, n: number, score: number) =>
+      insertHandTake({ studentId, studioId: s.studio, at: weeksAgo(n), score, changes: 4, motion: 8, best: 4 });
     // Climber: 50 three to five weeks ago, 60 in the last three: +10 ≥ 3 → improving.
     for (const n of [5, 4, 3]) take(s.climber, n, 50);
     for (const n of [2, 1, 0]) take(s.climber, n, 60);
@@ -80,12 +90,19 @@ describe("board statuses and trend", () => {
     expect(byName["Samir Haddad"].lastTakeAt).toBe(weeksAgo(4));
     expect(byName["Yuki Tanabe"].lastTakeAt).toBeNull();
     // Students by name, as the table starts out.
-    expect(rows.map((r) => r.name)).toEqual(["Dara Okafor", "Felix Brandt", "Lena Voss", "Samir Haddad", "Yuki Tanabe"]);
+    expect(rows.map((r) => r.name)).toEqual([
+      "Dara Okafor",
+      "Felix Brandt",
+      "Lena Voss",
+      "Samir Haddad",
+      "Yuki Tanabe",
+    ]);
   });
 });
 
 describe("board status against its own row", () => {
-  const take = (studentId: string, n: number, score: number) => insertHandTake({ studentId, studioId: s.studio, at: weeksAgo(n), score, changes: 4, motion: 8, best: 4 });
+  const take = (studentId: string, n: number, score: number) =>
+    insertHandTake({ studentId, studioId: s.studio, at: weeksAgo(n), score, changes: 4, motion: 8, best: 4 });
 
   it("gives a student without a take this week no trend status, however the weeks before went", () => {
     // Falling from 80 to 60 over weeks 5..1, then silent this week: "slipping" would contradict an empty row.
@@ -99,10 +116,24 @@ describe("board status against its own row", () => {
   it("says 'too early' for a student whose first takes are this week, and decides on the rounded means it prints", () => {
     take(s.fresh, 0, 75);
     // 70.4 before and 72.6 now print as 70 → 73: three points up, so improving (not "level" from the raw 2.2).
-    for (const [n, score] of [[5, 70.4], [4, 70.4], [3, 70.4], [2, 72.6], [1, 72.6], [0, 72.6]] as const) take(s.steady, n, score);
+    for (const [n, score] of [
+      [5, 70.4],
+      [4, 70.4],
+      [3, 70.4],
+      [2, 72.6],
+      [1, 72.6],
+      [0, 72.6],
+    ] as const)
+      take(s.steady, n, score);
     const rows = boardRows(s.studio, NOW).rows;
-    expect(rows.find((r) => r.studentId === s.fresh)).toMatchObject({ status: "early", compare: { before: null, recent: 75 } });
-    expect(rows.find((r) => r.studentId === s.steady)).toMatchObject({ status: "improving", compare: { before: 70, recent: 73 } });
+    expect(rows.find((r) => r.studentId === s.fresh)).toMatchObject({
+      status: "early",
+      compare: { before: null, recent: 75 },
+    });
+    expect(rows.find((r) => r.studentId === s.steady)).toMatchObject({
+      status: "improving",
+      compare: { before: 70, recent: 73 },
+    });
   });
 });
 
@@ -111,8 +142,16 @@ describe("board page", () => {
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: new Date().toISOString(), score: 70 });
     const first = await call(boardRoute.action, post("/board", { intent: "remind" }, jars.owner));
     expect(first.status).toBe(302);
-    const recipients = mail.all().flatMap((m) => m.to).sort();
-    expect(recipients).toEqual(["felix@tidewater.example", "lena@tidewater.example", "samir@tidewater.example", "yuki@tidewater.example"]);
+    const recipients = mail
+      .all()
+      .flatMap((m) => m.to)
+      .sort();
+    expect(recipients).toEqual([
+      "felix@tidewater.example",
+      "lena@tidewater.example",
+      "samir@tidewater.example",
+      "yuki@tidewater.example",
+    ]);
     const message = mail.latestTo("samir@tidewater.example");
     expect(message.subject).toBe("Ines Marlowe is looking forward to your next take");
     expect(message.text).toContain("http://127.0.0.1:3000/takes/new");
@@ -128,8 +167,14 @@ describe("board page", () => {
   });
 
   it("keeps the chart's choice from the address and refuses another studio's students", async () => {
-    const page = await call(boardRoute.loader, get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner));
-    const d = page.data as { choice: { metric: string; studentIds: string[]; from: string; to: string }; chart: { weeks: string[]; series: unknown[] } };
+    const page = await call(
+      boardRoute.loader,
+      get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner),
+    );
+    const d = page.data as {
+      choice: { metric: string; studentIds: string[]; from: string; to: string };
+      chart: { weeks: string[]; series: unknown[] };
+    };
     expect(d.choice).toEqual({ metric: "accuracy", studentIds: [s.slider], from: "2026-10-05", to: "2026-11-29" });
     expect(d.chart.weeks[0]).toBe("2026-W41");
     expect(d.chart.weeks.at(-1)).toBe("2026-W48");
@@ -141,13 +186,25 @@ describe("board page", () => {
   });
 
   it("shows an earlier week on request, against the week before it, without the reminder card", async () => {
-    const current = (await call(boardRoute.loader, get("/board", jars.owner))).data as { week: { key: string; isCurrent: boolean }; weekOptions: { key: string; label: string }[] };
+    const current = (await call(boardRoute.loader, get("/board", jars.owner))).data as {
+      week: { key: string; isCurrent: boolean };
+      weekOptions: { key: string; label: string }[];
+    };
     expect(current.week.isCurrent).toBe(true);
     expect(current.weekOptions.slice(0, 2).map((o) => o.label)).toEqual(["This week", "Last week"]);
     const lastWeek = current.weekOptions[1].key;
-    insertHandTake({ studentId: s.slider, studioId: s.studio, at: new Date(Date.now() - 7 * DAY).toISOString(), score: 64 });
+    insertHandTake({
+      studentId: s.slider,
+      studioId: s.studio,
+      at: new Date(Date.now() - 7 * DAY).toISOString(),
+      score: 64,
+    });
     const page = await call(boardRoute.loader, get(`/board?week=${lastWeek}`, jars.owner));
-    const d = page.data as { week: { key: string; isCurrent: boolean }; quiet: unknown[]; rows: { name: string; thisWeek: { score: number | null } }[] };
+    const d = page.data as {
+      week: { key: string; isCurrent: boolean };
+      quiet: unknown[];
+      rows: { name: string; thisWeek: { score: number | null } }[];
+    };
     expect(d.week).toMatchObject({ key: lastWeek, isCurrent: false });
     expect(d.quiet).toEqual([]);
     expect(d.rows.find((r) => r.name === "Felix Brandt")!.thisWeek.score).toBe(64);
@@ -164,13 +221,22 @@ describe("studio time zone", () => {
   it("lets the owner change it, recomputing week keys; a co-teacher only reads it", async () => {
     const t = insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-30T02:00:00Z" }); // Monday 02:00 UTC
     expect(t.weekKey).toBe("2026-W49");
-    const changed = await call(settingsRoute.action, post("/studio/settings", { timeZone: "America/Los_Angeles" }, jars.owner));
+    const changed = await call(
+      settingsRoute.action,
+      post("/studio/settings", { timeZone: "America/Los_Angeles" }, jars.owner),
+    );
     expect(changed.status).toBe(302);
     // Sunday 18:00 in Los Angeles: the take moves back to week 48.
     expect(db().select({ w: takes.weekKey }).from(takes).where(eq(takes.id, t.id)).get()!.w).toBe("2026-W48");
-    expect(db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, s.studio)).get()!.tz).toBe("America/Los_Angeles");
-    expect((await call(settingsRoute.action, post("/studio/settings", { timeZone: "Nowhere/Atlantis" }, jars.owner))).status).toBe(400);
-    expect((await call(settingsRoute.action, post("/studio/settings", { timeZone: "UTC" }, jars.coTeacher))).status).toBe(403);
+    expect(db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, s.studio)).get()!.tz).toBe(
+      "America/Los_Angeles",
+    );
+    expect(
+      (await call(settingsRoute.action, post("/studio/settings", { timeZone: "Nowhere/Atlantis" }, jars.owner))).status,
+    ).toBe(400);
+    expect(
+      (await call(settingsRoute.action, post("/studio/settings", { timeZone: "UTC" }, jars.coTeacher))).status,
+    ).toBe(403);
     const view = await call(settingsRoute.loader, get("/studio/settings", jars.coTeacher));
     expect(view.data).toMatchObject({ canEdit: false, timeZone: "America/Los_Angeles" });
   });
@@ -178,27 +244,76 @@ describe("studio time zone", () => {
 
 describe("reports and the student page", () => {
   it("saves a report with the teacher's summary and reopens it; other studios get 404 or 403", async () => {
-    insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-18T15:00:00Z", score: 72, changes: 10, motion: 20, best: 15, techniques: { "open-voicing": 2 } });
+    insertHandTake({
+      studentId: s.climber,
+      studioId: s.studio,
+      at: "2026-11-18T15:00:00Z",
+      score: 72,
+      changes: 10,
+      motion: 20,
+      best: 15,
+      techniques: { "open-voicing": 2 },
+    });
     const params = { studentId: s.climber };
-    const empty = await call(reportRoute.action, post(`/reports/${s.climber}`, { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "  " }, jars.owner), params);
+    const empty = await call(
+      reportRoute.action,
+      post(
+        `/reports/${s.climber}`,
+        { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "  " },
+        jars.owner,
+      ),
+      params,
+    );
     expect(empty.status).toBe(400);
-    const badDate = await call(reportRoute.action, post(`/reports/${s.climber}`, { intent: "save", from: "2026-02-30", to: "2026-03-31", summary: "Fine." }, jars.owner), params);
+    const badDate = await call(
+      reportRoute.action,
+      post(
+        `/reports/${s.climber}`,
+        { intent: "save", from: "2026-02-30", to: "2026-03-31", summary: "Fine." },
+        jars.owner,
+      ),
+      params,
+    );
     expect(badDate.status).toBe(400);
     const saved = await call(
       reportRoute.action,
-      post(`/reports/${s.climber}`, { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "Smoother changes; open voicings are new." }, jars.owner),
+      post(
+        `/reports/${s.climber}`,
+        { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "Smoother changes; open voicings are new." },
+        jars.owner,
+      ),
       params,
     );
     expect(saved.status).toBe(302);
     const reportId = new URL(saved.location!, "http://x").searchParams.get("report")!;
-    const reopened = await call(reportRoute.loader, get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher), params);
-    const d = reopened.data as { from: string; to: string; saved: { summary: string }; progress: { total: { score: number; smoothness: number }; gained: string[] }; savedReports: unknown[] };
-    expect(d).toMatchObject({ from: "2026-11-01", to: "2026-11-30", saved: { summary: "Smoother changes; open voicings are new." } });
+    const reopened = await call(
+      reportRoute.loader,
+      get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher),
+      params,
+    );
+    const d = reopened.data as {
+      from: string;
+      to: string;
+      saved: { summary: string };
+      progress: { total: { score: number; smoothness: number }; gained: string[] };
+      savedReports: unknown[];
+    };
+    expect(d).toMatchObject({
+      from: "2026-11-01",
+      to: "2026-11-30",
+      saved: { summary: "Smoother changes; open voicings are new." },
+    });
     expect(d.progress.total.score).toBe(72);
     expect(d.progress.total.smoothness).toBe(0.75); // 15 / 20
     expect(d.progress.gained).toEqual(["open-voicing"]);
     expect(d.savedReports).toHaveLength(1);
-    expect((await call(reportRoute.loader, get(`/reports/${s.slider}?report=${reportId}`, jars.owner), { studentId: s.slider })).status).toBe(404);
+    expect(
+      (
+        await call(reportRoute.loader, get(`/reports/${s.slider}?report=${reportId}`, jars.owner), {
+          studentId: s.slider,
+        })
+      ).status,
+    ).toBe(404);
     expect((await call(reportRoute.loader, get(`/reports/${s.climber}`, jars.otherTeacher), params)).status).toBe(403);
     expect((await call(reportRoute.loader, get(`/reports/${s.climber}`, jars.student), params)).status).toBe(403);
   });
@@ -206,8 +321,16 @@ describe("reports and the student page", () => {
   it("shows one student's weeks, techniques, exercises and takes to their teacher", async () => {
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-18T15:00:00Z", score: 60 });
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-25T15:00:00Z", failed: true });
-    const page = await call(studentRoute.loader, get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner), { studentId: s.climber });
-    const d = page.data as { weeks: { week: string; takes: number }[]; takes: unknown[]; exercises: { title: string; takes: number }[] };
+    const page = await call(
+      studentRoute.loader,
+      get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner),
+      { studentId: s.climber },
+    );
+    const d = page.data as {
+      weeks: { week: string; takes: number }[];
+      takes: unknown[];
+      exercises: { title: string; takes: number }[];
+    };
     expect(d.weeks.map((w) => [w.week, w.takes])).toEqual([
       ["2026-W47", 1],
       ["2026-W48", 1],

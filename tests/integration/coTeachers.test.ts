@@ -8,10 +8,22 @@ import { memberships } from "~/db/schema";
 import * as login from "~/routes/login";
 import { ask } from "../support/app";
 import { useFreshApp } from "../support/setup";
-import { get, join, linkIn, makeStudio, makeUser, ORIGIN, post as postForm, signIn, useMailCatcher, type CookieJar } from "./accountsKit";
+import {
+  get,
+  join,
+  linkIn,
+  makeStudio,
+  makeUser,
+  ORIGIN,
+  post as postForm,
+  signIn,
+  useMailCatcher,
+  type CookieJar,
+} from "./accountsKit";
 
 /** A form post from our own pages: the router refuses actions from another origin. */
-const post = (to: string, fields: Record<string, string>, jar: CookieJar) => postForm(to, fields, jar, { Origin: ORIGIN });
+const post = (to: string, fields: Record<string, string>, jar: CookieJar) =>
+  postForm(to, fields, jar, { Origin: ORIGIN });
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
@@ -28,7 +40,11 @@ async function studio() {
 }
 
 const membership = (studioId: string, userId: string) =>
-  db().select().from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId))).get()!;
+  db()
+    .select()
+    .from(memberships)
+    .where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)))
+    .get()!;
 const csv = "/api/export/progress.csv?from=2026-01-05&to=2026-03-29";
 
 describe("removing a co-teacher", () => {
@@ -76,7 +92,9 @@ describe("removing a co-teacher", () => {
       expect((await ask(post("/students", fields, rafeJar))).status, JSON.stringify(fields)).toBe(403);
     }
     expect((await ask(post("/students", { intent: "remove-teacher", teacherId: ines.id }, inesJar))).status).toBe(403);
-    expect((await ask(post("/students", { intent: "remove-teacher", teacherId: "no-such-person" }, inesJar))).status).toBe(403);
+    expect(
+      (await ask(post("/students", { intent: "remove-teacher", teacherId: "no-such-person" }, inesJar))).status,
+    ).toBe(403);
     expect(membership(s.id, ines.id)).toMatchObject({ status: "active", role: "owner" });
     expect(membership(s.id, juno.id).status).toBe("active");
     expect(membership(s.id, rafe.id).status).toBe("active");

@@ -29,10 +29,23 @@ describe("twenty uploads at once", () => {
     // 4 students × 5 different takes each, all sent at the same moment.
     const jobs = students.flatMap((s, si) =>
       Array.from({ length: 5 }, (_, k) => {
-        const bytes = generateTake({ exercise: EXERCISES[k % EXERCISES.length], skill: 0.2 * k, seed: si * 100 + k, loops: 2 });
+        const bytes = generateTake({
+          exercise: EXERCISES[k % EXERCISES.length],
+          skill: 0.2 * k,
+          seed: si * 100 + k,
+          loops: 2,
+        });
         const form = new FormData();
         form.append("file", new File([new Uint8Array(bytes)], `take-${si}-${k}.mid`));
-        return { student: s, request: () => fetch(`${server.base}/api/takes`, { method: "POST", body: form, headers: { Cookie: s.cookie, Origin: server.base } }) };
+        return {
+          student: s,
+          request: () =>
+            fetch(`${server.base}/api/takes`, {
+              method: "POST",
+              body: form,
+              headers: { Cookie: s.cookie, Origin: server.base },
+            }),
+        };
       }),
     );
     const responses = await Promise.all(jobs.map((j) => j.request()));
@@ -46,7 +59,9 @@ describe("twenty uploads at once", () => {
     // The board's figures equal the sums of what each upload answered (smoothness is a ratio of sums).
     const { rows } = boardRows(studioId);
     for (const s of students) {
-      const mine = bodies.filter((_, i) => jobs[i].student.id === s.id) as { analysis: { summary: { bestTotalMotion: number; totalMotion: number; gradedChangeCount: number } } }[];
+      const mine = bodies.filter((_, i) => jobs[i].student.id === s.id) as {
+        analysis: { summary: { bestTotalMotion: number; totalMotion: number; gradedChangeCount: number } };
+      }[];
       const best = mine.reduce((a, b) => a + b.analysis.summary.bestTotalMotion, 0);
       const total = mine.reduce((a, b) => a + b.analysis.summary.totalMotion, 0);
       const changes = mine.reduce((a, b) => a + b.analysis.summary.gradedChangeCount, 0);

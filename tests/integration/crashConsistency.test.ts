@@ -66,7 +66,10 @@ describe("a crash during uploads", () => {
         redirect: "manual",
       });
       expect(login.status).toBe(302);
-      const cookie = login.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+      const cookie = login.headers
+        .getSetCookie()
+        .map((c) => c.split(";")[0])
+        .join("; ");
 
       const acknowledged: string[] = [];
       const uploads = Array.from({ length: 16 }, (_, i) => {
@@ -105,8 +108,16 @@ describe("a crash during uploads", () => {
     const second = startServer();
     try {
       await waitUp();
-      await expect.poll(second.output, { timeout: 15_000 }).toContain(`orphan take files removed at start-up: ${orphans}`);
-      const referenced = new Set(db().select().from(takes).all().map((t) => takeFileNames(t.fileKey).hash));
+      await expect
+        .poll(second.output, { timeout: 15_000 })
+        .toContain(`orphan take files removed at start-up: ${orphans}`);
+      const referenced = new Set(
+        db()
+          .select()
+          .from(takes)
+          .all()
+          .map((t) => takeFileNames(t.fileKey).hash),
+      );
       const files = storedTakeFiles(app.storageDir);
       expect(files.every((f) => referenced.has(path.basename(f, ".dat")))).toBe(true);
       expect(files).toHaveLength(referenced.size);

@@ -15,10 +15,19 @@ describe("the demo studio seed", () => {
     expect(result.created).toBe(true);
     const studio = db().select().from(studios).get()!;
     expect(studio.name).toBe("Tidewater Keys");
-    const roles = db().select({ role: memberships.role }).from(memberships).all().map((r) => r.role).sort();
+    const roles = db()
+      .select({ role: memberships.role })
+      .from(memberships)
+      .all()
+      .map((r) => r.role)
+      .sort();
     expect(roles).toEqual(["owner", "student", "student", "student", "student", "student", "student"]);
     expect(DEMO_STUDENTS.map((s) => s.email)).toContain("dara@tidewater.example");
-    const titles = db().select({ t: exercises.title }).from(exercises).all().map((r) => r.t);
+    const titles = db()
+      .select({ t: exercises.title })
+      .from(exercises)
+      .all()
+      .map((r) => r.t);
     expect(titles).toHaveLength(4);
     expect(titles).toContain("Falling bass in E♭");
     const teacher = db().select().from(users).where(eq(users.email, DEMO_TEACHER.email)).get()!;
@@ -78,7 +87,12 @@ describe("the demo takes", () => {
     const reading = ballad.analysis as { chords: Array<{ symbol: string }>; summary: { accuracy: number } };
     expect(reading.chords.map((c) => c.symbol)).toEqual(["Fm", "Db", "Ab", "Eb"]);
     expect(reading.summary.accuracy).toBe(1);
-    const shells = db().select({ analysis: takeMetrics.analysis }).from(takes).innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id)).where(eq(takes.originalName, "texture-shells-melody-bb.mid")).get()!;
+    const shells = db()
+      .select({ analysis: takeMetrics.analysis })
+      .from(takes)
+      .innerJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
+      .where(eq(takes.originalName, "texture-shells-melody-bb.mid"))
+      .get()!;
     expect((shells.analysis as { melodyNotes: unknown[] }).melodyNotes.length).toBeGreaterThan(0);
   }, 60_000);
 });

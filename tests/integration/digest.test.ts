@@ -12,7 +12,19 @@ import { DIGEST_HOUR, digestContent, runDigests, runDueReminders } from "~/model
 import * as login from "~/routes/login";
 import * as unsubscribe from "~/routes/unsubscribe";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, ORIGIN, post, signIn, useMailCatcher } from "./accountsKit";
+import {
+  call,
+  CookieJar,
+  get,
+  join,
+  makeExercise,
+  makeStudio,
+  makeUser,
+  ORIGIN,
+  post,
+  signIn,
+  useMailCatcher,
+} from "./accountsKit";
 import { chordsMidi, uploadAnalysed } from "./exercisesKit";
 
 const app = useFreshApp();
@@ -39,18 +51,32 @@ beforeEach(async () => {
 });
 
 /** Uploads a take and dates its arrival, so the digest's "since" has something to compare. */
-async function takeAt(iso: string, chords: number[][] = [[62, 66, 69], [62, 67, 71]]) {
+async function takeAt(
+  iso: string,
+  chords: number[][] = [
+    [62, 66, 69],
+    [62, 67, 71],
+  ],
+) {
   const body = await uploadAnalysed(dara, chordsMidi(chords), { key: "D" });
-  db().update(takes).set({ createdAt: at(iso) }).where(eq(takes.id, body.id)).run();
+  db()
+    .update(takes)
+    .set({ createdAt: at(iso) })
+    .where(eq(takes.id, body.id))
+    .run();
   return body.id;
 }
 
-const digestsTo = (address: string) => mail.all().filter((m) => m.to.includes(address) && m.subject.startsWith("Nearnote digest"));
+const digestsTo = (address: string) =>
+  mail.all().filter((m) => m.to.includes(address) && m.subject.startsWith("Nearnote digest"));
 
 describe("daily digest", () => {
   it(`goes out once a day from ${DIGEST_HOUR}:00 studio time, to each teacher, listing new takes with links`, async () => {
     const first = await takeAt("2026-12-01T09:00:00Z");
-    const second = await takeAt("2026-12-01T15:30:00Z", [[62, 66, 69], [61, 64, 69]]);
+    const second = await takeAt("2026-12-01T15:30:00Z", [
+      [62, 66, 69],
+      [61, 64, 69],
+    ]);
     expect(await runDigests(at("2026-12-01T17:59:00Z"))).toBe(0); // before the hour
     expect(await runDigests(at("2026-12-01T19:00:00Z"))).toBe(2); // Ines and Marta
     const d = mail.latestTo("ines@tidewater.example");
@@ -60,7 +86,13 @@ describe("daily digest", () => {
     expect(d.text).toContain(`${ORIGIN}/takes/${second}`);
     expect(d.text).toContain("Takes waiting for review: 2.");
     expect(d.text).toMatch(/\/unsubscribe\?token=\S+/);
-    expect(db().select().from(sentMails).all().map((r) => [r.kind, r.key])).toEqual([
+    expect(
+      db()
+        .select()
+        .from(sentMails)
+        .all()
+        .map((r) => [r.kind, r.key]),
+    ).toEqual([
       ["digest", `digest:${ids.studio}:2026-12-01`],
       ["digest", `digest:${ids.studio}:2026-12-01`],
     ]);
@@ -69,7 +101,10 @@ describe("daily digest", () => {
   it("never sends twice in a day: not on a second run, not after a restart, not from the scheduler", async () => {
     await takeAt("2026-12-01T09:00:00Z");
     expect(await runDigests(at("2026-12-01T19:00:00Z"))).toBe(2);
-    await takeAt("2026-12-01T19:30:00Z", [[62, 66, 69], [64, 67, 71]]);
+    await takeAt("2026-12-01T19:30:00Z", [
+      [62, 66, 69],
+      [64, 67, 71],
+    ]);
     expect(await runDigests(at("2026-12-01T20:00:00Z"))).toBe(0);
     // A restart: the process loses everything but the database file.
     closeDatabase();
@@ -96,8 +131,15 @@ describe("daily digest", () => {
   it("lists students' replies too", async () => {
     const { comments } = await import("~/db/schema");
     const id = await takeAt("2026-11-20T10:00:00Z");
-    db().insert(comments).values({ takeId: id, authorId: ids.dara, body: "Is this better?", createdAt: at("2026-12-01T11:00:00Z") }).run();
-    const content = digestContent({ id: ids.ines, name: "Ines Marlowe" }, { id: ids.studio, name: "Tidewater Keys" }, at("2026-12-01T00:00:00Z"));
+    db()
+      .insert(comments)
+      .values({ takeId: id, authorId: ids.dara, body: "Is this better?", createdAt: at("2026-12-01T11:00:00Z") })
+      .run();
+    const content = digestContent(
+      { id: ids.ines, name: "Ines Marlowe" },
+      { id: ids.studio, name: "Tidewater Keys" },
+      at("2026-12-01T00:00:00Z"),
+    );
     expect(content).toMatchObject({ takeCount: 0, replyCount: 1 });
     expect(content!.text).toContain('- Dara Okafor: "Is this better?"');
   });
@@ -125,7 +167,14 @@ describe("due-date reminders", () => {
     const exercise = makeExercise(ids.studio, "Sunday ballad in A♭");
     db().update(exercises).set({ dueDate: "2026-12-02" }).where(eq(exercises.id, exercise.id)).run();
     const felix = await signIn(login, "felix@tidewater.example");
-    await uploadAnalysed(felix, chordsMidi([[62, 66, 69], [62, 67, 71]]), { exerciseId: exercise.id, key: "D" });
+    await uploadAnalysed(
+      felix,
+      chordsMidi([
+        [62, 66, 69],
+        [62, 67, 71],
+      ]),
+      { exerciseId: exercise.id, key: "D" },
+    );
     expect(await runDueReminders(at("2026-11-30T12:00:00Z"))).toBe(0); // two days before
     expect(await runDueReminders(at("2026-12-01T12:00:00Z"))).toBe(1);
     const r = mail.latestTo("dara@tidewater.example");
@@ -165,7 +214,9 @@ describe("unsubscribe link", () => {
     const [payload, mac] = token.split(".");
     const forged = `${Buffer.from(`${ids.marta}:digest`).toString("base64url")}.${mac}`;
     expect((await call(unsubscribe.loader, get(`/unsubscribe?token=${forged}`))).status).toBe(400);
-    expect((await call(unsubscribe.action, post("/unsubscribe", { token: `${payload}.x${mac.slice(1)}` }))).status).toBe(400);
+    expect(
+      (await call(unsubscribe.action, post("/unsubscribe", { token: `${payload}.x${mac.slice(1)}` }))).status,
+    ).toBe(400);
     expect(db().select().from(users).where(eq(users.id, ids.marta)).get()!.mailDigest).toBe(true);
   });
 });

@@ -22,10 +22,20 @@ useFreshApp();
 const sample = (name: string) => new Uint8Array(readFileSync(path.resolve("samples", name)));
 
 // I IV V I in D, close position, twice round.
-const D_MAJOR = [[50, 62, 66, 69], [43, 62, 67, 71], [45, 61, 64, 69], [50, 62, 66, 69]];
+const D_MAJOR = [
+  [50, 62, 66, 69],
+  [43, 62, 67, 71],
+  [45, 61, 64, 69],
+  [50, 62, 66, 69],
+];
 const D_TAKE = chordsMidi([...D_MAJOR, ...D_MAJOR]);
 // vi IV I V in A♭: Fm D♭ A♭ E♭, twice round.
-const AB_BALLAD = [[41, 60, 65, 68], [49, 61, 65, 68], [44, 60, 63, 68], [51, 58, 63, 67]];
+const AB_BALLAD = [
+  [41, 60, 65, 68],
+  [49, 61, 65, 68],
+  [44, 60, 63, 68],
+  [51, 58, 63, 67],
+];
 const AB_TAKE = chordsMidi([...AB_BALLAD, ...AB_BALLAD, [44, 60, 63, 68]]);
 
 async function setup() {
@@ -84,7 +94,17 @@ describe("each file of an upload to its own exercise", () => {
   it("a file without its own choice takes the form's exercise", async () => {
     const s = await setup();
     const results = await uploadTakesFromForm(
-      multipart([{ name: "a.mid", bytes: D_TAKE }, { name: "b.mid", bytes: AB_TAKE }], [["exerciseId", s.smoothing.id], ["fileExercise", ""], ["fileExercise", s.ballad.id]]),
+      multipart(
+        [
+          { name: "a.mid", bytes: D_TAKE },
+          { name: "b.mid", bytes: AB_TAKE },
+        ],
+        [
+          ["exerciseId", s.smoothing.id],
+          ["fileExercise", ""],
+          ["fileExercise", s.ballad.id],
+        ],
+      ),
       s.user,
     );
     expect(results.map((r) => takeRow(r.body.id!).exerciseId)).toEqual([s.smoothing.id, s.ballad.id]);
@@ -94,7 +114,10 @@ describe("each file of an upload to its own exercise", () => {
 
   it("refuses a choice that is not one of the student's exercises, keeping no file", async () => {
     const s = await setup();
-    const results = await uploadTakesFromForm(multipart([{ name: "a.mid", bytes: D_TAKE }], [["fileExercise", "someone-elses"]]), s.user);
+    const results = await uploadTakesFromForm(
+      multipart([{ name: "a.mid", bytes: D_TAKE }], [["fileExercise", "someone-elses"]]),
+      s.user,
+    );
     expect(results[0].status).toBe(400);
     expect(results[0].body.error).toMatch(/not one of yours/);
     expect(db().select().from(takes).all()).toHaveLength(0);
@@ -116,7 +139,10 @@ describe("a take filed under the wrong exercise", () => {
     expect(fitSentence(fit)).toMatch(/^This sounds like (A♭ major|F minor); “Three-chord smoothing” is in D major/);
     expect(likelySentence(fit)).toBe("It sounds like “Ballad” in A♭ major (100% of its chords).");
     // The verdict stays with the take, for its page.
-    expect(takeRow(r.body.id).exerciseFit).toMatchObject({ reason: "key", likely: { exerciseId: s.ballad.id, key: "Ab" } });
+    expect(takeRow(r.body.id).exerciseFit).toMatchObject({
+      reason: "key",
+      likely: { exerciseId: s.ballad.id, key: "Ab" },
+    });
   });
 
   it("the right chords in another of the exercise's keys point to that key", async () => {
@@ -141,7 +167,11 @@ describe("a take filed under the wrong exercise", () => {
     const shown = (page.data as { fit: FitNotice | null }).fit;
     expect(shown?.likely).toMatchObject({ exerciseId: s.ballad.id, key: "Ab", title: "Ballad" });
 
-    const moved = await call(takePage.action, formPost(`/takes/${body.id}`, { intent: "move", exerciseId: s.ballad.id, key: "Ab" }, s.jar), { takeId: body.id });
+    const moved = await call(
+      takePage.action,
+      formPost(`/takes/${body.id}`, { intent: "move", exerciseId: s.ballad.id, key: "Ab" }, s.jar),
+      { takeId: body.id },
+    );
     expect(moved.status).toBe(302);
     const row = takeRow(body.id);
     expect([row.exerciseId, row.key, row.exerciseFit]).toEqual([s.ballad.id, "Ab", null]);

@@ -20,10 +20,19 @@ type Listed = { id: string; state: ExerciseState };
 
 async function statesEverywhere(jar: Awaited<ReturnType<typeof signIn>>, id: string) {
   const h = (await call(home.loader, get("/home", jar))).data as { student: { exercises: Listed[] } };
-  const l = (await call(exercisesList.loader, get("/exercises", jar))).data as { student: { due: Listed[]; done: Listed[] } };
-  const p = (await call(exercisePage.loader, get(`/exercises/${id}`, jar), { exerciseId: id })).data as { state: ExerciseState };
+  const l = (await call(exercisesList.loader, get("/exercises", jar))).data as {
+    student: { due: Listed[]; done: Listed[] };
+  };
+  const p = (await call(exercisePage.loader, get(`/exercises/${id}`, jar), { exerciseId: id })).data as {
+    state: ExerciseState;
+  };
   const listed = [...l.student.due, ...l.student.done].find((e) => e.id === id)!;
-  return { home: h.student.exercises.find((e) => e.id === id)!.state, list: listed.state, page: p.state, inDone: l.student.done.some((e) => e.id === id) };
+  return {
+    home: h.student.exercises.find((e) => e.id === id)!.state,
+    list: listed.state,
+    page: p.state,
+    inDone: l.student.done.some((e) => e.id === id),
+  };
 }
 
 describe("the student's state of an exercise", () => {
@@ -33,17 +42,45 @@ describe("the student's state of an exercise", () => {
     join(studio.id, dara.id, "student");
     const today = todayIn(studioTimeZone(studio.id));
     const yesterday = new Date(Date.parse(`${today}T00:00:00Z`) - 86_400_000).toISOString().slice(0, 10);
-    const ex = db().insert(exercises).values({ studioId: studio.id, title: "Two keys", keys: ["D", "G"], progression: "I IV V I", dueDate: yesterday }).returning().get();
+    const ex = db()
+      .insert(exercises)
+      .values({ studioId: studio.id, title: "Two keys", keys: ["D", "G"], progression: "I IV V I", dueDate: yesterday })
+      .returning()
+      .get();
     const jar = await signIn(login, dara.email);
 
-    await uploadAnalysed(jar, chordsMidi([[62, 66, 69], [62, 67, 71], [61, 64, 69], [62, 66, 69]]), { exerciseId: ex.id, key: "D" });
+    await uploadAnalysed(
+      jar,
+      chordsMidi([
+        [62, 66, 69],
+        [62, 67, 71],
+        [61, 64, 69],
+        [62, 66, 69],
+      ]),
+      { exerciseId: ex.id, key: "D" },
+    );
     const before = await statesEverywhere(jar, ex.id);
     expect(before.home).toEqual(before.page);
     expect(before.list).toEqual(before.page);
-    expect(before.page).toMatchObject({ kind: "overdue", label: "1 day overdue", keysDone: 1, keysTotal: 2, detail: "A take in G still to send." });
+    expect(before.page).toMatchObject({
+      kind: "overdue",
+      label: "1 day overdue",
+      keysDone: 1,
+      keysTotal: 2,
+      detail: "A take in G still to send.",
+    });
     expect(before.inDone).toBe(false);
 
-    await uploadAnalysed(jar, chordsMidi([[67, 71, 74], [67, 72, 76], [66, 69, 74], [67, 71, 74]]), { exerciseId: ex.id, key: "G" });
+    await uploadAnalysed(
+      jar,
+      chordsMidi([
+        [67, 71, 74],
+        [67, 72, 76],
+        [66, 69, 74],
+        [67, 71, 74],
+      ]),
+      { exerciseId: ex.id, key: "G" },
+    );
     const after = await statesEverywhere(jar, ex.id);
     expect(after.home).toEqual(after.page);
     expect(after.list).toEqual(after.page);

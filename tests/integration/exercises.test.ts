@@ -24,7 +24,11 @@ let ids: { dara: string; felix: string; studio: string };
 
 beforeEach(async () => {
   const studio = makeStudio("Tidewater Keys");
-  const people = { ines: makeUser("ines@tidewater.example", "Ines Marlowe"), dara: makeUser("dara@tidewater.example", "Dara Okafor"), felix: makeUser("felix@tidewater.example", "Felix Brandt") };
+  const people = {
+    ines: makeUser("ines@tidewater.example", "Ines Marlowe"),
+    dara: makeUser("dara@tidewater.example", "Dara Okafor"),
+    felix: makeUser("felix@tidewater.example", "Felix Brandt"),
+  };
   join(studio.id, people.ines.id, "owner");
   join(studio.id, people.dara.id, "student");
   join(studio.id, people.felix.id, "student");
@@ -34,10 +38,22 @@ beforeEach(async () => {
   ids = { dara: people.dara.id, felix: people.felix.id, studio: studio.id };
 });
 
-const base = { title: "Drill", keyChoice: "listed", keys: "D", progression: "I IV V I", tempo: "72", dueDate: "2026-12-10", instructions: "", assignedTo: "studio" };
+const base = {
+  title: "Drill",
+  keyChoice: "listed",
+  keys: "D",
+  progression: "I IV V I",
+  tempo: "72",
+  dueDate: "2026-12-10",
+  instructions: "",
+  assignedTo: "studio",
+};
 
 async function createExercise(fields: Record<string, string>, extra: Array<[string, string]> = []) {
-  const r = await call(exerciseNew.action, formPost("/exercises/new", [...Object.entries({ ...base, ...fields }), ...extra], ines));
+  const r = await call(
+    exerciseNew.action,
+    formPost("/exercises/new", [...Object.entries({ ...base, ...fields }), ...extra], ines),
+  );
   expect(r.status, JSON.stringify(r.data)).toBe(302);
   return r.location!.split("/").pop()!;
 }
@@ -45,10 +61,12 @@ async function createExercise(fields: Record<string, string>, extra: Array<[stri
 async function expanded(id: string, jar = ines) {
   const r = await call(exercisePage.loader, get(`/exercises/${id}`, jar), { exerciseId: id });
   expect(r.status).toBe(200);
-  return (r.data as { expanded: Array<{ key: string; chords: Array<{ symbol: string; roman: string | null }> }> }).expanded;
+  return (r.data as { expanded: Array<{ key: string; chords: Array<{ symbol: string; roman: string | null }> }> })
+    .expanded;
 }
 
-const symbols = (e: Awaited<ReturnType<typeof expanded>>, key: string) => e.find((k) => k.key === key)!.chords.map((c) => c.symbol);
+const symbols = (e: Awaited<ReturnType<typeof expanded>>, key: string) =>
+  e.find((k) => k.key === key)!.chords.map((c) => c.symbol);
 
 describe("setting exercises", () => {
   it("takes chord symbols and shows them with their numerals", async () => {
@@ -58,7 +76,13 @@ describe("setting exercises", () => {
     // In E flat: Eb = I, Bb = V, Cm = vi, Ab = IV.
     expect(e[0].chords.map((c) => c.roman)).toEqual(["I", "V", "vi", "vi", "IV"]);
     const row = db().select().from(exercises).where(eq(exercises.id, id)).get()!;
-    expect(row).toMatchObject({ title: "Falling bass in E♭", keys: ["Eb"], tempo: 72, dueDate: "2026-12-10", assignedTo: "studio" });
+    expect(row).toMatchObject({
+      title: "Falling bass in E♭",
+      keys: ["Eb"],
+      tempo: 72,
+      dueDate: "2026-12-10",
+      assignedTo: "studio",
+    });
   });
 
   it("reads Roman numerals in a major key (D: I IV V I = D G A D) and a minor key (G minor: iiø7 V7 i = Am7b5 D7 Gm)", async () => {
@@ -68,7 +92,9 @@ describe("setting exercises", () => {
     // is A C Eb (+G = Am7b5), V7 is D F# A C, i is G Bb D.
     const minor = await createExercise({ keys: "Gm", progression: "iiø7 V7 i" }, [["focusTechniques", "added-second"]]);
     expect(symbols(await expanded(minor), "Gm")).toEqual(["Am7b5", "D7", "Gm"]);
-    expect(db().select().from(exercises).where(eq(exercises.id, minor)).get()!.focusTechniques).toEqual(["added-second"]);
+    expect(db().select().from(exercises).where(eq(exercises.id, minor)).get()!.focusTechniques).toEqual([
+      "added-second",
+    ]);
   });
 
   it("sets an exercise in all twelve keys, transposing chord symbols from the first", async () => {
@@ -99,14 +125,27 @@ describe("setting exercises", () => {
 
   it("edits and archives; archived exercises leave the students' list", async () => {
     const id = await createExercise({});
-    const edit = await call(exerciseEdit.action, formPost(`/exercises/${id}/edit`, { ...base, title: "Drill two", progression: "I vi IV V" }, ines), { exerciseId: id });
+    const edit = await call(
+      exerciseEdit.action,
+      formPost(`/exercises/${id}/edit`, { ...base, title: "Drill two", progression: "I vi IV V" }, ines),
+      { exerciseId: id },
+    );
     expect(edit.status).toBe(302);
-    expect(db().select().from(exercises).where(eq(exercises.id, id)).get()).toMatchObject({ title: "Drill two", progression: "I vi IV V" });
-    const studentList = async () => (await call(exercisesList.loader, get("/exercises", dara))).data as { student: { due: Array<{ id: string }> } };
+    expect(db().select().from(exercises).where(eq(exercises.id, id)).get()).toMatchObject({
+      title: "Drill two",
+      progression: "I vi IV V",
+    });
+    const studentList = async () =>
+      (await call(exercisesList.loader, get("/exercises", dara))).data as { student: { due: Array<{ id: string }> } };
     expect((await studentList()).student.due.map((e) => e.id)).toEqual([id]);
-    expect((await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "archive" }, ines), { exerciseId: id })).status).toBe(302);
+    expect(
+      (await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "archive" }, ines), { exerciseId: id }))
+        .status,
+    ).toBe(302);
     expect((await studentList()).student.due).toEqual([]);
-    const teacherList = (await call(exercisesList.loader, get("/exercises", ines))).data as { teacher: Array<{ id: string; archived: boolean }> };
+    const teacherList = (await call(exercisesList.loader, get("/exercises", ines))).data as {
+      teacher: Array<{ id: string; archived: boolean }>;
+    };
     expect(teacherList.teacher).toEqual([expect.objectContaining({ id, archived: true })]);
   });
 });
@@ -115,12 +154,22 @@ describe("assigned to chosen students", () => {
   it("only those students see it, list and page alike, and only they can send takes for it", async () => {
     const id = await createExercise({ assignedTo: "students" }, [["students", ids.dara]]);
     expect(db().select().from(exerciseAssignees).all()).toEqual([{ exerciseId: id, userId: ids.dara }]);
-    const listOf = async (jar: CookieJar) => ((await call(exercisesList.loader, get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }).student.due.map((e) => e.id);
+    const listOf = async (jar: CookieJar) =>
+      (
+        (await call(exercisesList.loader, get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }
+      ).student.due.map((e) => e.id);
     expect(await listOf(dara)).toEqual([id]);
     expect(await listOf(felix)).toEqual([]);
     expect((await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).status).toBe(200);
     expect((await call(exercisePage.loader, get(`/exercises/${id}`, felix), { exerciseId: id })).status).toBe(403);
-    const refused = await uploadTake(felix, chordsMidi([[62, 66, 69], [62, 67, 71]]), { exerciseId: id });
+    const refused = await uploadTake(
+      felix,
+      chordsMidi([
+        [62, 66, 69],
+        [62, 67, 71],
+      ]),
+      { exerciseId: id },
+    );
     expect(refused.status).toBe(400);
   });
 
@@ -148,7 +197,9 @@ describe("grading takes against the exercise", () => {
     const id = await createExercise({});
     const body = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     expect(body.analysis.summary.accuracy).toBe(0.75);
-    expect(body.analysis.summary.mismatches).toEqual([{ kind: "wrong-chord", targetIndex: 2, playedIndex: 2, expected: "A", pass: 0 }]);
+    expect(body.analysis.summary.mismatches).toEqual([
+      { kind: "wrong-chord", targetIndex: 2, playedIndex: 2, expected: "A", pass: 0 },
+    ]);
   });
 
   it("a take that loops the target: vi IV I V played one and a half times in A♭ is k = 2, 6 of 8 = 0.75 (RULES.md example)", async () => {
@@ -178,7 +229,9 @@ describe("grading takes against the exercise", () => {
       ["missing", "Ab", 1],
       ["missing", "Eb", 1],
     ]);
-    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }> };
+    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+      mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }>;
+    };
     expect(page.mine[0].takes.map((t) => t.accuracy)).toEqual([0.75]);
   });
 
@@ -200,9 +253,14 @@ describe("grading takes against the exercise", () => {
     const good = await uploadAnalysed(dara, chordsMidi([F, CoverE, Dm, DmOverC, Bb]), { exerciseId: id, key: "F" });
     expect(good.analysis.summary.accuracy).toBe(1);
     const CoverC = [48, 60, 64, 67]; // the C chord with C in the bass instead of E
-    const wrongBass = await uploadAnalysed(dara, chordsMidi([F, CoverC, Dm, DmOverC, Bb].map((c) => c.map((n) => n))), { exerciseId: id, key: "F" });
+    const wrongBass = await uploadAnalysed(dara, chordsMidi([F, CoverC, Dm, DmOverC, Bb].map((c) => c.map((n) => n))), {
+      exerciseId: id,
+      key: "F",
+    });
     expect(wrongBass.analysis.summary.accuracy).toBe(0.8);
-    expect(wrongBass.analysis.summary.mismatches).toEqual([{ kind: "wrong-bass", targetIndex: 1, playedIndex: 1, expected: "C/E", pass: 0 }]);
+    expect(wrongBass.analysis.summary.mismatches).toEqual([
+      { kind: "wrong-bass", targetIndex: 1, playedIndex: 1, expected: "C/E", pass: 0 },
+    ]);
   });
 
   it("shows the student's takes and best score per key on the exercise and the list", async () => {
@@ -212,15 +270,36 @@ describe("grading takes against the exercise", () => {
     const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
       mine: Array<{ key: string; takes: Array<{ id: string }>; best: number | null }>;
     };
-    expect(page.mine.map((p) => [p.key, p.takes.length])).toEqual([["D", 2], ["G", 0]]);
+    expect(page.mine.map((p) => [p.key, p.takes.length])).toEqual([
+      ["D", 2],
+      ["G", 0],
+    ]);
     expect(page.mine[0].best).toBe(Math.max(first.analysis.summary.score, second.analysis.summary.score));
-    const list = (await call(exercisesList.loader, get("/exercises", dara))).data as { student: { due: Array<{ id: string }>; done: unknown[] } };
+    const list = (await call(exercisesList.loader, get("/exercises", dara))).data as {
+      student: { due: Array<{ id: string }>; done: unknown[] };
+    };
     expect(list.student.due.map((e) => e.id)).toEqual([id]); // G has no take yet: still to do
-    await uploadAnalysed(dara, chordsMidi([[67, 71, 74], [67, 72, 76], [66, 69, 74], [67, 71, 74]]), { exerciseId: id, key: "G" });
-    const after = (await call(exercisesList.loader, get("/exercises", dara))).data as { student: { due: unknown[]; done: Array<{ id: string }> } };
+    await uploadAnalysed(
+      dara,
+      chordsMidi([
+        [67, 71, 74],
+        [67, 72, 76],
+        [66, 69, 74],
+        [67, 71, 74],
+      ]),
+      { exerciseId: id, key: "G" },
+    );
+    const after = (await call(exercisesList.loader, get("/exercises", dara))).data as {
+      student: { due: unknown[]; done: Array<{ id: string }> };
+    };
     expect(after.student.done.map((e) => e.id)).toEqual([id]);
-    const teacher = (await call(exercisePage.loader, get(`/exercises/${id}`, ines), { exerciseId: id })).data as { students: Array<{ name: string; done: boolean }> };
-    expect(teacher.students).toEqual([expect.objectContaining({ name: "Dara Okafor", done: true }), expect.objectContaining({ name: "Felix Brandt", done: false })]);
+    const teacher = (await call(exercisePage.loader, get(`/exercises/${id}`, ines), { exerciseId: id })).data as {
+      students: Array<{ name: string; done: boolean }>;
+    };
+    expect(teacher.students).toEqual([
+      expect.objectContaining({ name: "Dara Okafor", done: true }),
+      expect.objectContaining({ name: "Felix Brandt", done: false }),
+    ]);
   });
 });
 
@@ -230,18 +309,33 @@ describe("editing the target and the model answer", () => {
     const body = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     expect(body.analysis.summary.accuracy).toBe(0.75);
     // Now the target is I IV vi I: B minor is what was asked for.
-    const r = await call(exerciseEdit.action, formPost(`/exercises/${id}/edit`, { ...base, progression: "I IV vi I" }, ines), { exerciseId: id });
+    const r = await call(
+      exerciseEdit.action,
+      formPost(`/exercises/${id}/edit`, { ...base, progression: "I IV vi I" }, ines),
+      { exerciseId: id },
+    );
     expect(r.status).toBe(302);
     expect(db().select().from(takeMetrics).where(eq(takeMetrics.takeId, body.id)).get()!.accuracy).toBe(1);
   });
 
   it("saves a starting voicing only when it holds the first chord's tones", async () => {
     const id = await createExercise({});
-    const save = (notes: string) => call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes }, ines), { exerciseId: id });
+    const save = (notes: string) =>
+      call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes }, ines), {
+        exerciseId: id,
+      });
     expect((await save("57,62,65")).status).toBe(400); // A3 D4 F4: F natural is not in D major
     expect((await save("57,62,66")).status).toBe(302); // A3 D4 F#4
     expect(db().select().from(exercises).where(eq(exercises.id, id)).get()!.modelStart).toEqual([57, 62, 66]);
-    expect((await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes: "57,62,66" }, dara), { exerciseId: id })).status).toBe(403);
+    expect(
+      (
+        await call(
+          exercisePage.action,
+          formPost(`/exercises/${id}`, { intent: "model-start", notes: "57,62,66" }, dara),
+          { exerciseId: id },
+        )
+      ).status,
+    ).toBe(403);
   });
 
   it("attaches the teacher's own model take, plays it back as notes, refuses a file that is not MIDI, and removes it", async () => {
@@ -249,14 +343,36 @@ describe("editing the target and the model answer", () => {
     const attach = (bytes: Uint8Array, name: string) => {
       const form = new FormData();
       form.append("file", new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
-      return call(exercisePage.action, new Request(`http://127.0.0.1:3000/exercises/${id}?intent=model-take`, { method: "POST", body: form, headers: { Cookie: ines.header(), Origin: "http://127.0.0.1:3000" } }), { exerciseId: id });
+      return call(
+        exercisePage.action,
+        new Request(`http://127.0.0.1:3000/exercises/${id}?intent=model-take`, {
+          method: "POST",
+          body: form,
+          headers: { Cookie: ines.header(), Origin: "http://127.0.0.1:3000" },
+        }),
+        { exerciseId: id },
+      );
     };
     expect((await attach(new TextEncoder().encode("not a midi file at all"), "notes.txt")).status).toBe(400);
     expect((await attach(chordsMidi([D, G, A, D]), "model.mid")).status).toBe(302);
-    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { modelTake: { name: string; notes: Array<{ midi: number }> } };
+    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+      modelTake: { name: string; notes: Array<{ midi: number }> };
+    };
     expect(page.modelTake.name).toBe("model.mid");
     expect(page.modelTake.notes.map((n) => n.midi)).toEqual([D, G, A, D].flat());
-    expect((await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines), { exerciseId: id })).status).toBe(302);
-    expect(((await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as { modelTake: unknown }).modelTake).toBeNull();
+    expect(
+      (
+        await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines), {
+          exerciseId: id,
+        })
+      ).status,
+    ).toBe(302);
+    expect(
+      (
+        (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+          modelTake: unknown;
+        }
+      ).modelTake,
+    ).toBeNull();
   });
 });

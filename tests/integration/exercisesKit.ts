@@ -15,29 +15,57 @@ export function chordsMidi(chords: number[][]): Uint8Array {
   let pending = 0;
   for (const chord of chords) {
     chord.forEach((n, i) => {
-      events.push({ deltaTime: i === 0 ? pending : 0, type: "noteOn", channel: 0, noteNumber: n, velocity: 80 } as MidiEvent);
+      events.push({
+        deltaTime: i === 0 ? pending : 0,
+        type: "noteOn",
+        channel: 0,
+        noteNumber: n,
+        velocity: 80,
+      } as MidiEvent);
     });
     chord.forEach((n, i) => {
-      events.push({ deltaTime: i === 0 ? 440 : 0, type: "noteOff", channel: 0, noteNumber: n, velocity: 0 } as MidiEvent);
+      events.push({
+        deltaTime: i === 0 ? 440 : 0,
+        type: "noteOff",
+        channel: 0,
+        noteNumber: n,
+        velocity: 0,
+      } as MidiEvent);
     });
     pending = ticksPerBeat - 440;
   }
   events.push({ deltaTime: 0, type: "endOfTrack", meta: true } as MidiEvent);
-  return new Uint8Array(writeMidi({ header: { format: 0, numTracks: 1, ticksPerBeat }, tracks: [events] } as Parameters<typeof writeMidi>[0]));
+  return new Uint8Array(
+    writeMidi({ header: { format: 0, numTracks: 1, ticksPerBeat }, tracks: [events] } as Parameters<
+      typeof writeMidi
+    >[0]),
+  );
 }
 
 export type UploadAnswer = {
   id: string;
   status: string;
   error?: string;
-  analysis: { summary: { accuracy?: number; loops?: number; mismatches?: Array<Record<string, unknown>>; score: number; key: string } };
+  analysis: {
+    summary: {
+      accuracy?: number;
+      loops?: number;
+      mismatches?: Array<Record<string, unknown>>;
+      score: number;
+      key: string;
+    };
+  };
 };
 
 export async function uploadTake(jar: CookieJar, bytes: Uint8Array, fields: Record<string, string>, name = "take.mid") {
   const form = new FormData();
   form.append("file", new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
   for (const [k, v] of Object.entries(fields)) form.append(k, v);
-  const request = new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } });
+  const request = new Request(`${ORIGIN}/api/takes`, {
+    method: "POST",
+    body: form,
+    headers: { Cookie: jar.header(), Origin: ORIGIN },
+  });
   const result = await call(apiTakes.action, request);
   return { status: result.status, body: result.data as UploadAnswer };
 }
@@ -49,7 +77,15 @@ export async function uploadAnalysed(jar: CookieJar, bytes: Uint8Array, fields: 
 }
 
 /** A form post the way a browser sends one from our pages. */
-export function formPost(pathAndQuery: string, fields: Array<[string, string]> | Record<string, string>, jar: CookieJar) {
+export function formPost(
+  pathAndQuery: string,
+  fields: Array<[string, string]> | Record<string, string>,
+  jar: CookieJar,
+) {
   const body = new URLSearchParams(Array.isArray(fields) ? fields : Object.entries(fields));
-  return new Request(ORIGIN + pathAndQuery, { method: "POST", body, headers: { Cookie: jar.header(), Origin: ORIGIN } });
+  return new Request(ORIGIN + pathAndQuery, {
+    method: "POST",
+    body,
+    headers: { Cookie: jar.header(), Origin: ORIGIN },
+  });
 }

@@ -4,7 +4,13 @@ import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { takeMetrics, takeReviews } from "~/db/schema";
-import { commentThreads, reviewQueue, reviewQueueCount, takePageFeedback, unreadFeedback } from "~/models/feedback.server";
+import {
+  commentThreads,
+  reviewQueue,
+  reviewQueueCount,
+  takePageFeedback,
+  unreadFeedback,
+} from "~/models/feedback.server";
 import { reanalyseTake } from "~/models/takes.server";
 import * as login from "~/routes/login";
 import * as feedback from "~/routes/takes.$takeId.feedback";
@@ -20,7 +26,16 @@ const mail = useMailCatcher(app);
 
 let ines: CookieJar, dara: CookieJar, felix: CookieJar;
 let ids: { ines: string; dara: string; felix: string; studio: string; take: string };
-let engine: { score: number; scoreParts: { smoothness: number; cleanliness: number; techniqueVariety: number; steadiness: number; accuracy: number | null } };
+let engine: {
+  score: number;
+  scoreParts: {
+    smoothness: number;
+    cleanliness: number;
+    techniqueVariety: number;
+    steadiness: number;
+    accuracy: number | null;
+  };
+};
 
 // Root position everywhere in D: D -> G moves every voice up 5 and A -> D every voice down 7,
 // both root-position leaps (rule 9); G -> A moves each voice 2, under the 3-semitone limit.
@@ -33,18 +48,27 @@ const CLUMSY = [
 
 beforeEach(async () => {
   const studio = makeStudio("Tidewater Keys");
-  const p = { ines: makeUser("ines@tidewater.example", "Ines Marlowe"), dara: makeUser("dara@tidewater.example", "Dara Okafor"), felix: makeUser("felix@tidewater.example", "Felix Brandt") };
+  const p = {
+    ines: makeUser("ines@tidewater.example", "Ines Marlowe"),
+    dara: makeUser("dara@tidewater.example", "Dara Okafor"),
+    felix: makeUser("felix@tidewater.example", "Felix Brandt"),
+  };
   join(studio.id, p.ines.id, "owner");
   join(studio.id, p.dara.id, "student");
   join(studio.id, p.felix.id, "student");
   const exercise = makeExercise(studio.id);
-  [ines, dara, felix] = [await signIn(login, p.ines.email), await signIn(login, p.dara.email), await signIn(login, p.felix.email)];
+  [ines, dara, felix] = [
+    await signIn(login, p.ines.email),
+    await signIn(login, p.dara.email),
+    await signIn(login, p.felix.email),
+  ];
   const body = await uploadAnalysed(dara, chordsMidi(CLUMSY), { exerciseId: exercise.id, key: "D" });
   engine = body.analysis.summary as unknown as typeof engine;
   ids = { ines: p.ines.id, dara: p.dara.id, felix: p.felix.id, studio: studio.id, take: body.id };
 });
 
-const postFeedback = (jar: CookieJar, fields: Record<string, string>) => call(feedback.action, formPost(`/takes/${ids.take}/feedback`, fields, jar), { takeId: ids.take });
+const postFeedback = (jar: CookieJar, fields: Record<string, string>) =>
+  call(feedback.action, formPost(`/takes/${ids.take}/feedback`, fields, jar), { takeId: ids.take });
 const metrics = () => db().select().from(takeMetrics).where(eq(takeMetrics.takeId, ids.take)).get()!;
 
 describe("comments and replies", () => {
@@ -60,7 +84,11 @@ describe("comments and replies", () => {
     expect(notice.text).toMatch(/\/unsubscribe\?token=/);
 
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([
-      expect.objectContaining({ takeId: ids.take, count: 1, latest: expect.objectContaining({ changeIdx: 0, authorName: "Ines Marlowe" }) }),
+      expect.objectContaining({
+        takeId: ids.take,
+        count: 1,
+        latest: expect.objectContaining({ changeIdx: 0, authorName: "Ines Marlowe" }),
+      }),
     ]);
     const [thread] = commentThreads(ids.take, ids.dara);
     expect(thread).toMatchObject({ changeIdx: 0, unread: true, body: "Try keeping D on top here." });
@@ -69,10 +97,21 @@ describe("comments and replies", () => {
     takePageFeedback({ id: ids.dara }, { id: ids.take, studentId: ids.dara, exerciseId: null }, false);
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
 
-    const reply = await postFeedback(dara, { intent: "comment", parentId: thread.id, body: "Like this? I kept the hand still." });
+    const reply = await postFeedback(dara, {
+      intent: "comment",
+      parentId: thread.id,
+      body: "Like this? I kept the hand still.",
+    });
     expect(reply.status).toBe(302);
     const [after] = commentThreads(ids.take, ids.ines);
-    expect(after.replies).toEqual([expect.objectContaining({ body: "Like this? I kept the hand still.", changeIdx: 0, unread: true, authorName: "Dara Okafor" })]);
+    expect(after.replies).toEqual([
+      expect.objectContaining({
+        body: "Like this? I kept the hand still.",
+        changeIdx: 0,
+        unread: true,
+        authorName: "Dara Okafor",
+      }),
+    ]);
     // The student's own reply is not feedback for her, and sends her no mail.
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
     expect(mail.all().filter((m) => m.to.includes("dara@tidewater.example"))).toHaveLength(1);
@@ -81,12 +120,19 @@ describe("comments and replies", () => {
   it("the take page carries the threads, marks them read for whoever opens it, and offers review to teachers only", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "0", body: "Keep the top note." });
     const asStudent = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
-      feedback: { threads: Array<{ changeIdx: number | null; unread: boolean }>; asTeacher: boolean; canReply: boolean; review: unknown };
+      feedback: {
+        threads: Array<{ changeIdx: number | null; unread: boolean }>;
+        asTeacher: boolean;
+        canReply: boolean;
+        review: unknown;
+      };
     };
     expect(asStudent.feedback).toMatchObject({ asTeacher: false, canReply: true, review: null });
     expect(asStudent.feedback.threads).toEqual([expect.objectContaining({ changeIdx: 0, unread: true })]);
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
-    const asTeacher = (await call(takePage.loader, get(`/takes/${ids.take}`, ines), { takeId: ids.take })).data as { feedback: { asTeacher: boolean } };
+    const asTeacher = (await call(takePage.loader, get(`/takes/${ids.take}`, ines), { takeId: ids.take })).data as {
+      feedback: { asTeacher: boolean };
+    };
     expect(asTeacher.feedback.asTeacher).toBe(true);
     expect(reviewQueueCount(ids.studio)).toBe(1);
   });
@@ -107,7 +153,9 @@ describe("comments and replies", () => {
 
   it("shows the unread feedback on the student's home page, and the review count on the teacher's", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "2", body: "Big jump here." });
-    const student = (await call(home.loader, get("/home", dara))).data as { student: { unread: Array<{ takeId: string; count: number }> } };
+    const student = (await call(home.loader, get("/home", dara))).data as {
+      student: { unread: Array<{ takeId: string; count: number }> };
+    };
     expect(student.student.unread).toEqual([expect.objectContaining({ takeId: ids.take, count: 1 })]);
     const teacher = (await call(home.loader, get("/home", ines))).data as { teacher: { toReview: number } };
     expect(teacher.teacher.toReview).toBe(1);
@@ -125,7 +173,10 @@ describe("intended flags", () => {
   // SCORE.md, with a target: 100 × (0.35 smoothness + 0.25 clean + 0.10 variety + 0.10 steady + 0.20 accuracy).
   const byHand = (clean: number) => {
     const p = engine.scoreParts;
-    return Math.round(100 * (0.35 * p.smoothness + 0.25 * clean + 0.1 * p.techniqueVariety + 0.1 * p.steadiness + 0.2 * (p.accuracy ?? 0)));
+    return Math.round(
+      100 *
+        (0.35 * p.smoothness + 0.25 * clean + 0.1 * p.techniqueVariety + 0.1 * p.steadiness + 0.2 * (p.accuracy ?? 0)),
+    );
   };
 
   it("leaves a flag the teacher asked for out of the score, with the reason shown, and keeps it out after re-analysis", async () => {
@@ -134,7 +185,13 @@ describe("intended flags", () => {
     expect(engine.score).toBe(byHand(5 / 7));
     expect(metrics().flags["root-position-leap"]).toBe(2);
 
-    const r = await postFeedback(ines, { intent: "intend", on: "change", idx: "0", flag: "root-position-leap", reason: "I asked for a block jump to hear it." });
+    const r = await postFeedback(ines, {
+      intent: "intend",
+      on: "change",
+      idx: "0",
+      flag: "root-position-leap",
+      reason: "I asked for a block jump to hear it.",
+    });
     expect(r.status).toBe(302);
     expect(metrics().score).toBe(byHand(6 / 7));
     expect(metrics().score).toBeGreaterThan(engine.score);
@@ -143,7 +200,14 @@ describe("intended flags", () => {
     expect(metrics().analysis.summary.score).toBe(engine.score); // the engine's own result is kept
 
     const page = takePageFeedback({ id: ids.dara }, { id: ids.take, studentId: ids.dara, exerciseId: null }, false);
-    expect(page.intended).toEqual([expect.objectContaining({ on: "change", idx: 0, reason: "I asked for a block jump to hear it.", byName: "Ines Marlowe" })]);
+    expect(page.intended).toEqual([
+      expect.objectContaining({
+        on: "change",
+        idx: 0,
+        reason: "I asked for a block jump to hear it.",
+        byName: "Ines Marlowe",
+      }),
+    ]);
     expect(page.score).toBe(byHand(6 / 7));
 
     // The take page shows the score without the intended flag, and the engine's beside it.
@@ -164,18 +228,46 @@ describe("intended flags", () => {
   });
 
   it("refuses a flag the take does not carry there, and refuses students", async () => {
-    expect((await postFeedback(ines, { intent: "intend", on: "change", idx: "1", flag: "root-position-leap", reason: "x" })).status).toBe(400);
-    expect((await postFeedback(ines, { intent: "intend", on: "change", idx: "0", flag: "root-position-leap", reason: "" })).status).toBe(400);
-    expect((await postFeedback(dara, { intent: "intend", on: "change", idx: "0", flag: "root-position-leap", reason: "mine" })).status).toBe(403);
+    expect(
+      (await postFeedback(ines, { intent: "intend", on: "change", idx: "1", flag: "root-position-leap", reason: "x" }))
+        .status,
+    ).toBe(400);
+    expect(
+      (await postFeedback(ines, { intent: "intend", on: "change", idx: "0", flag: "root-position-leap", reason: "" }))
+        .status,
+    ).toBe(400);
+    expect(
+      (
+        await postFeedback(dara, {
+          intent: "intend",
+          on: "change",
+          idx: "0",
+          flag: "root-position-leap",
+          reason: "mine",
+        })
+      ).status,
+    ).toBe(403);
   });
 });
 
 describe("review queue", () => {
   it("lists unreviewed takes newest first; marking reviewed is explicit and can be undone", async () => {
-    const second = await uploadAnalysed(dara, chordsMidi([[62, 66, 69], [62, 67, 71]]), { key: "D" });
+    const second = await uploadAnalysed(
+      dara,
+      chordsMidi([
+        [62, 66, 69],
+        [62, 67, 71],
+      ]),
+      { key: "D" },
+    );
     const queue = reviewQueue(ids.studio);
     expect(queue.map((t) => t.id)).toEqual([second.id, ids.take]);
-    expect(queue[1]).toMatchObject({ studentName: "Dara Okafor", exerciseTitle: "Three-chord smoothing in D", key: "D", flags: expect.objectContaining({ "root-position-leap": 2 }) });
+    expect(queue[1]).toMatchObject({
+      studentName: "Dara Okafor",
+      exerciseTitle: "Three-chord smoothing in D",
+      key: "D",
+      flags: expect.objectContaining({ "root-position-leap": 2 }),
+    });
 
     // Opening the take page does not review it.
     takePageFeedback({ id: ids.ines }, { id: ids.take, studentId: ids.dara, exerciseId: null }, true);
@@ -193,13 +285,17 @@ describe("review queue", () => {
 
     // The same from the take page's button.
     await postFeedback(ines, { intent: "review" });
-    expect(db().select().from(takeReviews).all()).toEqual([expect.objectContaining({ takeId: ids.take, reviewedById: ids.ines })]);
+    expect(db().select().from(takeReviews).all()).toEqual([
+      expect.objectContaining({ takeId: ids.take, reviewedById: ids.ines }),
+    ]);
     await postFeedback(ines, { intent: "unreview" });
     expect(db().select().from(takeReviews).all()).toEqual([]);
   });
 
   it("is for teachers only", async () => {
     expect((await postFeedback(dara, { intent: "review" })).status).toBe(403);
-    expect((await call(review.action, formPost("/review", { intent: "review", takeId: ids.take }, dara))).status).toBe(403);
+    expect((await call(review.action, formPost("/review", { intent: "review", takeId: ids.take }, dara))).status).toBe(
+      403,
+    );
   });
 });

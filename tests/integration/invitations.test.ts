@@ -12,7 +12,19 @@ import * as login from "~/routes/login";
 import * as students from "~/routes/students";
 import * as switchStudio from "~/routes/switch-studio";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, linkIn, makeStudio, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
+import {
+  call,
+  CookieJar,
+  get,
+  join,
+  linkIn,
+  makeStudio,
+  makeUser,
+  PASSWORD,
+  post,
+  signIn,
+  useMailCatcher,
+} from "./accountsKit";
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
@@ -32,7 +44,11 @@ describe("invitations", () => {
     const { jar } = await studioWithOwner();
     const result = await call(
       students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example, Felix@tidewater.example\nyuki@tidewater.example" }, jar),
+      post(
+        "/students",
+        { intent: "invite", emails: "dara@tidewater.example, Felix@tidewater.example\nyuki@tidewater.example" },
+        jar,
+      ),
     );
     expect(result.status).toBe(200);
     expect(mail.all()).toHaveLength(3);
@@ -55,9 +71,15 @@ describe("invitations", () => {
 
   it("refuses invalid addresses by name and sends nothing", async () => {
     const { jar } = await studioWithOwner();
-    const result = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example, not-an-address" }, jar));
+    const result = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example, not-an-address" }, jar),
+    );
     expect(result.status).toBe(400);
-    expect(result.data).toMatchObject({ fieldErrors: { emails: expect.stringContaining("not-an-address") }, values: { emails: "dara@tidewater.example, not-an-address" } });
+    expect(result.data).toMatchObject({
+      fieldErrors: { emails: expect.stringContaining("not-an-address") },
+      values: { emails: "dara@tidewater.example, not-an-address" },
+    });
     expect(mail.all()).toHaveLength(0);
   });
 
@@ -67,23 +89,47 @@ describe("invitations", () => {
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
     const token = tokenOf(link);
     const page = await call(invite.loader, get(link), { token });
-    expect(page.data).toMatchObject({ ok: true, studioName: "Tidewater Keys", email: "dara@tidewater.example", hasAccount: false });
+    expect(page.data).toMatchObject({
+      ok: true,
+      studioName: "Tidewater Keys",
+      email: "dara@tidewater.example",
+      hasAccount: false,
+    });
 
-    const mismatch = await call(invite.action, post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "typo" }), { token });
+    const mismatch = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "typo" }),
+      { token },
+    );
     expect(mismatch.status).toBe(400);
-    expect(mismatch.data).toMatchObject({ fieldErrors: { confirm: expect.any(String) }, values: { name: "Dara Okafor" } });
+    expect(mismatch.data).toMatchObject({
+      fieldErrors: { confirm: expect.any(String) },
+      values: { name: "Dara Okafor" },
+    });
 
-    const accepted = await call(invite.action, post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "a-good-password" }), { token });
+    const accepted = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "a-good-password" }),
+      { token },
+    );
     expect(accepted.status).toBe(302);
     expect(accepted.location).toBe("/home");
     const studentJar = new CookieJar().take(accepted.headers);
     const me = await getSessionUser(get("/home", studentJar));
-    expect(me).toMatchObject({ name: "Dara Okafor", emailVerified: true, active: { studioId: studio.id, role: "student" } });
+    expect(me).toMatchObject({
+      name: "Dara Okafor",
+      emailVerified: true,
+      active: { studioId: studio.id, role: "student" },
+    });
 
     const reused = await call(invite.loader, get(link), { token });
     expect(reused.status).toBe(410);
     expect((reused.data as { message: string }).message).toMatch(/already used/);
-    const reusedPost = await call(invite.action, post(link, { intent: "create", name: "Someone", password: "a-good-password", confirm: "a-good-password" }), { token });
+    const reusedPost = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Someone", password: "a-good-password", confirm: "a-good-password" }),
+      { token },
+    );
     expect(reusedPost.status).toBe(410);
     expect(db().select().from(users).where(eq(users.name, "Someone")).get()).toBeUndefined();
   });
@@ -92,30 +138,46 @@ describe("invitations", () => {
     const { jar } = await studioWithOwner();
     await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    db().update(invitations).set({ expiresAt: new Date(Date.now() - 1000) }).run();
+    db()
+      .update(invitations)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .run();
     const page = await call(invite.loader, get(link), { token: tokenOf(link) });
     expect(page.status).toBe(410);
     expect((page.data as { message: string }).message).toMatch(/expired/);
-    const accept = await call(invite.action, post(link, { intent: "create", name: "Dara", password: "a-good-password", confirm: "a-good-password" }), { token: tokenOf(link) });
+    const accept = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Dara", password: "a-good-password", confirm: "a-good-password" }),
+      { token: tokenOf(link) },
+    );
     expect(accept.status).toBe(410);
     expect(db().select().from(users).where(eq(users.email, "dara@tidewater.example")).get()).toBeUndefined();
   });
 
   it("can be revoked (the link dies) and resent (a new link, the old one dies)", async () => {
     const { jar } = await studioWithOwner();
-    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example, felix@tidewater.example" }, jar));
+    await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example, felix@tidewater.example" }, jar),
+    );
     const daraLink = linkIn(mail.latestTo("dara@tidewater.example"));
     const felixLink = linkIn(mail.latestTo("felix@tidewater.example"));
-    const pending = (await call(students.loader, get("/students", jar))).data as { pending: { id: string; email: string }[] };
+    const pending = (await call(students.loader, get("/students", jar))).data as {
+      pending: { id: string; email: string }[];
+    };
     const dara = pending.pending.find((p) => p.email === "dara@tidewater.example")!;
     const felix = pending.pending.find((p) => p.email === "felix@tidewater.example")!;
 
-    expect((await call(students.action, post("/students", { intent: "revoke", invitationId: dara.id }, jar))).status).toBe(200);
+    expect(
+      (await call(students.action, post("/students", { intent: "revoke", invitationId: dara.id }, jar))).status,
+    ).toBe(200);
     const revoked = await call(invite.loader, get(daraLink), { token: tokenOf(daraLink) });
     expect(revoked.status).toBe(410);
     expect((revoked.data as { message: string }).message).toMatch(/withdrawn/);
 
-    expect((await call(students.action, post("/students", { intent: "resend", invitationId: felix.id }, jar))).status).toBe(200);
+    expect(
+      (await call(students.action, post("/students", { intent: "resend", invitationId: felix.id }, jar))).status,
+    ).toBe(200);
     const newLink = linkIn(mail.latestTo("felix@tidewater.example"));
     expect(newLink).not.toBe(felixLink);
     expect((await call(invite.loader, get(felixLink), { token: tokenOf(felixLink) })).status).toBe(410);
@@ -125,18 +187,31 @@ describe("invitations", () => {
 
   it("lets the owner invite a co-teacher, who joins as a teacher; a co-teacher cannot invite teachers", async () => {
     const { studio, jar } = await studioWithOwner();
-    await call(students.action, post("/students", { intent: "invite", emails: "marta@tidewater.example", role: "teacher" }, jar));
+    await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "marta@tidewater.example", role: "teacher" }, jar),
+    );
     const link = linkIn(mail.latestTo("marta@tidewater.example"));
     expect(mail.latestTo("marta@tidewater.example").text).toContain("as a co-teacher");
-    const joined = await call(invite.action, post(link, { intent: "create", name: "Marta Quill", password: "a-good-password", confirm: "a-good-password" }), { token: tokenOf(link) });
+    const joined = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Marta Quill", password: "a-good-password", confirm: "a-good-password" }),
+      { token: tokenOf(link) },
+    );
     expect(joined.status).toBe(302);
     const coJar = new CookieJar().take(joined.headers);
     const me = await getSessionUser(get("/students", coJar));
     expect(me?.active).toMatchObject({ studioId: studio.id, role: "teacher" });
     expect((await call(students.loader, get("/students", coJar))).status).toBe(200);
-    const refused = await call(students.action, post("/students", { intent: "invite", emails: "x@tidewater.example", role: "teacher" }, coJar));
+    const refused = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "x@tidewater.example", role: "teacher" }, coJar),
+    );
     expect(refused.status).toBe(403);
-    const asStudent = await call(students.action, post("/students", { intent: "invite", emails: "x@tidewater.example" }, coJar));
+    const asStudent = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "x@tidewater.example" }, coJar),
+    );
     expect(asStudent.status).toBe(200);
   });
 
@@ -145,25 +220,40 @@ describe("invitations", () => {
     const other = makeStudio("Harbour Lights");
     const dara = makeUser("dara@tidewater.example", "Dara Okafor");
     join(other.id, dara.id, "student");
-    const sent = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    const sent = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
+    );
     expect(sent.data).toMatchObject({ ok: true, message: "1 invitation sent." });
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
     expect((await call(invite.loader, get(link), { token: tokenOf(link) })).data).toMatchObject({ hasAccount: true });
-    const wrong = await call(invite.action, post(link, { intent: "join", password: "wrong-password" }), { token: tokenOf(link) });
+    const wrong = await call(invite.action, post(link, { intent: "join", password: "wrong-password" }), {
+      token: tokenOf(link),
+    });
     expect(wrong.status).toBe(400);
-    const joined = await call(invite.action, post(link, { intent: "join", password: PASSWORD }), { token: tokenOf(link) });
+    const joined = await call(invite.action, post(link, { intent: "join", password: PASSWORD }), {
+      token: tokenOf(link),
+    });
     expect(joined.status).toBe(302);
     const daraJar = new CookieJar().take(joined.headers);
     const me = (await getSessionUser(get("/home", daraJar)))!;
     expect(me.studios.map((s) => s.studioName).sort()).toEqual(["Harbour Lights", "Tidewater Keys"]);
     expect(me.active?.studioId).toBe(studio.id);
 
-    const switched = await call(switchStudio.action, post("/switch-studio", { studioId: other.id, redirectTo: "/home" }, daraJar));
+    const switched = await call(
+      switchStudio.action,
+      post("/switch-studio", { studioId: other.id, redirectTo: "/home" }, daraJar),
+    );
     expect(switched.location).toBe("/home");
     expect((await getSessionUser(get("/home", daraJar)))?.active?.studioName).toBe("Harbour Lights");
     const stranger = makeStudio("Elsewhere");
-    expect((await call(switchStudio.action, post("/switch-studio", { studioId: stranger.id }, daraJar))).status).toBe(403);
-    const crossSite = await call(switchStudio.action, post("/switch-studio", { studioId: studio.id }, daraJar, { "Sec-Fetch-Site": "cross-site" }));
+    expect((await call(switchStudio.action, post("/switch-studio", { studioId: stranger.id }, daraJar))).status).toBe(
+      403,
+    );
+    const crossSite = await call(
+      switchStudio.action,
+      post("/switch-studio", { studioId: studio.id }, daraJar, { "Sec-Fetch-Site": "cross-site" }),
+    );
     expect(crossSite.status).toBe(403);
     expect((await getSessionUser(get("/home", daraJar)))?.active?.studioName).toBe("Harbour Lights");
   });
@@ -176,17 +266,28 @@ describe("invitations", () => {
     await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
     const daraJar = await signIn(login, dara.email);
-    expect((await call(invite.loader, get(link, daraJar), { token: tokenOf(link) })).data).toMatchObject({ signedInAs: "dara@tidewater.example", hasAccount: true });
+    expect((await call(invite.loader, get(link, daraJar), { token: tokenOf(link) })).data).toMatchObject({
+      signedInAs: "dara@tidewater.example",
+      hasAccount: true,
+    });
     const joined = await call(invite.action, post(link, { intent: "join" }, daraJar), { token: tokenOf(link) });
     expect(joined.status).toBe(302);
-    expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({ status: "active", removedAt: null, role: "student" });
+    expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({
+      status: "active",
+      removedAt: null,
+      role: "student",
+    });
   });
 
   it("refuses to let someone signed in as another person accept", async () => {
     const { jar } = await studioWithOwner();
     await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    const refused = await call(invite.action, post(link, { intent: "create", name: "Ines", password: "a-good-password", confirm: "a-good-password" }, jar), { token: tokenOf(link) });
+    const refused = await call(
+      invite.action,
+      post(link, { intent: "create", name: "Ines", password: "a-good-password", confirm: "a-good-password" }, jar),
+      { token: tokenOf(link) },
+    );
     expect(refused.status).toBe(403);
     expect((refused.data as { formError: string }).formError).toMatch(/This invitation is for dara@tidewater\.example/);
     expect((await call(invite.loader, get(link), { token: tokenOf(link) })).status).toBe(200);
@@ -194,15 +295,28 @@ describe("invitations", () => {
 
   it(`stops at ${DAILY_INVITATION_LIMIT} invitation mails a day per studio`, async () => {
     const { jar } = await studioWithOwner();
-    const many = Array.from({ length: DAILY_INVITATION_LIMIT - 1 }, (_, i) => `student${i}@tidewater.example`).join(",");
+    const many = Array.from({ length: DAILY_INVITATION_LIMIT - 1 }, (_, i) => `student${i}@tidewater.example`).join(
+      ",",
+    );
     expect((await call(students.action, post("/students", { intent: "invite", emails: many }, jar))).status).toBe(200);
-    const over = await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example, b@tidewater.example" }, jar));
+    const over = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "a@tidewater.example, b@tidewater.example" }, jar),
+    );
     expect(over.status).toBe(429);
     expect(over.data).toMatchObject({ fieldErrors: { emails: expect.stringMatching(/1 left/) } });
-    expect((await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status).toBe(200);
-    const pending = (await call(students.loader, get("/students", jar))).data as { pending: { id: string }[]; invitesLeftToday: number };
+    expect(
+      (await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status,
+    ).toBe(200);
+    const pending = (await call(students.loader, get("/students", jar))).data as {
+      pending: { id: string }[];
+      invitesLeftToday: number;
+    };
     expect(pending.invitesLeftToday).toBe(0);
-    const resend = await call(students.action, post("/students", { intent: "resend", invitationId: pending.pending[0].id }, jar));
+    const resend = await call(
+      students.action,
+      post("/students", { intent: "resend", invitationId: pending.pending[0].id }, jar),
+    );
     expect(resend.status).toBe(429);
     expect(mail.all()).toHaveLength(DAILY_INVITATION_LIMIT);
   });
@@ -211,8 +325,13 @@ describe("invitations", () => {
     const { studio, jar } = await studioWithOwner();
     const dara = makeUser("dara@tidewater.example");
     join(studio.id, dara.id, "student");
-    const result = await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
-    expect((result.data as { message: string }).message).toMatch(/0 invitations sent\. Skipped: dara@tidewater\.example \(already in this studio\)/);
+    const result = await call(
+      students.action,
+      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
+    );
+    expect((result.data as { message: string }).message).toMatch(
+      /0 invitations sent\. Skipped: dara@tidewater\.example \(already in this studio\)/,
+    );
     expect(mail.all()).toHaveLength(0);
     expect(db().select().from(memberships).all()).toHaveLength(2);
   });

@@ -22,7 +22,11 @@ describe("the mailer without SMTP_URL", () => {
   it("writes the message to storage/mail with a warning that names no secret", async () => {
     delete process.env.SMTP_URL;
     const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
-    await sendMail({ to: "dara@tidewater.example", subject: "Reset your Nearnote password", text: "Link: http://127.0.0.1:3000/reset-password?token=SECRET123" });
+    await sendMail({
+      to: "dara@tidewater.example",
+      subject: "Reset your Nearnote password",
+      text: "Link: http://127.0.0.1:3000/reset-password?token=SECRET123",
+    });
     const stored = readCaughtMail(path.join(app.storageDir, "mail"));
     expect(stored).toHaveLength(1);
     expect(stored[0]).toMatchObject({ to: ["dara@tidewater.example"], subject: "Reset your Nearnote password" });

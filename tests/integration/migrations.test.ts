@@ -22,8 +22,18 @@ describe("migrations", () => {
     // drizzle-kit joins --out to the working folder, so it is given relative to it.
     const out = path.relative(process.cwd(), copy);
     const bin = path.resolve("node_modules/.bin/drizzle-kit");
-    const { stdout } = await run(bin, ["generate", "--dialect", "sqlite", "--schema", "./app/db/schema.ts", "--out", out]);
-    expect(readdirSync(copy).sort(), "a new migration was generated: run npm run db:generate and commit it").toEqual(before);
+    const { stdout } = await run(bin, [
+      "generate",
+      "--dialect",
+      "sqlite",
+      "--schema",
+      "./app/db/schema.ts",
+      "--out",
+      out,
+    ]);
+    expect(readdirSync(copy).sort(), "a new migration was generated: run npm run db:generate and commit it").toEqual(
+      before,
+    );
     expect(stdout).toContain("No schema changes");
   });
 });

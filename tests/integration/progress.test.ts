@@ -45,15 +45,78 @@ beforeEach(async () => {
   const s = studio.id;
   // 2026-11-16 is the Monday of ISO week 47 and 2026-11-23 that of week 48
   // (1 January 2026 is a Thursday, so week 1 began on Monday 29 December 2025).
-  insertHandTake({ studentId: zoe.id, studioId: s, at: "2026-11-18T15:00:00Z", exerciseId: ex, durationSec: 120, changes: 10, motion: 40, best: 30, leaps: 2, score: 60, accuracy: 0.5, techniques: { inversion: 3 } });
-  insertHandTake({ studentId: zoe.id, studioId: s, at: "2026-11-19T15:00:00Z", durationSec: 180, changes: 20, motion: 60, best: 54, leaps: 1, score: 80, techniques: { inversion: 1, "open-voicing": 2 } });
+  insertHandTake({
+    studentId: zoe.id,
+    studioId: s,
+    at: "2026-11-18T15:00:00Z",
+    exerciseId: ex,
+    durationSec: 120,
+    changes: 10,
+    motion: 40,
+    best: 30,
+    leaps: 2,
+    score: 60,
+    accuracy: 0.5,
+    techniques: { inversion: 3 },
+  });
+  insertHandTake({
+    studentId: zoe.id,
+    studioId: s,
+    at: "2026-11-19T15:00:00Z",
+    durationSec: 180,
+    changes: 20,
+    motion: 60,
+    best: 54,
+    leaps: 1,
+    score: 80,
+    techniques: { inversion: 1, "open-voicing": 2 },
+  });
   insertHandTake({ studentId: zoe.id, studioId: s, at: "2026-11-20T15:00:00Z", failed: true });
   // Monday 01:30 UTC is still Sunday 20:30 in New York (UTC−5 in November): week 47 there, week 48 in UTC.
-  insertHandTake({ studentId: zoe.id, studioId: s, at: "2026-11-23T01:30:00Z", exerciseId: ex, durationSec: 60, changes: 10, motion: 0, best: 0, leaps: 0, score: 90, accuracy: 1 });
-  insertHandTake({ studentId: zoe.id, studioId: s, at: "2026-11-24T15:00:00Z", exerciseId: ex, durationSec: 240, changes: 5, motion: 10, best: 10, leaps: 0, score: 70, accuracy: 0.75, techniques: { "slash-bass": 4 } });
-  insertHandTake({ studentId: bjorn.id, studioId: s, at: "2026-11-25T12:00:00Z", durationSec: 90, changes: 8, motion: 16, best: 8, leaps: 4, score: 40 });
+  insertHandTake({
+    studentId: zoe.id,
+    studioId: s,
+    at: "2026-11-23T01:30:00Z",
+    exerciseId: ex,
+    durationSec: 60,
+    changes: 10,
+    motion: 0,
+    best: 0,
+    leaps: 0,
+    score: 90,
+    accuracy: 1,
+  });
+  insertHandTake({
+    studentId: zoe.id,
+    studioId: s,
+    at: "2026-11-24T15:00:00Z",
+    exerciseId: ex,
+    durationSec: 240,
+    changes: 5,
+    motion: 10,
+    best: 10,
+    leaps: 0,
+    score: 70,
+    accuracy: 0.75,
+    techniques: { "slash-bass": 4 },
+  });
+  insertHandTake({
+    studentId: bjorn.id,
+    studioId: s,
+    at: "2026-11-25T12:00:00Z",
+    durationSec: 90,
+    changes: 8,
+    motion: 16,
+    best: 8,
+    leaps: 4,
+    score: 40,
+  });
   ids = { studio: s, zoe: zoe.id, bjorn: bjorn.id, other: other.id };
-  jars = { teacher: await jarFor(teacher.id), student: await jarFor(zoe.id), otherTeacher: await jarFor(otherTeacher.id) };
+  jars = {
+    teacher: await jarFor(teacher.id),
+    student: await jarFor(zoe.id),
+    otherTeacher: await jarFor(otherTeacher.id),
+  };
 });
 
 /** Zoë's two weeks in New York time, worked by hand. */
@@ -85,9 +148,29 @@ const NEW_YORK = {
 
 /** The same takes after the studio moves to UTC: take 4 (Monday 01:30 UTC) joins week 48. */
 const UTC = {
-  "2026-W47": { takes: 3, practiceMinutes: 5, changes: 30, motionPerChange: 100 / 30, smoothness: 0.84, leapsPer10: 1, accuracy: 0.5, score: 70, techniques: { inversion: 4, "open-voicing": 2, "slash-bass": 0 } },
+  "2026-W47": {
+    takes: 3,
+    practiceMinutes: 5,
+    changes: 30,
+    motionPerChange: 100 / 30,
+    smoothness: 0.84,
+    leapsPer10: 1,
+    accuracy: 0.5,
+    score: 70,
+    techniques: { inversion: 4, "open-voicing": 2, "slash-bass": 0 },
+  },
   // (0 + 10) / (0 + 10) = 1; 10 × 0 / 15; (1 + 0.75) / 2; (90 + 70) / 2
-  "2026-W48": { takes: 2, practiceMinutes: 5, changes: 15, motionPerChange: 10 / 15, smoothness: 1, leapsPer10: 0, accuracy: 0.875, score: 80, techniques: { inversion: 0, "open-voicing": 0, "slash-bass": 4 } },
+  "2026-W48": {
+    takes: 2,
+    practiceMinutes: 5,
+    changes: 15,
+    motionPerChange: 10 / 15,
+    smoothness: 1,
+    leapsPer10: 0,
+    accuracy: 0.875,
+    score: 80,
+    techniques: { inversion: 0, "open-voicing": 0, "slash-bass": 4 },
+  },
 };
 
 function expectWeek(actual: ReturnType<typeof weeklyFigures>[number], wanted: (typeof NEW_YORK)["2026-W47"]) {
@@ -103,11 +186,22 @@ describe("weekly figures", () => {
     expectWeek(weeks[1], NEW_YORK["2026-W47"]);
     expectWeek(weeks[2], NEW_YORK["2026-W48"]);
     // Weeks without takes have nothing to measure, not zeros that would drag a chart down.
-    expect(weeks[0]).toMatchObject({ takes: 0, practiceMinutes: 0, smoothness: null, score: null, accuracy: null, motionPerChange: null });
+    expect(weeks[0]).toMatchObject({
+      takes: 0,
+      practiceMinutes: 0,
+      smoothness: null,
+      score: null,
+      accuracy: null,
+      motionPerChange: null,
+    });
   });
 
   it("stores each take's local week when it is saved: Monday 01:30 UTC is Sunday in New York", () => {
-    const keys = db().select({ at: takes.recordedAt, week: takes.weekKey }).from(takes).where(eq(takes.studentId, ids.zoe)).all();
+    const keys = db()
+      .select({ at: takes.recordedAt, week: takes.weekKey })
+      .from(takes)
+      .where(eq(takes.studentId, ids.zoe))
+      .all();
     expect(keys.find((k) => k.at.toISOString() === "2026-11-23T01:30:00.000Z")?.week).toBe("2026-W47");
   });
 
@@ -130,7 +224,9 @@ describe("CSV export", () => {
     const result = await call(csvExport.loader, get(url, jars.teacher));
     expect(result.status).toBe(200);
     expect(result.headers.get("content-type")).toBe("text/csv; charset=utf-8");
-    expect(result.headers.get("content-disposition")).toBe('attachment; filename="nearnote-progress-2026-11-16-to-2026-11-29.csv"');
+    expect(result.headers.get("content-disposition")).toBe(
+      'attachment; filename="nearnote-progress-2026-11-16-to-2026-11-29.csv"',
+    );
     const text = result.data as string;
     expect(text.charCodeAt(0)).not.toBe(0xfeff); // plain UTF-8, no byte-order mark
     // RFC 4180: fields with commas or quotes are quoted, inner quotes doubled, CRLF line ends.
@@ -167,11 +263,24 @@ describe("CSV export", () => {
       expect(r["Another tone in the bass (changes)"]).toBe(String(w.techniques["slash-bass"]));
     }
     // Week 47 by hand for Zoë: 230 / 3 = 76.67 → 77; smoothness 0.84 → 84; accuracy 0.75 → 75; leaps 0.75 → 0.8.
-    expect(records[2]).toMatchObject({ "Mean score": "77", "Smoothness %": "84", "Accuracy %": "75", "Root-position leaps per 10 changes": "0.8", "Practice minutes": "6" });
+    expect(records[2]).toMatchObject({
+      "Mean score": "77",
+      "Smoothness %": "84",
+      "Accuracy %": "75",
+      "Root-position leaps per 10 changes": "0.8",
+      "Practice minutes": "6",
+    });
     // Björn's week 47 has no takes: counts are 0 and ratios blank.
     expect(records[0]).toMatchObject({ Takes: "0", "Smoothness %": "", "Mean score": "" });
     // Björn's week 48 by hand: 8 / 16 = 50 % smooth, 10 × 4 / 8 = 5.0 leaps per 10, 16 / 8 = 2.0 per change, 90 s → 2 minutes.
-    expect(records[1]).toMatchObject({ Takes: "1", "Smoothness %": "50", "Root-position leaps per 10 changes": "5.0", "Motion per change (semitones)": "2.0", "Practice minutes": "2", "Accuracy %": "" });
+    expect(records[1]).toMatchObject({
+      Takes: "1",
+      "Smoothness %": "50",
+      "Root-position leaps per 10 changes": "5.0",
+      "Motion per change (semitones)": "2.0",
+      "Practice minutes": "2",
+      "Accuracy %": "",
+    });
   });
 
   it("has no rows for weeks that have not happened yet", async () => {
@@ -179,7 +288,8 @@ describe("CSV export", () => {
     // Ten weeks past today: the range asks for weeks still to come.
     const later = new Date(Date.now() + 70 * 86_400_000).toISOString().slice(0, 10);
     const records: Record<string, string>[] = parse(
-      (await call(csvExport.loader, get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher))).data as string,
+      (await call(csvExport.loader, get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher)))
+        .data as string,
       { columns: true },
     );
     const weeks = [...new Set(records.map((r) => r["ISO week"]))];
@@ -188,7 +298,10 @@ describe("CSV export", () => {
     expect(weeks.every((w) => w <= thisWeek)).toBe(true);
     expect(records.length).toBe(2 * weeks.length);
     // A range wholly in the future has the header and nothing else.
-    const future: string[][] = parse((await call(csvExport.loader, get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher))).data as string);
+    const future: string[][] = parse(
+      (await call(csvExport.loader, get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher)))
+        .data as string,
+    );
     expect(future.length).toBe(1);
   });
 
@@ -196,13 +309,22 @@ describe("CSV export", () => {
     const one = await call(csvExport.loader, get(`${url}&student=${ids.zoe}`, jars.teacher));
     expect((parse(one.data as string, { columns: true }) as unknown[]).length).toBe(2);
     expect((await call(csvExport.loader, get("/api/export/progress.csv", jars.teacher))).status).toBe(400);
-    expect((await call(csvExport.loader, get("/api/export/progress.csv?from=2026-12-01&to=2026-11-01", jars.teacher))).status).toBe(400);
-    expect((await call(csvExport.loader, get("/api/export/progress.csv?from=2026-02-30&to=2026-03-01", jars.teacher))).status).toBe(400);
+    expect(
+      (await call(csvExport.loader, get("/api/export/progress.csv?from=2026-12-01&to=2026-11-01", jars.teacher)))
+        .status,
+    ).toBe(400);
+    expect(
+      (await call(csvExport.loader, get("/api/export/progress.csv?from=2026-02-30&to=2026-03-01", jars.teacher)))
+        .status,
+    ).toBe(400);
   });
 
   it("keeps a name that looks like a formula as text", async () => {
     db().update(users).set({ name: "=SUM(A1:A9)" }).where(eq(users.id, ids.bjorn)).run();
-    const records: Record<string, string>[] = parse((await call(csvExport.loader, get(url, jars.teacher))).data as string, { columns: true });
+    const records: Record<string, string>[] = parse(
+      (await call(csvExport.loader, get(url, jars.teacher))).data as string,
+      { columns: true },
+    );
     expect(records[0].Student).toBe("'=SUM(A1:A9)");
   });
 
@@ -222,9 +344,19 @@ describe("CSV export", () => {
 
 describe("chart API", () => {
   it("returns one series per chosen student with the chosen metric per week", async () => {
-    const result = await call(apiProgress.loader, get(`/api/progress?metric=smoothness&from=2026-11-16&to=2026-11-29&student=${ids.zoe}&student=${ids.bjorn}`, jars.teacher));
+    const result = await call(
+      apiProgress.loader,
+      get(
+        `/api/progress?metric=smoothness&from=2026-11-16&to=2026-11-29&student=${ids.zoe}&student=${ids.bjorn}`,
+        jars.teacher,
+      ),
+    );
     expect(result.status).toBe(200);
-    const body = result.data as { metric: string; weeks: string[]; series: { studentId: string; values: (number | null)[] }[] };
+    const body = result.data as {
+      metric: string;
+      weeks: string[];
+      series: { studentId: string; values: (number | null)[] }[];
+    };
     expect(body.metric).toBe("smoothness");
     expect(body.weeks).toEqual(["2026-W47", "2026-W48"]);
     const byId = Object.fromEntries(body.series.map((s) => [s.studentId, s.values]));
@@ -236,6 +368,8 @@ describe("chart API", () => {
   it("refuses unknown metrics (400), students (403) and other studios' teachers (403)", async () => {
     expect((await call(apiProgress.loader, get("/api/progress?metric=shoe-size", jars.teacher))).status).toBe(400);
     expect((await call(apiProgress.loader, get("/api/progress", jars.student))).status).toBe(403);
-    expect((await call(apiProgress.loader, get(`/api/progress?student=${ids.zoe}`, jars.otherTeacher))).status).toBe(403);
+    expect((await call(apiProgress.loader, get(`/api/progress?student=${ids.zoe}`, jars.otherTeacher))).status).toBe(
+      403,
+    );
   });
 });

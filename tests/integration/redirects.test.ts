@@ -45,7 +45,13 @@ describe("safeRedirect", () => {
   });
 
   it("keeps paths on the site, with their query and fragment", () => {
-    for (const target of ["/home", "/takes/abc#change-3", "/board?from=2026-01-05&to=2026-03-30", "/login?redirectTo=%2Fhome", "/takes/%C3%A9"]) {
+    for (const target of [
+      "/home",
+      "/takes/abc#change-3",
+      "/board?from=2026-01-05&to=2026-03-30",
+      "/login?redirectTo=%2Fhome",
+      "/takes/%C3%A9",
+    ]) {
       expect(new URL(target, ORIGIN).origin).toBe(ORIGIN);
       expect(safeRedirect(target)).toBe(target);
     }
@@ -71,7 +77,10 @@ describe("redirect targets in requests", () => {
     join(b.id, user.id, "student");
     const jar = await signIn(login, user.email);
     for (const redirectTo of ["/\\evil.example", "/\t/evil.example", "/\n/x"]) {
-      const result = await call(switchStudio.action, post("/switch-studio", { studioId: b.id, redirectTo }, jar, { Origin: ORIGIN }));
+      const result = await call(
+        switchStudio.action,
+        post("/switch-studio", { studioId: b.id, redirectTo }, jar, { Origin: ORIGIN }),
+      );
       expect(result.status).toBe(302);
       expect(result.location).toBe("/home");
     }
@@ -97,11 +106,19 @@ describe("feedback on a take", () => {
       { Origin: "https://evil.example", "Sec-Fetch-Site": "cross-site" },
       { Origin: "https://evil.example" },
     ]) {
-      const result = await call(feedback.action, post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, headers), { takeId: take.id });
+      const result = await call(
+        feedback.action,
+        post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, headers),
+        { takeId: take.id },
+      );
       expect(result.status).toBe(403);
     }
     expect(db().select().from(takeReviews).all()).toHaveLength(0);
-    const same = await call(feedback.action, post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, { Origin: ORIGIN }), { takeId: take.id });
+    const same = await call(
+      feedback.action,
+      post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, { Origin: ORIGIN }),
+      { takeId: take.id },
+    );
     expect(same.status).toBe(302);
     expect(db().select().from(takeReviews).all()).toHaveLength(1);
   });
@@ -110,7 +127,9 @@ describe("feedback on a take", () => {
     const { take, ines } = setup();
     const jar = await signIn(login, ines.email);
     const send = (back: string) =>
-      call(feedback.action, post(`/takes/${take.id}/feedback`, { intent: "unreview", back }, jar, { Origin: ORIGIN }), { takeId: take.id });
+      call(feedback.action, post(`/takes/${take.id}/feedback`, { intent: "unreview", back }, jar, { Origin: ORIGIN }), {
+        takeId: take.id,
+      });
     for (const back of ["/\\evil.example", "/\t/evil.example", "//evil.example", "/\n"]) {
       expect((await send(back)).location, JSON.stringify(back)).toBe(`/takes/${take.id}`);
     }

@@ -23,7 +23,9 @@ const guesses = () => Array.from({ length: GUESSES }, (_, i) => (i === GUESSES -
 function expectThrottled(statuses: number[], label: string) {
   const tally = (status: number) => statuses.filter((s) => s === status).length;
   const signIns = tally(302);
-  console.log(`[sign-in race, ${label}] ${GUESSES} parallel guesses: ${tally(401)} refused (401), ${tally(429)} throttled (429), ${signIns} signed in`);
+  console.log(
+    `[sign-in race, ${label}] ${GUESSES} parallel guesses: ${tally(401)} refused (401), ${tally(429)} throttled (429), ${signIns} signed in`,
+  );
   // Only MAX_FAILURES attempts may reach the password comparison; every other one is a 429.
   expect(tally(401) + signIns).toBe(MAX_FAILURES);
   expect(tally(429)).toBe(GUESSES - MAX_FAILURES);
@@ -57,7 +59,9 @@ describe("sign-in throttle under parallel guesses", () => {
     const statuses = await Promise.all(
       guesses().map(async (password) => {
         const body = new URLSearchParams({ email: user.email, password });
-        const res = await handler(new Request(`${origin}/login`, { method: "POST", body, headers: { Origin: origin } }));
+        const res = await handler(
+          new Request(`${origin}/login`, { method: "POST", body, headers: { Origin: origin } }),
+        );
         return res.status;
       }),
     );

@@ -99,7 +99,11 @@ describe("sweeping orphan files", () => {
     const { studio } = await studentWithTakes(2);
     const exercise = makeExercise(studio.id);
     await putFile("model-take");
-    db().update(exercises).set({ modelFileKey: "model-take", modelOriginalName: "model.mid" }).where(eq(exercises.id, exercise.id)).run();
+    db()
+      .update(exercises)
+      .set({ modelFileKey: "model-take", modelOriginalName: "model.mid" })
+      .where(eq(exercises.id, exercise.id))
+      .run();
     await putFile("crashed-upload-1");
     await putFile("crashed-upload-2");
     // A file with no metadata beside it: a crash in the middle of writing.
@@ -121,7 +125,9 @@ describe("sweeping orphan files", () => {
     const log = vi.spyOn(console, "log").mockImplementation(() => {});
     startBackgroundWork();
     await expect.poll(() => storedFiles().length, { timeout: 10_000 }).toBe(1);
-    await expect.poll(() => log.mock.calls.flat().join("\n"), { timeout: 5_000 }).toContain("orphan take files removed at start-up: 1");
+    await expect
+      .poll(() => log.mock.calls.flat().join("\n"), { timeout: 5_000 })
+      .toContain("orphan take files removed at start-up: 1");
   });
 
   it("runs in npm run reanalyse, which prints the count", async () => {

@@ -28,7 +28,11 @@ function multipart(name: string, bytes: Uint8Array) {
 }
 
 function uploadRequest(jar: CookieJar, form: FormData) {
-  return new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } });
+  return new Request(`${ORIGIN}/api/takes`, {
+    method: "POST",
+    body: form,
+    headers: { Cookie: jar.header(), Origin: ORIGIN },
+  });
 }
 
 function replaceRequest(jar: CookieJar, takeId: string, bytes: Uint8Array, name = "again.mid") {
@@ -50,10 +54,14 @@ async function setup() {
   join(harbour.id, ines.id, "owner");
   const exercise = makeExercise(harbour.id);
   const daraJar = await signIn(login, dara.email);
-  const sessionUser = async () => (await getSessionUser(new Request(ORIGIN, { headers: { Cookie: daraJar.header() } })))!;
+  const sessionUser = async () =>
+    (await getSessionUser(new Request(ORIGIN, { headers: { Cookie: daraJar.header() } })))!;
   // Make sure Harbour Lane is active for the upload.
   switchActiveStudio((await sessionUser()).sessionId, dara.id, harbour.id);
-  const up = await call(apiTakes.action, uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))));
+  const up = await call(
+    apiTakes.action,
+    uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))),
+  );
   expect(up.status).toBe(201);
   const takeId = (up.data as { id: string }).id;
   return { harbour, cliff, dara, ines, exercise, daraJar, takeId, sessionUser };
@@ -62,20 +70,54 @@ async function setup() {
 describe("replacing a take", () => {
   it("keeps it in its own studio with its comments, review and intended marks, even with another studio active", async () => {
     const s = await setup();
-    const comment = db().insert(comments).values({ takeId: s.takeId, authorId: s.ines.id, body: "Watch the leap here.", changeIdx: null }).returning().get();
+    const comment = db()
+      .insert(comments)
+      .values({ takeId: s.takeId, authorId: s.ines.id, body: "Watch the leap here.", changeIdx: null })
+      .returning()
+      .get();
     db().insert(takeReviews).values({ takeId: s.takeId, reviewedById: s.ines.id, reviewedAt: new Date() }).run();
-    db().insert(intendedFlags).values({ takeId: s.takeId, byId: s.ines.id, on: "change", idx: 0, flag: "root-position-leap", reason: "I asked for the jump." }).run();
+    db()
+      .insert(intendedFlags)
+      .values({
+        takeId: s.takeId,
+        byId: s.ines.id,
+        on: "change",
+        idx: 0,
+        flag: "root-position-leap",
+        reason: "I asked for the jump.",
+      })
+      .run();
     // Dara now works in Cliff Road.
     switchActiveStudio((await s.sessionUser()).sessionId, s.dara.id, s.cliff.id);
 
-    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")), { takeId: s.takeId });
+    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")), {
+      takeId: s.takeId,
+    });
     expect(r.status).toBe(302);
     expect(r.location).toBe(`/takes/${s.takeId}`);
     const all = db().select().from(takes).all();
     expect(all.map((t) => [t.id, t.studioId, t.originalName])).toEqual([[s.takeId, s.harbour.id, "again.mid"]]);
-    expect(db().select().from(comments).all().map((c) => c.id)).toEqual([comment.id]);
-    expect(db().select().from(takeReviews).all().map((x) => x.takeId)).toEqual([s.takeId]);
-    expect(db().select().from(intendedFlags).all().map((m) => m.reason)).toEqual(["I asked for the jump."]);
+    expect(
+      db()
+        .select()
+        .from(comments)
+        .all()
+        .map((c) => c.id),
+    ).toEqual([comment.id]);
+    expect(
+      db()
+        .select()
+        .from(takeReviews)
+        .all()
+        .map((x) => x.takeId),
+    ).toEqual([s.takeId]);
+    expect(
+      db()
+        .select()
+        .from(intendedFlags)
+        .all()
+        .map((m) => m.reason),
+    ).toEqual(["I asked for the jump."]);
     expect(storedFiles()).toHaveLength(1); // the old file went once the new one was saved
   });
 
@@ -95,9 +137,14 @@ describe("replacing a take", () => {
   it("removes the new file when the replacement is refused", async () => {
     const s = await setup();
     // The same content as another of her takes: refused as a duplicate.
-    const other = await call(apiTakes.action, uploadRequest(s.daraJar, multipart("other.mid", sample("held-bass-d.mid"))));
+    const other = await call(
+      apiTakes.action,
+      uploadRequest(s.daraJar, multipart("other.mid", sample("held-bass-d.mid"))),
+    );
     expect(other.status).toBe(201);
-    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("held-bass-d.mid")), { takeId: s.takeId });
+    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("held-bass-d.mid")), {
+      takeId: s.takeId,
+    });
     expect(r.status).toBe(409);
     expect(takeCount()).toBe(2);
     expect(storedFiles()).toHaveLength(2);
@@ -107,25 +154,52 @@ describe("replacing a take", () => {
 describe("a student removed from the take's studio", () => {
   it("can no longer move, replace or reply, and nothing is stored", async () => {
     const s = await setup();
-    const teacherComment = db().insert(comments).values({ takeId: s.takeId, authorId: s.ines.id, body: "Try it smoother.", changeIdx: null }).returning().get();
+    const teacherComment = db()
+      .insert(comments)
+      .values({ takeId: s.takeId, authorId: s.ines.id, body: "Try it smoother.", changeIdx: null })
+      .returning()
+      .get();
     // Removed as the roster does it: the membership stays, marked removed.
-    db().update(memberships).set({ status: "removed" }).where(and(eq(memberships.studioId, s.harbour.id), eq(memberships.userId, s.dara.id))).run();
+    db()
+      .update(memberships)
+      .set({ status: "removed" })
+      .where(and(eq(memberships.studioId, s.harbour.id), eq(memberships.userId, s.dara.id)))
+      .run();
     // Still active in Cliff Road, so still signed in with a studio.
     const before = db().select().from(takes).get()!;
 
-    const move = await call(takePage.action, post(`/takes/${s.takeId}`, { intent: "move", exerciseId: s.exercise.id, key: "D" }, s.daraJar), { takeId: s.takeId });
+    const move = await call(
+      takePage.action,
+      post(`/takes/${s.takeId}`, { intent: "move", exerciseId: s.exercise.id, key: "D" }, s.daraJar),
+      { takeId: s.takeId },
+    );
     expect(move.status).toBe(403);
-    const replace = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")), { takeId: s.takeId });
+    const replace = await call(
+      takePage.action,
+      replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")),
+      { takeId: s.takeId },
+    );
     expect(replace.status).toBe(403);
     const reply = await call(
       takeFeedback.action,
-      post(`/takes/${s.takeId}/feedback`, { intent: "comment", body: "Will do!", parentId: teacherComment.id }, s.daraJar, { Origin: ORIGIN }),
+      post(
+        `/takes/${s.takeId}/feedback`,
+        { intent: "comment", body: "Will do!", parentId: teacherComment.id },
+        s.daraJar,
+        { Origin: ORIGIN },
+      ),
       { takeId: s.takeId },
     );
     expect([400, 403]).toContain(reply.status);
 
     expect(db().select().from(takes).get()).toEqual(before);
-    expect(db().select().from(comments).all().map((c) => c.id)).toEqual([teacherComment.id]);
+    expect(
+      db()
+        .select()
+        .from(comments)
+        .all()
+        .map((c) => c.id),
+    ).toEqual([teacherComment.id]);
     expect(storedFiles()).toHaveLength(1);
   });
 });

@@ -25,7 +25,10 @@ function analysedInTenths(bytes: Uint8Array): TakeAnalysis {
   const notes = readMidi(bytes).notes;
   const end = Math.max(...notes.map((n) => n.end));
   const parts = Array.from({ length: 10 }, (_, i) =>
-    analyseNotes(notes.filter((n) => n.start >= (end * i) / 10 && (i === 9 || n.start < (end * (i + 1)) / 10)), { key: "D" }),
+    analyseNotes(
+      notes.filter((n) => n.start >= (end * i) / 10 && (i === 9 || n.start < (end * (i + 1)) / 10)),
+      { key: "D" },
+    ),
   );
   const chords: TakeAnalysis["chords"] = [];
   const changes: TakeAnalysis["changes"] = [];
@@ -43,7 +46,13 @@ function analysedInTenths(bytes: Uint8Array): TakeAnalysis {
   };
 }
 
-async function storeTake(studioId: string, studentId: string, bytes: Uint8Array, name: string, analysis?: TakeAnalysis) {
+async function storeTake(
+  studioId: string,
+  studentId: string,
+  bytes: Uint8Array,
+  name: string,
+  analysis?: TakeAnalysis,
+) {
   const fileKey = newFileKey();
   await takeStorage().put(fileKey, new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
   return createTakeRecord({
@@ -81,7 +90,10 @@ function hundredThousandNoteTake(): Uint8Array {
     const chord = voicings[h % 4];
     for (const note of chord) events.push({ tick: t0, on: true, note }, { tick: t0 + 300, on: false, note });
     notes += 4;
-    const run = chord.slice(1).flatMap((n) => [n + 12, n + 24]).sort((x, y) => x - y);
+    const run = chord
+      .slice(1)
+      .flatMap((n) => [n + 12, n + 24])
+      .sort((x, y) => x - y);
     for (let k = 0; k < 44 && notes < 100_000; k++, notes++) {
       const note = run[k % run.length];
       events.push({ tick: t0 + 2 + k * 7, on: true, note }, { tick: t0 + 2 + k * 7 + 5, on: false, note });
@@ -91,7 +103,13 @@ function hundredThousandNoteTake(): Uint8Array {
   const track: MidiEvent[] = [];
   let last = 0;
   for (const e of events) {
-    track.push({ deltaTime: e.tick - last, type: e.on ? "noteOn" : "noteOff", channel: 0, noteNumber: e.note, velocity: e.on ? 80 : 0 });
+    track.push({
+      deltaTime: e.tick - last,
+      type: e.on ? "noteOn" : "noteOff",
+      channel: 0,
+      noteNumber: e.note,
+      velocity: e.on ? 80 : 0,
+    });
     last = e.tick;
   }
   track.push({ deltaTime: 0, type: "endOfTrack", meta: true });
@@ -169,7 +187,9 @@ describe("take windows over HTTP", () => {
     const res = await page(`/takes/${s.takeId}`, s.maraJar);
     expect(res.status).toBe(200);
     const html = await res.text();
-    console.info(`take page HTML, 10-minute take (${analysis.chords.length} chords): ${(html.length / 1000).toFixed(1)} kB`);
+    console.info(
+      `take page HTML, 10-minute take (${analysis.chords.length} chords): ${(html.length / 1000).toFixed(1)} kB`,
+    );
     expect(html.length).toBeLessThanOrEqual(150_000);
     // The first window's changes are in the page as rows; later changes are not.
     expect(html).toContain('data-change="0"');

@@ -27,14 +27,18 @@ function multipart(files: { name: string; bytes: Uint8Array }[], fields: Record<
 }
 
 function upload(jar: CookieJar, form: FormData) {
-  return new Request(`${ORIGIN}/api/takes`, { method: "POST", body: form, headers: { Cookie: jar.header(), Origin: ORIGIN } });
+  return new Request(`${ORIGIN}/api/takes`, {
+    method: "POST",
+    body: form,
+    headers: { Cookie: jar.header(), Origin: ORIGIN },
+  });
 }
 
 const storedFiles = () => storedTakeFiles(app.storageDir);
-const rows = (table: typeof takes | typeof takeMetrics) =>
-  db().select({ n: count() }).from(table).get()!.n;
+const rows = (table: typeof takes | typeof takeMetrics) => db().select({ n: count() }).from(table).get()!.n;
 const storedAnalysis = (takeId: string) =>
-  db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()?.analysis;
+  db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()
+    ?.analysis;
 
 async function setup() {
   const studio = makeStudio("Harbour Lane");
@@ -58,7 +62,10 @@ async function setup() {
 describe("uploading takes", () => {
   it("stores a good take, its file and every analysis row in one go (201)", async () => {
     const s = await setup();
-    const r = await call(apiTakes.action, upload(s.dara, multipart([{ name: "../three chords.mid", bytes: sample("three-chord-smoothing-d.mid") }])));
+    const r = await call(
+      apiTakes.action,
+      upload(s.dara, multipart([{ name: "../three chords.mid", bytes: sample("three-chord-smoothing-d.mid") }])),
+    );
     expect(r.status).toBe(201);
     const body = r.data as { id: string; status: string; analysis: { chords: unknown[]; changes: unknown[] } };
     expect(body.status).toBe("analysed");
@@ -81,7 +88,10 @@ describe("uploading takes", () => {
 
   it("refuses a file that is not MIDI with 415 and keeps nothing", async () => {
     const s = await setup();
-    const r = await call(apiTakes.action, upload(s.dara, multipart([{ name: "notes.mid", bytes: new TextEncoder().encode("just some text") }])));
+    const r = await call(
+      apiTakes.action,
+      upload(s.dara, multipart([{ name: "notes.mid", bytes: new TextEncoder().encode("just some text") }])),
+    );
     expect(r.status).toBe(415);
     expect((r.data as { error: string }).error).toMatch(/not a MIDI file/);
     expect(rows(takes)).toBe(0);
@@ -157,7 +167,10 @@ describe("uploading takes", () => {
 describe("reading and managing takes", () => {
   async function uploaded() {
     const s = await setup();
-    const r = await call(apiTakes.action, upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])));
+    const r = await call(
+      apiTakes.action,
+      upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])),
+    );
     return { ...s, takeId: (r.data as { id: string }).id };
   }
 
@@ -165,12 +178,18 @@ describe("reading and managing takes", () => {
     const s = await uploaded();
     const mine = await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.dara), { takeId: s.takeId });
     expect(mine.status).toBe(200);
-    const body = mine.data as { id: string; originalName: string; analysis: { chords: unknown[]; summary: { analysisVersion: number } } };
+    const body = mine.data as {
+      id: string;
+      originalName: string;
+      analysis: { chords: unknown[]; summary: { analysisVersion: number } };
+    };
     expect(body.id).toBe(s.takeId);
     expect(body.analysis.summary.analysisVersion).toBe(ANALYSIS_VERSION);
     expect((await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.ines), { takeId: s.takeId })).status).toBe(200);
     expect((await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.felix), { takeId: s.takeId })).status).toBe(403);
-    expect((await call(apiTakeFile.loader, get(`/api/takes/${s.takeId}/file`, s.felix), { takeId: s.takeId })).status).toBe(403);
+    expect(
+      (await call(apiTakeFile.loader, get(`/api/takes/${s.takeId}/file`, s.felix), { takeId: s.takeId })).status,
+    ).toBe(403);
     const list = await call(apiTakes.loader, get(`/api/takes?student=${s.ids.dara}`, s.ines));
     expect((list.data as { takes: { id: string }[] }).takes.map((t) => t.id)).toEqual([s.takeId]);
     expect((await call(apiTakes.loader, get(`/api/takes?student=${s.ids.dara}`, s.felix))).status).toBe(403);
@@ -180,7 +199,14 @@ describe("reading and managing takes", () => {
   it("lets only the take's student delete it, with its rows and file", async () => {
     const s = await uploaded();
     const del = (jar: CookieJar) =>
-      call(apiTake.action, new Request(`${ORIGIN}/api/takes/${s.takeId}`, { method: "DELETE", headers: { Cookie: jar.header(), Origin: ORIGIN } }), { takeId: s.takeId });
+      call(
+        apiTake.action,
+        new Request(`${ORIGIN}/api/takes/${s.takeId}`, {
+          method: "DELETE",
+          headers: { Cookie: jar.header(), Origin: ORIGIN },
+        }),
+        { takeId: s.takeId },
+      );
     expect((await del(s.felix)).status).toBe(403);
     expect((await del(s.ines)).status).toBe(403);
     expect((await del(s.dara)).status).toBe(204);
@@ -191,7 +217,11 @@ describe("reading and managing takes", () => {
 
   it("re-analyses stored takes whose analysis version is older than the engine's", async () => {
     const s = await uploaded();
-    db().update(takes).set({ analysisVersion: ANALYSIS_VERSION - 1 }).where(eq(takes.id, s.takeId)).run();
+    db()
+      .update(takes)
+      .set({ analysisVersion: ANALYSIS_VERSION - 1 })
+      .where(eq(takes.id, s.takeId))
+      .run();
     db().delete(takeMetrics).where(eq(takeMetrics.takeId, s.takeId)).run();
     const result = await reanalyseOutdated();
     expect(result).toMatchObject({ total: 1, analysed: 1, failed: 0 });
@@ -225,7 +255,11 @@ describe("reading and managing takes", () => {
     await moveTake(s.takeId, s.exercise.id, "D");
     const user = (await getSessionUser(get("/", s.dara)))!;
     const take = db().select().from(takes).where(eq(takes.id, s.takeId)).get()!;
-    const result = await replaceTakeFromForm(upload(s.dara, multipart([{ name: "better.mid", bytes: sample("three-chord-smoothing-d.mid") }])), user, take);
+    const result = await replaceTakeFromForm(
+      upload(s.dara, multipart([{ name: "better.mid", bytes: sample("three-chord-smoothing-d.mid") }])),
+      user,
+      take,
+    );
     expect(result.status).toBe(201);
     const all = db().select().from(takes).all();
     expect(all.map((t) => t.id)).toEqual([result.body.id]);

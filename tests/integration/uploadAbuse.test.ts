@@ -26,7 +26,11 @@ const sample = () => new Uint8Array(readFileSync("samples/held-bass-d.mid"));
 const storedFiles = () => storedTakeFiles(app.storageDir).length;
 
 function post(form: FormData | null, headers: Record<string, string> = {}) {
-  return fetch(`${base}/api/takes`, { method: "POST", body: form, headers: { Cookie: cookie, Origin: base, ...headers } });
+  return fetch(`${base}/api/takes`, {
+    method: "POST",
+    body: form,
+    headers: { Cookie: cookie, Origin: base, ...headers },
+  });
 }
 
 function form(...files: { name: string; bytes: Uint8Array }[]) {
@@ -102,7 +106,11 @@ describe("abusive uploads against the running server", () => {
     const r6 = await post(form({ name: "../../etc/pass\u0007wd\r\n.mid", bytes: sample() }));
     expect(r6.status).toBe(201);
     const { id } = await r6.json();
-    const saved = db().select().from(takes).all().find((t) => t.id === id)!;
+    const saved = db()
+      .select()
+      .from(takes)
+      .all()
+      .find((t) => t.id === id)!;
     // The browser's multipart encoding percent-escapes CR and LF; we drop the path and control characters.
     expect(saved.originalName).toMatch(/^passwd/);
     expect(saved.originalName).not.toMatch(/[/\\\u0000-\u001f]/);

@@ -18,14 +18,26 @@ import { resetEnvForTests } from "~/server/env.server";
 import { mailSettled } from "~/mail/mail.server";
 import reactRouterConfig from "../../react-router.config";
 
-type RouteNode = { id?: string; path?: string; index?: boolean; caseSensitive?: boolean; file: string; children?: RouteNode[] };
+type RouteNode = {
+  id?: string;
+  path?: string;
+  index?: boolean;
+  caseSensitive?: boolean;
+  file: string;
+  children?: RouteNode[];
+};
 type RouteModule = Record<string, unknown>;
 type ManifestRoute = ServerBuild["assets"]["routes"][string];
 
 /** Route ids as React Router gives them: the file under app/ without its extension. */
 const routeId = (node: RouteNode) => node.id ?? node.file.replace(/\.[jt]sx?$/, "");
 
-function manifestEntry(id: string, parentId: string | undefined, node: Omit<RouteNode, "file">, module: RouteModule): ManifestRoute {
+function manifestEntry(
+  id: string,
+  parentId: string | undefined,
+  node: Omit<RouteNode, "file">,
+  module: RouteModule,
+): ManifestRoute {
   return {
     id,
     parentId,
@@ -66,7 +78,14 @@ async function assembleBuild(): Promise<ServerBuild> {
     for (const node of nodes) {
       const id = routeId(node);
       const module = asBuilt(await import(/* @vite-ignore */ path.resolve("app", node.file)));
-      routes[id] = { id, parentId, path: node.path, index: node.index, caseSensitive: node.caseSensitive, module: module as never };
+      routes[id] = {
+        id,
+        parentId,
+        path: node.path,
+        index: node.index,
+        caseSensitive: node.caseSensitive,
+        module: module as never,
+      };
       manifest[id] = manifestEntry(id, parentId, node, module);
       if (node.children) await add(node.children, id);
     }
@@ -126,8 +145,17 @@ export async function ask<T = unknown>(request: Request, routeId?: string): Prom
   if (!leaf.isPage) {
     const response = await send(request);
     const type = response.headers.get("content-type") ?? "";
-    const data = type.includes("json") ? await response.json() : type.startsWith("text") ? await response.text() : new Uint8Array(await response.arrayBuffer());
-    return { status: response.status, headers: response.headers, location: response.headers.get("location"), data: data as T };
+    const data = type.includes("json")
+      ? await response.json()
+      : type.startsWith("text")
+        ? await response.text()
+        : new Uint8Array(await response.arrayBuffer());
+    return {
+      status: response.status,
+      headers: response.headers,
+      location: response.headers.get("location"),
+      data: data as T,
+    };
   }
   const dataUrl = new URL(url);
   // The browser router's address for a page's data (trailing-slash aware: "/" asks "/_.data").
@@ -141,30 +169,62 @@ export async function ask<T = unknown>(request: Request, routeId?: string): Prom
   // A redirect answered to the browser's router: 202 with the real status and target in headers.
   const redirectTo = response.headers.get("x-remix-redirect");
   if (redirectTo) {
-    return { status: Number(response.headers.get("x-remix-status") ?? 302), headers: response.headers, location: redirectTo, data: undefined as T };
+    return {
+      status: Number(response.headers.get("x-remix-status") ?? 302),
+      headers: response.headers,
+      location: redirectTo,
+      data: undefined as T,
+    };
   }
-  if (!response.body) return { status: response.status, headers: response.headers, location: null, data: undefined as T };
-  const decoded = (await UNSAFE_decodeViaTurboStream(response.body, globalThis)).value as Record<string | symbol, unknown>;
+  if (!response.body)
+    return { status: response.status, headers: response.headers, location: null, data: undefined as T };
+  const decoded = (await UNSAFE_decodeViaTurboStream(response.body, globalThis)).value as Record<
+    string | symbol,
+    unknown
+  >;
   // A loader's redirect comes under a symbol key, an action's as the answer itself.
   const redirect = (Object.getOwnPropertySymbols(decoded).map((s) => decoded[s])[0] ??
     (typeof decoded.redirect === "string" ? decoded : undefined)) as { redirect: string; status: number } | undefined;
-  if (redirect) return { status: redirect.status, headers: response.headers, location: redirect.redirect, data: undefined as T };
+  if (redirect)
+    return { status: redirect.status, headers: response.headers, location: redirect.redirect, data: undefined as T };
   if (isAction) {
     const result = decoded as { data?: unknown; error?: unknown };
-    return { status: response.status, headers: response.headers, location: null, data: (result.error ?? result.data) as T };
+    return {
+      status: response.status,
+      headers: response.headers,
+      location: null,
+      data: (result.error ?? result.data) as T,
+    };
   }
   const routes = decoded as Record<string, { data?: unknown; error?: unknown }>;
   const answer = Object.values(routes)[0] ?? {};
-  return { status: response.status, headers: response.headers, location: null, data: (answer.error ?? answer.data) as T };
+  return {
+    status: response.status,
+    headers: response.headers,
+    location: null,
+    data: (answer.error ?? answer.data) as T,
+  };
 }
 
-type MatchableRoute = { id: string; path?: string; index?: boolean; caseSensitive?: boolean; children?: MatchableRoute[] };
+type MatchableRoute = {
+  id: string;
+  path?: string;
+  index?: boolean;
+  caseSensitive?: boolean;
+  children?: MatchableRoute[];
+};
 let table: MatchableRoute[] | undefined;
 
 /** The route tree of app/routes.ts in the shape React Router's own matcher reads. */
 function routeTable(): MatchableRoute[] {
   const convert = (nodes: RouteNode[]): MatchableRoute[] =>
-    nodes.map((n) => ({ id: routeId(n), path: n.path, index: n.index, caseSensitive: n.caseSensitive, children: n.children ? convert(n.children) : undefined }));
+    nodes.map((n) => ({
+      id: routeId(n),
+      path: n.path,
+      index: n.index,
+      caseSensitive: n.caseSensitive,
+      children: n.children ? convert(n.children) : undefined,
+    }));
   table ??= convert(routeConfig as RouteNode[]);
   return table;
 }

@@ -14,7 +14,8 @@ export function useHttpApp() {
   const state = { base: "", server: undefined as http.Server | undefined };
   const build = path.resolve(process.env.NEARNOTE_BUILD_DIR ?? "build");
   beforeEach(async () => {
-    if (!existsSync(path.join(build, "server/index.js"))) throw new Error(`Build the app first (npm run build): ${build}`);
+    if (!existsSync(path.join(build, "server/index.js")))
+      throw new Error(`Build the app first (npm run build): ${build}`);
     process.env.NEARNOTE_ACCESS_LOG = "off";
     process.env.NEARNOTE_BACKGROUND = "off";
     resetEnvForTests(); // the settings above are read through the checked configuration
@@ -40,7 +41,10 @@ export function useHttpApp() {
         redirect: "manual",
       });
       if (res.status !== 302) throw new Error(`sign-in of ${email} answered ${res.status}`);
-      return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+      return res.headers
+        .getSetCookie()
+        .map((c) => c.split(";")[0])
+        .join("; ");
     },
   };
 }

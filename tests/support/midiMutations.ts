@@ -1,8 +1,12 @@
 // Deterministic damage to MIDI files, shared by the fuzz test and `npm run bench`.
 import { seededRandom } from "../../scripts/lib/takeGenerator";
 
-export type Mutant = { index: number; sample: number; kind: "flip" | "truncate" | "duplicate-chunk" | "length"; bytes: Uint8Array };
-
+export type Mutant = {
+  index: number;
+  sample: number;
+  kind: "flip" | "truncate" | "duplicate-chunk" | "length";
+  bytes: Uint8Array;
+};
 
 /** Offsets of the chunks ("MThd", "MTrk") in a Standard MIDI File. */
 function chunks(bytes: Uint8Array): { start: number; end: number }[] {

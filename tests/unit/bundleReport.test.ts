@@ -21,8 +21,20 @@ const manifest: BrowserManifest = {
   url: "/assets/manifest-1.js",
   entry: { module: "/assets/entry.js", imports: ["/assets/react.js", "/assets/router.js"] },
   routes: {
-    root: { id: "root", path: "", module: "/assets/root.js", imports: ["/assets/react.js", "/assets/flash.js"], hasDefaultExport: true },
-    "routes/_signedIn": { id: "routes/_signedIn", parentId: "root", module: "/assets/signedIn.js", imports: [], hasDefaultExport: true },
+    root: {
+      id: "root",
+      path: "",
+      module: "/assets/root.js",
+      imports: ["/assets/react.js", "/assets/flash.js"],
+      hasDefaultExport: true,
+    },
+    "routes/_signedIn": {
+      id: "routes/_signedIn",
+      parentId: "root",
+      module: "/assets/signedIn.js",
+      imports: [],
+      hasDefaultExport: true,
+    },
     "routes/home": {
       id: "routes/home",
       parentId: "routes/_signedIn",
@@ -39,8 +51,21 @@ const manifest: BrowserManifest = {
       imports: ["/assets/card.js", "/assets/roll.js"],
       hasDefaultExport: true,
     },
-    "routes/_index": { id: "routes/_index", parentId: "root", index: true, module: "/assets/index.js", imports: [], hasDefaultExport: true },
-    "routes/api.takes": { id: "routes/api.takes", parentId: "root", path: "api/takes", module: "/assets/api.js", hasDefaultExport: false },
+    "routes/_index": {
+      id: "routes/_index",
+      parentId: "root",
+      index: true,
+      module: "/assets/index.js",
+      imports: [],
+      hasDefaultExport: true,
+    },
+    "routes/api.takes": {
+      id: "routes/api.takes",
+      parentId: "root",
+      path: "api/takes",
+      module: "/assets/api.js",
+      hasDefaultExport: false,
+    },
   },
 };
 
@@ -95,7 +120,10 @@ describe("the bundle report", () => {
   it("reads a built manifest file and measures what gzip makes of each file", () => {
     const dir = mkdtempSync(path.join(tmpdir(), "nearnote-bundle-"));
     mkdirSync(path.join(dir, "assets"));
-    writeFileSync(path.join(dir, "assets/manifest-abc123.js"), `window.__reactRouterManifest=${JSON.stringify({ ...manifest, url: undefined })};`);
+    writeFileSync(
+      path.join(dir, "assets/manifest-abc123.js"),
+      `window.__reactRouterManifest=${JSON.stringify({ ...manifest, url: undefined })};`,
+    );
     const text = "export const notes = [60, 64, 67];\n".repeat(200);
     writeFileSync(path.join(dir, "assets/home.js"), text);
     const read = readBuiltManifest(dir);

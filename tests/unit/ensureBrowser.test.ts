@@ -8,8 +8,14 @@ import { describe, expect, it } from "vitest";
 
 const SCRIPT = path.resolve("scripts/ensure-browser.sh");
 const run = (script: string, env: Record<string, string>, asNobody = false) => {
-  const command = asNobody ? ["setpriv", "--reuid=65534", "--regid=65534", "--clear-groups", "bash", script] : ["bash", script];
-  return spawnSync(command[0], command.slice(1), { env: { PATH: process.env.PATH ?? "", ...env }, encoding: "utf8", timeout: 10_000 });
+  const command = asNobody
+    ? ["setpriv", "--reuid=65534", "--regid=65534", "--clear-groups", "bash", script]
+    : ["bash", script];
+  return spawnSync(command[0], command.slice(1), {
+    env: { PATH: process.env.PATH ?? "", ...env },
+    encoding: "utf8",
+    timeout: 10_000,
+  });
 };
 
 describe("scripts/ensure-browser.sh", () => {
@@ -32,7 +38,14 @@ describe("scripts/ensure-browser.sh", () => {
       const dir = mkdtempSync(path.join(tmpdir(), "nearnote-browser-"));
       chmodSync(dir, 0o755);
       const copy = path.join(dir, "ensure-browser.sh");
-      writeFileSync(copy, readFileSync(SCRIPT, "utf8").replace('"${CHROMIUM_PATH:-/usr/bin/chromium}"', '"${CHROMIUM_PATH:-/nonexistent/chromium}"'), { mode: 0o755 });
+      writeFileSync(
+        copy,
+        readFileSync(SCRIPT, "utf8").replace(
+          '"${CHROMIUM_PATH:-/usr/bin/chromium}"',
+          '"${CHROMIUM_PATH:-/nonexistent/chromium}"',
+        ),
+        { mode: 0o755 },
+      );
       const r = run(copy, {}, true);
       expect(r.status).toBe(1);
       expect(r.stdout).toBe("");

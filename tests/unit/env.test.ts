@@ -37,16 +37,31 @@ describe("configuration", () => {
   it("takes the analysis time limit and the storage-creation switch, refusing malformed ones", () => {
     expect(parseEnv({}).analysisTimeLimitMs).toBe(15_000);
     expect(parseEnv({}).createStorage).toBe(false);
-    expect(parseEnv({ ANALYSIS_TIME_LIMIT_MS: "2500", STORAGE_CREATE: "1" })).toMatchObject({ analysisTimeLimitMs: 2500, createStorage: true });
+    expect(parseEnv({ ANALYSIS_TIME_LIMIT_MS: "2500", STORAGE_CREATE: "1" })).toMatchObject({
+      analysisTimeLimitMs: 2500,
+      createStorage: true,
+    });
     expect(() => parseEnv({ ANALYSIS_TIME_LIMIT_MS: "soon" })).toThrow(/ANALYSIS_TIME_LIMIT_MS/);
     expect(() => parseEnv({ ANALYSIS_TIME_LIMIT_MS: "5" })).toThrow(/at least 100/);
     expect(() => parseEnv({ STORAGE_CREATE: "yes" })).toThrow(/STORAGE_CREATE must be 0 or 1/);
   });
 
   it("takes the server's switches and folders through the same checks", () => {
-    expect(parseEnv({})).toMatchObject({ trustProxy: false, accessLog: true, background: true, migrationsDir: path.resolve("drizzle"), mailCatcherDir: undefined });
+    expect(parseEnv({})).toMatchObject({
+      trustProxy: false,
+      accessLog: true,
+      background: true,
+      migrationsDir: path.resolve("drizzle"),
+      mailCatcherDir: undefined,
+    });
     expect(
-      parseEnv({ TRUST_PROXY: "1", NEARNOTE_ACCESS_LOG: "off", NEARNOTE_BACKGROUND: "off", MIGRATIONS_DIR: "db/migrations", MAIL_CATCHER_DIR: "storage/mail" }),
+      parseEnv({
+        TRUST_PROXY: "1",
+        NEARNOTE_ACCESS_LOG: "off",
+        NEARNOTE_BACKGROUND: "off",
+        MIGRATIONS_DIR: "db/migrations",
+        MAIL_CATCHER_DIR: "storage/mail",
+      }),
     ).toMatchObject({
       trustProxy: true,
       accessLog: false,

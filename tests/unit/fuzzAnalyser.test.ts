@@ -21,7 +21,8 @@ describe("the analyser under damaged input", () => {
         expect(result.summary.chordCount).toBe(result.chords.length);
         outcomes.analysed++;
       } catch (e) {
-        if (!(e instanceof AnalysisError)) throw new Error(`${describeMutant(mutant)} threw ${String(e)}`, { cause: e });
+        if (!(e instanceof AnalysisError))
+          throw new Error(`${describeMutant(mutant)} threw ${String(e)}`, { cause: e });
         expect(e.message).not.toContain("\n");
         outcomes.refused++;
       }

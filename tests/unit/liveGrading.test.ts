@@ -16,7 +16,12 @@ const chord = (at: number, pitches: number[], length = 0.42): NoteEvent[] =>
   pitches.map((midi, i) => ({ midi, start: at + i * 0.006, end: at + length, velocity: 0.7 }));
 
 // D4 F#4 A4 → D4 G4 B4 → C#4 E4 A4 → D4 F#4 A4: I, IV/5th in the bass, V/3rd, I (invented).
-const PROGRESSION = [...chord(0, [62, 66, 69]), ...chord(0.5, [62, 67, 71]), ...chord(1, [61, 64, 69]), ...chord(1.5, [62, 66, 69], 0.8)];
+const PROGRESSION = [
+  ...chord(0, [62, 66, 69]),
+  ...chord(0.5, [62, 67, 71]),
+  ...chord(1, [61, 64, 69]),
+  ...chord(1.5, [62, 66, 69], 0.8),
+];
 
 describe("gradeSoFar", () => {
   it("shows nothing before the first note", () => {
@@ -77,7 +82,9 @@ describe("gradeSoFar", () => {
     let lastSettled = 0;
     for (let now = 0; now <= 6; now += 0.02) {
       const live = gradeSoFar({ notes: asOf(notes, now) }, now, { key: "D", bpm });
-      expect(live.settled, `settled count never goes back (at ${now.toFixed(2)} s)`).toBeGreaterThanOrEqual(lastSettled);
+      expect(live.settled, `settled count never goes back (at ${now.toFixed(2)} s)`).toBeGreaterThanOrEqual(
+        lastSettled,
+      );
       lastSettled = live.settled;
       for (let k = 0; k < live.settled; k++) {
         expect(live.chords[k].notes, `chord ${k} at ${now.toFixed(2)} s`).toEqual(final.chords[k].notes);

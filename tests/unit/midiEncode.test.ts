@@ -26,10 +26,18 @@ function readBack(bytes: Uint8Array) {
       if (e.type === "controller" && e.controllerType === 64) pedal.push({ tick, value: e.value });
       const isOn = e.type === "noteOn" && e.velocity > 0;
       const isOff = e.type === "noteOff" || (e.type === "noteOn" && e.velocity === 0);
-      if (isOn) open.set(e.noteNumber, [...(open.get(e.noteNumber) ?? []), { tick, velocity: e.velocity, channel: e.channel }]);
+      if (isOn)
+        open.set(e.noteNumber, [...(open.get(e.noteNumber) ?? []), { tick, velocity: e.velocity, channel: e.channel }]);
       else if (isOff) {
         const start = open.get(e.noteNumber)?.shift();
-        if (start) notes.push({ midi: e.noteNumber, startTick: start.tick, endTick: tick, velocity: start.velocity, channel: start.channel });
+        if (start)
+          notes.push({
+            midi: e.noteNumber,
+            startTick: start.tick,
+            endTick: tick,
+            velocity: start.velocity,
+            channel: start.channel,
+          });
       }
     }
   }
@@ -54,7 +62,10 @@ const KNOWN: NoteEvent[] = [
   { midi: 66, start: 1.3402, end: 1.9034, velocity: v(64) },
   { midi: 69, start: 1.3461, end: 1.9102, velocity: v(99) },
 ];
-const PEDAL: PedalSpan[] = [{ start: 0.4448, end: 0.9011 }, { start: 1.331, end: 1.95 }];
+const PEDAL: PedalSpan[] = [
+  { start: 0.4448, end: 0.9011 },
+  { start: 1.331, end: 1.95 },
+];
 
 describe("encodeMidi, read back with midi-file", () => {
   for (const bpm of [120, 72, 97]) {
@@ -79,7 +90,9 @@ describe("encodeMidi, read back with midi-file", () => {
       // Pedal: controller 64 down (127) and up (0) at each span's ends.
       expect(back.pedal.map((p) => p.value)).toEqual([127, 0, 127, 0]);
       const pedalTimes = PEDAL.flatMap((p) => [p.start, p.end]);
-      back.pedal.forEach((p, i) => expect(Math.abs(p.tick * secPerTick - pedalTimes[i])).toBeLessThanOrEqual(secPerTick));
+      back.pedal.forEach((p, i) =>
+        expect(Math.abs(p.tick * secPerTick - pedalTimes[i])).toBeLessThanOrEqual(secPerTick),
+      );
     });
   }
 
@@ -109,7 +122,9 @@ describe("encodeMidi, read back with midi-file", () => {
     const server = analyseMidi(encodeMidi({ notes: KNOWN, pedal: PEDAL, bpm }), { key: "D" });
     expect(server.chords.map((c) => c.symbol)).toEqual(["D", "G/D", "A/C#", "D"]);
     expect(server.chords.map((c) => c.symbol)).toEqual(live.chords.map((c) => c.symbol));
-    expect(server.changes.map((c) => [c.motion, c.bestMotion, c.flags])).toEqual(live.changes.map((c) => [c.motion, c.bestMotion, c.flags]));
+    expect(server.changes.map((c) => [c.motion, c.bestMotion, c.flags])).toEqual(
+      live.changes.map((c) => [c.motion, c.bestMotion, c.flags]),
+    );
     expect(server.summary.score).toBe(live.summary.score);
     expect(server.summary.pedalSec).toBeCloseTo(live.summary.pedalSec, 2);
   });

@@ -1,6 +1,16 @@
 import { describe, expect, it } from "vitest";
 import { navItems } from "~/components/SiteNav";
-import { combineSums, EMPTY_SUMS, figuresFrom, formatMetric, shiftWeek, weekEnd, weekOfDate, weeksBetween, type WeekSums } from "~/utils/progressFigures";
+import {
+  combineSums,
+  EMPTY_SUMS,
+  figuresFrom,
+  formatMetric,
+  shiftWeek,
+  weekEnd,
+  weekOfDate,
+  weeksBetween,
+  type WeekSums,
+} from "~/utils/progressFigures";
 
 const sums = (over: Partial<WeekSums>): WeekSums => ({ ...EMPTY_SUMS, techniques: {}, ...over });
 
@@ -15,11 +25,30 @@ describe("weekly figures from sums", () => {
   it("reads 1.0 when analysed takes did not move, and nothing at all for a week without analysed takes", () => {
     expect(figuresFrom(sums({ takes: 1, analysed: 1, changes: 3 })).smoothness).toBe(1);
     const failedOnly = figuresFrom(sums({ takes: 2 }));
-    expect(failedOnly).toMatchObject({ takes: 2, smoothness: null, score: null, motionPerChange: null, leapsPer10: null, accuracy: null });
+    expect(failedOnly).toMatchObject({
+      takes: 2,
+      smoothness: null,
+      score: null,
+      motionPerChange: null,
+      leapsPer10: null,
+      accuracy: null,
+    });
   });
 
   it("counts leaps per 10 changes, minutes from seconds, accuracy over exercise takes only", () => {
-    const f = figuresFrom(sums({ takes: 3, analysed: 3, durationSec: 270, changes: 40, leaps: 6, scoreSum: 210, accuracySum: 1.5, accuracyTakes: 2, techniques: { inversion: 2 } }));
+    const f = figuresFrom(
+      sums({
+        takes: 3,
+        analysed: 3,
+        durationSec: 270,
+        changes: 40,
+        leaps: 6,
+        scoreSum: 210,
+        accuracySum: 1.5,
+        accuracyTakes: 2,
+        techniques: { inversion: 2 },
+      }),
+    );
     expect(f.leapsPer10).toBe(1.5); // 10 × 6 / 40
     expect(f.practiceMinutes).toBe(4.5);
     expect(f.accuracy).toBe(0.75); // 1.5 / 2, not / 3
@@ -55,8 +84,14 @@ describe("ISO week arithmetic", () => {
 
 describe("navigation", () => {
   it("gives teachers the board and students never", () => {
-    expect(navItems({ name: "Ines", role: "owner", studioName: "Tidewater Keys" }).map((i) => i.to)).toContain("/board");
-    expect(navItems({ name: "Marta", role: "teacher", studioName: "Tidewater Keys" }).map((i) => i.to)).toContain("/board");
-    expect(navItems({ name: "Dara", role: "student", studioName: "Tidewater Keys" }).map((i) => i.to)).not.toContain("/board");
+    expect(navItems({ name: "Ines", role: "owner", studioName: "Tidewater Keys" }).map((i) => i.to)).toContain(
+      "/board",
+    );
+    expect(navItems({ name: "Marta", role: "teacher", studioName: "Tidewater Keys" }).map((i) => i.to)).toContain(
+      "/board",
+    );
+    expect(navItems({ name: "Dara", role: "student", studioName: "Tidewater Keys" }).map((i) => i.to)).not.toContain(
+      "/board",
+    );
   });
 });

@@ -6,7 +6,9 @@ const labels = (user: Parameters<typeof navItems>[0]) => navItems(user).map((i) 
 describe("navigation by role (accounts)", () => {
   it("gives teachers and owners the roster and settings", () => {
     for (const role of ["owner", "teacher"] as const) {
-      expect(labels({ name: "Ines", role, studioName: "Tidewater Keys" })).toEqual(expect.arrayContaining(["/students", "/settings"]));
+      expect(labels({ name: "Ines", role, studioName: "Tidewater Keys" })).toEqual(
+        expect.arrayContaining(["/students", "/settings"]),
+      );
     }
   });
 

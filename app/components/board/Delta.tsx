@@ -19,7 +19,10 @@ export function Delta({ metric, now, before }: { metric: MetricId; now: number |
   }
   const up = diff > 0;
   const good = up === METRICS[metric].higherIsBetter;
-  const shown = metric === "smoothness" || metric === "accuracy" ? `${Math.round(Math.abs(diff) * 100)} pts` : METRICS[metric].format(Math.abs(diff));
+  const shown =
+    metric === "smoothness" || metric === "accuracy"
+      ? `${Math.round(Math.abs(diff) * 100)} pts`
+      : METRICS[metric].format(Math.abs(diff));
   return (
     <span className="inline-flex items-center gap-1 whitespace-nowrap">
       {value}

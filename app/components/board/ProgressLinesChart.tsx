@@ -4,7 +4,15 @@ import type { ChartData } from "~/models/board.server";
 import { lineStyle } from "./chartQuery";
 
 /** The chart proper: one line per student, the metric per week. Recharts draws it after hydration. */
-export default function ProgressLinesChart({ data, height = 320, width }: { data: ChartData; height?: number; width?: number }) {
+export default function ProgressLinesChart({
+  data,
+  height = 320,
+  width,
+}: {
+  data: ChartData;
+  height?: number;
+  width?: number;
+}) {
   const rows = data.weeks.map((week, i) => ({
     week: weekLabel(week),
     ...Object.fromEntries(data.series.map((s) => [s.studentId, s.values[i]])),

@@ -32,7 +32,8 @@ export function ReportControls({
           <input type="hidden" name="from" value={from} />
           <input type="hidden" name="to" value={to} />
           <label htmlFor="report-summary" className="text-sm text-ink-soft">
-            A few sentences for the student, their parents or their school: what went well, what to work on next. It is printed under the figures.
+            A few sentences for the student, their parents or their school: what went well, what to work on next. It is
+            printed under the figures.
           </label>
           <textarea
             id="report-summary"
@@ -54,7 +55,11 @@ export function ReportControls({
             <Button pending={pending} pendingLabel="Saving…">
               {saved ? "Save as a new version" : "Save report"}
             </Button>
-            <button type="button" onClick={() => window.print()} className="rounded-md border border-line bg-card px-4 py-2 text-sm font-semibold hover:border-tide">
+            <button
+              type="button"
+              onClick={() => window.print()}
+              className="rounded-md border border-line bg-card px-4 py-2 text-sm font-semibold hover:border-tide"
+            >
               Print or save as PDF
             </button>
           </div>
@@ -67,7 +72,10 @@ export function ReportControls({
           <ul className="flex flex-col gap-1 text-sm">
             {savedReports.map((r) => (
               <li key={r.id}>
-                <Link to={`/reports/${studentId}?report=${r.id}`} className={`hover:underline ${saved?.id === r.id ? "font-semibold text-ink" : "text-tide-dark"}`}>
+                <Link
+                  to={`/reports/${studentId}?report=${r.id}`}
+                  className={`hover:underline ${saved?.id === r.id ? "font-semibold text-ink" : "text-tide-dark"}`}
+                >
                   {r.fromDate} to {r.toDate}
                 </Link>{" "}
                 <span className="text-xs text-ink-soft">

@@ -28,7 +28,10 @@ export function ReportSheet({
   progress: Progress;
 }) {
   return (
-    <article aria-labelledby="report-title" className="report-sheet flex flex-col gap-6 rounded-lg border border-line bg-card p-6 shadow-sm">
+    <article
+      aria-labelledby="report-title"
+      className="report-sheet flex flex-col gap-6 rounded-lg border border-line bg-card p-6 shadow-sm"
+    >
       <header className="report-block flex flex-wrap items-end justify-between gap-2 border-b border-line pb-3">
         <div>
           <p className="text-xs uppercase tracking-wide text-ink-soft">{studio} · progress report</p>
@@ -55,7 +58,9 @@ export function ReportSheet({
         {summary ? (
           <p className="whitespace-pre-wrap">{summary}</p>
         ) : (
-          <p className="no-print text-sm text-ink-soft">Write and save a summary above; it appears here and on the printed page.</p>
+          <p className="no-print text-sm text-ink-soft">
+            Write and save a summary above; it appears here and on the printed page.
+          </p>
         )}
         <p className="mt-2 text-sm text-ink-soft">— {teacher}</p>
       </section>
@@ -68,7 +73,12 @@ export function ReportSheet({
             : "No technique appeared for the first time in this period."}
         </p>
         <div className="mt-3">
-          <TechniqueTable totals={p.total.techniques} weeksUsed={p.weeksUsed} weekCount={p.weeks.length} gained={p.gained} />
+          <TechniqueTable
+            totals={p.total.techniques}
+            weeksUsed={p.weeksUsed}
+            weekCount={p.weeks.length}
+            gained={p.gained}
+          />
         </div>
       </section>
 
@@ -93,7 +103,8 @@ export function ReportSheet({
               <li key={e.exerciseId ?? "free"} className="flex flex-wrap justify-between gap-2 py-1.5">
                 <span className="font-semibold">{e.title}</span>
                 <span>
-                  {e.takes} take{e.takes === 1 ? "" : "s"} · score {formatMetric("score", e.score)} · accuracy {formatMetric("accuracy", e.accuracy)}
+                  {e.takes} take{e.takes === 1 ? "" : "s"} · score {formatMetric("score", e.score)} · accuracy{" "}
+                  {formatMetric("accuracy", e.accuracy)}
                 </span>
               </li>
             ))}
@@ -107,9 +118,9 @@ export function ReportSheet({
       </section>
 
       <footer className="report-block border-t border-line pt-3 text-xs text-ink-soft">
-        Smoothness compares the smallest possible hand movement between chords with the movement played (100% is as smooth as possible).
-        Nearnote's figures are practice aids, not an assessment of musicianship. Long practice can strain hands and wrists: short breaks help,
-        and pain is a reason to see a qualified teacher or clinician.
+        Smoothness compares the smallest possible hand movement between chords with the movement played (100% is as
+        smooth as possible). Nearnote's figures are practice aids, not an assessment of musicianship. Long practice can
+        strain hands and wrists: short breaks help, and pain is a reason to see a qualified teacher or clinician.
       </footer>
     </article>
   );

@@ -2,7 +2,17 @@
  * A small trend line drawn as plain SVG on the server (recharts only draws after
  * hydration, and the board should read at once). Gaps are weeks without takes.
  */
-export function Sparkline({ values, label, width = 96, height = 24 }: { values: (number | null)[]; label: string; width?: number; height?: number }) {
+export function Sparkline({
+  values,
+  label,
+  width = 96,
+  height = 24,
+}: {
+  values: (number | null)[];
+  label: string;
+  width?: number;
+  height?: number;
+}) {
   const present = values.filter((v): v is number => v !== null);
   if (present.length === 0) {
     return (
@@ -34,9 +44,24 @@ export function Sparkline({ values, label, width = 96, height = 24 }: { values: 
   const first = present[0];
   const last = present[present.length - 1];
   return (
-    <svg role="img" aria-label={`${label}: from ${first.toFixed(0)} to ${last.toFixed(0)}`} viewBox={`0 0 ${width} ${height}`} width={width} height={height} className="text-tide">
+    <svg
+      role="img"
+      aria-label={`${label}: from ${first.toFixed(0)} to ${last.toFixed(0)}`}
+      viewBox={`0 0 ${width} ${height}`}
+      width={width}
+      height={height}
+      className="text-tide"
+    >
       {runs.map((d, i) => (
-        <path key={i} d={d} fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinejoin="round" strokeLinecap="round" />
+        <path
+          key={i}
+          d={d}
+          fill="none"
+          stroke="currentColor"
+          strokeWidth="1.5"
+          strokeLinejoin="round"
+          strokeLinecap="round"
+        />
       ))}
       <circle cx={lx} cy={ly} r="2.2" fill="currentColor" />
     </svg>

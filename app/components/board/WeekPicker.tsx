@@ -5,7 +5,10 @@ export function WeekPicker({ week, options }: { week: string; options: { key: st
   const [params] = useSearchParams();
   const submit = useSubmit();
   // The chart writes its choice into the address itself; read it from there, not from the router's copy.
-  const chartParams = () => [...new URLSearchParams(typeof window === "undefined" ? params : window.location.search)].filter(([k]) => k !== "week");
+  const chartParams = () =>
+    [...new URLSearchParams(typeof window === "undefined" ? params : window.location.search)].filter(
+      ([k]) => k !== "week",
+    );
   return (
     <Form
       method="get"
@@ -19,7 +22,12 @@ export function WeekPicker({ week, options }: { week: string; options: { key: st
     >
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Week shown in the table
-        <select name="week" defaultValue={week} key={week} className="rounded-md border border-line bg-white px-3 py-1.5 font-normal">
+        <select
+          name="week"
+          defaultValue={week}
+          key={week}
+          className="rounded-md border border-line bg-white px-3 py-1.5 font-normal"
+        >
           {options.map((o) => (
             <option key={o.key} value={o.key}>
               {o.label} ({o.key})
@@ -28,7 +36,9 @@ export function WeekPicker({ week, options }: { week: string; options: { key: st
         </select>
       </label>
       <noscript>
-        <button type="submit" className="rounded-md border border-line px-3 py-1.5 text-sm">Show</button>
+        <button type="submit" className="rounded-md border border-line px-3 py-1.5 text-sm">
+          Show
+        </button>
       </noscript>
     </Form>
   );

@@ -21,7 +21,9 @@ export function WeeklyFiguresTable({ weeks, total, caption }: { weeks: Week[]; t
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className="px-3 py-2">Week of</th>
+            <th scope="col" className="px-3 py-2">
+              Week of
+            </th>
             {COLUMNS.map(([, label]) => (
               <th key={label} scope="col" className="px-3 py-2 text-right print:px-1">
                 {label}
@@ -45,7 +47,9 @@ export function WeeklyFiguresTable({ weeks, total, caption }: { weeks: Week[]; t
         </tbody>
         <tfoot className="border-t-2 border-line font-semibold">
           <tr>
-            <th scope="row" className="px-3 py-2">Whole period</th>
+            <th scope="row" className="px-3 py-2">
+              Whole period
+            </th>
             {COLUMNS.map(([metric]) => (
               <td key={metric} className="px-3 py-2 text-right tabular-nums">
                 {formatMetric(metric, total[metric])}

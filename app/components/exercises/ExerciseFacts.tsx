@@ -5,7 +5,10 @@ import type { ExpandedKey } from "~/utils/exerciseProgression";
 import { dayLabel, pretty } from "~/utils/noteText";
 import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 
-type Facts = Pick<ExerciseFormValues, "progression" | "focusTechniques" | "tempo" | "dueDate" | "instructions" | "assignedTo">;
+type Facts = Pick<
+  ExerciseFormValues,
+  "progression" | "focusTechniques" | "tempo" | "dueDate" | "instructions" | "assignedTo"
+>;
 
 /** What the exercise asks for: target chords in each key, focus techniques, tempo, due date, instructions. */
 export function ExerciseFacts({ exercise, expanded }: { exercise: Facts; expanded: ExpandedKey[] }) {
@@ -39,7 +42,9 @@ export function ExerciseFacts({ exercise, expanded }: { exercise: Facts; expande
           <dt className="text-ink-soft">Tempo</dt>
           <dd>{exercise.tempo ? `${exercise.tempo} bpm` : "Your own"}</dd>
           <dt className="text-ink-soft">Due</dt>
-          <dd className="whitespace-nowrap">{exercise.dueDate ? dayLabel(`${exercise.dueDate}T12:00:00Z`) : "No date"}</dd>
+          <dd className="whitespace-nowrap">
+            {exercise.dueDate ? dayLabel(`${exercise.dueDate}T12:00:00Z`) : "No date"}
+          </dd>
           <dt className="text-ink-soft">Set for</dt>
           <dd>{exercise.assignedTo === "studio" ? "The whole studio" : "Chosen students"}</dd>
         </dl>

@@ -10,8 +10,9 @@ import type { ExerciseFormValues } from "~/models/exercises.server";
 
 export type { ExerciseFormValues };
 
-
-export type ExerciseFormErrors = Partial<Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>>;
+export type ExerciseFormErrors = Partial<
+  Record<"title" | "keys" | "progression" | "tempo" | "dueDate" | "instructions" | "students", string>
+>;
 
 const same = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((k, i) => k === b[i]);
 
@@ -54,7 +55,13 @@ export function ExerciseForm({
             ["all-minor", "All twelve minor keys"],
           ].map(([value, label]) => (
             <label key={value} className="flex items-center gap-1.5">
-              <input type="radio" name="keyChoice" value={value} checked={choice === value} onChange={() => setChoice(value)} />
+              <input
+                type="radio"
+                name="keyChoice"
+                value={value}
+                checked={choice === value}
+                onChange={() => setChoice(value)}
+              />
               {label}
             </label>
           ))}
@@ -70,7 +77,9 @@ export function ExerciseForm({
             placeholder="D"
           />
         ) : errors.keys ? (
-          <p className="text-sm text-brick" role="alert">{errors.keys}</p>
+          <p className="text-sm text-brick" role="alert">
+            {errors.keys}
+          </p>
         ) : null}
       </fieldset>
 
@@ -90,8 +99,8 @@ export function ExerciseForm({
             className={`rounded-md border bg-white px-3 py-2 font-mono text-base shadow-inner outline-none focus:border-tide ${errors.progression ? "border-brick" : "border-line"}`}
           />
           <p id={`${id}-prog-hint`} className="text-xs text-ink-soft">
-            Roman numerals (I IV V I, vi IV I V, iiø7 V7 i, bVII) or chord symbols in the first key (Eb Bb/D Cm Cm/Bb Ab).
-            Chord symbols are moved to the other keys.
+            Roman numerals (I IV V I, vi IV I V, iiø7 V7 i, bVII) or chord symbols in the first key (Eb Bb/D Cm Cm/Bb
+            Ab). Chord symbols are moved to the other keys.
           </p>
           {errors.progression ? (
             <p className="text-sm text-brick" role="alert">
@@ -100,7 +109,9 @@ export function ExerciseForm({
           ) : null}
         </div>
         <div className="rounded-md border border-line bg-paper p-3">
-          <p className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-soft">What Nearnote will listen for</p>
+          <p className="mb-2 text-xs font-semibold uppercase tracking-wide text-ink-soft">
+            What Nearnote will listen for
+          </p>
           <ProgressionPreview progression={progression} keys={keys} />
         </div>
       </div>
@@ -110,7 +121,13 @@ export function ExerciseForm({
         <div className="grid gap-2 sm:grid-cols-2">
           {TECHNIQUES.map((t) => (
             <label key={t} className="flex items-start gap-2 text-sm">
-              <input type="checkbox" name="focusTechniques" value={t} defaultChecked={values.focusTechniques.includes(t)} className="mt-1" />
+              <input
+                type="checkbox"
+                name="focusTechniques"
+                value={t}
+                defaultChecked={values.focusTechniques.includes(t)}
+                className="mt-1"
+              />
               <span>
                 <span className="font-semibold">{TECHNIQUE_WORDS[t].label}</span>
                 <span className="block text-ink-soft">{TECHNIQUE_WORDS[t].text}</span>
@@ -121,7 +138,15 @@ export function ExerciseForm({
       </fieldset>
 
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field label="Tempo (beats per minute)" name="tempo" type="number" min={20} max={300} defaultValue={values.tempo ?? ""} error={errors.tempo} />
+        <Field
+          label="Tempo (beats per minute)"
+          name="tempo"
+          type="number"
+          min={20}
+          max={300}
+          defaultValue={values.tempo ?? ""}
+          error={errors.tempo}
+        />
         <Field label="Due date" name="dueDate" type="date" defaultValue={values.dueDate ?? ""} error={errors.dueDate} />
       </div>
 
@@ -136,18 +161,34 @@ export function ExerciseForm({
           defaultValue={values.instructions}
           className="rounded-md border border-line bg-white px-3 py-2 text-base shadow-inner outline-none focus:border-tide"
         />
-        {errors.instructions ? <p className="text-sm text-brick" role="alert">{errors.instructions}</p> : null}
+        {errors.instructions ? (
+          <p className="text-sm text-brick" role="alert">
+            {errors.instructions}
+          </p>
+        ) : null}
       </div>
 
       <fieldset className="flex flex-col gap-2">
         <legend className="text-sm font-semibold">Set for</legend>
         <div className="flex flex-wrap gap-4 text-sm">
           <label className="flex items-center gap-1.5">
-            <input type="radio" name="assignedTo" value="studio" checked={assignedTo === "studio"} onChange={() => setAssignedTo("studio")} />
+            <input
+              type="radio"
+              name="assignedTo"
+              value="studio"
+              checked={assignedTo === "studio"}
+              onChange={() => setAssignedTo("studio")}
+            />
             The whole studio
           </label>
           <label className="flex items-center gap-1.5">
-            <input type="radio" name="assignedTo" value="students" checked={assignedTo === "students"} onChange={() => setAssignedTo("students")} />
+            <input
+              type="radio"
+              name="assignedTo"
+              value="students"
+              checked={assignedTo === "students"}
+              onChange={() => setAssignedTo("students")}
+            />
             Chosen students
           </label>
         </div>
@@ -161,7 +202,11 @@ export function ExerciseForm({
             ))}
           </div>
         ) : null}
-        {errors.students ? <p className="text-sm text-brick" role="alert">{errors.students}</p> : null}
+        {errors.students ? (
+          <p className="text-sm text-brick" role="alert">
+            {errors.students}
+          </p>
+        ) : null}
       </fieldset>
 
       <div>

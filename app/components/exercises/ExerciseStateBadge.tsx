@@ -10,7 +10,11 @@ const TONE: Record<ExerciseState["kind"], string> = {
 /** The student's state of an exercise, worded and coloured the same on every page. */
 export function ExerciseStateBadge({ state }: { state: ExerciseState }) {
   return (
-    <span className={`inline-block whitespace-nowrap rounded px-2 py-0.5 text-xs font-semibold ${TONE[state.kind]}`} data-testid="exercise-state" data-state={state.kind}>
+    <span
+      className={`inline-block whitespace-nowrap rounded px-2 py-0.5 text-xs font-semibold ${TONE[state.kind]}`}
+      data-testid="exercise-state"
+      data-state={state.kind}
+    >
       {state.label}
       {state.kind !== "done" && state.keysTotal > 1 ? ` · ${state.keysDone} of ${state.keysTotal} keys` : ""}
     </span>

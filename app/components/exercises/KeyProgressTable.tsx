@@ -2,7 +2,12 @@ import { Link } from "react-router";
 import { pretty } from "~/utils/noteText";
 
 type TakeCell = { id: string; status: string; score: number | null };
-type Row = { id: string; name: string; done: boolean; progress: Array<{ key: string; takes: TakeCell[]; best: number | null }> };
+type Row = {
+  id: string;
+  name: string;
+  done: boolean;
+  progress: Array<{ key: string; takes: TakeCell[]; best: number | null }>;
+};
 
 /** One row per student (or just "You"), one column per key: takes sent and the best score so far. */
 export function KeyProgressTable({ keys, rows }: { keys: string[]; rows: Row[] }) {
@@ -12,17 +17,25 @@ export function KeyProgressTable({ keys, rows }: { keys: string[]; rows: Row[] }
       <table className="w-full text-sm">
         <thead>
           <tr className="border-b border-line text-left text-ink-soft">
-            <th scope="col" className="py-2 pr-4 font-semibold">Student</th>
+            <th scope="col" className="py-2 pr-4 font-semibold">
+              Student
+            </th>
             {keys.map((k) => (
-              <th key={k} scope="col" className="py-2 pr-4 font-semibold">{pretty(k)}</th>
+              <th key={k} scope="col" className="py-2 pr-4 font-semibold">
+                {pretty(k)}
+              </th>
             ))}
-            <th scope="col" className="py-2 font-semibold">State</th>
+            <th scope="col" className="py-2 font-semibold">
+              State
+            </th>
           </tr>
         </thead>
         <tbody>
           {rows.map((r) => (
             <tr key={r.id} className="border-b border-line/60">
-              <th scope="row" className="py-2 pr-4 text-left font-normal">{r.name}</th>
+              <th scope="row" className="py-2 pr-4 text-left font-normal">
+                {r.name}
+              </th>
               {r.progress.map((p) => (
                 <td key={p.key} className="py-2 pr-4 align-top">
                   {p.takes.length === 0 ? (
@@ -34,7 +47,11 @@ export function KeyProgressTable({ keys, rows }: { keys: string[]; rows: Row[] }
                       </span>
                       <span className="flex flex-wrap gap-1 text-xs">
                         {p.takes.slice(0, 4).map((t, i) => (
-                          <Link key={t.id} to={`/takes/${t.id}`} className="text-tide-dark underline-offset-2 hover:underline">
+                          <Link
+                            key={t.id}
+                            to={`/takes/${t.id}`}
+                            className="text-tide-dark underline-offset-2 hover:underline"
+                          >
                             {i === 0 ? "latest" : `#${p.takes.length - i}`}
                             {t.score !== null ? ` (${Math.round(t.score)})` : t.status === "failed" ? " (failed)" : ""}
                           </Link>

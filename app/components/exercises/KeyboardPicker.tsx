@@ -60,9 +60,22 @@ export function KeyboardPicker({
     >
       {whites.map((m) => (
         <g key={m} {...keyProps(m)} data-midi={m}>
-          <rect x={x.get(m)! + 0.5} y={0.5} width={WHITE_W} height={WHITE_H} rx={2} className={on.has(m) ? "fill-tide" : "fill-white"} stroke="var(--color-line)" />
+          <rect
+            x={x.get(m)! + 0.5}
+            y={0.5}
+            width={WHITE_W}
+            height={WHITE_H}
+            rx={2}
+            className={on.has(m) ? "fill-tide" : "fill-white"}
+            stroke="var(--color-line)"
+          />
           {m % 12 === 0 ? (
-            <text x={x.get(m)! + WHITE_W / 2 + 0.5} y={WHITE_H - 4} textAnchor="middle" className={`text-xs ${on.has(m) ? "fill-white" : "fill-ink-soft"}`}>
+            <text
+              x={x.get(m)! + WHITE_W / 2 + 0.5}
+              y={WHITE_H - 4}
+              textAnchor="middle"
+              className={`text-xs ${on.has(m) ? "fill-white" : "fill-ink-soft"}`}
+            >
               C{Math.floor(m / 12) - 1}
             </text>
           ) : null}
@@ -70,7 +83,14 @@ export function KeyboardPicker({
       ))}
       {blacks.map((m) => (
         <g key={m} {...keyProps(m)} data-midi={m}>
-          <rect x={x.get(m - 1)! + WHITE_W - BLACK_W / 2 + 0.5} y={0.5} width={BLACK_W} height={BLACK_H} rx={1.5} className={on.has(m) ? "fill-tide" : "fill-ink"} />
+          <rect
+            x={x.get(m - 1)! + WHITE_W - BLACK_W / 2 + 0.5}
+            y={0.5}
+            width={BLACK_W}
+            height={BLACK_H}
+            rx={1.5}
+            className={on.has(m) ? "fill-tide" : "fill-ink"}
+          />
         </g>
       ))}
     </svg>

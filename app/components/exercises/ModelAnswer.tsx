@@ -40,10 +40,17 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = 
     const first = picking && keyName === keys[0] ? picking : startForKey(start, home.tonic, here.tonic, chords[0]);
     const fits = fitsFirstChord(first, chords[0]);
     const options = { focus, key: here, teacherStart: fits && (picking !== null || !!start?.length) };
-    return { chords, path: modelPath(chords, fits ? first : startForKey(null, 0, 0, chords[0]), options), fits, key: here, first };
+    return {
+      chords,
+      path: modelPath(chords, fits ? first : startForKey(null, 0, 0, chords[0]), options),
+      fits,
+      key: here,
+      first,
+    };
   }, [valid, progression, keys, keyName, start, picking, focus]);
 
-  if (!result) return <p className="text-sm text-ink-soft">The progression cannot be read, so there is no model answer yet.</p>;
+  if (!result)
+    return <p className="text-sm text-ink-soft">The progression cannot be read, so there is no model answer yet.</p>;
   const { path, key, fits } = result;
   // One range for every chord of the path, whole octaves from C to B, so the cards line up.
   const all = path.steps.flatMap((s) => s.voicing);
@@ -78,14 +85,22 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = 
         {path.steps.map((s, i) => (
           <li key={i} className="rounded-md border border-line bg-white p-2 text-center text-sm">
             <div className="font-semibold">
-              {pretty(s.symbol)} {s.roman ? <span className="text-xs font-normal text-tide-dark">{pretty(s.roman)}</span> : null}
+              {pretty(s.symbol)}{" "}
+              {s.roman ? <span className="text-xs font-normal text-tide-dark">{pretty(s.roman)}</span> : null}
             </div>
             <div className="text-xs text-ink-soft">
               {s.grace != null ? <span title="grace note">({noteLabel(s.grace, key)}) </span> : null}
               {s.voicing.map((n) => noteLabel(n, key)).join(" ")}
             </div>
-            <KeyboardPicker notes={s.voicing} low={range.low} high={range.high} label={`${s.symbol}: ${s.voicing.map((n) => noteLabel(n, key)).join(", ")}`} />
-            <div className="text-xs text-ink-soft">{s.motion === null ? "start" : `moves ${s.motion} semitone${s.motion === 1 ? "" : "s"}`}</div>
+            <KeyboardPicker
+              notes={s.voicing}
+              low={range.low}
+              high={range.high}
+              label={`${s.symbol}: ${s.voicing.map((n) => noteLabel(n, key)).join(", ")}`}
+            />
+            <div className="text-xs text-ink-soft">
+              {s.motion === null ? "start" : `moves ${s.motion} semitone${s.motion === 1 ? "" : "s"}`}
+            </div>
           </li>
         ))}
       </ol>
@@ -105,9 +120,15 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = 
         </span>
         {synth.available ? (
           synth.playing === "path" ? (
-            <button type="button" className={buttonClass("secondary")} onClick={synth.stop}>Stop</button>
+            <button type="button" className={buttonClass("secondary")} onClick={synth.stop}>
+              Stop
+            </button>
           ) : (
-            <button type="button" className={buttonClass("secondary")} onClick={() => synth.play("path", pathPlan(path.steps, tempo))}>
+            <button
+              type="button"
+              className={buttonClass("secondary")}
+              onClick={() => synth.play("path", pathPlan(path.steps, tempo))}
+            >
               Play the smoothest path
             </button>
           )
@@ -118,15 +139,30 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = 
       {canEdit && keyName === keys[0] ? (
         <Form method="post" className="flex flex-col gap-2 rounded-md border border-dashed border-line p-3">
           <p className="text-sm">
-            <strong>Starting voicing.</strong> Press keys to choose how the first chord ({pretty(result.chords[0].symbol)}) is voiced; the path
-            follows from it in every key.
+            <strong>Starting voicing.</strong> Press keys to choose how the first chord (
+            {pretty(result.chords[0].symbol)}) is voiced; the path follows from it in every key.
           </p>
-          <KeyboardPicker notes={picking ?? result.first} low={48} high={83} label="Pick the starting voicing" onToggle={toggle} />
-          {!fits ? <p className="text-sm text-brick">Use exactly the tones of {pretty(result.chords[0].symbol)}{result.chords[0].bass !== null ? ", its bass lowest" : ""}.</p> : null}
+          <KeyboardPicker
+            notes={picking ?? result.first}
+            low={48}
+            high={83}
+            label="Pick the starting voicing"
+            onToggle={toggle}
+          />
+          {!fits ? (
+            <p className="text-sm text-brick">
+              Use exactly the tones of {pretty(result.chords[0].symbol)}
+              {result.chords[0].bass !== null ? ", its bass lowest" : ""}.
+            </p>
+          ) : null}
           <input type="hidden" name="intent" value="model-start" />
           <input type="hidden" name="notes" value={(picking ?? result.first).join(",")} />
           <div>
-            <Button variant="secondary" disabled={!fits || picking === null} pending={navigation.state === "submitting"}>
+            <Button
+              variant="secondary"
+              disabled={!fits || picking === null}
+              pending={navigation.state === "submitting"}
+            >
               Save starting voicing
             </Button>
           </div>
@@ -139,7 +175,11 @@ export function ModelAnswer({ progression, keys, start, tempo, canEdit, focus = 
             Model take: <strong>{modelTake.name}</strong>
           </span>
           {synth.available ? (
-            <button type="button" className={buttonClass("secondary")} onClick={() => (synth.playing === "take" ? synth.stop() : synth.play("take", takePlan(modelTake.notes)))}>
+            <button
+              type="button"
+              className={buttonClass("secondary")}
+              onClick={() => (synth.playing === "take" ? synth.stop() : synth.play("take", takePlan(modelTake.notes)))}
+            >
               {synth.playing === "take" ? "Stop" : "Play the model take"}
             </button>
           ) : null}

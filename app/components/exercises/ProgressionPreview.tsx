@@ -13,7 +13,10 @@ export function ProgressionPreview({ progression, keys }: { progression: string;
   const check = checkProgression(progression, keys);
   if (!check.ok) {
     return (
-      <p className="rounded-md border-l-4 border-brick bg-brick-pale px-3 py-2 text-sm text-brick" data-testid="progression-error">
+      <p
+        className="rounded-md border-l-4 border-brick bg-brick-pale px-3 py-2 text-sm text-brick"
+        data-testid="progression-error"
+      >
         {check.message}
       </p>
     );

@@ -34,14 +34,20 @@ export function StudentExerciseCard({ exercise: e }: Props) {
       <p className="mb-3 break-words font-mono text-sm text-ink-soft">{pretty(e.progression)}</p>
       <ul className="flex flex-wrap gap-2">
         {e.progress.map((p) => (
-          <li key={p.key} className={`flex items-center gap-2 rounded-md border px-3 py-1.5 text-sm ${p.takes.length ? "border-moss bg-moss-pale" : "border-line bg-white"}`}>
+          <li
+            key={p.key}
+            className={`flex items-center gap-2 rounded-md border px-3 py-1.5 text-sm ${p.takes.length ? "border-moss bg-moss-pale" : "border-line bg-white"}`}
+          >
             <span className="font-semibold">{pretty(p.key)}</span>
             {p.takes.length ? (
               <span>
                 {p.takes.length} take{p.takes.length === 1 ? "" : "s"} · best {p.best ?? "–"}
               </span>
             ) : (
-              <Link to={`/takes/new?exercise=${e.id}&key=${encodeURIComponent(p.key)}`} className="text-tide-dark underline-offset-2 hover:underline">
+              <Link
+                to={`/takes/new?exercise=${e.id}&key=${encodeURIComponent(p.key)}`}
+                className="text-tide-dark underline-offset-2 hover:underline"
+              >
                 Send a take<span className="sr-only"> in {pretty(p.key)}</span>
               </Link>
             )}

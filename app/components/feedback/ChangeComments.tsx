@@ -17,7 +17,12 @@ export function ChangeComments({
   const here = threads.filter((t) => t.changeIdx === changeIdx);
   if (!here.length && !canStart) return null;
   return (
-    <section id={`change-${changeIdx}`} aria-label={`Comments on change ${changeIdx + 1}`} className="mt-4 flex flex-col gap-3 border-t border-line pt-3" data-testid="change-comments">
+    <section
+      id={`change-${changeIdx}`}
+      aria-label={`Comments on change ${changeIdx + 1}`}
+      className="mt-4 flex flex-col gap-3 border-t border-line pt-3"
+      data-testid="change-comments"
+    >
       <h3 className="text-sm font-semibold">Comments on change {changeIdx + 1}</h3>
       {here.length ? (
         <ul className="flex flex-col gap-3">
@@ -26,7 +31,15 @@ export function ChangeComments({
           ))}
         </ul>
       ) : null}
-      {canStart ? <CommentComposer key={changeIdx} takeId={takeId} changeIdx={changeIdx} label={`Comment on change ${changeIdx + 1}`} submitLabel="Pin comment here" /> : null}
+      {canStart ? (
+        <CommentComposer
+          key={changeIdx}
+          takeId={takeId}
+          changeIdx={changeIdx}
+          label={`Comment on change ${changeIdx + 1}`}
+          submitLabel="Pin comment here"
+        />
+      ) : null}
     </section>
   );
 }

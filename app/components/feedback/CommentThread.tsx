@@ -67,10 +67,15 @@ export function CommentComposer({
 
 function OneComment({ c }: { c: CommentItem }) {
   return (
-    <div className={`rounded-md border-l-4 px-3 py-2 ${c.unread ? "border-ochre bg-ochre-pale" : "border-tide bg-tide-pale/60"}`} data-testid="comment">
+    <div
+      className={`rounded-md border-l-4 px-3 py-2 ${c.unread ? "border-ochre bg-ochre-pale" : "border-tide bg-tide-pale/60"}`}
+      data-testid="comment"
+    >
       <p className="text-xs text-ink-soft">
         <strong className="text-ink">{c.authorName}</strong> · {timeLabel(c.createdAt)}
-        {c.unread ? <span className="ml-2 rounded bg-ochre px-1.5 text-[10px] font-semibold uppercase text-white">new</span> : null}
+        {c.unread ? (
+          <span className="ml-2 rounded bg-ochre px-1.5 text-[10px] font-semibold uppercase text-white">new</span>
+        ) : null}
       </p>
       <p className="mt-1 whitespace-pre-line text-sm">{c.body}</p>
     </div>
@@ -78,7 +83,15 @@ function OneComment({ c }: { c: CommentItem }) {
 }
 
 /** A comment with its replies, and a reply box for whoever may reply. */
-export function CommentThread({ takeId, thread, canReply }: { takeId: string; thread: CommentItem; canReply: boolean }) {
+export function CommentThread({
+  takeId,
+  thread,
+  canReply,
+}: {
+  takeId: string;
+  thread: CommentItem;
+  canReply: boolean;
+}) {
   return (
     <li className="flex flex-col gap-2">
       <OneComment c={thread} />

@@ -7,7 +7,13 @@ import { mismatchWords, TECHNIQUE_WORDS } from "~/takes/takeWords";
  * was played (the time line under the roll marks the same places), and how often each
  * focus technique was used.
  */
-export function ExerciseGrading({ analysis, focusTechniques }: { analysis: Pick<TakeAnalysis, "chords" | "summary">; focusTechniques: string[] }) {
+export function ExerciseGrading({
+  analysis,
+  focusTechniques,
+}: {
+  analysis: Pick<TakeAnalysis, "chords" | "summary">;
+  focusTechniques: string[];
+}) {
   const { summary, chords } = analysis;
   if (summary.accuracy === undefined) return null;
   const mismatches = summary.mismatches ?? [];
@@ -15,7 +21,8 @@ export function ExerciseGrading({ analysis, focusTechniques }: { analysis: Pick<
     <div className="flex flex-col gap-4">
       <p className="text-sm">
         Accuracy <strong data-testid="grading-accuracy">{percent(summary.accuracy)}</strong> of the target
-        {summary.loops && summary.loops > 1 ? ` (played through ${summary.loops} times)` : ""} · {mismatches.length} difference
+        {summary.loops && summary.loops > 1 ? ` (played through ${summary.loops} times)` : ""} · {mismatches.length}{" "}
+        difference
         {mismatches.length === 1 ? "" : "s"}
       </p>
       {mismatches.length ? (
@@ -34,7 +41,10 @@ export function ExerciseGrading({ analysis, focusTechniques }: { analysis: Pick<
               const words = TECHNIQUE_WORDS[t as TechniqueName]?.label ?? t;
               const text = t === "smooth-top-line" ? (n ? "yes" : "not yet") : `${n} of ${chords.length} chords`;
               return (
-                <li key={t} className={`rounded-md border px-2 py-1 ${n ? "border-moss bg-moss-pale" : "border-line bg-white"}`}>
+                <li
+                  key={t}
+                  className={`rounded-md border px-2 py-1 ${n ? "border-moss bg-moss-pale" : "border-line bg-white"}`}
+                >
                   {words}: <strong>{text}</strong>
                 </li>
               );

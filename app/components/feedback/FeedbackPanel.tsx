@@ -17,7 +17,9 @@ export function FeedbackPanel({
   return (
     <div id="feedback" className="flex flex-col gap-4">
       {whole.length === 0 ? (
-        <p className="text-sm text-ink-soft">{canStart ? "No comments on the whole take yet." : "Your teacher has not commented on the whole take yet."}</p>
+        <p className="text-sm text-ink-soft">
+          {canStart ? "No comments on the whole take yet." : "Your teacher has not commented on the whole take yet."}
+        </p>
       ) : (
         <ul className="flex flex-col gap-4">
           {whole.map((t) => (
@@ -39,7 +41,9 @@ export function FeedbackPanel({
           . Pick the change to read them beside it.
         </p>
       ) : null}
-      {canStart ? <CommentComposer takeId={takeId} label="Comment on the whole take" submitLabel="Post comment" /> : null}
+      {canStart ? (
+        <CommentComposer takeId={takeId} label="Comment on the whole take" submitLabel="Post comment" />
+      ) : null}
     </div>
   );
 }

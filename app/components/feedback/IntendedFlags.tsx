@@ -7,7 +7,14 @@ import { Button } from "~/components/Button";
 import { FLAG_TITLES } from "~/takes/explainFlags";
 import { pretty } from "~/utils/noteText";
 
-export type IntendedItem = { id: string; on: "chord" | "change"; idx: number; flag: string; reason: string; byName: string | null };
+export type IntendedItem = {
+  id: string;
+  on: "chord" | "change";
+  idx: number;
+  flag: string;
+  reason: string;
+  byName: string | null;
+};
 
 type FlagSpot = { on: "chord" | "change"; idx: number; flag: string; where: string };
 
@@ -16,7 +23,8 @@ export function flagSpots(analysis: Pick<TakeAnalysis, "chords" | "changes">): F
   const name = (i: number) => pretty(analysis.chords[i]?.symbol ?? (analysis.chords[i]?.noteNames.join(" ") || "?"));
   const spots: FlagSpot[] = [];
   analysis.changes.forEach((c, i) => {
-    for (const f of c.flags) spots.push({ on: "change", idx: i, flag: f, where: `Change ${i + 1}: ${name(c.from)} → ${name(c.to)}` });
+    for (const f of c.flags)
+      spots.push({ on: "change", idx: i, flag: f, where: `Change ${i + 1}: ${name(c.from)} → ${name(c.to)}` });
   });
   analysis.chords.forEach((c, i) => {
     for (const f of c.flags) spots.push({ on: "chord", idx: i, flag: f, where: `Chord ${i + 1}: ${name(i)}` });
@@ -24,7 +32,17 @@ export function flagSpots(analysis: Pick<TakeAnalysis, "chords" | "changes">): F
   return spots;
 }
 
-function IntendToggle({ takeId, spot, mark, asTeacher }: { takeId: string; spot: FlagSpot; mark: IntendedItem | undefined; asTeacher: boolean }) {
+function IntendToggle({
+  takeId,
+  spot,
+  mark,
+  asTeacher,
+}: {
+  takeId: string;
+  spot: FlagSpot;
+  mark: IntendedItem | undefined;
+  asTeacher: boolean;
+}) {
   const fetcher = useFetcher<typeof feedbackAction>();
   const error = failureMessage(failureOf(fetcher.data));
   if (mark) {
@@ -37,7 +55,9 @@ function IntendToggle({ takeId, spot, mark, asTeacher }: { takeId: string; spot:
           <fetcher.Form method="post" action={`/takes/${takeId}/feedback`}>
             <input type="hidden" name="intent" value="unintend" />
             <input type="hidden" name="markId" value={mark.id} />
-            <Button variant="quiet" pending={fetcher.state !== "idle"}>Count it again</Button>
+            <Button variant="quiet" pending={fetcher.state !== "idle"}>
+              Count it again
+            </Button>
           </fetcher.Form>
         ) : null}
       </div>
@@ -52,10 +72,22 @@ function IntendToggle({ takeId, spot, mark, asTeacher }: { takeId: string; spot:
       <input type="hidden" name="flag" value={spot.flag} />
       <label className="flex flex-col gap-1 text-xs">
         <span className="sr-only">Why it was intended</span>
-        <input name="reason" required maxLength={300} placeholder="Why, e.g. I asked for this leap" className="w-64 rounded-md border border-line bg-white px-2 py-1 text-sm" />
+        <input
+          name="reason"
+          required
+          maxLength={300}
+          placeholder="Why, e.g. I asked for this leap"
+          className="w-64 rounded-md border border-line bg-white px-2 py-1 text-sm"
+        />
       </label>
-      <Button variant="secondary" pending={fetcher.state !== "idle"}>I asked for this</Button>
-      {error ? <span role="alert" className="text-sm text-brick">{error}</span> : null}
+      <Button variant="secondary" pending={fetcher.state !== "idle"}>
+        I asked for this
+      </Button>
+      {error ? (
+        <span role="alert" className="text-sm text-brick">
+          {error}
+        </span>
+      ) : null}
     </fetcher.Form>
   );
 }

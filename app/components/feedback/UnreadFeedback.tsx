@@ -19,7 +19,10 @@ export function UnreadFeedback({ items }: { items: UnreadItem[] }) {
       <ul className="flex flex-col gap-3">
         {items.map((i) => (
           <li key={i.takeId} className="text-sm">
-            <Link to={`/takes/${i.takeId}${i.latest.changeIdx === null ? "#feedback" : `#change-${i.latest.changeIdx}`}`} className="font-semibold text-tide-dark hover:underline">
+            <Link
+              to={`/takes/${i.takeId}${i.latest.changeIdx === null ? "#feedback" : `#change-${i.latest.changeIdx}`}`}
+              className="font-semibold text-tide-dark hover:underline"
+            >
               {i.exerciseTitle ?? "Free practice"} · {dayLabel(i.recordedAt)}
             </Link>
             <span className="ml-2 rounded bg-ochre-pale px-1.5 text-xs">{i.count} new</span>

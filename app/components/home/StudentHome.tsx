@@ -41,12 +41,17 @@ function ExerciseItem({ exercise }: { exercise: DueExercise }) {
         </p>
         <p className="mt-1 flex flex-wrap items-center gap-2 text-sm">
           <ExerciseStateBadge state={exercise.state} />
-          {exercise.dueDate ? <span className="whitespace-nowrap text-ink-soft">{dayLabel(`${exercise.dueDate}T12:00:00Z`)}</span> : null}
+          {exercise.dueDate ? (
+            <span className="whitespace-nowrap text-ink-soft">{dayLabel(`${exercise.dueDate}T12:00:00Z`)}</span>
+          ) : null}
           {done ? null : <span className="text-ink-soft">{exercise.state.detail}</span>}
         </p>
       </div>
       {done ? null : (
-        <ButtonLink to={`/takes/new?exercise=${exercise.id}${key ? `&key=${encodeURIComponent(key)}` : ""}`} variant="secondary">
+        <ButtonLink
+          to={`/takes/new?exercise=${exercise.id}${key ? `&key=${encodeURIComponent(key)}` : ""}`}
+          variant="secondary"
+        >
           Send a take<span className="sr-only"> of {exercise.title}</span>
         </ButtonLink>
       )}
@@ -78,7 +83,9 @@ export function StudentHome({
           </p>
         ) : (
           <>
-            {toDo.length === 0 ? <p className="text-sm text-ink-soft">Nothing to do: every exercise has a take in each of its keys.</p> : null}
+            {toDo.length === 0 ? (
+              <p className="text-sm text-ink-soft">Nothing to do: every exercise has a take in each of its keys.</p>
+            ) : null}
             <ul className="divide-y divide-line">
               {toDo.map((e) => (
                 <ExerciseItem key={e.id} exercise={e} />
@@ -100,7 +107,9 @@ export function StudentHome({
 
       <Card title="Week by week">
         {weeks.length === 0 ? (
-          <p className="text-sm text-ink-soft">Your smoothness and score appear here by week once a take is analysed.</p>
+          <p className="text-sm text-ink-soft">
+            Your smoothness and score appear here by week once a take is analysed.
+          </p>
         ) : (
           <WeeklyChart weeks={weeks} />
         )}
@@ -115,8 +124,8 @@ export function StudentHome({
       <Card title="Latest takes">
         {takes.length === 0 ? (
           <EmptyState title="No takes yet" action={<ButtonLink to="/takes/new">Upload your first take</ButtonLink>}>
-            Record a few passes of your exercise as MIDI and upload them: Nearnote goes through every chord change and shows what could move
-            less.
+            Record a few passes of your exercise as MIDI and upload them: Nearnote goes through every chord change and
+            shows what could move less.
           </EmptyState>
         ) : (
           <TakesTable takes={takes} />

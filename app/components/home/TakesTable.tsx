@@ -39,7 +39,10 @@ const columns = column.columns([
     header: "Date",
     sortFn: "basic",
     cell: (info) => (
-      <Link to={`/takes/${info.row.original.id}`} className="whitespace-nowrap font-semibold text-tide-dark underline-offset-4 hover:underline">
+      <Link
+        to={`/takes/${info.row.original.id}`}
+        className="whitespace-nowrap font-semibold text-tide-dark underline-offset-4 hover:underline"
+      >
         {dayLabel(info.getValue())}
       </Link>
     ),
@@ -55,7 +58,12 @@ const columns = column.columns([
       </>
     ),
   }),
-  column.accessor((r) => r.chordCount ?? undefined, { id: "chords", header: "Chords", ...figure, cell: (info) => info.getValue() ?? "–" }),
+  column.accessor((r) => r.chordCount ?? undefined, {
+    id: "chords",
+    header: "Chords",
+    ...figure,
+    cell: (info) => info.getValue() ?? "–",
+  }),
   column.accessor((r) => r.smoothness ?? undefined, {
     id: "smoothness",
     header: "Smoothness",

@@ -16,7 +16,10 @@ export function weekLabel(key: string): string {
   }
 }
 
-const shortWeek = (key: string) => weekLabel(key).replace(/^Week of /, "").replace(/ \d{4}$/, "");
+const shortWeek = (key: string) =>
+  weekLabel(key)
+    .replace(/^Week of /, "")
+    .replace(/ \d{4}$/, "");
 
 /**
  * Smoothness and score by week, both on a 0–100 scale. Recharts draws in the browser
@@ -39,7 +42,9 @@ export function WeeklyChart({ weeks }: { weeks: WeekFigures[] }) {
     <div className="flex flex-col gap-3">
       <div className="h-64 w-full" role="img" aria-label={`Chart of smoothness and score by week. ${summary}`}>
         {mounted ? (
-          <Suspense fallback={<p className="flex h-full items-center justify-center text-sm text-ink-soft">{summary}</p>}>
+          <Suspense
+            fallback={<p className="flex h-full items-center justify-center text-sm text-ink-soft">{summary}</p>}
+          >
             <WeeklyLines points={points} />
           </Suspense>
         ) : (
@@ -52,16 +57,26 @@ export function WeeklyChart({ weeks }: { weeks: WeekFigures[] }) {
           <caption className="sr-only">Smoothness and score by week</caption>
           <thead className="text-xs uppercase tracking-wide text-ink-soft">
             <tr>
-              <th scope="col" className="py-1">Week</th>
-              <th scope="col" className="py-1 text-right">Takes</th>
-              <th scope="col" className="py-1 text-right">Smoothness</th>
-              <th scope="col" className="py-1 text-right">Average score</th>
+              <th scope="col" className="py-1">
+                Week
+              </th>
+              <th scope="col" className="py-1 text-right">
+                Takes
+              </th>
+              <th scope="col" className="py-1 text-right">
+                Smoothness
+              </th>
+              <th scope="col" className="py-1 text-right">
+                Average score
+              </th>
             </tr>
           </thead>
           <tbody className="divide-y divide-line">
             {weeks.map((w, i) => (
               <tr key={w.week}>
-                <th scope="row" className="py-1 font-normal">{weekLabel(w.week)}</th>
+                <th scope="row" className="py-1 font-normal">
+                  {weekLabel(w.week)}
+                </th>
                 <td className="py-1 text-right tabular-nums">{w.takes}</td>
                 <td className="py-1 text-right tabular-nums">{points[i].smoothness ?? "–"}%</td>
                 <td className="py-1 text-right tabular-nums">{points[i].score ?? "–"}</td>

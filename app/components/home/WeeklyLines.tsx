@@ -10,10 +10,28 @@ export default function WeeklyLines({ points }: { points: WeekPoint[] }) {
         <CartesianGrid stroke="var(--color-line)" strokeDasharray="3 3" />
         <XAxis dataKey="week" tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
         <YAxis domain={[0, 100]} tick={{ fill: "var(--color-ink-soft)", fontSize: 12 }} />
-        <Tooltip contentStyle={{ background: "var(--color-card)", border: "1px solid var(--color-line)", borderRadius: 6 }} />
+        <Tooltip
+          contentStyle={{ background: "var(--color-card)", border: "1px solid var(--color-line)", borderRadius: 6 }}
+        />
         <Legend />
-        <Line type="monotone" dataKey="smoothness" name="Smoothness %" stroke="var(--color-tide)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
-        <Line type="monotone" dataKey="score" name="Average score" stroke="var(--color-ochre)" strokeWidth={2.5} connectNulls isAnimationActive={false} />
+        <Line
+          type="monotone"
+          dataKey="smoothness"
+          name="Smoothness %"
+          stroke="var(--color-tide)"
+          strokeWidth={2.5}
+          connectNulls
+          isAnimationActive={false}
+        />
+        <Line
+          type="monotone"
+          dataKey="score"
+          name="Average score"
+          stroke="var(--color-ochre)"
+          strokeWidth={2.5}
+          connectNulls
+          isAnimationActive={false}
+        />
       </LineChart>
     </ResponsiveContainer>
   );

@@ -19,4 +19,3 @@ describe("student home wording", () => {
     expect(weekLabel("nonsense")).toBe("nonsense");
   });
 });
-

@@ -22,13 +22,23 @@ function FileUploadHint({ uploadHref }: { uploadHref: string }) {
 }
 
 /** What stands between the student and recording: no Web MIDI, no permission, no keyboard. */
-export function AccessMessage({ status, message, uploadHref, onConnect }: { status: AccessStatus; message: string | null; uploadHref: string; onConnect: () => void }) {
+export function AccessMessage({
+  status,
+  message,
+  uploadHref,
+  onConnect,
+}: {
+  status: AccessStatus;
+  message: string | null;
+  uploadHref: string;
+  onConnect: () => void;
+}) {
   if (status === "checking") return <p className="text-sm text-ink-soft">Looking for MIDI support…</p>;
   if (status === "missing") {
     return (
       <FlashMessage tone="info">
-        <strong>This browser cannot record from a MIDI keyboard.</strong> Recording here needs the Web MIDI API, found in Chrome,
-        Edge and other Chromium-based browsers. <FileUploadHint uploadHref={uploadHref} />
+        <strong>This browser cannot record from a MIDI keyboard.</strong> Recording here needs the Web MIDI API, found
+        in Chrome, Edge and other Chromium-based browsers. <FileUploadHint uploadHref={uploadHref} />
       </FlashMessage>
     );
   }
@@ -36,7 +46,9 @@ export function AccessMessage({ status, message, uploadHref, onConnect }: { stat
     return (
       <FlashMessage tone="error">
         <strong>{message ?? "MIDI devices could not be opened."}</strong>{" "}
-        {status === "refused" ? "Allow MIDI devices for this site in the browser's site settings, then reload the page. " : "Reload the page to try again. "}
+        {status === "refused"
+          ? "Allow MIDI devices for this site in the browser's site settings, then reload the page. "
+          : "Reload the page to try again. "}
         <FileUploadHint uploadHref={uploadHref} />
       </FlashMessage>
     );
@@ -47,7 +59,9 @@ export function AccessMessage({ status, message, uploadHref, onConnect }: { stat
         <Button type="button" onClick={onConnect} pending={status === "connecting"} pendingLabel="Connecting…">
           Connect keyboard
         </Button>
-        <p className="text-sm text-ink-soft">Plug your keyboard in by USB first. The browser asks once whether Nearnote may use MIDI devices.</p>
+        <p className="text-sm text-ink-soft">
+          Plug your keyboard in by USB first. The browser asks once whether Nearnote may use MIDI devices.
+        </p>
       </div>
     );
   }

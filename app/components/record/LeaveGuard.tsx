@@ -7,7 +7,9 @@ import { Button } from "~/components/Button";
  * tabs and typed addresses (`beforeunload`), and our dialog for links inside Nearnote.
  */
 export function LeaveGuard({ when, what }: { when: boolean; what: "recording" | "unsent" }) {
-  const blocker = useBlocker(({ currentLocation, nextLocation }) => when && currentLocation.pathname !== nextLocation.pathname);
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) => when && currentLocation.pathname !== nextLocation.pathname,
+  );
 
   useEffect(() => {
     if (!when) return;

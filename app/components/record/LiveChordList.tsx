@@ -13,12 +13,20 @@ function symbolOf(c: ChordReport): string {
 
 /** "moved 15 · best 3", in the words the take page uses. */
 function Motion({ change }: { change: ChangeReport }) {
-  if (!change.graded || change.motion === null || change.bestMotion === null) return <span className="text-ink-soft">not graded</span>;
+  if (!change.graded || change.motion === null || change.bestMotion === null)
+    return <span className="text-ink-soft">not graded</span>;
   const spare = change.motion - change.bestMotion;
   return (
     <span data-testid="live-change-motion" data-motion={change.motion} data-best={change.bestMotion}>
       moved <strong>{change.motion}</strong> · best <strong>{change.bestMotion}</strong>
-      {spare > 0 ? <span className="text-ochre"> · {spare} semitone{spare === 1 ? "" : "s"} more than needed</span> : <span className="text-moss"> · as smooth as it gets</span>}
+      {spare > 0 ? (
+        <span className="text-ochre">
+          {" "}
+          · {spare} semitone{spare === 1 ? "" : "s"} more than needed
+        </span>
+      ) : (
+        <span className="text-moss"> · as smooth as it gets</span>
+      )}
     </span>
   );
 }
@@ -37,8 +45,13 @@ export function LiveChordList({ grade, recording }: { grade: LiveGrade | null; r
 
   if (!grade || count === 0) {
     return (
-      <p className="rounded-md border border-dashed border-line bg-paper px-4 py-6 text-center text-sm text-ink-soft" data-testid="live-empty">
-        {recording ? "Listening… chords appear here as you play them." : "Chords and changes appear here while you record."}
+      <p
+        className="rounded-md border border-dashed border-line bg-paper px-4 py-6 text-center text-sm text-ink-soft"
+        data-testid="live-empty"
+      >
+        {recording
+          ? "Listening… chords appear here as you play them."
+          : "Chords and changes appear here while you record."}
       </p>
     );
   }
@@ -52,7 +65,12 @@ export function LiveChordList({ grade, recording }: { grade: LiveGrade | null; r
         {first > 0 ? ` · showing the latest ${LIVE_ROWS}` : ""}
       </p>
       {/* Focusable, so the list scrolls from the keyboard too. */}
-      <ol ref={list} aria-label="Chords as played" tabIndex={0} className="flex max-h-80 flex-col gap-1.5 overflow-y-auto pr-1">
+      <ol
+        ref={list}
+        aria-label="Chords as played"
+        tabIndex={0}
+        className="flex max-h-80 flex-col gap-1.5 overflow-y-auto pr-1"
+      >
         {grade.chords.slice(first).map((chord, i) => {
           const k = first + i;
           const settled = k < grade.settled;
@@ -64,7 +82,11 @@ export function LiveChordList({ grade, recording }: { grade: LiveGrade | null; r
               data-testid="live-chord"
               data-settled={settled ? "yes" : "no"}
               className={`grid grid-cols-[2.5rem_minmax(6rem,auto)_1fr] items-baseline gap-x-3 rounded-md border px-3 py-2 text-sm ${
-                settled ? (flags.length ? "border-line bg-brick-pale/40" : "border-line bg-card") : "border-dashed border-line bg-paper text-ink-soft"
+                settled
+                  ? flags.length
+                    ? "border-line bg-brick-pale/40"
+                    : "border-line bg-card"
+                  : "border-dashed border-line bg-paper text-ink-soft"
               }`}
             >
               <span className="text-xs text-ink-soft">{k + 1}</span>
@@ -75,9 +97,17 @@ export function LiveChordList({ grade, recording }: { grade: LiveGrade | null; r
                 {chord.roman ? <span className="ml-2 text-tide-dark">{pretty(chord.roman)}</span> : null}
               </span>
               <span className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
-                {change ? <Motion change={change} /> : <span className="text-ink-soft">{k === 0 ? "first chord" : ""}</span>}
+                {change ? (
+                  <Motion change={change} />
+                ) : (
+                  <span className="text-ink-soft">{k === 0 ? "first chord" : ""}</span>
+                )}
                 {flags.map((f) => (
-                  <span key={f} data-testid="live-flag" className="rounded bg-brick px-1.5 py-0.5 text-xs font-semibold text-white">
+                  <span
+                    key={f}
+                    data-testid="live-flag"
+                    className="rounded bg-brick px-1.5 py-0.5 text-xs font-semibold text-white"
+                  >
                     {FLAG_TITLES[f]}
                   </span>
                 ))}

@@ -46,10 +46,21 @@ function formFields(el: HTMLElement | null): TakeFields {
  * Record a take from a MIDI keyboard, graded chord by chord while playing, then play it back,
  * discard it or upload it as a Standard MIDI File through the same API as a file upload.
  */
-export default function RecordPanelContent({ exerciseId, exerciseKey, exerciseKeys, tempo, onUploaded, uploadHref = "/takes/new" }: RecordPanelProps) {
+export default function RecordPanelContent({
+  exerciseId,
+  exerciseKey,
+  exerciseKeys,
+  tempo,
+  onUploaded,
+  uploadHref = "/takes/new",
+}: RecordPanelProps) {
   const root = useRef<HTMLDivElement>(null);
   const [chosenKey, setChosenKey] = useState<string | undefined>(exerciseKey ?? exerciseKeys?.[0]);
-  const [settings, setSettings] = useState<TransportSettings>({ countIn: true, clicks: false, bpm: clampBpm(tempo ?? DEFAULT_RECORD_BPM) });
+  const [settings, setSettings] = useState<TransportSettings>({
+    countIn: true,
+    clicks: false,
+    bpm: clampBpm(tempo ?? DEFAULT_RECORD_BPM),
+  });
   const [keyName, setKeyName] = useState<string | undefined>(exerciseKey);
   const recording = useRecording({ keyName, bpm: settings.bpm, countIn: settings.countIn, clicks: settings.clicks });
   const midi = useMidiInput(recording.onEvent);
@@ -101,7 +112,12 @@ export default function RecordPanelContent({ exerciseId, exerciseKey, exerciseKe
     <div ref={root}>
       <Card title="Record from your keyboard" data-testid="record-panel">
         <div className="flex flex-col gap-4">
-          <AccessMessage status={midi.status} message={midi.message} uploadHref={uploadHref} onConnect={() => void midi.connect()} />
+          <AccessMessage
+            status={midi.status}
+            message={midi.message}
+            uploadHref={uploadHref}
+            onConnect={() => void midi.connect()}
+          />
           {midi.status === "ready" ? (
             <>
               {exerciseKeys && exerciseKeys.length > 1 ? (
@@ -121,7 +137,13 @@ export default function RecordPanelContent({ exerciseId, exerciseKey, exerciseKe
                   </select>
                 </label>
               ) : null}
-              <InputAndKeys inputs={midi.inputs} inputId={midi.inputId} onChoose={midi.choose} held={recording.held} disabled={running} />
+              <InputAndKeys
+                inputs={midi.inputs}
+                inputId={midi.inputId}
+                onChoose={midi.choose}
+                held={recording.held}
+                disabled={running}
+              />
               <Transport
                 phase={phase}
                 settings={settings}
@@ -135,11 +157,14 @@ export default function RecordPanelContent({ exerciseId, exerciseKey, exerciseKe
             </>
           ) : null}
           {recording.notice ? <p className="text-sm text-ochre">{recording.notice}</p> : null}
-          {midi.status === "ready" || recording.live ? <LiveChordList grade={recording.live} recording={running} /> : null}
+          {midi.status === "ready" || recording.live ? (
+            <LiveChordList grade={recording.live} recording={running} />
+          ) : null}
           {phase === "stopped" && take ? (
             <div className="flex flex-col gap-3 rounded-md border border-line bg-paper p-3">
               <p className="text-sm">
-                <span className="font-semibold">{take.file.name}</span> · {clock(take.durationSec)} · {take.notes.length} notes
+                <span className="font-semibold">{take.file.name}</span> · {clock(take.durationSec)} ·{" "}
+                {take.notes.length} notes
               </p>
               <div className="flex flex-wrap items-center gap-3">
                 {playing ? (

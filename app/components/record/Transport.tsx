@@ -33,11 +33,21 @@ export function Transport({
       <fieldset className="flex flex-wrap items-center gap-x-5 gap-y-2 text-sm" disabled={locked}>
         <legend className="sr-only">Recording settings</legend>
         <label className="flex items-center gap-2">
-          <input type="checkbox" checked={settings.countIn} onChange={(e) => onSettings({ ...settings, countIn: e.target.checked })} className="h-4 w-4 accent-tide" />
+          <input
+            type="checkbox"
+            checked={settings.countIn}
+            onChange={(e) => onSettings({ ...settings, countIn: e.target.checked })}
+            className="h-4 w-4 accent-tide"
+          />
           Count in one bar
         </label>
         <label className="flex items-center gap-2">
-          <input type="checkbox" checked={settings.clicks} onChange={(e) => onSettings({ ...settings, clicks: e.target.checked })} className="h-4 w-4 accent-tide" />
+          <input
+            type="checkbox"
+            checked={settings.clicks}
+            onChange={(e) => onSettings({ ...settings, clicks: e.target.checked })}
+            className="h-4 w-4 accent-tide"
+          />
           Metronome while recording
         </label>
         <span className="flex items-center gap-2">

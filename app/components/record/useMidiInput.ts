@@ -78,7 +78,9 @@ export function useMidiInput(onEvent: (event: PlayedEvent, timeMs: number) => vo
     if (status !== "ready" || !access.current) return;
     return watchInputs(access.current, (list) => {
       setInputs(list);
-      setInputId((current) => (current && list.some((i) => i.id === current) ? current : pickInput(list, rememberedInput())));
+      setInputId((current) =>
+        current && list.some((i) => i.id === current) ? current : pickInput(list, rememberedInput()),
+      );
     });
   }, [status]);
 

@@ -24,7 +24,14 @@ function gradeFile(bytes: Uint8Array, key: string | undefined, fallback: LiveGra
   // shows is what the server will store (given the same key).
   try {
     const a = analyseMidi(bytes, { key });
-    return { chords: a.chords, settled: a.chords.length, changes: a.changes, key: a.summary.key, keySource: a.summary.keySource, noteCount: fallback.noteCount };
+    return {
+      chords: a.chords,
+      settled: a.chords.length,
+      changes: a.changes,
+      key: a.summary.key,
+      keySource: a.summary.keySource,
+      noteCount: fallback.noteCount,
+    };
   } catch {
     return fallback;
   }
@@ -97,10 +104,13 @@ export function useRecording(options: { keyName?: string; bpm: number; countIn: 
     recorder.current = new NoteRecorder(downbeatMs);
     startedAt.current = new Date(Date.now() + Math.max(0, downbeatMs - performance.now()));
     if (beats > 0) {
-      window.setTimeout(() => {
-        if (phaseRef.current === "counting") go("recording");
-        setCountBeat(null);
-      }, Math.max(0, downbeatMs - performance.now()));
+      window.setTimeout(
+        () => {
+          if (phaseRef.current === "counting") go("recording");
+          setCountBeat(null);
+        },
+        Math.max(0, downbeatMs - performance.now()),
+      );
     }
   }, []);
 

@@ -28,7 +28,15 @@ function IntentForm({ intent, children }: { intent: string; children: ReactNode 
   );
 }
 
-export function AccountSections({ account, failure, pendingIntent }: { account: Account; failure: FormFailure | null; pendingIntent: string | null }) {
+export function AccountSections({
+  account,
+  failure,
+  pendingIntent,
+}: {
+  account: Account;
+  failure: FormFailure | null;
+  pendingIntent: string | null;
+}) {
   const f = (intent: string) => (failure?.intent === intent ? failure : null);
   const err = (intent: string, field: string) => f(intent)?.fieldErrors?.[field];
   const val = (intent: string, field: string, fallback: string) => f(intent)?.values?.[field] ?? fallback;
@@ -37,8 +45,18 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
     <div className="grid gap-6 md:grid-cols-2">
       <Card title="Name">
         <IntentForm intent="profile">
-          <Field label="Your name" name="name" autoComplete="name" defaultValue={val("profile", "name", account.name)} error={err("profile", "name")} />
-          <div><Button pending={pending("profile")} pendingLabel="Saving…">Save name</Button></div>
+          <Field
+            label="Your name"
+            name="name"
+            autoComplete="name"
+            defaultValue={val("profile", "name", account.name)}
+            error={err("profile", "name")}
+          />
+          <div>
+            <Button pending={pending("profile")} pendingLabel="Saving…">
+              Save name
+            </Button>
+          </div>
         </IntentForm>
       </Card>
 
@@ -47,34 +65,82 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
           {!account.emailVerified ? (
             <FlashMessage tone="info">
               {account.email} is not confirmed yet.{" "}
-              <button type="submit" formAction="/verify" className="underline">Send a new link</button>
+              <button type="submit" formAction="/verify" className="underline">
+                Send a new link
+              </button>
             </FlashMessage>
           ) : null}
-          <Field label="E-mail" name="email" type="email" autoComplete="email" defaultValue={val("email", "email", account.email)} error={err("email", "email")} />
-          <Field label="Current password" name="currentPassword" type="password" autoComplete="current-password" error={err("email", "currentPassword")} />
-          <div><Button pending={pending("email")} pendingLabel="Saving…">Change e-mail</Button></div>
+          <Field
+            label="E-mail"
+            name="email"
+            type="email"
+            autoComplete="email"
+            defaultValue={val("email", "email", account.email)}
+            error={err("email", "email")}
+          />
+          <Field
+            label="Current password"
+            name="currentPassword"
+            type="password"
+            autoComplete="current-password"
+            error={err("email", "currentPassword")}
+          />
+          <div>
+            <Button pending={pending("email")} pendingLabel="Saving…">
+              Change e-mail
+            </Button>
+          </div>
         </IntentForm>
       </Card>
 
       <Card title="Password">
         <IntentForm intent="password">
-          <Field label="Current password" name="currentPassword" type="password" autoComplete="current-password" error={err("password", "currentPassword")} />
-          <Field label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters. Changing it signs you out everywhere else." error={err("password", "password")} />
-          <Field label="The same again" name="confirm" type="password" autoComplete="new-password" error={err("password", "confirm")} />
-          <div><Button pending={pending("password")} pendingLabel="Saving…">Change password</Button></div>
+          <Field
+            label="Current password"
+            name="currentPassword"
+            type="password"
+            autoComplete="current-password"
+            error={err("password", "currentPassword")}
+          />
+          <Field
+            label="New password"
+            name="password"
+            type="password"
+            autoComplete="new-password"
+            hint="At least 10 characters. Changing it signs you out everywhere else."
+            error={err("password", "password")}
+          />
+          <Field
+            label="The same again"
+            name="confirm"
+            type="password"
+            autoComplete="new-password"
+            error={err("password", "confirm")}
+          />
+          <div>
+            <Button pending={pending("password")} pendingLabel="Saving…">
+              Change password
+            </Button>
+          </div>
         </IntentForm>
       </Card>
 
       <Card title="Mail">
         <IntentForm intent="prefs">
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" name="mailOnFeedback" defaultChecked={account.mailOnFeedback} /> Mail me about new comments on takes
+            <input type="checkbox" name="mailOnFeedback" defaultChecked={account.mailOnFeedback} /> Mail me about new
+            comments on takes
           </label>
           <label className="flex items-center gap-2 text-sm">
-            <input type="checkbox" name="mailDigest" defaultChecked={account.mailDigest} /> The daily digest of new takes (teachers) and due-date reminders (students)
+            <input type="checkbox" name="mailDigest" defaultChecked={account.mailDigest} /> The daily digest of new
+            takes (teachers) and due-date reminders (students)
           </label>
           <p className="text-xs text-ink-soft">Invitations, confirmations and password links are always sent.</p>
-          <div><Button pending={pending("prefs")} pendingLabel="Saving…">Save preferences</Button></div>
+          <div>
+            <Button pending={pending("prefs")} pendingLabel="Saving…">
+              Save preferences
+            </Button>
+          </div>
         </IntentForm>
       </Card>
 
@@ -103,24 +169,47 @@ export function AccountSections({ account, failure, pendingIntent }: { account: 
 
       <Card title="Your data">
         <p className="text-sm text-ink-soft">
-          A ZIP with every take you uploaded (MIDI files) and a JSON file with everything else we store about you. See the{" "}
-          <Link to="/privacy" className="text-tide-dark underline">privacy page</Link>.
+          A ZIP with every take you uploaded (MIDI files) and a JSON file with everything else we store about you. See
+          the{" "}
+          <Link to="/privacy" className="text-tide-dark underline">
+            privacy page
+          </Link>
+          .
         </p>
-        <a href="/api/me/export" className="mt-3 inline-block font-semibold text-tide-dark underline">Download my data</a>
+        <a href="/api/me/export" className="mt-3 inline-block font-semibold text-tide-dark underline">
+          Download my data
+        </a>
       </Card>
 
       <Card title="Delete my account" className="md:col-span-2">
         <IntentForm intent="delete-account">
-          {f("delete-account")?.formError ? <FlashMessage tone="error">{f("delete-account")!.formError}</FlashMessage> : null}
+          {f("delete-account")?.formError ? (
+            <FlashMessage tone="error">{f("delete-account")!.formError}</FlashMessage>
+          ) : null}
           <p className="text-sm text-ink-soft">
-            This removes your takes, their files and your personal data for good. Download your data first if you want to keep it.
+            This removes your takes, their files and your personal data for good. Download your data first if you want
+            to keep it.
           </p>
-          <Field label="Current password" name="currentPassword" type="password" autoComplete="current-password" error={err("delete-account", "currentPassword")} />
+          <Field
+            label="Current password"
+            name="currentPassword"
+            type="password"
+            autoComplete="current-password"
+            error={err("delete-account", "currentPassword")}
+          />
           <label className="flex items-start gap-2 text-sm">
             <input type="checkbox" name="confirm" value="yes" /> <span>I understand this cannot be undone.</span>
           </label>
-          {err("delete-account", "confirm") ? <p role="alert" className="text-sm text-brick">{err("delete-account", "confirm")}</p> : null}
-          <div><Button variant="danger" pending={pending("delete-account")} pendingLabel="Deleting…">Delete my account</Button></div>
+          {err("delete-account", "confirm") ? (
+            <p role="alert" className="text-sm text-brick">
+              {err("delete-account", "confirm")}
+            </p>
+          ) : null}
+          <div>
+            <Button variant="danger" pending={pending("delete-account")} pendingLabel="Deleting…">
+              Delete my account
+            </Button>
+          </div>
         </IntentForm>
       </Card>
     </div>

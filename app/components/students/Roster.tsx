@@ -6,7 +6,6 @@ import type { FormFailure } from "~/forms/failure";
 
 // Pieces of the /students page, kept apart so the route module stays readable.
 
-
 export function InviteForm({
   isOwner,
   emailVerified,

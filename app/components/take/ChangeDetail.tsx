@@ -37,7 +37,11 @@ export function ChangeDetail({
   if (!from || !to) return null;
   // Without suggestions a change that still moved more than its best shows the best voicing (rule 8).
   const suggestions: Suggestion[] =
-    change.suggestions.length === 0 && change.bestVoicing && change.motion !== null && change.bestMotion !== null && change.bestMotion < change.motion
+    change.suggestions.length === 0 &&
+    change.bestVoicing &&
+    change.motion !== null &&
+    change.bestMotion !== null &&
+    change.bestMotion < change.motion
       ? [{ kind: "smoothest", voicing: change.bestVoicing, noteNames: [], motion: change.bestMotion }]
       : change.suggestions;
   const all = [...from.notes, ...to.notes, ...suggestions.flatMap((s) => s.voicing)];
@@ -61,9 +65,22 @@ export function ChangeDetail({
           <figcaption className="text-sm">
             <strong>As played</strong>, moves {change.motion ?? "–"}
           </figcaption>
-          <VoiceLeadingDrawing from={from.notes} to={to.notes} fromName={fromName} toName={toName} keyInfo={keyInfo} range={range} label={`Change ${index + 1} as played`} />
+          <VoiceLeadingDrawing
+            from={from.notes}
+            to={to.notes}
+            fromName={fromName}
+            toName={toName}
+            keyInfo={keyInfo}
+            range={range}
+            label={`Change ${index + 1} as played`}
+          />
           {canPlay ? (
-            <Button type="button" variant="secondary" className="self-start" onClick={() => onPlay(pairPlan(from.notes, to.notes), `change ${index + 1} as played`)}>
+            <Button
+              type="button"
+              variant="secondary"
+              className="self-start"
+              onClick={() => onPlay(pairPlan(from.notes, to.notes), `change ${index + 1} as played`)}
+            >
               Play as played
             </Button>
           ) : null}
@@ -73,9 +90,24 @@ export function ChangeDetail({
             <figcaption className="text-sm">
               <strong>{SUGGESTION_WORDS[s.kind]}:</strong> {voicingLabel(s.voicing, keyInfo)}, moves {s.motion}
             </figcaption>
-            <VoiceLeadingDrawing from={from.notes} to={s.voicing} fromName={fromName} toName={toName} keyInfo={keyInfo} range={range} label={SUGGESTION_WORDS[s.kind]} />
+            <VoiceLeadingDrawing
+              from={from.notes}
+              to={s.voicing}
+              fromName={fromName}
+              toName={toName}
+              keyInfo={keyInfo}
+              range={range}
+              label={SUGGESTION_WORDS[s.kind]}
+            />
             {canPlay ? (
-              <Button type="button" variant="secondary" className="self-start" onClick={() => onPlay(pairPlan(from.notes, s.voicing), `${SUGGESTION_WORDS[s.kind].toLowerCase()} voicing`)}>
+              <Button
+                type="button"
+                variant="secondary"
+                className="self-start"
+                onClick={() =>
+                  onPlay(pairPlan(from.notes, s.voicing), `${SUGGESTION_WORDS[s.kind].toLowerCase()} voicing`)
+                }
+              >
                 Play this
               </Button>
             ) : null}
@@ -83,7 +115,9 @@ export function ChangeDetail({
         ))}
       </div>
       {suggestions.length === 0 ? (
-        <p className="rounded-md bg-moss-pale px-3 py-2 text-sm text-moss">Nothing smoother to suggest: this is already the closest voicing.</p>
+        <p className="rounded-md bg-moss-pale px-3 py-2 text-sm text-moss">
+          Nothing smoother to suggest: this is already the closest voicing.
+        </p>
       ) : null}
     </div>
   );

@@ -28,11 +28,17 @@ function Pager({
   onFlaggedOnly: (on: boolean) => void;
   onPage: (start: number) => void;
 }) {
-  const link = "rounded-md border border-line bg-card px-2 py-1 text-sm font-semibold enabled:hover:border-tide disabled:opacity-40";
+  const link =
+    "rounded-md border border-line bg-card px-2 py-1 text-sm font-semibold enabled:hover:border-tide disabled:opacity-40";
   return (
     <div className="mb-3 flex flex-wrap items-center justify-between gap-2 text-sm">
       <label className="flex items-center gap-2">
-        <input type="checkbox" checked={flaggedOnly} onChange={(e) => onFlaggedOnly(e.target.checked)} className="accent-tide" />
+        <input
+          type="checkbox"
+          checked={flaggedOnly}
+          onChange={(e) => onFlaggedOnly(e.target.checked)}
+          className="accent-tide"
+        />
         Only changes with a flag
       </label>
       <span className="flex items-center gap-2">
@@ -64,7 +70,14 @@ function MotionLine({ change }: { change: ChangeReport }) {
   return (
     <span>
       moved <strong data-testid="change-motion">{change.motion}</strong> · best <strong>{change.bestMotion}</strong>
-      {spare > 0 ? <span className="text-ochre"> · {spare} semitone{spare === 1 ? "" : "s"} more than needed</span> : <span className="text-moss"> · as smooth as it gets</span>}
+      {spare > 0 ? (
+        <span className="text-ochre">
+          {" "}
+          · {spare} semitone{spare === 1 ? "" : "s"} more than needed
+        </span>
+      ) : (
+        <span className="text-moss"> · as smooth as it gets</span>
+      )}
     </span>
   );
 }
@@ -119,7 +132,8 @@ export function ChangeList({
   }, [missingKey, onNeed]);
   const focusChange = (i: number | null) => {
     onSelect(i);
-    if (i !== null) requestAnimationFrame(() => list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus());
+    if (i !== null)
+      requestAnimationFrame(() => list.current?.querySelector<HTMLButtonElement>(`[data-change="${i}"]`)?.focus());
   };
   const opening = chords[0]?.notes.length ? explainChord(chords[0], keyInfo) : [];
   // The list is part of the page's one scroll (no scroll box of its own); it pages forty at a time.
@@ -182,7 +196,10 @@ export function ChangeList({
                   <span className="mr-2 text-xs font-normal text-ink-soft">{i + 1}</span>
                   {chordName(chords[change.from])} → {chordName(chords[change.to])}
                   {commented?.has(i) ? (
-                    <span className="ml-2 inline-block rounded border border-tide bg-tide-pale px-1.5 text-xs font-semibold text-tide-dark" data-testid="comment-mark">
+                    <span
+                      className="ml-2 inline-block rounded border border-tide bg-tide-pale px-1.5 text-xs font-semibold text-tide-dark"
+                      data-testid="comment-mark"
+                    >
                       comment
                     </span>
                   ) : null}
@@ -190,10 +207,15 @@ export function ChangeList({
                 {here ? <MotionLine change={change} /> : <span className="text-ink-soft">fetching…</span>}
               </button>
               {explanations.length ? (
-                <ul className="mt-2 flex flex-col gap-1.5 border-t border-line/70 pt-2" aria-label={`Flags on change ${i + 1}`}>
+                <ul
+                  className="mt-2 flex flex-col gap-1.5 border-t border-line/70 pt-2"
+                  aria-label={`Flags on change ${i + 1}`}
+                >
                   {explanations.map((e) => (
                     <li key={e.flag} data-testid="flag-explanation">
-                      <span className="mr-1.5 inline-block rounded bg-brick px-1.5 py-0.5 text-xs font-semibold text-white">{FLAG_TITLES[e.flag]}</span>
+                      <span className="mr-1.5 inline-block rounded bg-brick px-1.5 py-0.5 text-xs font-semibold text-white">
+                        {FLAG_TITLES[e.flag]}
+                      </span>
                       {e.text}
                     </li>
                   ))}

@@ -5,11 +5,34 @@ export type ExerciseChoice = { id: string; title: string; keys: string[] };
 
 /** Keys a take without an exercise can be read in; "" lets Nearnote estimate it from the notes. */
 export const ALL_KEYS = [
-  "C", "G", "D", "A", "E", "B", "F#", "Db", "Ab", "Eb", "Bb", "F",
-  "Am", "Em", "Bm", "F#m", "C#m", "G#m", "Ebm", "Bbm", "Fm", "Cm", "Gm", "Dm",
+  "C",
+  "G",
+  "D",
+  "A",
+  "E",
+  "B",
+  "F#",
+  "Db",
+  "Ab",
+  "Eb",
+  "Bb",
+  "F",
+  "Am",
+  "Em",
+  "Bm",
+  "F#m",
+  "C#m",
+  "G#m",
+  "Ebm",
+  "Bbm",
+  "Fm",
+  "Cm",
+  "Gm",
+  "Dm",
 ];
 
-const selectClass = "rounded-md border border-line bg-white px-3 py-2 text-base text-ink shadow-inner focus:border-tide";
+const selectClass =
+  "rounded-md border border-line bg-white px-3 py-2 text-base text-ink shadow-inner focus:border-tide";
 
 /**
  * The exercise a take is for, and its key. The key list follows the exercise (its own
@@ -61,8 +84,16 @@ export function ExerciseKeyFields({
         <label htmlFor={`${id}-key`} className="text-sm font-semibold">
           Key
         </label>
-        <select id={`${id}-key`} name="key" value={key} onChange={(e) => setKey(e.target.value)} className={`${selectClass} w-full min-w-0`}>
-          <option value="">{exercise ? `The exercise's key (${pretty(exercise.keys[0] ?? "")})` : "Work it out from the notes"}</option>
+        <select
+          id={`${id}-key`}
+          name="key"
+          value={key}
+          onChange={(e) => setKey(e.target.value)}
+          className={`${selectClass} w-full min-w-0`}
+        >
+          <option value="">
+            {exercise ? `The exercise's key (${pretty(exercise.keys[0] ?? "")})` : "Work it out from the notes"}
+          </option>
           {keys.map((k) => (
             <option key={k} value={k}>
               {pretty(k.endsWith("m") ? `${k.slice(0, -1)} minor` : `${k} major`)}

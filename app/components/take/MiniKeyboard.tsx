@@ -38,7 +38,14 @@ export function MiniKeyboard({
   const blacks: number[] = [];
   for (let m = low; m <= high; m++) if (isBlackKey(m)) blacks.push(m);
   return (
-    <svg role="img" aria-label={label} viewBox={`0 0 ${width} ${WHITE_H + 1}`} width={width} height={WHITE_H + 1} className="max-w-full">
+    <svg
+      role="img"
+      aria-label={label}
+      viewBox={`0 0 ${width} ${WHITE_H + 1}`}
+      width={width}
+      height={WHITE_H + 1}
+      className="max-w-full"
+    >
       {whites.map((m) => (
         <rect
           key={m}
@@ -72,7 +79,9 @@ export function MiniKeyboard({
       {[...on].map((m) => {
         const x = isBlackKey(m) ? xOfWhite.get(m - 1)! + WHITE_W + 0.5 : xOfWhite.get(m)! + WHITE_W / 2 + 0.5;
         const y = isBlackKey(m) ? BLACK_H - 6 : WHITE_H - 7;
-        return xOfWhite.has(isBlackKey(m) ? m - 1 : m) ? <circle key={`d${m}`} cx={x} cy={y} r={2.5} className="fill-white" /> : null;
+        return xOfWhite.has(isBlackKey(m) ? m - 1 : m) ? (
+          <circle key={`d${m}`} cx={x} cy={y} r={2.5} className="fill-white" />
+        ) : null;
       })}
     </svg>
   );

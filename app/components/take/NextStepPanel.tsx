@@ -18,13 +18,27 @@ export function NextStepPanel({
 }) {
   const change = step.kind === "motion" || step.kind === "flag" ? step.change : null;
   const fix = step.kind === "motion" || step.kind === "flag" ? step.fix : null;
-  const tone = step.kind === "off-exercise" ? "border-brick bg-brick-pale/50" : step.kind === "clean" ? "border-moss bg-moss-pale/60" : "border-ochre bg-ochre-pale/60";
+  const tone =
+    step.kind === "off-exercise"
+      ? "border-brick bg-brick-pale/50"
+      : step.kind === "clean"
+        ? "border-moss bg-moss-pale/60"
+        : "border-ochre bg-ochre-pale/60";
   return (
-    <section aria-labelledby="next-time-heading" className={`rounded-lg border-2 px-4 py-3 ${tone}`} data-testid="next-step" data-kind={step.kind}>
+    <section
+      aria-labelledby="next-time-heading"
+      className={`rounded-lg border-2 px-4 py-3 ${tone}`}
+      data-testid="next-step"
+      data-kind={step.kind}
+    >
       <h2 id="next-time-heading" className="text-lg font-semibold">
         Next time
       </h2>
-      {step.kind === "motion" || step.kind === "flag" ? <p className="font-semibold" data-testid="next-step-title">{step.title}</p> : null}
+      {step.kind === "motion" || step.kind === "flag" ? (
+        <p className="font-semibold" data-testid="next-step-title">
+          {step.title}
+        </p>
+      ) : null}
       <p className="mt-1">{step.text}</p>
       {change !== null || fix ? (
         <div className="mt-3 flex flex-wrap items-center gap-3">

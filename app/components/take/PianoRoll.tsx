@@ -3,7 +3,16 @@ import type { ChangeReport, ChordReport, NoteEvent } from "~/analysis/types";
 import { cellsInView, laneCells, packMarks, type LaneMark } from "~/takes/chordLane";
 import { clock, noteLabel, pretty } from "~/utils/noteText";
 import { drawnVoicing } from "~/browser/playbackPlan";
-import { boxesPath, changeForChord, chordAtTime, isBlackKey, rollLayout, stepChange, xOf, yOf } from "~/takes/pianoRoll";
+import {
+  boxesPath,
+  changeForChord,
+  chordAtTime,
+  isBlackKey,
+  rollLayout,
+  stepChange,
+  xOf,
+  yOf,
+} from "~/takes/pianoRoll";
 
 const EDGE_W = 44;
 const AXIS_H = 18;
@@ -43,11 +52,32 @@ const FILL_WIDTH = 1000;
  * lane of Roman numerals, and rows of marks. The whole take scrolls sideways inside its strip;
  * the arrow keys move between changes.
  */
-export function PianoRoll({ notes, chords, changes, durationSec, selected, onSelect, playTime, sounding, marks, ghostAll = false, range = null, onView }: Props) {
+export function PianoRoll({
+  notes,
+  chords,
+  changes,
+  durationSec,
+  selected,
+  onSelect,
+  playTime,
+  sounding,
+  marks,
+  ghostAll = false,
+  range = null,
+  onView,
+}: Props) {
   const layout = useMemo(() => {
     // The whole take's key range keeps the roll's rows steady while windows of notes arrive.
-    const edges = range ? [{ midi: range[0], start: 0, end: 0 }, { midi: range[1], start: 0, end: 0 }] : [];
-    return rollLayout([...edges, ...notes], durationSec, { pxPerSec: Math.max(90, Math.floor(FILL_WIDTH / Math.max(1, durationSec))), rowHeight: 12 });
+    const edges = range
+      ? [
+          { midi: range[0], start: 0, end: 0 },
+          { midi: range[1], start: 0, end: 0 },
+        ]
+      : [];
+    return rollLayout([...edges, ...notes], durationSec, {
+      pxPerSec: Math.max(90, Math.floor(FILL_WIDTH / Math.max(1, durationSec))),
+      rowHeight: 12,
+    });
   }, [notes, durationSec, range]);
   const cells = useMemo(() => laneCells(chords, layout.pxPerSec), [chords, layout.pxPerSec]);
   const packed = useMemo(() => packMarks(marks), [marks]);
@@ -62,15 +92,28 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
     const rows: number[] = [];
     for (let m = layout.lowest; m <= layout.highest; m++) rows.push(m);
     return {
-      blackRows: boxesPath(rows.filter(isBlackKey).map((m) => ({ x: 0, y: yOf(layout, m), w: layout.width, h: layout.rowHeight }))),
-      octaveLines: boxesPath(rows.filter((m) => m % 12 === 0).map((m) => ({ x: 0, y: yOf(layout, m) + layout.rowHeight - 0.5, w: layout.width, h: 1 }))),
+      blackRows: boxesPath(
+        rows.filter(isBlackKey).map((m) => ({ x: 0, y: yOf(layout, m), w: layout.width, h: layout.rowHeight })),
+      ),
+      octaveLines: boxesPath(
+        rows
+          .filter((m) => m % 12 === 0)
+          .map((m) => ({ x: 0, y: yOf(layout, m) + layout.rowHeight - 0.5, w: layout.width, h: 1 })),
+      ),
       // Chords known only from the time line (their window not here yet) have no notes to shade.
       chords: boxesPath(
-        chords.filter((c) => c.notes.length > 0).map((c) => {
-          const top = yOf(layout, c.notes[c.notes.length - 1]) - 2;
-          const end = Math.max(c.endSec, c.startSec + 0.12);
-          return { x: xOf(layout, c.startSec) - 2, y: top, w: xOf(layout, end) - xOf(layout, c.startSec) + 4, h: yOf(layout, c.notes[0]) + layout.rowHeight + 2 - top };
-        }),
+        chords
+          .filter((c) => c.notes.length > 0)
+          .map((c) => {
+            const top = yOf(layout, c.notes[c.notes.length - 1]) - 2;
+            const end = Math.max(c.endSec, c.startSec + 0.12);
+            return {
+              x: xOf(layout, c.startSec) - 2,
+              y: top,
+              w: xOf(layout, end) - xOf(layout, c.startSec) + 4,
+              h: yOf(layout, c.notes[0]) + layout.rowHeight + 2 - top,
+            };
+          }),
       ),
       notes: boxesPath(notes.filter((n) => !graces.has(graceKey(n.midi, n.start))).map(box)),
       graces: boxesPath(notes.filter((n) => graces.has(graceKey(n.midi, n.start))).map(box)),
@@ -99,7 +142,9 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
       if (!to || !voicing || voicing.join() === to.notes.join()) continue;
       const x = xOf(layout, to.startSec);
       const w = Math.max(6, xOf(layout, Math.max(to.endSec, to.startSec + 0.12)) - x);
-      for (const m of voicing) if (m >= layout.lowest && m <= layout.highest) boxes.push({ x, y: yOf(layout, m) + 1, w, h: layout.rowHeight - 2 });
+      for (const m of voicing)
+        if (m >= layout.lowest && m <= layout.highest)
+          boxes.push({ x, y: yOf(layout, m) + 1, w, h: layout.rowHeight - 2 });
     }
     return boxesPath(boxes);
   }, [ghostAll, selected, changes, chords, layout]);
@@ -107,7 +152,8 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
   const highlighted: Array<{ k: number; tone: "selected" | "sounding" }> = [];
   const scroller = useRef<HTMLDivElement>(null);
   const change = selected !== null ? changes[selected] : undefined;
-  if (change) for (const k of [change.from, change.to]) if (chords[k]?.notes.length) highlighted.push({ k, tone: "selected" });
+  if (change)
+    for (const k of [change.from, change.to]) if (chords[k]?.notes.length) highlighted.push({ k, tone: "selected" });
   if (sounding !== null && chords[sounding]?.notes.length) highlighted.push({ k: sounding, tone: "sounding" });
   const chordEnd = (k: number) => Math.max(chords[k].endSec, chords[k].startSec + 0.12);
 
@@ -128,7 +174,8 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
     const el = scroller.current;
     if (!el || focusSec === null || focusSec === undefined) return;
     const x = xOf(layout, focusSec);
-    if (x < el.scrollLeft + 40 || x > el.scrollLeft + el.clientWidth - 120) el.scrollLeft = Math.max(0, x - el.clientWidth / 3);
+    if (x < el.scrollLeft + 40 || x > el.scrollLeft + el.clientWidth - 120)
+      el.scrollLeft = Math.max(0, x - el.clientWidth / 3);
     measure();
   }, [focusSec, layout]);
 
@@ -140,7 +187,8 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
   for (let m = layout.lowest; m <= layout.highest; m++) rows.push(m);
   const tickEvery = durationSec > 120 ? 10 : durationSec > 30 ? 5 : 1;
   const ticks = [];
-  for (let t = 0; t <= durationSec; t += tickEvery) if (xOf(layout, t) >= view.left - 50 && xOf(layout, t) <= view.right) ticks.push(t);
+  for (let t = 0; t <= durationSec; t += tickEvery)
+    if (xOf(layout, t) >= view.left - 50 && xOf(layout, t) <= view.right) ticks.push(t);
   const rollBottom = AXIS_H + layout.height;
   const markRows = Math.max(1, packed.rows);
   const height = rollBottom + 2 * LANE_H + markRows * MARK_H + 4;
@@ -157,9 +205,21 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
           const black = isBlackKey(m);
           return (
             <g key={m}>
-              <rect x={0} y={y} width={black ? EDGE_W * 0.6 : EDGE_W} height={layout.rowHeight} className={black ? "fill-ink" : "fill-white stroke-line"} strokeWidth={0.5} />
+              <rect
+                x={0}
+                y={y}
+                width={black ? EDGE_W * 0.6 : EDGE_W}
+                height={layout.rowHeight}
+                className={black ? "fill-ink" : "fill-white stroke-line"}
+                strokeWidth={0.5}
+              />
               {!black ? (
-                <text x={EDGE_W - 3} y={y + layout.rowHeight - 2} textAnchor="end" className={`text-[12px] ${m % 12 === 0 ? "fill-ink font-semibold" : "fill-ink-soft"}`}>
+                <text
+                  x={EDGE_W - 3}
+                  y={y + layout.rowHeight - 2}
+                  textAnchor="end"
+                  className={`text-[12px] ${m % 12 === 0 ? "fill-ink font-semibold" : "fill-ink-soft"}`}
+                >
                   {m % 12 === 0 ? noteLabel(m, null) : noteLabel(m, null).replace(/-?\d+$/, "")}
                 </text>
               ) : null}
@@ -224,9 +284,22 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
             <path d={drawing.notes} className="fill-ink/75" />
             <path d={drawing.graces} className="fill-ochre" />
             <path d={drawing.held} className="fill-none stroke-moss" strokeWidth={1.5} />
-            <path d={ghost} className="fill-tide/15 stroke-tide" strokeWidth={1.5} strokeDasharray="4 3" data-testid="ghost-voicing" />
+            <path
+              d={ghost}
+              className="fill-tide/15 stroke-tide"
+              strokeWidth={1.5}
+              strokeDasharray="4 3"
+              data-testid="ghost-voicing"
+            />
             {playTime !== null ? (
-              <line x1={xOf(layout, playTime)} x2={xOf(layout, playTime)} y1={0} y2={layout.height} className="stroke-brick" strokeWidth={2} />
+              <line
+                x1={xOf(layout, playTime)}
+                x2={xOf(layout, playTime)}
+                y1={0}
+                y2={layout.height}
+                className="stroke-brick"
+                strokeWidth={2}
+              />
             ) : null}
           </g>
           {ticks.map((t) => (
@@ -239,10 +312,25 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
           <g transform={`translate(0 ${laneY})`}>
             <rect x={0} y={0} width={layout.width} height={2 * LANE_H} className="fill-card" />
             {selectedCells.map((k) =>
-              cells[k] ? <rect key={`sel${k}`} x={cells[k].x} y={0} width={cells[k].w} height={2 * LANE_H} className="fill-ochre-pale" /> : null,
+              cells[k] ? (
+                <rect
+                  key={`sel${k}`}
+                  x={cells[k].x}
+                  y={0}
+                  width={cells[k].w}
+                  height={2 * LANE_H}
+                  className="fill-ochre-pale"
+                />
+              ) : null,
             )}
             {sounding !== null && cells[sounding] ? (
-              <rect x={cells[sounding].x} y={0} width={cells[sounding].w} height={2 * LANE_H} className="fill-tide/25" />
+              <rect
+                x={cells[sounding].x}
+                y={0}
+                width={cells[sounding].w}
+                height={2 * LANE_H}
+                className="fill-tide/25"
+              />
             ) : null}
             <path d={laneEdges} className="fill-line" />
             <line x1={0} x2={layout.width} y1={LANE_H} y2={LANE_H} className="stroke-line" />
@@ -253,7 +341,14 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
               const cell = cells[k];
               const c = chords[k];
               return cell.showSymbol ? (
-                <text key={k} x={cell.x + 4} y={laneY + 16} className="fill-ink text-[13px] font-semibold" data-testid="chord-symbol" data-chord-index={k}>
+                <text
+                  key={k}
+                  x={cell.x + 4}
+                  y={laneY + 16}
+                  className="fill-ink text-[13px] font-semibold"
+                  data-testid="chord-symbol"
+                  data-chord-index={k}
+                >
                   {pretty(c.symbol!)}
                 </text>
               ) : null;
@@ -264,7 +359,13 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
               const cell = cells[k];
               const c = chords[k];
               return cell.showRoman ? (
-                <text key={k} x={cell.x + 4} y={romanY + 16} className="fill-tide-dark text-[12px]" data-testid="chord-roman">
+                <text
+                  key={k}
+                  x={cell.x + 4}
+                  y={romanY + 16}
+                  className="fill-tide-dark text-[12px]"
+                  data-testid="chord-roman"
+                >
                   {pretty(c.roman!)}
                 </text>
               ) : null;
@@ -277,10 +378,20 @@ export function PianoRoll({ notes, chords, changes, durationSec, selected, onSel
                   width={m.w}
                   height={MARK_H - 4}
                   rx={3}
-                  className={m.tone === "mismatch" ? "fill-brick-pale stroke-brick" : m.tone === "flag" ? "fill-ochre-pale stroke-ochre" : "fill-tide-pale stroke-tide"}
+                  className={
+                    m.tone === "mismatch"
+                      ? "fill-brick-pale stroke-brick"
+                      : m.tone === "flag"
+                        ? "fill-ochre-pale stroke-ochre"
+                        : "fill-tide-pale stroke-tide"
+                  }
                   strokeWidth={1}
                 />
-                <text x={4} y={MARK_H - 8} className={`text-[12px] ${m.tone === "mismatch" ? "fill-brick" : m.tone === "flag" ? "fill-ochre" : "fill-tide-dark"}`}>
+                <text
+                  x={4}
+                  y={MARK_H - 8}
+                  className={`text-[12px] ${m.tone === "mismatch" ? "fill-brick" : m.tone === "flag" ? "fill-ochre" : "fill-tide-dark"}`}
+                >
                   {m.label}
                 </text>
               </g>
@@ -305,12 +416,24 @@ export function PianoRollLegend() {
     <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft">
       {item(<rect width="16" height="10" rx="2" className="fill-tide-pale" />, "chord")}
       {item(<rect width="16" height="10" rx="2" className="fill-ochre-pale stroke-ochre" />, "selected change")}
-      {item(<rect x="1" y="1" width="14" height="8" className="fill-tide/15 stroke-tide" strokeDasharray="3 2" />, "suggested voicing")}
+      {item(
+        <rect x="1" y="1" width="14" height="8" className="fill-tide/15 stroke-tide" strokeDasharray="3 2" />,
+        "suggested voicing",
+      )}
       {item(<rect y="2" width="16" height="6" rx="1.5" className="fill-ochre" />, "grace note")}
-      {item(<path d="M4 5L8 1L12 5L8 9z" className="fill-none stroke-moss" strokeWidth="1.5" />, "held from an earlier chord")}
-      {item(<rect x="1" y="1" width="14" height="8" rx="2" className="fill-brick-pale stroke-brick" />, "not as in the exercise")}
+      {item(
+        <path d="M4 5L8 1L12 5L8 9z" className="fill-none stroke-moss" strokeWidth="1.5" />,
+        "held from an earlier chord",
+      )}
+      {item(
+        <rect x="1" y="1" width="14" height="8" rx="2" className="fill-brick-pale stroke-brick" />,
+        "not as in the exercise",
+      )}
       {item(<rect x="1" y="1" width="14" height="8" rx="2" className="fill-ochre-pale stroke-ochre" />, "flag")}
-      {item(<rect x="1" y="1" width="14" height="8" rx="2" className="fill-tide-pale stroke-tide" />, "teacher's comment")}
+      {item(
+        <rect x="1" y="1" width="14" height="8" rx="2" className="fill-tide-pale stroke-tide" />,
+        "teacher's comment",
+      )}
     </ul>
   );
 }

@@ -38,16 +38,36 @@ export function PracticeControls({
   return (
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center gap-2">
-        <Button type="button" onClick={onPlayTake} disabled={!available} aria-pressed={state.mode === "take"} className={ring(state.mode === "take")}>
+        <Button
+          type="button"
+          onClick={onPlayTake}
+          disabled={!available}
+          aria-pressed={state.mode === "take"}
+          className={ring(state.mode === "take")}
+        >
           <svg aria-hidden="true" viewBox="0 0 12 12" className="h-3 w-3 fill-current">
             <path d="M2 1l9 5-9 5z" />
           </svg>
           Play take
         </Button>
-        <Button type="button" variant="secondary" onClick={onPlaySmoother} disabled={!available} aria-pressed={state.mode === "smoother"} className={ring(state.mode === "smoother")}>
+        <Button
+          type="button"
+          variant="secondary"
+          onClick={onPlaySmoother}
+          disabled={!available}
+          aria-pressed={state.mode === "smoother"}
+          className={ring(state.mode === "smoother")}
+        >
           Hear the smoother path
         </Button>
-        <Button type="button" variant="secondary" onClick={onLoop} disabled={!available || loopLabel === null} aria-pressed={state.mode === "loop"} className={ring(state.mode === "loop")}>
+        <Button
+          type="button"
+          variant="secondary"
+          onClick={onLoop}
+          disabled={!available || loopLabel === null}
+          aria-pressed={state.mode === "loop"}
+          className={ring(state.mode === "loop")}
+        >
           {loopLabel ? `Loop ${loopLabel}` : "Loop a change"}
         </Button>
         {state.paused ? (
@@ -71,10 +91,22 @@ export function PracticeControls({
         </Button>
         <fieldset className="flex items-center gap-1 text-sm">
           <legend className="sr-only">Speed</legend>
-          <span aria-hidden="true" className="mr-1 text-ink-soft">Speed</span>
+          <span aria-hidden="true" className="mr-1 text-ink-soft">
+            Speed
+          </span>
           {SPEEDS.map((s) => (
-            <label key={s} className={`cursor-pointer rounded-md border px-2 py-1 has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-tide ${speed === s ? "border-tide bg-tide-pale font-semibold" : "border-line bg-card"}`}>
-              <input type="radio" name="speed" value={s} checked={speed === s} onChange={() => onSpeed(s)} className="sr-only" />
+            <label
+              key={s}
+              className={`cursor-pointer rounded-md border px-2 py-1 has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-tide ${speed === s ? "border-tide bg-tide-pale font-semibold" : "border-line bg-card"}`}
+            >
+              <input
+                type="radio"
+                name="speed"
+                value={s}
+                checked={speed === s}
+                onChange={() => onSpeed(s)}
+                className="sr-only"
+              />
               {Math.round(s * 100)}%
             </label>
           ))}

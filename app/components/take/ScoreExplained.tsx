@@ -6,7 +6,11 @@ import { scoreBreakdown } from "~/takes/scoreBreakdown";
 export function ScoreExplained({ score, parts }: { score: number; parts: ScoreParts }) {
   const rows = scoreBreakdown(parts);
   return (
-    <section aria-labelledby="score-heading" className="rounded-md border border-line bg-white px-4 py-3" data-testid="score-explained">
+    <section
+      aria-labelledby="score-heading"
+      className="rounded-md border border-line bg-white px-4 py-3"
+      data-testid="score-explained"
+    >
       <div className="flex flex-wrap items-baseline gap-x-3">
         <h3 id="score-heading" className="text-xs font-semibold uppercase tracking-wide text-ink-soft">
           Score
@@ -18,10 +22,18 @@ export function ScoreExplained({ score, parts }: { score: number; parts: ScorePa
         <caption className="sr-only">How the score is built</caption>
         <thead>
           <tr className="text-left text-xs text-ink-soft">
-            <th scope="col" className="py-1 pr-2 font-semibold">Part</th>
-            <th scope="col" className="py-1 pr-2 text-right font-semibold">Value</th>
-            <th scope="col" className="py-1 pr-2 text-right font-semibold">Weight</th>
-            <th scope="col" className="py-1 text-right font-semibold">Points</th>
+            <th scope="col" className="py-1 pr-2 font-semibold">
+              Part
+            </th>
+            <th scope="col" className="py-1 pr-2 text-right font-semibold">
+              Value
+            </th>
+            <th scope="col" className="py-1 pr-2 text-right font-semibold">
+              Weight
+            </th>
+            <th scope="col" className="py-1 text-right font-semibold">
+              Points
+            </th>
           </tr>
         </thead>
         <tbody>

@@ -73,9 +73,15 @@ export function TakeAnalysisView({
   const [selected, setSelected] = useState<number | null>(initialSelected);
   const length = Math.max(durationSec, summary.durationSec);
   // Differences from the exercise, flags and comments, at their places under the roll (same scale as the roll).
-  const pxPerSec = useMemo(() => rollLayout([], length, { pxPerSec: Math.max(90, Math.floor(1000 / Math.max(1, length))) }).pxPerSec, [length]);
+  const pxPerSec = useMemo(
+    () => rollLayout([], length, { pxPerSec: Math.max(90, Math.floor(1000 / Math.max(1, length))) }).pxPerSec,
+    [length],
+  );
   const commentedSet = useMemo(() => commented ?? new Set<number>(), [commented]);
-  const marks = useMemo(() => laneMarks(chords, changes, placed, commentedSet, pxPerSec, pretty), [placed, chords, changes, commentedSet, pxPerSec]);
+  const marks = useMemo(
+    () => laneMarks(chords, changes, placed, commentedSet, pxPerSec, pretty),
+    [placed, chords, changes, commentedSet, pxPerSec],
+  );
   // The selected change (and the chord it leads to) come in with their window.
   useEffect(() => {
     if (selected !== null) need(selected, selected + 1);
@@ -106,8 +112,8 @@ export function TakeAnalysisView({
   if (chords.length === 0) {
     return (
       <EmptyState title="No chords in this take">
-        Nearnote found {summary.melodyNoteCount} single notes but no two keys pressed together, so there are no changes to
-        grade. Play the exercise with both hands, or at least two notes at a time.
+        Nearnote found {summary.melodyNoteCount} single notes but no two keys pressed together, so there are no changes
+        to grade. Play the exercise with both hands, or at least two notes at a time.
       </EmptyState>
     );
   }
@@ -119,14 +125,22 @@ export function TakeAnalysisView({
         canPlay={playback.available}
         onOpen={open}
         onPlayFix={() => {
-          if ((step.kind === "motion" || step.kind === "flag") && step.fix) playback.play("snippet", pairPlan(step.fix.from, step.fix.to), "the fix");
+          if ((step.kind === "motion" || step.kind === "flag") && step.fix)
+            playback.play("snippet", pairPlan(step.fix.from, step.fix.to), "the fix");
         }}
       />
       <Card title="How it went">
         <TakeSummary summary={summary} chords={chords} />
       </Card>
 
-      <Card title="Piano roll" actions={<span className="text-sm text-ink-soft">{chords.length} chords · {changes.length} changes · in {pretty(summary.key)}</span>}>
+      <Card
+        title="Piano roll"
+        actions={
+          <span className="text-sm text-ink-soft">
+            {chords.length} chords · {changes.length} changes · in {pretty(summary.key)}
+          </span>
+        }
+      >
         <div className="mb-3">
           <PracticeControls
             state={state}
@@ -140,15 +154,28 @@ export function TakeAnalysisView({
               else void windows.loadAll().then((all) => playback.play("take", takePlan(all.notes), "the take"));
             }}
             onPlaySmoother={() => {
-              if (windows.complete) playback.play("smoother", smootherPathPlan(chords, changes, known.melodyNotes), "the smoother path");
-              else void windows.loadAll().then((all) => playback.play("smoother", smootherPathPlan(all.chords, all.changes, all.melodyNotes), "the smoother path"));
+              if (windows.complete)
+                playback.play("smoother", smootherPathPlan(chords, changes, known.melodyNotes), "the smoother path");
+              else
+                void windows
+                  .loadAll()
+                  .then((all) =>
+                    playback.play(
+                      "smoother",
+                      smootherPathPlan(all.chords, all.changes, all.melodyNotes),
+                      "the smoother path",
+                    ),
+                  );
             }}
             onLoop={() => {
               if (!loopChange) return;
               const from = chords[loopChange.from];
               const to = chords[loopChange.to];
               const end = Math.max(to.endSec, to.startSec + 0.3);
-              playback.play("loop", stretchPlan(notes, from.startSec, end), `change ${selected! + 1} on a loop`, { offset: from.startSec, loop: true });
+              playback.play("loop", stretchPlan(notes, from.startSec, end), `change ${selected! + 1} on a loop`, {
+                offset: from.startSec,
+                loop: true,
+              });
             }}
             onPause={playback.pause}
             onResume={playback.resume}
@@ -185,13 +212,24 @@ export function TakeAnalysisView({
           ) : (
             <>
               <GoToChange count={changes.length} onGo={open} />
-              <ChangeList chords={chords} changes={changes} keyInfo={keyInfo} selected={selected} onSelect={setSelected} commented={commentedSet} isLoaded={isLoaded} onNeed={need} />
+              <ChangeList
+                chords={chords}
+                changes={changes}
+                keyInfo={keyInfo}
+                selected={selected}
+                onSelect={setSelected}
+                commented={commentedSet}
+                isLoaded={isLoaded}
+                onNeed={need}
+              />
             </>
           )}
         </Card>
         <Card title="Try it another way" className="lg:sticky lg:top-4">
           {selected !== null && changes[selected] && !isLoaded(selected) ? (
-            <p className="text-sm text-ink-soft" role="status">Fetching change {selected + 1}…</p>
+            <p className="text-sm text-ink-soft" role="status">
+              Fetching change {selected + 1}…
+            </p>
           ) : selected !== null && changes[selected] ? (
             <ChangeDetail
               index={selected}
@@ -230,7 +268,14 @@ function GoToChange({ count, onGo }: { count: number; onGo: (index: number) => v
     >
       <label className="flex items-center gap-2">
         Go to change
-        <input name="change" type="number" min={1} max={count} required className="w-24 rounded-md border border-line bg-white px-2 py-1" />
+        <input
+          name="change"
+          type="number"
+          min={1}
+          max={count}
+          required
+          className="w-24 rounded-md border border-line bg-white px-2 py-1"
+        />
       </label>
       <button type="submit" className="rounded-md border border-line bg-card px-2 py-1 font-semibold hover:border-tide">
         Go

@@ -34,7 +34,12 @@ export function TakeManage({
           Move to another exercise
         </h3>
         <p className="text-sm text-ink-soft">The take is graded again against the new exercise's chords.</p>
-        <ExerciseKeyFields exercises={exercises} defaultExerciseId={exerciseId ?? ""} defaultKey={takeKey ?? ""} stacked />
+        <ExerciseKeyFields
+          exercises={exercises}
+          defaultExerciseId={exerciseId ?? ""}
+          defaultKey={takeKey ?? ""}
+          stacked
+        />
         {errorFor("move")}
         <div>
           <Button name="intent" value="move" variant="secondary" pending={busy("move")} pendingLabel="Moving…">
@@ -42,14 +47,28 @@ export function TakeManage({
           </Button>
         </div>
       </Form>
-      <Form method="post" action="?intent=replace" encType="multipart/form-data" className="flex min-w-0 flex-col gap-3" aria-labelledby="replace-heading">
+      <Form
+        method="post"
+        action="?intent=replace"
+        encType="multipart/form-data"
+        className="flex min-w-0 flex-col gap-3"
+        aria-labelledby="replace-heading"
+      >
         <h3 id="replace-heading" className="font-semibold">
           Replace with a new recording
         </h3>
-        <p className="text-sm text-ink-soft">Keeps this take's exercise, key and note; the old file is removed once the new one is saved.</p>
+        <p className="text-sm text-ink-soft">
+          Keeps this take's exercise, key and note; the old file is removed once the new one is saved.
+        </p>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           New MIDI file
-          <input type="file" name="file" accept=".mid,.midi,audio/midi,audio/x-midi" required className={fileInputClass} />
+          <input
+            type="file"
+            name="file"
+            accept=".mid,.midi,audio/midi,audio/x-midi"
+            required
+            className={fileInputClass}
+          />
         </label>
         {errorFor("replace")}
         <div>
@@ -62,7 +81,9 @@ export function TakeManage({
         <h3 id="delete-heading" className="font-semibold">
           Delete this take
         </h3>
-        <p className="text-sm text-ink-soft">The take, its analysis and its file are removed for good; your teacher will no longer see it.</p>
+        <p className="text-sm text-ink-soft">
+          The take, its analysis and its file are removed for good; your teacher will no longer see it.
+        </p>
         <label className="flex items-start gap-2 text-sm">
           <input type="checkbox" name="confirm" value="yes" required className="mt-1 accent-brick" />
           Yes, delete this take and its file

@@ -17,7 +17,15 @@ const STAGE: Record<UploadRow["stage"], { label: string; tone: string }> = {
  * One line per file: its stage, a progress bar while sending, then its figures or its error;
  * `extras` adds what a page shows under a file (its own exercise, a warning about it).
  */
-export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRemove?: (key: string) => void; extras?: (row: UploadRow) => ReactNode }) {
+export function UploadRows({
+  rows,
+  onRemove,
+  extras,
+}: {
+  rows: UploadRow[];
+  onRemove?: (key: string) => void;
+  extras?: (row: UploadRow) => ReactNode;
+}) {
   if (rows.length === 0) return null;
   return (
     <ul aria-label="Files" className="flex flex-col divide-y divide-line rounded-lg border border-line bg-card">
@@ -27,7 +35,8 @@ export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRe
           <li key={row.key} className="flex flex-col gap-2 px-4 py-3" data-testid="upload-row" data-stage={row.stage}>
             <div className="flex flex-wrap items-center justify-between gap-3">
               <span className="min-w-0 truncate font-semibold" title={row.fileName}>
-                {row.fileName} {row.size ? <span className="text-xs font-normal text-ink-soft">{formatBytes(row.size)}</span> : null}
+                {row.fileName}{" "}
+                {row.size ? <span className="text-xs font-normal text-ink-soft">{formatBytes(row.size)}</span> : null}
               </span>
               <span className="flex items-center gap-3">
                 <span className={`rounded px-2 py-0.5 text-xs font-semibold ${stage.tone}`} role="status">
@@ -35,7 +44,11 @@ export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRe
                   {row.stage === "uploading" ? ` ${Math.round(row.progress * 100)}%` : ""}
                 </span>
                 {row.stage === "ready" && onRemove ? (
-                  <button type="button" onClick={() => onRemove(row.key)} className="text-sm text-tide-dark hover:underline">
+                  <button
+                    type="button"
+                    onClick={() => onRemove(row.key)}
+                    className="text-sm text-tide-dark hover:underline"
+                  >
                     Remove<span className="sr-only"> {row.fileName}</span>
                   </button>
                 ) : null}
@@ -61,7 +74,10 @@ export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRe
                 <span>
                   {row.chordCount} chords · smoothness {percent(row.smoothness)} · score {row.score}
                 </span>
-                <Link to={`/takes/${row.takeId}`} className="font-semibold text-tide-dark underline-offset-4 hover:underline">
+                <Link
+                  to={`/takes/${row.takeId}`}
+                  className="font-semibold text-tide-dark underline-offset-4 hover:underline"
+                >
                   Open take<span className="sr-only"> {row.fileName}</span>
                 </Link>
               </p>
@@ -70,7 +86,10 @@ export function UploadRows({ rows, onRemove, extras }: { rows: UploadRow[]; onRe
               <p className="flex flex-wrap items-center gap-x-4 text-sm">
                 <span className={row.stage === "refused" ? "text-brick" : "text-ochre"}>{row.error}</span>
                 {row.takeId ? (
-                  <Link to={`/takes/${row.takeId}`} className="font-semibold text-tide-dark underline-offset-4 hover:underline">
+                  <Link
+                    to={`/takes/${row.takeId}`}
+                    className="font-semibold text-tide-dark underline-offset-4 hover:underline"
+                  >
                     {row.stage === "duplicate" ? "Open the earlier take" : "See the stored take"}
                   </Link>
                 ) : null}

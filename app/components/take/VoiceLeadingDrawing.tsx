@@ -36,7 +36,14 @@ export function VoiceLeadingDrawing({
   const top = 22;
   const total = d.lines.reduce((s, l) => s + Math.abs(l.semitones), 0);
   return (
-    <svg width={WIDTH} height={d.height + top} role="img" aria-label={`${label}: ${d.lines.map((l) => `${noteLabel(l.from, keyInfo)} to ${noteLabel(l.to, keyInfo)} ${signedSemitones(l.semitones)}`).join(", ")}; ${total} semitones in all`} className="max-w-full overflow-visible" data-testid="voice-leading">
+    <svg
+      width={WIDTH}
+      height={d.height + top}
+      role="img"
+      aria-label={`${label}: ${d.lines.map((l) => `${noteLabel(l.from, keyInfo)} to ${noteLabel(l.to, keyInfo)} ${signedSemitones(l.semitones)}`).join(", ")}; ${total} semitones in all`}
+      className="max-w-full overflow-visible"
+      data-testid="voice-leading"
+    >
       <text x={d.left} y={14} textAnchor="middle" className="fill-ink text-[13px] font-semibold">
         {fromName}
       </text>
@@ -47,7 +54,16 @@ export function VoiceLeadingDrawing({
         <line x1={d.left} x2={d.left} y1={4} y2={d.height - 4} className="stroke-line" />
         <line x1={d.right} x2={d.right} y1={4} y2={d.height - 4} className="stroke-line" />
         {d.lines.map((l, i) => (
-          <line key={i} x1={d.left} y1={l.y1} x2={d.right} y2={l.y2} className={moveTone(l.semitones)} strokeWidth={2.5} strokeLinecap="round" />
+          <line
+            key={i}
+            x1={d.left}
+            y1={l.y1}
+            x2={d.right}
+            y2={l.y2}
+            className={moveTone(l.semitones)}
+            strokeWidth={2.5}
+            strokeLinecap="round"
+          />
         ))}
         {d.lines.map((l, i) => {
           const text = signedSemitones(l.semitones);

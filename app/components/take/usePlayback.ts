@@ -29,7 +29,12 @@ export function usePlayback() {
   const [speed, setSpeedState] = useState(1);
   const speedRef = useRef(1);
   // What is playing, so a change of speed starts it again at the new speed.
-  const last = useRef<{ mode: PlaybackMode; plan: PlannedNote[]; label: string; opts: { offset?: number; loop?: boolean } } | null>(null);
+  const last = useRef<{
+    mode: PlaybackMode;
+    plan: PlannedNote[];
+    label: string;
+    opts: { offset?: number; loop?: boolean };
+  } | null>(null);
 
   useEffect(() => {
     setAvailable(webAudioAvailable());

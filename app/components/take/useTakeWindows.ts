@@ -1,5 +1,12 @@
 import { useCallback, useMemo, useRef, useState } from "react";
-import { stitchWindows, windowCount, windowStart, WINDOW_SIZE, type TakeWindow, type Timeline } from "~/takes/takeWindows";
+import {
+  stitchWindows,
+  windowCount,
+  windowStart,
+  WINDOW_SIZE,
+  type TakeWindow,
+  type Timeline,
+} from "~/takes/takeWindows";
 
 export type KnownTake = ReturnType<typeof stitchWindows>;
 

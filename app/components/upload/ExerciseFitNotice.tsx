@@ -10,14 +10,32 @@ export const moveFormId = (takeId: string) => `move-${takeId}`;
  * the exercise it likely belongs to. The button submits a form of its own, placed outside any
  * other form on the page (MoveToLikelyForm), so it also works without JavaScript.
  */
-export function ExerciseFitNotice({ takeId, notice, canMove, busy = false }: { takeId: string; notice: FitNotice; canMove: boolean; busy?: boolean }) {
+export function ExerciseFitNotice({
+  takeId,
+  notice,
+  canMove,
+  busy = false,
+}: {
+  takeId: string;
+  notice: FitNotice;
+  canMove: boolean;
+  busy?: boolean;
+}) {
   const likely = likelySentence(notice);
   return (
-    <div role="status" className="flex flex-col gap-2 rounded-md border-l-4 border-ochre bg-ochre-pale px-4 py-3 text-sm text-ink" data-testid="fit-notice">
+    <div
+      role="status"
+      className="flex flex-col gap-2 rounded-md border-l-4 border-ochre bg-ochre-pale px-4 py-3 text-sm text-ink"
+      data-testid="fit-notice"
+    >
       <p>
         <span className="font-semibold">Check the exercise.</span> {fitSentence(notice)}
       </p>
-      {likely ? <p>{likely}</p> : canMove ? <p>If it belongs to another exercise, move it under “Manage this take” on its page.</p> : null}
+      {likely ? (
+        <p>{likely}</p>
+      ) : canMove ? (
+        <p>If it belongs to another exercise, move it under “Manage this take” on its page.</p>
+      ) : null}
       {likely && notice.likely && canMove ? (
         <p>
           <button type="submit" form={moveFormId(takeId)} disabled={busy} className={buttonClass("secondary")}>

@@ -18,14 +18,16 @@ export type AnalysisTask = {
 };
 
 export type AnalysisOutcome =
-  | { ok: true; analysis: TakeAnalysis; fit?: FitReport }
-  | { ok: false; error: string; code?: string };
+  { ok: true; analysis: TakeAnalysis; fit?: FitReport } | { ok: false; error: string; code?: string };
 
 /**
  * A file the engine refuses (truncated, no notes, too long…) becomes a failed
  * outcome with the engine's one-line reason; anything else is a bug and is rethrown.
  */
-export function analyseTake(bytes: Uint8Array, options: { key?: string | null; target?: string; candidates?: FitCandidate[] }): AnalysisOutcome {
+export function analyseTake(
+  bytes: Uint8Array,
+  options: { key?: string | null; target?: string; candidates?: FitCandidate[] },
+): AnalysisOutcome {
   try {
     const analysis = analyseMidi(bytes, { key: options.key ?? undefined, target: options.target });
     if (!options.candidates?.length) return { ok: true, analysis };

@@ -4,7 +4,13 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { analyseMidi, analyseNotes, AnalysisError, ANALYSIS_VERSION, ProgressionError } from "../../../app/analysis/index";
+import {
+  analyseMidi,
+  analyseNotes,
+  AnalysisError,
+  ANALYSIS_VERSION,
+  ProgressionError,
+} from "../../../app/analysis/index";
 import type { NoteEvent } from "../../../app/analysis/types";
 import { SAMPLE_TAKES } from "../../../scripts/lib/sampleTakes";
 import { EXERCISES, generateTake } from "../../../scripts/lib/takeGenerator";
@@ -21,18 +27,47 @@ describe("analyseMidi output shape (the JSON contract of npm run analyse -- --js
     const a = analyseD();
     expect(Object.keys(a).sort()).toEqual(["changes", "chords", "melodyNotes", "summary"]);
     for (const c of a.chords) {
-      for (const f of ["startSec", "endSec", "notes", "graceNotes", "root", "bass", "symbol", "roman", "inversion", "upperInversion", "voicing", "topNote", "flags", "techniques"]) {
+      for (const f of [
+        "startSec",
+        "endSec",
+        "notes",
+        "graceNotes",
+        "root",
+        "bass",
+        "symbol",
+        "roman",
+        "inversion",
+        "upperInversion",
+        "voicing",
+        "topNote",
+        "flags",
+        "techniques",
+      ]) {
         expect(c, f).toHaveProperty(f);
       }
       expect(c.notes).toEqual([...c.notes].sort((x, y) => x - y));
     }
     expect(a.changes).toHaveLength(a.chords.length - 1);
     for (const ch of a.changes) {
-      for (const f of ["from", "to", "motion", "bestMotion", "bestVoicing", "suggestions", "flags"]) expect(ch, f).toHaveProperty(f);
+      for (const f of ["from", "to", "motion", "bestMotion", "bestVoicing", "suggestions", "flags"])
+        expect(ch, f).toHaveProperty(f);
       expect(ch.to).toBe(ch.from + 1);
       expect(ch.suggestions.length).toBeLessThanOrEqual(3);
     }
-    for (const f of ["chordCount", "totalMotion", "bestTotalMotion", "smoothness", "rootPositionLeaps", "flags", "techniques", "key", "score", "analysisVersion", "accuracy", "mismatches"]) {
+    for (const f of [
+      "chordCount",
+      "totalMotion",
+      "bestTotalMotion",
+      "smoothness",
+      "rootPositionLeaps",
+      "flags",
+      "techniques",
+      "key",
+      "score",
+      "analysisVersion",
+      "accuracy",
+      "mismatches",
+    ]) {
       expect(a.summary, f).toHaveProperty(f);
     }
     expect(a.summary.analysisVersion).toBe(ANALYSIS_VERSION);
@@ -57,8 +92,24 @@ describe("analyseMidi output shape (the JSON contract of npm run analyse -- --js
     const bytes = smf(
       480,
       trackChunk([...lh([48, 55, 64], 960)]),
-      trackChunk([...noteOn(0, 76), ...noteOff(240, 76), ...noteOn(0, 74), ...noteOff(120, 74), ...noteOn(0, 72), ...noteOff(600, 72)]),
-      trackChunk([...noteOn(960, 53), ...noteOn(0, 57), ...noteOn(0, 60), ...noteOn(0, 77), ...noteOff(960, 53), ...noteOff(0, 57), ...noteOff(0, 60), ...noteOff(0, 77)]),
+      trackChunk([
+        ...noteOn(0, 76),
+        ...noteOff(240, 76),
+        ...noteOn(0, 74),
+        ...noteOff(120, 74),
+        ...noteOn(0, 72),
+        ...noteOff(600, 72),
+      ]),
+      trackChunk([
+        ...noteOn(960, 53),
+        ...noteOn(0, 57),
+        ...noteOn(0, 60),
+        ...noteOn(0, 77),
+        ...noteOff(960, 53),
+        ...noteOff(0, 57),
+        ...noteOff(0, 60),
+        ...noteOff(0, 77),
+      ]),
     );
     const r = analyseMidi(bytes);
     expect(r.chords.map((c) => c.symbol)).toEqual(["C", "F"]);
@@ -69,7 +120,15 @@ describe("analyseMidi output shape (the JSON contract of npm run analyse -- --js
   });
 
   it("a single note between chords, with nothing under it, is no chord of its own", () => {
-    const bytes = smf(480, trackChunk([...chordEvents(0, [60, 64, 67], 400), ...noteOn(80, 72), ...noteOff(200, 72), ...chordEvents(200, [60, 65, 69], 400)]));
+    const bytes = smf(
+      480,
+      trackChunk([
+        ...chordEvents(0, [60, 64, 67], 400),
+        ...noteOn(80, 72),
+        ...noteOff(200, 72),
+        ...chordEvents(200, [60, 65, 69], 400),
+      ]),
+    );
     const r = analyseMidi(bytes);
     // C4 F4 A4 has C in the bass: F/C.
     expect(r.chords.map((c) => c.symbol)).toEqual(["C", "F/C"]);
@@ -105,7 +164,10 @@ describe("sample takes show what they were made to show", () => {
 });
 
 describe("properties (fast-check)", () => {
-  const chordNotes = fc.array(fc.uniqueArray(fc.integer({ min: 40, max: 84 }), { minLength: 2, maxLength: 5 }), { minLength: 2, maxLength: 6 });
+  const chordNotes = fc.array(fc.uniqueArray(fc.integer({ min: 40, max: 84 }), { minLength: 2, maxLength: 5 }), {
+    minLength: 2,
+    maxLength: 6,
+  });
   const toNotes = (chords: number[][]): NoteEvent[] =>
     chords.flatMap((c, i) => c.map((midi, j) => ({ midi, start: i + j * 0.01, end: i + 0.9, velocity: 0.7 })));
 
@@ -122,7 +184,10 @@ describe("properties (fast-check)", () => {
 
   it("transposing a take moves names with it and leaves every measurement unchanged", () => {
     // Mid-keyboard chords, so no candidate voicing of either take runs off the 88 keys.
-    const midChords = fc.array(fc.uniqueArray(fc.integer({ min: 55, max: 79 }), { minLength: 2, maxLength: 5 }), { minLength: 2, maxLength: 6 });
+    const midChords = fc.array(fc.uniqueArray(fc.integer({ min: 55, max: 79 }), { minLength: 2, maxLength: 5 }), {
+      minLength: 2,
+      maxLength: 6,
+    });
     fc.assert(
       fc.property(midChords, fc.integer({ min: -5, max: 5 }), (chords, by) => {
         const a = analyseNotes(toNotes(chords), { key: "C" });
@@ -174,7 +239,14 @@ describe("typed errors and hang guards", () => {
 
   it("a 100-note cluster finishes quickly and is flagged, not graded", () => {
     const cluster = Array.from({ length: 100 }, (_, i) => 21 + i);
-    const bytes = smf(480, trackChunk([...chordEvents(0, [60, 64, 67], 400), ...chordEvents(80, cluster, 400), ...chordEvents(80, [60, 65, 69], 400)]));
+    const bytes = smf(
+      480,
+      trackChunk([
+        ...chordEvents(0, [60, 64, 67], 400),
+        ...chordEvents(80, cluster, 400),
+        ...chordEvents(80, [60, 65, 69], 400),
+      ]),
+    );
     const t = performance.now();
     const r = analyseMidi(bytes);
     expect(performance.now() - t).toBeLessThan(3000);
@@ -183,8 +255,18 @@ describe("typed errors and hang guards", () => {
   });
 
   it("hostile note lists stay fast: 20,000 notes at one instant, a storm of grace-like notes", () => {
-    const same = Array.from({ length: 20_000 }, (_, i) => ({ midi: 21 + (i % 88), start: 0, end: 0.1 + (i % 7) * 0.01, velocity: 0.5 }));
-    const storm = Array.from({ length: 20_000 }, (_, i) => ({ midi: 60 + (i % 3), start: (i >> 1) * 0.03, end: (i >> 1) * 0.03 + (i % 2 ? 0.5 : 0.03), velocity: 0.5 }));
+    const same = Array.from({ length: 20_000 }, (_, i) => ({
+      midi: 21 + (i % 88),
+      start: 0,
+      end: 0.1 + (i % 7) * 0.01,
+      velocity: 0.5,
+    }));
+    const storm = Array.from({ length: 20_000 }, (_, i) => ({
+      midi: 60 + (i % 3),
+      start: (i >> 1) * 0.03,
+      end: (i >> 1) * 0.03 + (i % 2 ? 0.5 : 0.03),
+      velocity: 0.5,
+    }));
     const t = performance.now();
     expect(analyseNotes(same).chords[0].flags).toContain("too-many-notes");
     expect(analyseNotes(storm).chords.length).toBeGreaterThan(0);
@@ -194,13 +276,19 @@ describe("typed errors and hang guards", () => {
   it("a take of single notes only has no chords, no changes and a score of 0", () => {
     const melody = [60, 62, 64, 65, 67].map((midi, i) => ({ midi, start: i * 0.5, end: i * 0.5 + 0.4, velocity: 0.6 }));
     const r = analyseNotes(melody, { key: "C" });
-    expect([r.chords.length, r.changes.length, r.melodyNotes.length, r.summary.score, r.summary.smoothness]).toEqual([0, 0, 5, 0, 1]);
+    expect([r.chords.length, r.changes.length, r.melodyNotes.length, r.summary.score, r.summary.smoothness]).toEqual([
+      0, 0, 5, 0, 1,
+    ]);
   });
 
   it("a file with 16 busy channels finishes quickly (drums on channel 10 ignored)", () => {
     const tracks = Array.from({ length: 16 }, (_, ch) => {
       const events: number[] = [];
-      for (let i = 0; i < 300; i++) events.push(...noteOn(i === 0 ? 0 : 37, 36 + ((i * 5 + ch * 3) % 60), 80, ch), ...noteOff(60, 36 + ((i * 5 + ch * 3) % 60), ch));
+      for (let i = 0; i < 300; i++)
+        events.push(
+          ...noteOn(i === 0 ? 0 : 37, 36 + ((i * 5 + ch * 3) % 60), 80, ch),
+          ...noteOff(60, 36 + ((i * 5 + ch * 3) % 60), ch),
+        );
       return trackChunk(events);
     });
     const t = performance.now();

@@ -32,7 +32,11 @@ const bassKept = (b: number[]) => (b.length >= 3 && b[1] === b[0] + 12 && b[2] -
  * included; between two-hand voicings (or with keepBass) B's bass as played and every other
  * note above it; with keepTop, B's top note as played.
  */
-function bruteBest(a: number[], b: number[], opts: BestMotionOptions = {}): { motion: number; voicing: number[] } | null {
+function bruteBest(
+  a: number[],
+  b: number[],
+  opts: BestMotionOptions = {},
+): { motion: number; voicing: number[] } | null {
   const keep = twoHand(a) && twoHand(b);
   const fixed = keep || opts.keepBass ? bassKept(b) : [];
   const free = b.slice(fixed.length).map(pcOf);
@@ -45,7 +49,8 @@ function bruteBest(a: number[], b: number[], opts: BestMotionOptions = {}): { mo
     if (opts.accept && !opts.accept(v.slice())) return;
     const m = motion(a, v);
     if (opts.below !== undefined && m >= opts.below) return;
-    if (!best || m < best.motion || (m === best.motion && lowerOnTie(v, best.voicing, aTop))) best = { motion: m, voicing: v };
+    if (!best || m < best.motion || (m === best.motion && lowerOnTie(v, best.voicing, aTop)))
+      best = { motion: m, voicing: v };
   };
   const rec = (i: number, chosen: number[]) => {
     if (i === free.length) {
@@ -53,7 +58,8 @@ function bruteBest(a: number[], b: number[], opts: BestMotionOptions = {}): { mo
       if (new Set(v).size === v.length) consider(v);
       return;
     }
-    for (let note = lowest + ((free[i] - pcOf(lowest) + 12) % 12); note <= 100; note += 12) rec(i + 1, [...chosen, note]);
+    for (let note = lowest + ((free[i] - pcOf(lowest) + 12) % 12); note <= 100; note += 12)
+      rec(i + 1, [...chosen, note]);
   };
   rec(0, []);
   consider(b.slice());
@@ -183,7 +189,12 @@ const chord = fc.oneof(
   // wide voicings without a detached bass (two-hand by their span)
   fc.tuple(voicing(48, 55, 2), voicing(70, 84, 1)).map(([low, high]) => [...low, ...high]),
 );
-const options = fc.constantFrom<BestMotionOptions>({}, { keepTop: true }, { keepBass: true }, { keepTop: true, keepBass: true });
+const options = fc.constantFrom<BestMotionOptions>(
+  {},
+  { keepTop: true },
+  { keepBass: true },
+  { keepTop: true, keepBass: true },
+);
 
 describe("bestMotion against the literal brute force (fast-check)", () => {
   it("finds the same motion and voicing, with and without options", () => {
@@ -198,10 +209,13 @@ describe("bestMotion against the literal brute force (fast-check)", () => {
   it("finds the same under a motion bound and a flag filter with its early test", () => {
     // the filter: no two lowest notes closer than a 4th, and no note below C3 other than the bass
     const accept = (v: number[]) => v[1] - v[0] >= 5 && v.slice(1).every((n) => n >= 48);
-    const acceptPrefix = (p: readonly number[], len: number) => (len < 2 || p[1] - p[0] >= 5) && (len < 2 || p[len - 1] >= 48);
+    const acceptPrefix = (p: readonly number[], len: number) =>
+      (len < 2 || p[1] - p[0] >= 5) && (len < 2 || p[len - 1] >= 48);
     fc.assert(
       fc.property(chord, chord, options, fc.integer({ min: 1, max: 30 }), (a, b, opts, below) => {
-        expect(bestMotion(a, b, { ...opts, accept, acceptPrefix, below })).toEqual(bruteBest(a, b, { ...opts, accept, below }));
+        expect(bestMotion(a, b, { ...opts, accept, acceptPrefix, below })).toEqual(
+          bruteBest(a, b, { ...opts, accept, below }),
+        );
       }),
       { numRuns: 150, seed: 20261202 },
     );

@@ -69,11 +69,38 @@ describe("root-position leap on the right hand (rule 9, two-hand voicings)", () 
 
   it.each([0, 2, -7])("the right hand decides, not the left (transposed %i)", (t) => {
     // right hand F4 A4 C5 -> Bb4 D5 F5 (root position, every note up 5), left F2 -> Bb1 or held
-    expect(isRootPositionLeap(shift([41, 65, 69, 72], t), shift([34, 70, 74, 77], t), 0, 0, (5 + t + 12) % 12, (10 + t + 12) % 12)).toBe(true);
+    expect(
+      isRootPositionLeap(
+        shift([41, 65, 69, 72], t),
+        shift([34, 70, 74, 77], t),
+        0,
+        0,
+        (5 + t + 12) % 12,
+        (10 + t + 12) % 12,
+      ),
+    ).toBe(true);
     // right hand not in root position: A4 C5 F5 -> Bb4 D5 F5 over the same basses
-    expect(isRootPositionLeap(shift([41, 69, 72, 77], t), shift([34, 70, 74, 77], t), 0, 0, (5 + t + 12) % 12, (10 + t + 12) % 12)).toBe(false);
+    expect(
+      isRootPositionLeap(
+        shift([41, 69, 72, 77], t),
+        shift([34, 70, 74, 77], t),
+        0,
+        0,
+        (5 + t + 12) % 12,
+        (10 + t + 12) % 12,
+      ),
+    ).toBe(false);
     // the right hand moves less than 3 in one voice: C4 E4 G4 -> B3 D4 G4 over C3 -> G2
-    expect(isRootPositionLeap(shift([48, 60, 64, 67], t), shift([43, 59, 62, 67], t), 0, 0, (0 + t + 12) % 12, (7 + t + 12) % 12)).toBe(false);
+    expect(
+      isRootPositionLeap(
+        shift([48, 60, 64, 67], t),
+        shift([43, 59, 62, 67], t),
+        0,
+        0,
+        (0 + t + 12) % 12,
+        (7 + t + 12) % 12,
+      ),
+    ).toBe(false);
   });
 
   it("keeps RULES.md's worked examples of two-hand voicings as they were", () => {

@@ -8,7 +8,11 @@ import { describe, expect, it } from "vitest";
 
 const ROOT = join(__dirname, "../../..");
 const run = (...args: string[]) =>
-  spawnSync(join(ROOT, "node_modules/.bin/tsx"), [join(ROOT, "scripts/analyse.ts"), ...args], { cwd: ROOT, encoding: "utf8", timeout: 30_000 });
+  spawnSync(join(ROOT, "node_modules/.bin/tsx"), [join(ROOT, "scripts/analyse.ts"), ...args], {
+    cwd: ROOT,
+    encoding: "utf8",
+    timeout: 30_000,
+  });
 
 describe("npm run analyse", () => {
   it("--json with one file prints exactly one JSON document and nothing else", () => {

@@ -32,13 +32,18 @@ function expectNamed(pitches: number[], symbol: string) {
     const got = symbolOf(moved);
     expect(got, `${moved.join(" ")}`).not.toBeNull();
     const have = parts(got!);
-    expect(have, `${moved.join(" ")} read as ${got}`).toEqual({ root: pc(want.root + t), suffix: want.suffix, bass: pc(want.bass + t) });
+    expect(have, `${moved.join(" ")} read as ${got}`).toEqual({
+      root: pc(want.root + t),
+      suffix: want.suffix,
+      bass: pc(want.bass + t),
+    });
   }
 }
 
 const pcsOf = (pitches: number[]) => [...new Set(pitches.map(pc))].sort((a, b) => a - b);
 /** tonal's pitch classes for a symbol (`Chord.get(symbol).notes`). */
-const tonalPcs = (symbol: string) => [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
+const tonalPcs = (symbol: string) =>
+  [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
 
 describe("rule 4's tie-break, worked by hand from RULES.md rule 4", () => {
   it.each([
@@ -190,7 +195,10 @@ describe("transposition renames consistently (rule 4 with rule 20's dictionary)"
         (pcs, t) => {
           const pitches = [48 + pcs[0], ...pcs.slice(1).map((p) => 60 + p)];
           const a = nameChord(pitches, pitches[0]);
-          const b = nameChord(pitches.map((p) => p + t), pitches[0] + t);
+          const b = nameChord(
+            pitches.map((p) => p + t),
+            pitches[0] + t,
+          );
           expect(b.suffix).toBe(a.suffix);
           expect(b.triad).toBe(a.triad);
           expect(b.rootPc).toBe(a.rootPc === null ? null : pc(a.rootPc + t));

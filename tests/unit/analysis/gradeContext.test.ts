@@ -31,7 +31,12 @@ function harmony(notes: number[], rootPc: number | null, inversion: number | nul
   };
   return partial as ChordReport;
 }
-const melodyNote = (note: number, startSec: number): MelodyNote => ({ note, startSec, endSec: startSec + 0.5, noteName: "" });
+const melodyNote = (note: number, startSec: number): MelodyNote => ({
+  note,
+  startSec,
+  endSec: startSec + 0.5,
+  noteName: "",
+});
 
 describe("a tune over two-hand voicings (RULES.md rule 8 worked example)", () => {
   // left hand C3 G3 E4 with melody G5 struck with it and E5 after; then F3 A3 E4 under melody F5
@@ -95,7 +100,13 @@ describe("suggestions obey rule 8's limits and move less than played (fast-check
 
   it("offers nothing when no voicing moves less (F3 A3 C4 -> F3 Bb3 D4 moves 3, its best)", () => {
     for (const t of [0, 2, -5]) {
-      const c = gradeChange(0, 1, harmony(shift([53, 57, 60], t), 5 + t, 0, 0), harmony(shift([53, 58, 62], t), 10 + t, 2, 1), key);
+      const c = gradeChange(
+        0,
+        1,
+        harmony(shift([53, 57, 60], t), 5 + t, 0, 0),
+        harmony(shift([53, 58, 62], t), 10 + t, 2, 1),
+        key,
+      );
       expect([c.motion, c.bestMotion, c.suggestions]).toEqual([3, 3, []]);
     }
   });
@@ -114,10 +125,16 @@ describe("top-line leap from the melody (RULES.md rule 10)", () => {
     const a = harmony(shift([48, 55, 64, 79], t), t, 0, 0); // C3 G3 E4 under G5
     const b = harmony(shift([53, 57, 64, 77], t), 5 + t, 0, 2); // F3 A3 E4 under F5
     // the tune fell from G5 to A4 before the change: A4 -> F5 is 8, a leap
-    const fell = gradeChanges([a, b], key, { hasMelody: true, melodyNotes: [melodyNote(79 + t, 0), melodyNote(69 + t, 1)] });
+    const fell = gradeChanges([a, b], key, {
+      hasMelody: true,
+      melodyNotes: [melodyNote(79 + t, 0), melodyNote(69 + t, 1)],
+    });
     expect(fell[0].flags).toContain("top-line-leap");
     // the tune stepped from G5 to E5: E5 -> F5 is 1, no leap
-    const stepped = gradeChanges([a, b], key, { hasMelody: true, melodyNotes: [melodyNote(79 + t, 0), melodyNote(76 + t, 1)] });
+    const stepped = gradeChanges([a, b], key, {
+      hasMelody: true,
+      melodyNotes: [melodyNote(79 + t, 0), melodyNote(76 + t, 1)],
+    });
     expect(stepped[0].flags).not.toContain("top-line-leap");
     // without a melody, voicing top to voicing top (G5 -> F5)
     expect(gradeChanges([a, b], key)[0].flags).not.toContain("top-line-leap");

@@ -17,7 +17,12 @@ import { ANALYSIS_VERSION } from "../../../app/analysis/version";
 
 const key = parseKey("C");
 function chord(pitches: number[], start = 0) {
-  const s: Strike = { start, notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })), graces: [], held: [] };
+  const s: Strike = {
+    start,
+    notes: pitches.map((midi) => ({ midi, start, end: start + 0.9, velocity: 0.7 })),
+    graces: [],
+    held: [],
+  };
   return chordReport(s, key, []);
 }
 const change = (a: number[], b: number[]) => gradeChange(0, 1, chord(a), chord(b), key);
@@ -37,11 +42,13 @@ describe("grading a change (RULES.md worked examples)", () => {
     [[60, 64, 67], [60, 64, 67, 70], 3, 2, []],
   ])("%j → %j: motion %i, best %i, flags %j", (a, b, motionValue, best, flags) => {
     for (const t of [0, 3]) {
-      const c = change(a.map((n) => n + t), b.map((n) => n + t));
+      const c = change(
+        a.map((n) => n + t),
+        b.map((n) => n + t),
+      );
       expect([c.motion, c.bestMotion, c.flags]).toEqual([motionValue, best, flags]);
     }
   });
-
 
   it("F3 A3 C4 → Bb3 D4 F4: motion 15, best 3 (F3 Bb3 D4), root-position leap", () => {
     const c = change([53, 57, 60], [58, 62, 65]);
@@ -113,7 +120,16 @@ describe("summary", () => {
 
   it("the summary judges steady time on the strikes it is given, with the file's tempo", () => {
     const chords = [chord([53, 57, 60], 0), chord([58, 62, 65], 4)];
-    const base = { chords, melodyNotes: [], changes: [gradeChange(0, 1, chords[0], chords[1], key)], key, keySource: "given" as const, durationSec: 5, pedal: [], analysisVersion: ANALYSIS_VERSION };
+    const base = {
+      chords,
+      melodyNotes: [],
+      changes: [gradeChange(0, 1, chords[0], chords[1], key)],
+      key,
+      keySource: "given" as const,
+      durationSec: 5,
+      pedal: [],
+      analysisVersion: ANALYSIS_VERSION,
+    };
     // the first chord re-struck every beat at 60 bpm, then the second: strict time
     const strikes = [0, 1, 2, 3, 4];
     expect(summarise({ ...base, strikeOnsets: strikes, tempos: [{ time: 0, bpm: 60 }] }).tempo.steadiness).toBe(1);
@@ -125,7 +141,16 @@ describe("summary", () => {
   it("totals, flags and techniques by name, top line and score", () => {
     const chords = [chord([53, 57, 60], 0), chord([58, 62, 65], 1), chord([53, 57, 60], 2)];
     const changes = [gradeChange(0, 1, chords[0], chords[1], key), gradeChange(1, 2, chords[1], chords[2], key)];
-    const s = summarise({ chords, melodyNotes: [], changes, key, keySource: "given", durationSec: 3, pedal: [], analysisVersion: ANALYSIS_VERSION });
+    const s = summarise({
+      chords,
+      melodyNotes: [],
+      changes,
+      key,
+      keySource: "given",
+      durationSec: 3,
+      pedal: [],
+      analysisVersion: ANALYSIS_VERSION,
+    });
     expect(s.totalMotion).toBe(30);
     expect(s.bestTotalMotion).toBe(6);
     expect(s.smoothness).toBe(0.2);
@@ -141,19 +166,48 @@ describe("summary", () => {
 
 describe("score", () => {
   it("weights without a target: smoothness 45, clean chords and changes 30, variety 15, steadiness 10", () => {
-    const parts = scoreParts({ chordCount: 4, smoothness: 1, flaggedItems: 0, items: 7, distinctTechniques: 3, steadiness: 1, accuracy: null });
+    const parts = scoreParts({
+      chordCount: 4,
+      smoothness: 1,
+      flaggedItems: 0,
+      items: 7,
+      distinctTechniques: 3,
+      steadiness: 1,
+      accuracy: null,
+    });
     expect(score(4, parts)).toBe(100);
     expect(score(4, { ...parts, smoothness: 0 })).toBe(55);
     expect(score(4, { ...parts, techniqueVariety: 0 })).toBe(85);
   });
 
   it("with a target, accuracy weighs 20", () => {
-    const parts = scoreParts({ chordCount: 4, smoothness: 1, flaggedItems: 0, items: 7, distinctTechniques: 3, steadiness: 1, accuracy: 0.5 });
+    const parts = scoreParts({
+      chordCount: 4,
+      smoothness: 1,
+      flaggedItems: 0,
+      items: 7,
+      distinctTechniques: 3,
+      steadiness: 1,
+      accuracy: 0.5,
+    });
     expect(score(4, parts)).toBe(90);
   });
 
   it("no chords, no score", () => {
-    expect(score(0, scoreParts({ chordCount: 0, smoothness: 1, flaggedItems: 0, items: 0, distinctTechniques: 0, steadiness: 1, accuracy: null }))).toBe(0);
+    expect(
+      score(
+        0,
+        scoreParts({
+          chordCount: 0,
+          smoothness: 1,
+          flaggedItems: 0,
+          items: 0,
+          distinctTechniques: 0,
+          steadiness: 1,
+          accuracy: null,
+        }),
+      ),
+    ).toBe(0);
   });
 });
 
@@ -186,7 +240,9 @@ describe("top line (RULES.md terms: the melody where the take has one)", () => {
     expect(topLineNotes([chordAt(64, 0), chordAt(65, 1)], [])).toEqual([64, 65]);
     // C3 G3 E4 under melody G5 (struck with it) and E5, then F3 A3 E4 under F5 (worked by hand from RULES.md rule 18)
     for (const t of [0, 2, -3]) {
-      expect(topLineNotes([chordAt(79 + t, 0), chordAt(77 + t, 2)], [tune(79 + t, 0.01), tune(76 + t, 1), tune(77 + t, 2)])).toEqual([79 + t, 76 + t, 77 + t]);
+      expect(
+        topLineNotes([chordAt(79 + t, 0), chordAt(77 + t, 2)], [tune(79 + t, 0.01), tune(76 + t, 1), tune(77 + t, 2)]),
+      ).toEqual([79 + t, 76 + t, 77 + t]);
     }
   });
 });

@@ -32,7 +32,9 @@ describe("rule 23: the bass of the first and last harmony", () => {
   it("a bass on the major tonic keeps the major reading", () => {
     for (const t of [0, 2, 7]) {
       const notes = notesOf(A_MINOR_OR_C.map((m) => m + t));
-      expect(estimateKey(notes, [], { firstBassPc: pc(t), lastBassPc: pc(t) }).key.name).toBe(["C", "D", "G"][[0, 2, 7].indexOf(t)]);
+      expect(estimateKey(notes, [], { firstBassPc: pc(t), lastBassPc: pc(t) }).key.name).toBe(
+        ["C", "D", "G"][[0, 2, 7].indexOf(t)],
+      );
     }
   });
 
@@ -48,26 +50,36 @@ describe("rule 23: on a tie, major", () => {
     [0, "Eb"],
     [2, "F"],
     [7, "Bb"],
-  ])("Fm Eb Cm over equal pitch-class durations, Eb in the first bass, shifted by %i: the minor key and its relative major tie, the major wins (%s)", (t, major) => {
-    // Worked by hand from key.ts's chord weights: C minor 0.5 + 0.1 + 0.1 (ends on its tonic);
-    // Eb major 0.5 + 0.1 (its tonic once) + 0.1 (bass bonus); the correlation is 0 for both.
-    const chromatic = notesOf([60, 61, 62, 63, 64, 65, 66, 67, 68, 69, 70, 71]);
-    const triads = [[53, 56, 60], [51, 55, 58], [48, 51, 55]].map((v) => v.map((m) => m + t));
-    const chords = triads.map((v) => nameChord(v, v[0]));
-    expect(estimateKey(chromatic, chords).key.mode).toBe("minor");
-    const read = estimateKey(chromatic, chords, { firstBassPc: pc(3 + t) });
-    expect(read.key.name).toBe(major);
-    expect(read.score).toBeCloseTo(0.7, 9);
-  });
+  ])(
+    "Fm Eb Cm over equal pitch-class durations, Eb in the first bass, shifted by %i: the minor key and its relative major tie, the major wins (%s)",
+    (t, major) => {
+      // Worked by hand from key.ts's chord weights: C minor 0.5 + 0.1 + 0.1 (ends on its tonic);
+      // Eb major 0.5 + 0.1 (its tonic once) + 0.1 (bass bonus); the correlation is 0 for both.
+      const chromatic = notesOf([60, 61, 62, 63, 64, 65, 66, 67, 68, 69, 70, 71]);
+      const triads = [
+        [53, 56, 60],
+        [51, 55, 58],
+        [48, 51, 55],
+      ].map((v) => v.map((m) => m + t));
+      const chords = triads.map((v) => nameChord(v, v[0]));
+      expect(estimateKey(chromatic, chords).key.mode).toBe("minor");
+      const read = estimateKey(chromatic, chords, { firstBassPc: pc(3 + t) });
+      expect(read.key.name).toBe(major);
+      expect(read.score).toBeCloseTo(0.7, 9);
+    },
+  );
 
   it.each([
     [9, "A"],
     [2, "D"],
     [6, "F#"],
-  ])("all twelve pitch classes equally long, bass %i at both ends: the major and minor of that tonic tie; major wins (%s)", (bass, key) => {
-    const chromatic = notesOf([60, 61, 62, 63, 64, 65, 66, 67, 68, 69, 70, 71]);
-    const read = estimateKey(chromatic, [], { firstBassPc: bass, lastBassPc: bass });
-    expect(read.key.name).toBe(key);
-    expect(read.key.mode).toBe("major");
-  });
+  ])(
+    "all twelve pitch classes equally long, bass %i at both ends: the major and minor of that tonic tie; major wins (%s)",
+    (bass, key) => {
+      const chromatic = notesOf([60, 61, 62, 63, 64, 65, 66, 67, 68, 69, 70, 71]);
+      const read = estimateKey(chromatic, [], { firstBassPc: bass, lastBassPc: bass });
+      expect(read.key.name).toBe(key);
+      expect(read.key.mode).toBe("major");
+    },
+  );
 });

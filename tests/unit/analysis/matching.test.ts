@@ -7,7 +7,12 @@ import { matchProgression, type PlayedIdentity } from "../../../app/analysis/mat
 import { parseProgression, ProgressionError, type Triad } from "../../../app/analysis/progression";
 
 /** A played chord by hand: root pitch class, triad, bass pitch class, pitch classes sounded. */
-const chord = (root: number | null, triad: Triad | null, pcs: number[], bass = pcs[0]): PlayedIdentity => ({ root, triad, bass, pcs });
+const chord = (root: number | null, triad: Triad | null, pcs: number[], bass = pcs[0]): PlayedIdentity => ({
+  root,
+  triad,
+  bass,
+  pcs,
+});
 const t = (p: number) => ((p % 12) + 12) % 12;
 // Triads played in root position, transposable
 const maj = (r: number) => chord(t(r), "major", [t(r), t(r + 4), t(r + 7)]);
@@ -32,14 +37,26 @@ describe("RULES.md's loop example", () => {
   it("a take looping the target exactly twice scores 100% with k = 2", () => {
     const target = parseProgression("vi IV I V", parseKey("Ab"));
     const once = [min(5), maj(1), maj(8), maj(3)];
-    expect(matchProgression([...once, ...once], target)).toEqual({ accuracy: 1, loops: 2, matched: 8, targetLength: 8, mismatches: [] });
+    expect(matchProgression([...once, ...once], target)).toEqual({
+      accuracy: 1,
+      loops: 2,
+      matched: 8,
+      targetLength: 8,
+      mismatches: [],
+    });
     expect(matchProgression(once, target)).toMatchObject({ accuracy: 1, loops: 1, matched: 4, targetLength: 4 });
   });
 
   it("collapses the repeat where a loop ends on its first chord (I IV V I twice = 7 chords)", () => {
     const target = parseProgression("I IV V I", parseKey("D"));
     const once = [maj(2), maj(7), maj(9), maj(2)];
-    expect(matchProgression([...once, ...once], target)).toMatchObject({ accuracy: 1, loops: 2, matched: 7, targetLength: 7, mismatches: [] });
+    expect(matchProgression([...once, ...once], target)).toMatchObject({
+      accuracy: 1,
+      loops: 2,
+      matched: 7,
+      targetLength: 7,
+      mismatches: [],
+    });
   });
 
   it("on a tie between loop counts takes the larger k", () => {
@@ -90,7 +107,9 @@ describe("mismatches with their positions", () => {
     expect(right).toMatchObject({ accuracy: 1, mismatches: [] });
     const wrong = matchProgression([maj(3), bbOverBb, min(0), cmOverBb, maj(8)], falling);
     expect(wrong.accuracy).toBe(0.8);
-    expect(wrong.mismatches).toEqual([{ kind: "wrong-bass", targetIndex: 1, playedIndex: 1, expected: "Bb/D", pass: 0 }]);
+    expect(wrong.mismatches).toEqual([
+      { kind: "wrong-bass", targetIndex: 1, playedIndex: 1, expected: "Bb/D", pass: 0 },
+    ]);
     // C/E for a target C without slash is fine
     expect(matchProgression([chord(0, "major", [0, 4, 7], 4), maj(5), maj(7), maj(0)], target()).accuracy).toBe(1);
   });
@@ -155,12 +174,21 @@ describe("free extensions versus named ones", () => {
 /** RULES.md's matching rule read literally: every k up to well past the take's length, full table. */
 function referenceMatch(played: PlayedIdentity[], target: ReturnType<typeof parseProgression>) {
   const sameP = (x: PlayedIdentity, y: PlayedIdentity) =>
-    x.root === y.root && x.triad === y.triad && x.bass === y.bass && [...x.pcs].sort().join() === [...y.pcs].sort().join();
+    x.root === y.root &&
+    x.triad === y.triad &&
+    x.bass === y.bass &&
+    [...x.pcs].sort().join() === [...y.pcs].sort().join();
   const sameT = (x: (typeof target)[0], y: (typeof target)[0]) =>
-    x.root === y.root && x.triad === y.triad && x.bass === y.bass && [...x.required].sort().join() === [...y.required].sort().join();
+    x.root === y.root &&
+    x.triad === y.triad &&
+    x.bass === y.bass &&
+    [...x.required].sort().join() === [...y.required].sort().join();
   const take = played.filter((p, i) => i === 0 || !sameP(played[i - 1], p));
   const fits = (p: PlayedIdentity, c: (typeof target)[0]) =>
-    p.root === c.root && p.triad === c.triad && c.required.every((r) => p.pcs.includes((c.root + r) % 12)) && (c.bass === null || c.bass === p.bass);
+    p.root === c.root &&
+    p.triad === c.triad &&
+    c.required.every((r) => p.pcs.includes((c.root + r) % 12)) &&
+    (c.bass === null || c.bass === p.bass);
   let best: { k: number; score: number; length: number } | null = null;
   let lastLength = -1;
   for (let k = 1; k <= take.length + 3; k++) {
@@ -169,10 +197,16 @@ function referenceMatch(played: PlayedIdentity[], target: ReturnType<typeof pars
     if (seq.length === lastLength) continue;
     lastLength = seq.length;
     // best matched-minus-mismatched over all alignments of the take with this looped target
-    const S = Array.from({ length: take.length + 1 }, (_, i) => Array.from({ length: seq.length + 1 }, (_, j) => (i === 0 ? -j : j === 0 ? -i : 0)));
+    const S = Array.from({ length: take.length + 1 }, (_, i) =>
+      Array.from({ length: seq.length + 1 }, (_, j) => (i === 0 ? -j : j === 0 ? -i : 0)),
+    );
     for (let i = 1; i <= take.length; i++)
       for (let j = 1; j <= seq.length; j++)
-        S[i][j] = Math.max(S[i - 1][j - 1] + (fits(take[i - 1], seq[j - 1]) ? 1 : -1), S[i - 1][j] - 1, S[i][j - 1] - 1);
+        S[i][j] = Math.max(
+          S[i - 1][j - 1] + (fits(take[i - 1], seq[j - 1]) ? 1 : -1),
+          S[i - 1][j] - 1,
+          S[i][j - 1] - 1,
+        );
     const score = S[take.length][seq.length];
     if (!best || score >= best.score) best = { k, score, length: seq.length }; // a tie goes to the larger k
   }
@@ -180,7 +214,15 @@ function referenceMatch(played: PlayedIdentity[], target: ReturnType<typeof pars
 }
 
 describe("matching against a literal reading of the rule (fast-check)", () => {
-  const alphabet = [maj(0), min(9), maj(5), maj(7), min(2), chord(7, "major", [7, 11, 2, 5]), chord(0, "major", [0, 4, 7], 4)];
+  const alphabet = [
+    maj(0),
+    min(9),
+    maj(5),
+    maj(7),
+    min(2),
+    chord(7, "major", [7, 11, 2, 5]),
+    chord(0, "major", [0, 4, 7], 4),
+  ];
   it("picks the same loop count, score and target length", () => {
     fc.assert(
       fc.property(

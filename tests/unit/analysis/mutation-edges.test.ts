@@ -14,7 +14,14 @@ import { parseKey } from "../../../app/analysis/pitch";
 import { parseProgression, type Triad } from "../../../app/analysis/progression";
 import { score, scoreParts, SCORE_WEIGHTS } from "../../../app/analysis/score";
 import { findGraces, findStrikes } from "../../../app/analysis/strikes";
-import { beatAt, bpmAt, commonestInterval, followsTempoGrid, tempoMap, tempoSteadiness } from "../../../app/analysis/tempo";
+import {
+  beatAt,
+  bpmAt,
+  commonestInterval,
+  followsTempoGrid,
+  tempoMap,
+  tempoSteadiness,
+} from "../../../app/analysis/tempo";
 import type { NoteEvent, TempoPoint } from "../../../app/analysis/types";
 import { motion, voiceLeadingPairs } from "../../../app/analysis/voiceLeading";
 
@@ -32,9 +39,14 @@ describe("a tempo map with several tempos", () => {
   ];
 
   it("looks up the tempo in force at each time, not the first or the last", () => {
-    expect([bpmAt(tempos, 0), bpmAt(tempos, 1.9), bpmAt(tempos, 2), bpmAt(tempos, 3.5), bpmAt(tempos, 4), bpmAt(tempos, 9)]).toEqual([
-      120, 120, 60, 60, 180, 180,
-    ]);
+    expect([
+      bpmAt(tempos, 0),
+      bpmAt(tempos, 1.9),
+      bpmAt(tempos, 2),
+      bpmAt(tempos, 3.5),
+      bpmAt(tempos, 4),
+      bpmAt(tempos, 9),
+    ]).toEqual([120, 120, 60, 60, 180, 180]);
     // SMF 1.0: no tempo event before the first one means 120 bpm.
     expect(bpmAt([{ time: 1, bpm: 60 }], 0.5)).toBe(120);
   });
@@ -76,7 +88,9 @@ describe("rule 3's lone bass, away from time 0", () => {
   });
 
   it("a bass struck 100 ms before a chord at 2 s joins it, and the strike begins with the bass", () => {
-    expect(shape([note(48, 1.9, 3), note(60, 2, 3), note(64, 2, 3), note(67, 2, 3)])).toEqual([[1.9, [48, 60, 64, 67]]]);
+    expect(shape([note(48, 1.9, 3), note(60, 2, 3), note(64, 2, 3), note(67, 2, 3)])).toEqual([
+      [1.9, [48, 60, 64, 67]],
+    ]);
   });
 
   it("150 ms is the limit on either side; 160 ms is a strike of its own", () => {
@@ -124,7 +138,10 @@ describe("best motion at the ends of the keyboard and with a high kept bass", ()
     // Worked by hand from RULES.md rules 7 and 8: A0 C1 E1 → G major. G0 B0 D1 would move
     // 2 + 1 + 2 = 5 but G0 is not on the keyboard; B0 D1 G1 moves 2 + 2 + 3 = 7.
     expect(bestMotion([21, 24, 28], [31, 35, 38])).toEqual({ motion: 7, voicing: [23, 26, 31] });
-    expect(bestMotion([21, 24, 28], [31, 35, 38], { accept: () => true })).toEqual({ motion: 7, voicing: [23, 26, 31] });
+    expect(bestMotion([21, 24, 28], [31, 35, 38], { accept: () => true })).toEqual({
+      motion: 7,
+      voicing: [23, 26, 31],
+    });
   });
 
   it("never places a note above C8", () => {
@@ -132,7 +149,10 @@ describe("best motion at the ends of the keyboard and with a high kept bass", ()
     // keyboard; C#7 E7 A7 moves 3 + 4 + 3 = 10 (A6 C#7 E7 as played moves 22).
     expect(motion([100, 104, 108], [93, 97, 100])).toBe(22);
     expect(bestMotion([100, 104, 108], [93, 97, 100])).toEqual({ motion: 10, voicing: [97, 100, 105] });
-    expect(bestMotion([100, 104, 108], [93, 97, 100], { accept: () => true })).toEqual({ motion: 10, voicing: [97, 100, 105] });
+    expect(bestMotion([100, 104, 108], [93, 97, 100], { accept: () => true })).toEqual({
+      motion: 10,
+      voicing: [97, 100, 105],
+    });
   });
 
   it("re-voices above a kept bass that lies above the previous chord's top (rule 8)", () => {
@@ -200,7 +220,12 @@ describe("naming tie-breaks of rule 4", () => {
     expect(Chord.get("Caug").intervals).toEqual(["1P", "3M", "5A"]);
     for (let t = 0; t < 12; t++) {
       const n = nameChord([60 + t, 64 + t, 68 + t], 60 + t);
-      expect([n.rootPc, n.triad, n.suffix, n.intervals], `transposed by ${t}`).toEqual([t, "augmented", "aug", [0, 4, 8]]);
+      expect([n.rootPc, n.triad, n.suffix, n.intervals], `transposed by ${t}`).toEqual([
+        t,
+        "augmented",
+        "aug",
+        [0, 4, 8],
+      ]);
     }
   });
 
@@ -208,11 +233,32 @@ describe("naming tie-breaks of rule 4", () => {
     // tonal as reference for the intervals: C7b9 has 9m, C7#9 has 9A, Cmaj7#11 has 11A.
     const semis = (sym: string) => Chord.get(sym).intervals.map((i) => Interval.semitones(i)! % 12);
     expect(Chord.get("C7b9").intervals).toContain("9m");
-    expect(addedTones(nameChord(semis("C7b9").map((s) => 60 + s), 60))).toEqual(["b9"]);
+    expect(
+      addedTones(
+        nameChord(
+          semis("C7b9").map((s) => 60 + s),
+          60,
+        ),
+      ),
+    ).toEqual(["b9"]);
     expect(Chord.get("C7#9").intervals).toContain("9A");
-    expect(addedTones(nameChord(semis("C7#9").map((s) => 60 + s), 60))).toEqual(["#9"]);
+    expect(
+      addedTones(
+        nameChord(
+          semis("C7#9").map((s) => 60 + s),
+          60,
+        ),
+      ),
+    ).toEqual(["#9"]);
     expect(Chord.get("Cmaj7#11").intervals).toContain("11A");
-    expect(addedTones(nameChord(semis("Cmaj7#11").map((s) => 60 + s), 60))).toEqual(["#11"]);
+    expect(
+      addedTones(
+        nameChord(
+          semis("Cmaj7#11").map((s) => 60 + s),
+          60,
+        ),
+      ),
+    ).toEqual(["#11"]);
     // Plain added tones have none (tonal: Cadd9 is 1P 3M 5P 9M).
     expect(addedTones(nameChord([60, 62, 64, 67], 60))).toEqual(["9"]);
   });
@@ -248,14 +294,27 @@ describe("matching: neighbours that differ are not collapsed", () => {
   });
 
   it("a repeated identical chord still collapses", () => {
-    expect(matchProgression([c7, c7, cmaj7], parseProgression("I7 Imaj7", parseKey("C")))).toMatchObject({ accuracy: 1, matched: 2, targetLength: 2, mismatches: [] });
+    expect(matchProgression([c7, c7, cmaj7], parseProgression("I7 Imaj7", parseKey("C")))).toMatchObject({
+      accuracy: 1,
+      matched: 2,
+      targetLength: 2,
+      mismatches: [],
+    });
   });
 });
 
 describe("the variety part of the score between 0 and 3 techniques", () => {
   // RULES.md "Score": distinct techniques counted up to 3, one gives 1/3.
   const parts = (distinctTechniques: number) =>
-    scoreParts({ chordCount: 4, smoothness: 1, flaggedItems: 0, items: 7, distinctTechniques, steadiness: 1, accuracy: null });
+    scoreParts({
+      chordCount: 4,
+      smoothness: 1,
+      flaggedItems: 0,
+      items: 7,
+      distinctTechniques,
+      steadiness: 1,
+      accuracy: null,
+    });
 
   it("one technique is a third, two are two thirds, four count as three", () => {
     expect(parts(1).techniqueVariety).toBeCloseTo(1 / 3, 12);
@@ -297,7 +356,8 @@ describe("change flags at their exact thresholds", () => {
 
 describe("rules 1–3: which notes pair up", () => {
   // Worked by hand from RULES.md rules 2 and 3.
-  const graces = (notes: NoteEvent[]) => findStrikes(notes).flatMap((s) => s.graces.map((g) => [g.note.midi, g.target.midi]));
+  const graces = (notes: NoteEvent[]) =>
+    findStrikes(notes).flatMap((s) => s.graces.map((g) => [g.note.midi, g.target.midi]));
 
   it("a resolution held no longer than the grace note is no resolution", () => {
     expect(graces([note(63, 0, 0.09), note(64, 0.09, 0.18)])).toEqual([]);
@@ -321,7 +381,13 @@ describe("rules 1–3: which notes pair up", () => {
 
   it("a bass approached by a grace note is two keys struck, not a lone bass (rule 3)", () => {
     // B2 → C3 grace, then C4 E4 G4 150 ms after: the C3 strike holds two pitches and stays apart.
-    const strikes = findStrikes([note(47, 0, 0.05), note(48, 0.05, 1), note(60, 0.15, 1), note(64, 0.15, 1), note(67, 0.15, 1)]);
+    const strikes = findStrikes([
+      note(47, 0, 0.05),
+      note(48, 0.05, 1),
+      note(60, 0.15, 1),
+      note(64, 0.15, 1),
+      note(67, 0.15, 1),
+    ]);
     expect(strikes.map((s) => s.notes.map((n) => n.midi).sort((a, b) => a - b))).toEqual([[48], [60, 64, 67]]);
     expect(strikes[0].graces).toHaveLength(1);
   });
@@ -372,7 +438,13 @@ describe("steady time: where the beat comes from (rule 22)", () => {
     // 0.7 s is off the 120 bpm half-beat grid for 2 of 5 onsets (1.4 and 2.8 beats are 0.1 s
     // away), so only the strikes' own beat counts: 0.7 s fits every interval exactly; halves
     // and thirds fit no better, so the commonest interval stays the beat.
-    expect(tempoSteadiness([0, 0.7, 1.4, 2.1, 2.8])).toEqual({ medianGapSec: 0.7, spread: 0, steadiness: 1, beatSec: 0.7, beatFrom: "strikes" });
+    expect(tempoSteadiness([0, 0.7, 1.4, 2.1, 2.8])).toEqual({
+      medianGapSec: 0.7,
+      spread: 0,
+      steadiness: 1,
+      beatSec: 0.7,
+      beatFrom: "strikes",
+    });
   });
 
   it("a dense map followed only by chance gives way to the strikes' own beat", () => {
@@ -382,13 +454,29 @@ describe("steady time: where the beat comes from (rule 22)", () => {
     const r = tempoSteadiness([0, 0.3, 0.6, 0.9, 1.2], [{ time: 0, bpm: 240 }]);
     expect(r).toMatchObject({ beatFrom: "strikes", beatSec: 0.3, steadiness: 1 });
     // Strikes right on that grid: the map fits as well, and is taken.
-    expect(tempoSteadiness([0, 0.25, 0.5, 0.75, 1], [{ time: 0, bpm: 240 }])).toMatchObject({ beatFrom: "tempo-map", beatSec: 0.25, steadiness: 1 });
+    expect(tempoSteadiness([0, 0.25, 0.5, 0.75, 1], [{ time: 0, bpm: 240 }])).toMatchObject({
+      beatFrom: "tempo-map",
+      beatSec: 0.25,
+      steadiness: 1,
+    });
   });
 
   it("two strikes already give a beat; strikes too close for a beat give none", () => {
-    expect(tempoSteadiness([0, 0.5], [{ time: 0, bpm: 120 }])).toEqual({ medianGapSec: 0.5, spread: 0, steadiness: 1, beatSec: 0.5, beatFrom: "tempo-map" });
+    expect(tempoSteadiness([0, 0.5], [{ time: 0, bpm: 120 }])).toEqual({
+      medianGapSec: 0.5,
+      spread: 0,
+      steadiness: 1,
+      beatSec: 0.5,
+      beatFrom: "tempo-map",
+    });
     // 50 ms apart: shorter than half the 300 bpm beat, and off the 120 bpm grid (0.1 s at 0.1 s).
-    expect(tempoSteadiness([0, 0.05, 0.1])).toEqual({ medianGapSec: 0.05, spread: null, steadiness: 1, beatSec: null, beatFrom: null });
+    expect(tempoSteadiness([0, 0.05, 0.1])).toEqual({
+      medianGapSec: 0.05,
+      spread: null,
+      steadiness: 1,
+      beatSec: null,
+      beatFrom: null,
+    });
     expect(followsTempoGrid([], [{ time: 0, bpm: 120 }])).toBe(false);
   });
 

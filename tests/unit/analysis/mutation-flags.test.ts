@@ -10,7 +10,12 @@ import { AnalysisError } from "../../../app/analysis/errors";
 import { isMuddyLowInterval } from "../../../app/analysis/lowInterval";
 import { nameChord } from "../../../app/analysis/naming";
 import { scoreParts } from "../../../app/analysis/score";
-import { chordTechniques, type ChordShape, hasSmoothTopLine, smoothTopLineShare } from "../../../app/analysis/techniques";
+import {
+  chordTechniques,
+  type ChordShape,
+  hasSmoothTopLine,
+  smoothTopLineShare,
+} from "../../../app/analysis/techniques";
 import type { ChordName } from "../../../app/analysis/types";
 
 const UNNAMED: ChordName = { rootPc: null, triad: null, quality: null, suffix: null, intervals: [], intervalNames: {} };
@@ -126,16 +131,25 @@ describe("rule 14's techniques at their edges", () => {
     expect(c(65)).not.toContain("grace-to-third");
     expect(c(66)).not.toContain("grace-to-third");
     // Into the 5th, not the 3rd: none.
-    expect(chordTechniques(shape([60, 64, 67], { graces: [{ note: 66, resolvesTo: 67 }] }))).not.toContain("grace-to-third");
+    expect(chordTechniques(shape([60, 64, 67], { graces: [{ note: 66, resolvesTo: 67 }] }))).not.toContain(
+      "grace-to-third",
+    );
   });
 
   it("a sus chord has no 3rd, so no grace note earns grace-to-third there", () => {
     // Csus4 (C F G): rule 14's technique needs a 3rd; Eb or E are not chord tones here.
-    const sus = shape([60, 65, 67], { graces: [{ note: 62, resolvesTo: 63 }, { note: 62, resolvesTo: 64 }] });
+    const sus = shape([60, 65, 67], {
+      graces: [
+        { note: 62, resolvesTo: 63 },
+        { note: 62, resolvesTo: 64 },
+      ],
+    });
     expect(sus.name.triad).toBe("sus4");
     expect(chordTechniques(sus)).not.toContain("grace-to-third");
     // Cm's 3rd is Eb: D → Eb does.
-    expect(chordTechniques(shape([60, 63, 67], { graces: [{ note: 62, resolvesTo: 63 }] }))).toContain("grace-to-third");
+    expect(chordTechniques(shape([60, 63, 67], { graces: [{ note: 62, resolvesTo: 63 }] }))).toContain(
+      "grace-to-third",
+    );
   });
 
   it("a take's top line needs changes to be smooth (rule 13)", () => {
@@ -151,7 +165,15 @@ describe("rule 14's techniques at their edges", () => {
 describe("the clean-playing part of the score", () => {
   it("is full when nothing could be flagged, and the flagged share otherwise (RULES.md Score)", () => {
     const parts = (flaggedItems: number, items: number) =>
-      scoreParts({ chordCount: 1, smoothness: 1, flaggedItems, items, distinctTechniques: 0, steadiness: 1, accuracy: null });
+      scoreParts({
+        chordCount: 1,
+        smoothness: 1,
+        flaggedItems,
+        items,
+        distinctTechniques: 0,
+        steadiness: 1,
+        accuracy: null,
+      });
     expect(parts(0, 0).cleanliness).toBe(1);
     expect(parts(1, 4).cleanliness).toBe(0.75);
   });

@@ -33,7 +33,8 @@ function literalMotion(a: readonly number[], b: readonly number[]): number {
   return best;
 }
 
-const voicing = (max: number, min = 40, top = 90) => fc.uniqueArray(fc.integer({ min, max: top }), { minLength: 1, maxLength: max });
+const voicing = (max: number, min = 40, top = 90) =>
+  fc.uniqueArray(fc.integer({ min, max: top }), { minLength: 1, maxLength: max });
 
 describe("motion against rule 7 read literally (fast-check)", () => {
   it("equals the cheapest non-crossing joins, for every pair of sizes from 1 to 6", () => {

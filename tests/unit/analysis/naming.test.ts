@@ -8,7 +8,12 @@ import { parseProgression } from "../../../app/analysis/progression";
 import type { Strike } from "../../../app/analysis/strikes";
 
 function chord(pitches: number[], keyName: string | null = "C") {
-  const s: Strike = { start: 0, notes: pitches.map((midi) => ({ midi, start: 0, end: 1, velocity: 0.7 })), graces: [], held: [] };
+  const s: Strike = {
+    start: 0,
+    notes: pitches.map((midi) => ({ midi, start: 0, end: 1, velocity: 0.7 })),
+    graces: [],
+    held: [],
+  };
   return chordReport(s, keyName ? parseKey(keyName) : null, []);
 }
 

@@ -3,7 +3,16 @@
 // cross-checked against tonal's Note.midi (tonal, general-purpose music-theory library on npm).
 import { Note } from "tonal";
 import { describe, expect, it } from "vitest";
-import { keyName, keySignature, noteName, parseKey, pc, ProgressionError, spellDegree, spellPc } from "../../../app/analysis/pitch";
+import {
+  keyName,
+  keySignature,
+  noteName,
+  parseKey,
+  pc,
+  ProgressionError,
+  spellDegree,
+  spellPc,
+} from "../../../app/analysis/pitch";
 
 describe("pc", () => {
   it("maps MIDI numbers to pitch classes 0..11, negatives included", () => {
@@ -56,7 +65,13 @@ describe("spellPc and spellDegree", () => {
     expect(spellPc(5, parseKey("F#"))).toBe("E#");
     expect(spellPc(11, parseKey("Gb"))).toBe("Cb");
     expect(["Eb", "F", "G", "Ab", "Bb", "C", "D"].map((n) => spellPc(Note.chroma(n)!, parseKey("Eb")))).toEqual([
-      "Eb", "F", "G", "Ab", "Bb", "C", "D",
+      "Eb",
+      "F",
+      "G",
+      "Ab",
+      "Bb",
+      "C",
+      "D",
     ]);
   });
 

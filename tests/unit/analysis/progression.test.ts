@@ -50,9 +50,42 @@ describe("RULES.md's demo exercises", () => {
 
 describe("chord symbols", () => {
   const SUFFIXES = [
-    "", "m", "dim", "aug", "sus2", "sus4", "6", "m6", "6/9", "m69", "7", "maj7", "m7", "mMaj7", "dim7", "m7b5",
-    "aug7", "maj7#5", "7sus4", "9", "maj9", "m9", "9sus4", "add9", "madd9", "m11", "13", "7b9", "7#9", "7#11",
-    "+", "°", "ø", "-7", "2", "M7",
+    "",
+    "m",
+    "dim",
+    "aug",
+    "sus2",
+    "sus4",
+    "6",
+    "m6",
+    "6/9",
+    "m69",
+    "7",
+    "maj7",
+    "m7",
+    "mMaj7",
+    "dim7",
+    "m7b5",
+    "aug7",
+    "maj7#5",
+    "7sus4",
+    "9",
+    "maj9",
+    "m9",
+    "9sus4",
+    "add9",
+    "madd9",
+    "m11",
+    "13",
+    "7b9",
+    "7#9",
+    "7#11",
+    "+",
+    "°",
+    "ø",
+    "-7",
+    "2",
+    "M7",
   ];
   it("name the same pitch classes as tonal's Chord.get, on every root", () => {
     const roots = ["C", "Db", "D", "Eb", "E", "F", "F#", "G", "Ab", "A", "Bb", "B"];
@@ -82,7 +115,13 @@ describe("chord symbols", () => {
   it("are spelled in the key", () => {
     expect(expandProgression("A# D# G#m", parseKey("Bb"))).toEqual(["Bb", "Eb", "Abm"]);
     expect(expandProgression("Bb Eb", parseKey("B"))).toEqual(["A#", "D#"]);
-    expect(expandProgression("Fadd9/A C7sus4 Bdim Em7b5 Bbm7", parseKey("C"))).toEqual(["Fadd9/A", "C7sus4", "Bdim", "Em7b5", "Bbm7"]);
+    expect(expandProgression("Fadd9/A C7sus4 Bdim Em7b5 Bbm7", parseKey("C"))).toEqual([
+      "Fadd9/A",
+      "C7sus4",
+      "Bdim",
+      "Em7b5",
+      "Bbm7",
+    ]);
   });
 
   it("accept commas and bar lines between chords", () => {
@@ -99,7 +138,19 @@ describe("Roman numerals", () => {
 
   it("take the suffixes 7, maj7, add9, sus4 and altered degrees spelled on their own letter", () => {
     const chords = parseProgression("Imaj7 Iadd9 V7sus4 ii7 bVII bVI bIII #IV vii°7 III+ V9", parseKey("D"));
-    expect(chords.map((c) => c.symbol)).toEqual(["Dmaj7", "Dadd9", "A7sus4", "Em7", "C", "Bb", "F", "G#", "C#dim7", "F#aug", "A9"]);
+    expect(chords.map((c) => c.symbol)).toEqual([
+      "Dmaj7",
+      "Dadd9",
+      "A7sus4",
+      "Em7",
+      "C",
+      "Bb",
+      "F",
+      "G#",
+      "C#dim7",
+      "F#aug",
+      "A9",
+    ]);
     expect(chords[2]).toMatchObject({ triad: "sus4", required: [10] });
     expect(chords[8]).toMatchObject({ triad: "diminished", required: [9] });
   });
@@ -114,11 +165,15 @@ describe("Roman numerals", () => {
   it("give every degree in all twelve major and minor keys", () => {
     for (const k of KEYS_MAJOR) {
       const key = parseKey(k);
-      expect(parseProgression("I ii iii IV V vi vii°", key).map((c) => (c.root - key.tonic + 12) % 12)).toEqual([0, 2, 4, 5, 7, 9, 11]);
+      expect(parseProgression("I ii iii IV V vi vii°", key).map((c) => (c.root - key.tonic + 12) % 12)).toEqual([
+        0, 2, 4, 5, 7, 9, 11,
+      ]);
     }
     for (const k of KEYS_MINOR) {
       const key = parseKey(k);
-      expect(parseProgression("i ii° III iv V VI VII", key).map((c) => (c.root - key.tonic + 12) % 12)).toEqual([0, 2, 3, 5, 7, 8, 10]);
+      expect(parseProgression("i ii° III iv V VI VII", key).map((c) => (c.root - key.tonic + 12) % 12)).toEqual([
+        0, 2, 3, 5, 7, 8, 10,
+      ]);
       expect(parseProgression("V7", key)[0].triad).toBe("major");
       expect(parseProgression("v", key)[0].triad).toBe("minor");
     }
@@ -130,7 +185,11 @@ describe("Roman numerals", () => {
       const text = "I ii7 iiø7 bIII IV V7 bVI vi bVII vii°7 Imaj7 Iadd9 V7sus4";
       for (const chord of parseProgression(text, key)) {
         const [again] = parseProgression(romanFor(chord, key), key);
-        expect([again.root, again.triad, again.required], `${k} ${chord.roman}`).toEqual([chord.root, chord.triad, chord.required]);
+        expect([again.root, again.triad, again.required], `${k} ${chord.roman}`).toEqual([
+          chord.root,
+          chord.triad,
+          chord.required,
+        ]);
       }
     }
   });
@@ -145,12 +204,21 @@ describe("transposition", () => {
       expect(moved, k).toEqual(parseProgression(text, parseKey(k)));
     }
     const inAm = parseProgression("iiø7 V7 i", parseKey("Am"));
-    for (const k of KEYS_MINOR) expect(transposeProgression(inAm, parseKey("Am"), parseKey(k))).toEqual(parseProgression("iiø7 V7 i", parseKey(k)));
+    for (const k of KEYS_MINOR)
+      expect(transposeProgression(inAm, parseKey("Am"), parseKey(k))).toEqual(
+        parseProgression("iiø7 V7 i", parseKey(k)),
+      );
   });
 
   it("moves chord-symbol progressions with their slash basses to every key", () => {
     const chords = parseProgression("Eb Bb/D Cm Cm/Bb Ab", parseKey("Eb"));
-    expect(transposeProgression(chords, parseKey("Eb"), parseKey("D")).map((c) => c.symbol)).toEqual(["D", "A/C#", "Bm", "Bm/A", "G"]);
+    expect(transposeProgression(chords, parseKey("Eb"), parseKey("D")).map((c) => c.symbol)).toEqual([
+      "D",
+      "A/C#",
+      "Bm",
+      "Bm/A",
+      "G",
+    ]);
     for (const k of KEYS_MAJOR) {
       const key = parseKey(k);
       const shift = (key.tonic - 3 + 12) % 12;
@@ -158,7 +226,8 @@ describe("transposition", () => {
       expect(moved.map((c) => c.root)).toEqual(chords.map((c) => (c.root + shift) % 12));
       expect(moved.map((c) => c.bass)).toEqual(chords.map((c) => (c.bass === null ? null : (c.bass + shift) % 12)));
       // each respelled symbol names the same pitch classes by tonal's reading
-      for (const c of moved) expect(targetPcs(c)).toEqual([...new Set(Chord.get(c.symbol).notes.map(pcOf))].sort((x, y) => x - y));
+      for (const c of moved)
+        expect(targetPcs(c)).toEqual([...new Set(Chord.get(c.symbol).notes.map(pcOf))].sort((x, y) => x - y));
     }
   });
 });
@@ -223,7 +292,10 @@ describe("Roman numerals with figures, extensions and a bass degree (RULES.md ru
     expect(inC.root).toBe(pcOf(reference.tonic!));
     expect(inC.bass).toBe(reference.bass ? pcOf(reference.bass) : null);
     expect(targetPcs(inC)).toEqual([...new Set(reference.notes.map(pcOf))].sort((x, y) => x - y));
-    for (const [k, shift] of [["D", 2], ["Bb", 10]] as Array<[string, number]>) {
+    for (const [k, shift] of [
+      ["D", 2],
+      ["Bb", 10],
+    ] as Array<[string, number]>) {
       const [moved] = parseProgression(roman, parseKey(k));
       expect([moved.root, moved.bass, moved.triad, moved.required], k).toEqual([
         (inC.root + shift) % 12,
@@ -274,7 +346,8 @@ describe("Roman numerals with figures, extensions and a bass degree (RULES.md ru
 
 describe("every extension a Roman numeral names has a lead-sheet symbol", () => {
   it("the symbols name the same pitch classes as tonal's Chord.get, in C, E and Ab, and never an interval list", () => {
-    const numerals = "V7#9b13 V13#11 Imaj13 ii13 V13sus4 V7b9sus4 imaj9 Imaj7#11 V9#11 Imaj9#11 V9b13 V7b9b13 V13b9 V13#9 ii11 i69 ivadd6";
+    const numerals =
+      "V7#9b13 V13#11 Imaj13 ii13 V13sus4 V7b9sus4 imaj9 Imaj7#11 V9#11 Imaj9#11 V9b13 V7b9b13 V13b9 V13#9 ii11 i69 ivadd6";
     for (const k of ["C", "E", "Ab"]) {
       for (const chord of parseProgression(numerals, parseKey(k))) {
         expect(chord.symbol, `${chord.roman} in ${k}`).not.toMatch(/[(),]/);
@@ -285,9 +358,16 @@ describe("every extension a Roman numeral names has a lead-sheet symbol", () => 
         // a voicing may always omit (RULES.md rule 20), so ours may hold it on top of tonal's
         const theirs = new Set(reference.notes.map(pcOf));
         const ours = targetPcs(chord);
-        const fifth = (chord.root + (chord.triad === "sus4" || chord.triad === "major" || chord.triad === "minor" ? 7 : 6)) % 12;
-        expect(ours.filter((p) => !theirs.has(p) && p !== fifth), `${chord.roman} = ${chord.symbol} in ${k}`).toEqual([]);
-        expect([...theirs].filter((p) => !ours.includes(p)), `${chord.roman} = ${chord.symbol} in ${k}`).toEqual([]);
+        const fifth =
+          (chord.root + (chord.triad === "sus4" || chord.triad === "major" || chord.triad === "minor" ? 7 : 6)) % 12;
+        expect(
+          ours.filter((p) => !theirs.has(p) && p !== fifth),
+          `${chord.roman} = ${chord.symbol} in ${k}`,
+        ).toEqual([]);
+        expect(
+          [...theirs].filter((p) => !ours.includes(p)),
+          `${chord.roman} = ${chord.symbol} in ${k}`,
+        ).toEqual([]);
       }
     }
   });

@@ -10,7 +10,8 @@ import { parseProgression, progressionTokens, targetPcs } from "../../../app/ana
 import { checkProgression, usesChordSymbols } from "../../../app/utils/exerciseProgression";
 
 const C = parseKey("C");
-const pcsOfTonal = (symbol: string) => [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
+const pcsOfTonal = (symbol: string) =>
+  [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
 const symbols = (text: string, key = C) => parseProgression(text, key).map((c) => c.symbol);
 
 describe("separators between chords", () => {
@@ -95,10 +96,11 @@ describe("lead-sheet marks", () => {
   it("the exercise form accepts every notation above in every key it names", () => {
     const check = checkProgression("| ii-7 – V7 | IΔ7 |", ["C", "Bb"]);
     expect(check.ok).toBe(true);
-    if (check.ok) expect(check.keys.map((k) => k.chords.map((c) => c.symbol))).toEqual([
-      ["Dm7", "G7", "Cmaj7"],
-      ["Cm7", "F7", "Bbmaj7"],
-    ]);
+    if (check.ok)
+      expect(check.keys.map((k) => k.chords.map((c) => c.symbol))).toEqual([
+        ["Dm7", "G7", "Cmaj7"],
+        ["Cm7", "F7", "Bbmaj7"],
+      ]);
     const symbolsCheck = checkProgression("D-7 | G7 | CΔ", ["C", "D"]);
     expect(symbolsCheck.ok && symbolsCheck.keys[1].chords.map((c) => c.symbol)).toEqual(["Em7", "A7", "Dmaj7"]);
   });

@@ -27,7 +27,10 @@ describe("motion and best motion properties", () => {
   });
 
   it("motion is symmetric", () => {
-    fc.assert(fc.property(chord, chord, (a, b) => motion(a, b) === motion(b, a)), RUNS);
+    fc.assert(
+      fc.property(chord, chord, (a, b) => motion(a, b) === motion(b, a)),
+      RUNS,
+    );
   });
 
   it("transposing both chords leaves motion and best motion unchanged", () => {

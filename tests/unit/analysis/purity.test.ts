@@ -15,9 +15,11 @@ describe("app/analysis is pure TypeScript", () => {
 
   it.each(modules)("%s imports only other engine modules, tonal and @tonejs/midi", (file) => {
     const source = readFileSync(join(DIR, file), "utf8");
-    const imports = [...source.matchAll(/\bfrom\s+["']([^"']+)["']|\bimport\s*\(\s*["']([^"']+)["']\s*\)|\brequire\s*\(\s*["']([^"']+)["']/g)].map(
-      (m) => m[1] ?? m[2] ?? m[3],
-    );
+    const imports = [
+      ...source.matchAll(
+        /\bfrom\s+["']([^"']+)["']|\bimport\s*\(\s*["']([^"']+)["']\s*\)|\brequire\s*\(\s*["']([^"']+)["']/g,
+      ),
+    ].map((m) => m[1] ?? m[2] ?? m[3]);
     for (const spec of imports) expect(spec, `${file} imports ${spec}`).toMatch(/^(\.\/[\w]+|tonal|@tonejs\/midi)$/);
     expect(source, `${file} uses Buffer`).not.toMatch(/\bBuffer\b/);
     expect(source, `${file} uses process`).not.toMatch(/\bprocess\./);

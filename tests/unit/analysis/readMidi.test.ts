@@ -138,7 +138,11 @@ describe("events", () => {
 
   it("skips chunks of unknown type, as the spec asks", () => {
     const alien = [0x58, 0x59, 0x5a, 0x57, 0, 0, 0, 3, 1, 2, 3];
-    const bytes = new Uint8Array([...header(0, 1, 480), ...alien, ...trackChunk([...noteOn(0, 60), ...noteOff(480, 60)])]);
+    const bytes = new Uint8Array([
+      ...header(0, 1, 480),
+      ...alien,
+      ...trackChunk([...noteOn(0, 60), ...noteOff(480, 60)]),
+    ]);
     expect(readMidi(bytes).notes).toHaveLength(1);
   });
 });

@@ -21,7 +21,9 @@ function bySemitones(symbol: string | null): string | null {
 }
 const moved = (symbol: string, by: number) => {
   const s = bySemitones(symbol)!;
-  return s.replace(/^(\d+):/, (_, d) => `${(Number(d) + by + 120) % 12}:`).replace(/\/(\d+)$/, (_, d) => `/${(Number(d) + by + 120) % 12}`);
+  return s
+    .replace(/^(\d+):/, (_, d) => `${(Number(d) + by + 120) % 12}:`)
+    .replace(/\/(\d+)$/, (_, d) => `/${(Number(d) + by + 120) % 12}`);
 };
 
 type Example = { notes: NoteEvent[]; pedal?: PedalSpan[]; key: string; target?: string };
@@ -41,7 +43,11 @@ describe("rule 15–16: a pedalled bass under re-struck chords is one harmony", 
   const ex: Example = {
     key: "E",
     pedal: [{ start: 0, end: 3.9 }],
-    notes: [note(40, 0, 0.8), note(52, 0, 0.8), ...[0, 1, 2, 3].flatMap((t) => [note(56, t, t + 0.8), note(59, t, t + 0.8), note(64, t, t + 0.8)])],
+    notes: [
+      note(40, 0, 0.8),
+      note(52, 0, 0.8),
+      ...[0, 1, 2, 3].flatMap((t) => [note(56, t, t + 0.8), note(59, t, t + 0.8), note(64, t, t + 0.8)]),
+    ],
   };
   it.each(SHIFTS)("shifted %i: E, bass E2, voicing E2 E3 G♯3 B3 E4, no change flags", (by) => {
     const a = play(ex, by);
@@ -69,7 +75,10 @@ describe("rule 15: one finger moves over held notes and the chord changes", () =
 
 describe("rules 15, 17, 18: a tune with a passing note over a held chord", () => {
   // Left hand C3 G3 E4 held 0–2 s; right hand E5 (0–0.5), D5 (0.5–0.75), C5 (0.75–2).
-  const ex: Example = { key: "C", notes: [note(48, 0, 2), note(55, 0, 2), note(64, 0, 2), note(76, 0, 0.5), note(74, 0.5, 0.75), note(72, 0.75, 2)] };
+  const ex: Example = {
+    key: "C",
+    notes: [note(48, 0, 2), note(55, 0, 2), note(64, 0, 2), note(76, 0, 0.5), note(74, 0.5, 0.75), note(72, 0.75, 2)],
+  };
   it.each(SHIFTS)("shifted %i: one harmony C, D5 a passing note, melody E5 D5 C5", (by) => {
     const a = play(ex, by);
     expect(symbols(a)).toEqual([moved("C", by)]);
@@ -82,7 +91,10 @@ describe("rules 15, 17, 18: a tune with a passing note over a held chord", () =>
 
 describe("rules 15, 16, 20: a walking bass under a held shell", () => {
   // Right hand A3 E♭4 held 0–2 s; left hand F2, G2, A2, C3, 0.5 s each.
-  const ex: Example = { key: "F", notes: [note(57, 0, 2), note(63, 0, 2), note(41, 0, 0.5), note(43, 0.5, 1), note(45, 1, 1.5), note(48, 1.5, 2)] };
+  const ex: Example = {
+    key: "F",
+    notes: [note(57, 0, 2), note(63, 0, 2), note(41, 0, 0.5), note(43, 0.5, 1), note(45, 1, 1.5), note(48, 1.5, 2)],
+  };
   it.each(SHIFTS)("shifted %i: one harmony F7 (root, 3rd, 7th), bass F2, bass line G2 A2 C3, no slash-bass", (by) => {
     const a = play(ex, by);
     expect(symbols(a)).toEqual([moved("F7", by)]);
@@ -98,7 +110,15 @@ describe("rules 15–17: a pedalled left-hand broken chord, then the right hand"
   const ex: Example = {
     key: "D",
     pedal: [{ start: 0, end: 1.9 }],
-    notes: [note(38, 0, 1.9), note(45, 0.25, 1.9), note(50, 0.5, 1.9), note(54, 0.75, 1.9), note(57, 1, 1.9), note(62, 1, 1.9), note(66, 1, 1.9)],
+    notes: [
+      note(38, 0, 1.9),
+      note(45, 0.25, 1.9),
+      note(50, 0.5, 1.9),
+      note(54, 0.75, 1.9),
+      note(57, 1, 1.9),
+      note(62, 1, 1.9),
+      note(66, 1, 1.9),
+    ],
   };
   it.each(SHIFTS)("shifted %i: one harmony D with bass D2", (by) => {
     const a = play(ex, by);
@@ -110,7 +130,10 @@ describe("rules 15–17: a pedalled left-hand broken chord, then the right hand"
 
 describe("rule 20: left-hand shells", () => {
   // E2 D3 G♯3 (1-7-3), then A2 C♯3 G♯3 (1-3-7).
-  const ex: Example = { key: "A", notes: [note(40, 0, 1), note(50, 0, 1), note(56, 0, 1), note(45, 1, 2), note(49, 1, 2), note(56, 1, 2)] };
+  const ex: Example = {
+    key: "A",
+    notes: [note(40, 0, 1), note(50, 0, 1), note(56, 0, 1), note(45, 1, 2), note(49, 1, 2), note(56, 1, 2)],
+  };
   it.each(SHIFTS)("shifted %i: E7 then Amaj7", (by) => {
     expect(symbols(play(ex, by))).toEqual([moved("E7", by), moved("Amaj7", by)]);
   });
@@ -131,7 +154,19 @@ describe("rule 20: a rootless voicing", () => {
 
 describe("rule 9: a right hand that jumps as a block over a left hand going the other way", () => {
   // Left hand C3 → G2 (down 5), right hand C4 E4 G4 → G4 B4 D5 (up 7).
-  const ex: Example = { key: "C", notes: [note(48, 0, 1), note(60, 0, 1), note(64, 0, 1), note(67, 0, 1), note(43, 1, 2), note(67, 1, 2), note(71, 1, 2), note(74, 1, 2)] };
+  const ex: Example = {
+    key: "C",
+    notes: [
+      note(48, 0, 1),
+      note(60, 0, 1),
+      note(64, 0, 1),
+      note(67, 0, 1),
+      note(43, 1, 2),
+      note(67, 1, 2),
+      note(71, 1, 2),
+      note(74, 1, 2),
+    ],
+  };
   it.each(SHIFTS)("shifted %i: root-position-leap", (by) => {
     expect(play(ex, by).changes[0].flags).toContain("root-position-leap");
   });
@@ -142,7 +177,16 @@ describe("rules 3 and 19: the pedal held through a change", () => {
   const ex: Example = {
     key: "C",
     pedal: [{ start: 0, end: 2 }],
-    notes: [note(48, 0, 1), note(64, 0, 1), note(67, 0, 1), note(72, 0, 1), note(50, 1, 2), note(65, 1, 2), note(69, 1, 2), note(74, 1, 2)],
+    notes: [
+      note(48, 0, 1),
+      note(64, 0, 1),
+      note(67, 0, 1),
+      note(72, 0, 1),
+      note(50, 1, 2),
+      note(65, 1, 2),
+      note(69, 1, 2),
+      note(74, 1, 2),
+    ],
   };
   it.each(SHIFTS)("shifted %i: Dm voiced D3 F4 A4 D5, the change flagged pedal-blur", (by) => {
     const a = play(ex, by);
@@ -154,7 +198,16 @@ describe("rules 3 and 19: the pedal held through a change", () => {
   });
 
   it("changing the pedal with the harmony raises no flag", () => {
-    const a = play({ ...ex, pedal: [{ start: 0.1, end: 0.95 }, { start: 1.1, end: 2 }] }, 0);
+    const a = play(
+      {
+        ...ex,
+        pedal: [
+          { start: 0.1, end: 0.95 },
+          { start: 1.1, end: 2 },
+        ],
+      },
+      0,
+    );
     expect(a.changes[0].flags).not.toContain("pedal-blur");
     expect(a.summary.flags["pedal-blur"]).toBe(0);
   });
@@ -164,7 +217,17 @@ describe("rule 8 with a tune: suggestions keep the bass and the melody", () => {
   // Left hand C3 G3 E4, melody G5 E5 over it, then F3 A3 E4 under melody F5.
   const ex: Example = {
     key: "C",
-    notes: [note(48, 0, 1), note(55, 0, 1), note(64, 0, 1), note(79, 0, 0.5), note(76, 0.5, 1), note(53, 1, 2), note(57, 1, 2), note(64, 1, 2), note(77, 1, 2)],
+    notes: [
+      note(48, 0, 1),
+      note(55, 0, 1),
+      note(64, 0, 1),
+      note(79, 0, 0.5),
+      note(76, 0.5, 1),
+      note(53, 1, 2),
+      note(57, 1, 2),
+      note(64, 1, 2),
+      note(77, 1, 2),
+    ],
   };
   it.each(SHIFTS)("shifted %i: every suggestion keeps F3 and F5 and re-voices only what lies between", (by) => {
     const a = play(ex, by);
@@ -201,7 +264,15 @@ describe("rule 15: a silence starts a harmony, even of the same chord", () => {
 
 describe("rule 15: a new bass struck with the upper notes changes the harmony even on one chord", () => {
   it("C3 C4 E4 G4, then E3 C4 E4 G4: C then C/E; a bass walking under the same notes does not", () => {
-    const a = analyseNotes([note(48, 0, 1), ...[60, 64, 67].map((m) => note(m, 0, 1)), note(52, 1, 2), ...[60, 64, 67].map((m) => note(m, 1, 2))], { key: "C" });
+    const a = analyseNotes(
+      [
+        note(48, 0, 1),
+        ...[60, 64, 67].map((m) => note(m, 0, 1)),
+        note(52, 1, 2),
+        ...[60, 64, 67].map((m) => note(m, 1, 2)),
+      ],
+      { key: "C" },
+    );
     expect(a.chords.map((c) => c.symbol)).toEqual(["C", "C/E"]);
   });
 });
@@ -229,7 +300,16 @@ describe("rule 10 with a melody: a top-line leap is measured from the tune's las
   // From A5 to C5 is 9 semitones (a leap); from the chord's own top G4 it would be 5.
   const ex: Example = {
     key: "C",
-    notes: [note(60, 0, 1), note(64, 0, 1), note(67, 0, 1), note(79, 0, 0.5), note(81, 0.5, 1), note(65, 1, 2), note(69, 1, 2), note(72, 1, 2)],
+    notes: [
+      note(60, 0, 1),
+      note(64, 0, 1),
+      note(67, 0, 1),
+      note(79, 0, 0.5),
+      note(81, 0.5, 1),
+      note(65, 1, 2),
+      note(69, 1, 2),
+      note(72, 1, 2),
+    ],
   };
   it.each(SHIFTS)("shifted %i: flagged, from A5", (by) => {
     const a = play(ex, by);

@@ -3,7 +3,13 @@
 // which explains every note, and against it they are named by that reading. Examples worked by
 // hand from RULES.md rule 20, each in its key and transposed into two others.
 import { describe, expect, it } from "vitest";
-import { isRootlessOf, matchProgression, type PlayedIdentity, rootlessReading, rootlessSymbol } from "../../../app/analysis/matching";
+import {
+  isRootlessOf,
+  matchProgression,
+  type PlayedIdentity,
+  rootlessReading,
+  rootlessSymbol,
+} from "../../../app/analysis/matching";
 import { nameChord, romanOf, spelledSymbol } from "../../../app/analysis/naming";
 import { type Key, parseKey, pc } from "../../../app/analysis/pitch";
 import { parseProgression } from "../../../app/analysis/progression";
@@ -11,10 +17,19 @@ import { parseProgression } from "../../../app/analysis/progression";
 /** What the engine hands matching for a played voicing (bass = its lowest note). */
 function played(pitches: number[]): PlayedIdentity {
   const name = nameChord(pitches, pitches[0]);
-  return { root: name.rootPc, triad: name.triad, bass: pc(pitches[0]), pcs: [...new Set(pitches.map(pc))].sort((a, b) => a - b) };
+  return {
+    root: name.rootPc,
+    triad: name.triad,
+    bass: pc(pitches[0]),
+    pcs: [...new Set(pitches.map(pc))].sort((a, b) => a - b),
+  };
 }
 
-const KEYS: Array<[string, number]> = [["C", 0], ["F", 5], ["A", -3]];
+const KEYS: Array<[string, number]> = [
+  ["C", 0],
+  ["F", 5],
+  ["A", -3],
+];
 const up = (pitches: number[], t: number) => pitches.map((p) => p + t);
 
 // Left-hand rootless ii–V–I in C, in either order (3rd or 7th at the bottom)
@@ -54,7 +69,11 @@ describe("rootless ii7 V7 Imaj7", () => {
 });
 
 describe("B D F# A, on its own and against Imaj7 in G", () => {
-  it.each([["G", 0], ["Bb", 3], ["E", -3]] as Array<[string, number]>)("in %s: Bm7 (iii7) alone, a rootless Gmaj9 against Imaj7, accuracy 100%%", (k, t) => {
+  it.each([
+    ["G", 0],
+    ["Bb", 3],
+    ["E", -3],
+  ] as Array<[string, number]>)("in %s: Bm7 (iii7) alone, a rootless Gmaj9 against Imaj7, accuracy 100%%", (k, t) => {
     const key: Key = parseKey(k);
     const voicing = up([59, 62, 66, 69], t);
     const alone = nameChord(voicing, voicing[0]);
@@ -62,7 +81,10 @@ describe("B D F# A, on its own and against Imaj7 in G", () => {
     expect(alone.suffix).toBe("m7");
     expect(romanOf(alone, key, voicing[0])).toBe("iii7");
     const [imaj7] = parseProgression("Imaj7", key);
-    expect(matchProgression([played(voicing)], [imaj7])).toMatchObject({ accuracy: 1, rootless: [{ playedIndex: 0, targetIndex: 0 }] });
+    expect(matchProgression([played(voicing)], [imaj7])).toMatchObject({
+      accuracy: 1,
+      rootless: [{ playedIndex: 0, targetIndex: 0 }],
+    });
     const reading = rootlessReading(voicing.map(pc), imaj7)!;
     expect(reading.rootPc).toBe(key.tonic);
     expect(spelledSymbol(reading, key.tonic, key)).toBe(`${k}maj9`);

@@ -6,7 +6,14 @@
 import fc from "fast-check";
 import { Chord, Note } from "tonal";
 import { describe, expect, it } from "vitest";
-import { chordNoteNames, nameChord, needsContext, romanOf, rootName, spelledSymbol } from "../../../app/analysis/naming";
+import {
+  chordNoteNames,
+  nameChord,
+  needsContext,
+  romanOf,
+  rootName,
+  spelledSymbol,
+} from "../../../app/analysis/naming";
 import { parseKey, pc } from "../../../app/analysis/pitch";
 import { parseProgression, targetPcs } from "../../../app/analysis/progression";
 
@@ -54,9 +61,21 @@ describe("a chord's notes are spelled from its own root", () => {
 
   it("the flat one, unless it would spell the chord with double flats: F#°7 in C, not Gb Bbb Dbb Fbb", () => {
     // worked by hand from RULES.md rule 21 (fewer accidentals: the reason A is not Bbb)
-    expect(names([54, 57, 60, 63], "C")).toMatchObject({ root: "F#", roman: "#iv°7", notes: ["F#3", "A3", "C4", "Eb4"] });
-    expect(names([61, 64, 67, 70], "G")).toMatchObject({ root: "C#", roman: "#iv°7", notes: ["C#4", "E4", "G4", "Bb4"] });
-    expect(names([56, 59, 62, 65], "D")).toMatchObject({ root: "G#", roman: "#iv°7", notes: ["G#3", "B3", "D4", "F4"] });
+    expect(names([54, 57, 60, 63], "C")).toMatchObject({
+      root: "F#",
+      roman: "#iv°7",
+      notes: ["F#3", "A3", "C4", "Eb4"],
+    });
+    expect(names([61, 64, 67, 70], "G")).toMatchObject({
+      root: "C#",
+      roman: "#iv°7",
+      notes: ["C#4", "E4", "G4", "Bb4"],
+    });
+    expect(names([56, 59, 62, 65], "D")).toMatchObject({
+      root: "G#",
+      roman: "#iv°7",
+      notes: ["G#3", "B3", "D4", "F4"],
+    });
     // a tie with no double flat stays flat: Gb major in C is bV
     expect(names([54, 58, 61], "C")).toMatchObject({ root: "Gb", roman: "bV" });
   });
@@ -76,13 +95,25 @@ describe("a chord's notes are spelled from its own root", () => {
   });
 
   it("every chord tone takes its own letter and names its own pitch (tonal's Note.midi), in every key", () => {
-    const shapes = [[0, 4, 7], [0, 3, 7], [0, 3, 6, 9], [0, 4, 7, 10], [0, 4, 10], [0, 4, 10, 21], [0, 3, 6, 10], [0, 4, 7, 11, 14]];
+    const shapes = [
+      [0, 4, 7],
+      [0, 3, 7],
+      [0, 3, 6, 9],
+      [0, 4, 7, 10],
+      [0, 4, 10],
+      [0, 4, 10, 21],
+      [0, 3, 6, 10],
+      [0, 4, 7, 11, 14],
+    ];
     for (const k of [...KEYS, ...MINOR_KEYS]) {
       for (let root = 48; root < 60; root++) {
         for (const shape of shapes) {
           const pitches = shape.map((s) => root + s);
           const spelled = names(pitches, k).notes;
-          expect(spelled.map((n) => Note.midi(n)), `${pitches} in ${k}`).toEqual(pitches);
+          expect(
+            spelled.map((n) => Note.midi(n)),
+            `${pitches} in ${k}`,
+          ).toEqual(pitches);
           const letters = new Set(spelled.map((n) => n[0]));
           expect(letters.size, `${spelled} in ${k}`).toBe(new Set(pitches.map(pc)).size);
         }
@@ -120,7 +151,9 @@ describe("a diminished seventh is spelled by the note it leads to", () => {
     expect(needsContext(nameChord([55, 59, 62, 65], 55))).toBe(false);
     // and any other chord is spelled the same whatever follows
     const g7 = nameChord([55, 59, 62, 65], 55);
-    expect(chordNoteNames([55, 59, 62, 65], g7, null, { nextBassPc: 0 })).toEqual(chordNoteNames([55, 59, 62, 65], g7, null));
+    expect(chordNoteNames([55, 59, 62, 65], g7, null, { nextBassPc: 0 })).toEqual(
+      chordNoteNames([55, 59, 62, 65], g7, null),
+    );
   });
 
   it("without a fitting bass, the next chord's root: E°7 before F/A", () => {
@@ -153,8 +186,18 @@ describe("Roman numerals as teachers write them", () => {
   ];
 
   it.each(cases)("%j in C is %s, and the same a tone and a fifth higher in D and G", (pitches, roman) => {
-    for (const [k, t] of [["C", 0], ["D", 2], ["G", 7]] as Array<[string, number]>) {
-      expect(names(pitches.map((p) => p + t), k).roman, k).toBe(roman);
+    for (const [k, t] of [
+      ["C", 0],
+      ["D", 2],
+      ["G", 7],
+    ] as Array<[string, number]>) {
+      expect(
+        names(
+          pitches.map((p) => p + t),
+          k,
+        ).roman,
+        k,
+      ).toBe(roman);
     }
   });
 
@@ -163,14 +206,38 @@ describe("Roman numerals as teachers write them", () => {
     expect(target.bass ?? target.root).toBe(pc(pitches[0]));
     // the target's tones are those of its lead-sheet symbol to tonal, and hold what was played
     const symbol = target.symbol.replace(/\/[A-G][#b]?$/, "");
-    expect(targetPcs({ ...target, bass: null })).toEqual([...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b));
+    expect(targetPcs({ ...target, bass: null })).toEqual(
+      [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b),
+    );
   });
 
   it("minor keys: the leading-tone seventh chord and V7 in A minor, D minor and F# minor", () => {
-    for (const [k, t] of [["Am", 0], ["Dm", 5], ["F#m", -3]] as Array<[string, number]>) {
-      expect(names([56, 59, 62, 65].map((p) => p + t), k).roman, k).toBe("vii°7");
-      expect(names([52, 56, 59, 62].map((p) => p + t), k).roman, k).toBe("V7");
-      expect(names([57, 60, 64].map((p) => p + t), k).roman, k).toBe("i");
+    for (const [k, t] of [
+      ["Am", 0],
+      ["Dm", 5],
+      ["F#m", -3],
+    ] as Array<[string, number]>) {
+      expect(
+        names(
+          [56, 59, 62, 65].map((p) => p + t),
+          k,
+        ).roman,
+        k,
+      ).toBe("vii°7");
+      expect(
+        names(
+          [52, 56, 59, 62].map((p) => p + t),
+          k,
+        ).roman,
+        k,
+      ).toBe("V7");
+      expect(
+        names(
+          [57, 60, 64].map((p) => p + t),
+          k,
+        ).roman,
+        k,
+      ).toBe("i");
     }
   });
 

@@ -74,7 +74,13 @@ describe("rule 2: grace notes", () => {
 
 describe("rule 3: held notes and a separate bass", () => {
   it("a key still held 150 ms into a later strike joins its chord", () => {
-    const strikes = findStrikes([note(38, 0, 4), note(62, 0, 0.9), note(66, 0, 0.9), note(62, 1, 1.9), note(67, 1, 1.9)]);
+    const strikes = findStrikes([
+      note(38, 0, 4),
+      note(62, 0, 0.9),
+      note(66, 0, 0.9),
+      note(62, 1, 1.9),
+      note(67, 1, 1.9),
+    ]);
     expect(strikes).toHaveLength(2);
     expect(pitches(strikes[1].held)).toEqual([38]);
   });

@@ -37,12 +37,14 @@ function metronomic(bpm: number, beats: number[], count: number, jitter: number,
 
 describe("tempo lookups", () => {
   it("bpmAt finds the tempo in force by binary search, as the linear reading does", () => {
-    const tempos = fc.uniqueArray(fc.integer({ min: 0, max: 600 }), { maxLength: 40 }).chain((times) =>
-      fc.tuple(
-        fc.constant(times.sort((a, b) => a - b).map((t) => t / 4)),
-        fc.array(fc.integer({ min: 30, max: 240 }), { minLength: times.length, maxLength: times.length }),
-      ),
-    );
+    const tempos = fc
+      .uniqueArray(fc.integer({ min: 0, max: 600 }), { maxLength: 40 })
+      .chain((times) =>
+        fc.tuple(
+          fc.constant(times.sort((a, b) => a - b).map((t) => t / 4)),
+          fc.array(fc.integer({ min: 30, max: 240 }), { minLength: times.length, maxLength: times.length }),
+        ),
+      );
     fc.assert(
       fc.property(tempos, fc.double({ min: -1, max: 160, noNaN: true }), ([times, bpms], time) => {
         const points = times.map((t, i) => ({ time: t, bpm: bpms[i] }));
@@ -55,7 +57,10 @@ describe("tempo lookups", () => {
 
   it("counts beats across tempo changes", () => {
     // 120 bpm for 2 s (4 beats), then 60 bpm: 3 s is beat 5
-    const map = tempoMap([{ time: 0, bpm: 120 }, { time: 2, bpm: 60 }]);
+    const map = tempoMap([
+      { time: 0, bpm: 120 },
+      { time: 2, bpm: 60 },
+    ]);
     expect(beatAt(map, 1).beat).toBeCloseTo(2);
     expect(beatAt(map, 3)).toEqual({ beat: 5, secPerBeat: 1 });
   });
@@ -73,23 +78,30 @@ describe("steady time (rule 22)", () => {
   it("a chord held two bars in strict time is perfectly steady, and harmonic rhythm does not count", () => {
     // 4/4 at 120 bpm: chords every beat, then one held for 8 beats, then every beat again
     const on = [0, 0.5, 1, 1.5, 5.5, 6, 6.5, 7];
-    expect(tempoSteadiness(on, [{ time: 0, bpm: 120 }])).toMatchObject({ steadiness: 1, beatFrom: "tempo-map", beatSec: 0.5 });
+    expect(tempoSteadiness(on, [{ time: 0, bpm: 120 }])).toMatchObject({
+      steadiness: 1,
+      beatFrom: "tempo-map",
+      beatSec: 0.5,
+    });
     // the first edition's measure (spread of the gaps between changes) would score this 0
     expect(tempoSteadiness(on).steadiness).toBe(1);
   });
 
-  it.each([60, 96, 132])("a metronomic take at %i bpm jittered by ±20 ms scores at least 0.8, chords held 1 or 8 beats", (bpm) => {
-    for (const beats of [[1], [8], [1, 1, 2, 4], [8, 1, 1, 2, 2, 1, 1]]) {
-      for (const seed of [1, 2, 3]) {
-        const on = metronomic(bpm, beats, 48, 0.02, seed);
-        const withMap = tempoSteadiness(on, [{ time: 0, bpm }]);
-        expect(withMap.steadiness, `${bpm} bpm, ${beats}`).toBeGreaterThanOrEqual(0.8);
-        // played to no tempo map of its own: the beat is read from the strikes
-        const unmapped = tempoSteadiness(on, [{ time: 0, bpm: bpm * 1.37 }]);
-        expect(unmapped.steadiness, `${bpm} bpm, ${beats}, unmapped`).toBeGreaterThanOrEqual(0.8);
+  it.each([60, 96, 132])(
+    "a metronomic take at %i bpm jittered by ±20 ms scores at least 0.8, chords held 1 or 8 beats",
+    (bpm) => {
+      for (const beats of [[1], [8], [1, 1, 2, 4], [8, 1, 1, 2, 2, 1, 1]]) {
+        for (const seed of [1, 2, 3]) {
+          const on = metronomic(bpm, beats, 48, 0.02, seed);
+          const withMap = tempoSteadiness(on, [{ time: 0, bpm }]);
+          expect(withMap.steadiness, `${bpm} bpm, ${beats}`).toBeGreaterThanOrEqual(0.8);
+          // played to no tempo map of its own: the beat is read from the strikes
+          const unmapped = tempoSteadiness(on, [{ time: 0, bpm: bpm * 1.37 }]);
+          expect(unmapped.steadiness, `${bpm} bpm, ${beats}, unmapped`).toBeGreaterThanOrEqual(0.8);
+        }
       }
-    }
-  });
+    },
+  );
 
   it("steadiness of a metronomic take is unaffected by its harmonic rhythm (fast-check)", () => {
     fc.assert(
@@ -137,7 +149,13 @@ describe("steady time (rule 22)", () => {
   });
 
   it("cannot be measured with fewer than two strikes", () => {
-    expect(tempoSteadiness([])).toEqual({ medianGapSec: null, spread: null, steadiness: 1, beatSec: null, beatFrom: null });
+    expect(tempoSteadiness([])).toEqual({
+      medianGapSec: null,
+      spread: null,
+      steadiness: 1,
+      beatSec: null,
+      beatFrom: null,
+    });
     expect(tempoSteadiness([3]).steadiness).toBe(1);
   });
 });

@@ -62,7 +62,9 @@ describe("worst case within the upload limits", () => {
     expect(bytes.length).toBeLessThan(2048);
     const t0 = performance.now();
     const result = analyseMidi(bytes);
-    console.log(`forty eight-note chords: graded ${result.changes.length} changes in ${(performance.now() - t0).toFixed(0)} ms`);
+    console.log(
+      `forty eight-note chords: graded ${result.changes.length} changes in ${(performance.now() - t0).toFixed(0)} ms`,
+    );
     expect(result.changes.filter((c) => c.graded).length).toBeGreaterThan(0);
   });
 });

@@ -14,8 +14,10 @@ import {
   targetTextForKey,
 } from "~/utils/exerciseProgression";
 
-const pcsOfSymbol = (symbol: string) => [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
-const pcsInKey = (progression: string, keys: string[], key: string) => targetChordsInKey(progression, keys, key).map(targetPcs);
+const pcsOfSymbol = (symbol: string) =>
+  [...new Set(Chord.get(symbol).notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
+const pcsInKey = (progression: string, keys: string[], key: string) =>
+  targetChordsInKey(progression, keys, key).map(targetPcs);
 
 describe("keys", () => {
   it("splits what the teacher typed", () => {

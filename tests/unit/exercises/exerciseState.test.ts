@@ -8,7 +8,14 @@ const failed = { status: "failed" };
 
 describe("exerciseState", () => {
   it("is done once every key has an analysed take, whatever the due date", () => {
-    const s = exerciseState({ dueDate: "2026-11-01" }, [{ key: "D", takes: [failed, analysed] }, { key: "Ab", takes: [analysed] }], "2026-12-02");
+    const s = exerciseState(
+      { dueDate: "2026-11-01" },
+      [
+        { key: "D", takes: [failed, analysed] },
+        { key: "Ab", takes: [analysed] },
+      ],
+      "2026-12-02",
+    );
     expect(s).toMatchObject({ kind: "done", label: "Done", keysDone: 2, keysTotal: 2 });
   });
 
@@ -18,13 +25,34 @@ describe("exerciseState", () => {
   });
 
   it("is overdue after its due day and due on the day itself", () => {
-    expect(exerciseState({ dueDate: "2026-12-01" }, [{ key: "D", takes: [] }], "2026-12-02")).toMatchObject({ kind: "overdue", label: "1 day overdue" });
-    expect(exerciseState({ dueDate: "2026-12-02" }, [{ key: "D", takes: [] }], "2026-12-02")).toMatchObject({ kind: "due", label: "Due today" });
+    expect(exerciseState({ dueDate: "2026-12-01" }, [{ key: "D", takes: [] }], "2026-12-02")).toMatchObject({
+      kind: "overdue",
+      label: "1 day overdue",
+    });
+    expect(exerciseState({ dueDate: "2026-12-02" }, [{ key: "D", takes: [] }], "2026-12-02")).toMatchObject({
+      kind: "due",
+      label: "Due today",
+    });
   });
 
   it("without a due date it is simply to do, naming the keys left", () => {
-    const s = exerciseState({ dueDate: null }, [{ key: "Eb", takes: [analysed] }, { key: "Ab", takes: [] }, { key: "Db", takes: [] }], "2026-12-02", (k) => k.replace("b", "♭"));
-    expect(s).toMatchObject({ kind: "open", label: "To do", keysDone: 1, keysTotal: 3, detail: "Takes in A♭, D♭ still to send." });
+    const s = exerciseState(
+      { dueDate: null },
+      [
+        { key: "Eb", takes: [analysed] },
+        { key: "Ab", takes: [] },
+        { key: "Db", takes: [] },
+      ],
+      "2026-12-02",
+      (k) => k.replace("b", "♭"),
+    );
+    expect(s).toMatchObject({
+      kind: "open",
+      label: "To do",
+      keysDone: 1,
+      keysTotal: 3,
+      detail: "Takes in A♭, D♭ still to send.",
+    });
   });
 
   it("orders overdue, then due by date, then undated, then done", () => {
@@ -33,7 +61,13 @@ describe("exerciseState", () => {
       dueDate,
       state: exerciseState({ dueDate }, [{ key: "C", takes }], "2026-12-02"),
     });
-    const list = [at("done", "2026-11-20", [analysed]), at("open", null, []), at("later", "2026-12-20", []), at("soon", "2026-12-03", []), at("late", "2026-11-30", [])];
+    const list = [
+      at("done", "2026-11-20", [analysed]),
+      at("open", null, []),
+      at("later", "2026-12-20", []),
+      at("soon", "2026-12-03", []),
+      at("late", "2026-11-30", []),
+    ];
     expect(byState(list).map((e) => e.id)).toEqual(["late", "soon", "later", "open", "done"]);
   });
 

@@ -8,7 +8,15 @@ function take(chords: number[][]): NoteEvent[] {
   return chords.flatMap((c, i) => c.map((midi) => ({ midi, start: i * 0.5, end: i * 0.5 + 0.45, velocity: 0.7 })));
 }
 // D G A D in root position (rule 9): changes 0 and 2 are root-position leaps; no chord flags.
-const analysis = analyseNotes(take([[62, 66, 69], [67, 71, 74], [69, 73, 76], [62, 66, 69]]), { key: "D" });
+const analysis = analyseNotes(
+  take([
+    [62, 66, 69],
+    [67, 71, 74],
+    [69, 73, 76],
+    [62, 66, 69],
+  ]),
+  { key: "D" },
+);
 // SCORE.md without a target: 100 × (0.45 smoothness + 0.30 clean + 0.15 variety + 0.10 steady).
 const byHand = (clean: number) => {
   const p = analysis.summary.scoreParts;
@@ -33,7 +41,10 @@ describe("score with intended flags", () => {
   });
 
   it("ignores a mark whose flag is not there (e.g. after a re-analysis)", () => {
-    expect(scoreWithIntended(analysis, [{ on: "change", idx: 1, flag: "root-position-leap" }])).toMatchObject({ score: analysis.summary.score, excluded: 0 });
+    expect(scoreWithIntended(analysis, [{ on: "change", idx: 1, flag: "root-position-leap" }])).toMatchObject({
+      score: analysis.summary.score,
+      excluded: 0,
+    });
     expect(withIntendedMarks(analysis, [{ on: "chord", idx: 0, flag: "muddy-low-interval" }])).toBe(analysis);
   });
 

@@ -17,12 +17,16 @@ const Bm = [62, 66, 71];
 describe("placing mismatches in the chord strip", () => {
   it("a missing V between IV and I sits after the IV (I IV I against I IV V I)", () => {
     const a = analyseNotes(take([D, G, D]), { key: "D", target: "I IV V I" });
-    expect(placeMismatches(a)).toEqual([{ mismatch: expect.objectContaining({ kind: "missing", targetIndex: 2 }), onChord: null, afterChord: 1 }]);
+    expect(placeMismatches(a)).toEqual([
+      { mismatch: expect.objectContaining({ kind: "missing", targetIndex: 2 }), onChord: null, afterChord: 1 },
+    ]);
   });
 
   it("a wrong chord sits on the chord played", () => {
     const a = analyseNotes(take([D, G, Bm, D]), { key: "D", target: "I IV V I" });
-    expect(placeMismatches(a)).toEqual([{ mismatch: expect.objectContaining({ kind: "wrong-chord" }), onChord: 2, afterChord: null }]);
+    expect(placeMismatches(a)).toEqual([
+      { mismatch: expect.objectContaining({ kind: "wrong-chord" }), onChord: 2, afterChord: null },
+    ]);
   });
 
   it("the chords missing from the second time through sit after the last chord played (vi IV I V, one and a half times)", () => {

@@ -3,7 +3,15 @@ import { describe, expect, it } from "vitest";
 import { parseKey, pc } from "~/analysis/pitch";
 import { parseProgression } from "~/analysis/progression";
 import { motion } from "~/analysis/voiceLeading";
-import { closeVoicing, defaultStart, fitsFirstChord, modelPath, pathPlan, shiftStart, startForKey } from "~/utils/modelAnswer";
+import {
+  closeVoicing,
+  defaultStart,
+  fitsFirstChord,
+  modelPath,
+  pathPlan,
+  shiftStart,
+  startForKey,
+} from "~/utils/modelAnswer";
 
 const C = parseKey("C");
 
@@ -30,7 +38,8 @@ describe("model answer: the smoothest path from the teacher's starting voicing",
     const path = modelPath(chords, defaultStart(chords[0]));
     expect(pc(path.steps[1].voicing[0])).toBe(2);
     expect(pc(path.steps[3].voicing[0])).toBe(10);
-    for (const [i, s] of path.steps.entries()) if (i > 0) expect(s.motion).toBe(motion(path.steps[i - 1].voicing, s.voicing));
+    for (const [i, s] of path.steps.entries())
+      if (i > 0) expect(s.motion).toBe(motion(path.steps[i - 1].voicing, s.voicing));
   });
 
   it("never moves more than the plain close voicing would (best motion never exceeds a candidate)", () => {
@@ -54,7 +63,13 @@ describe("model answer: the smoothest path from the teacher's starting voicing",
   });
 
   it("plays each chord for two beats at the exercise's tempo", () => {
-    const plan = pathPlan([{ symbol: "C", roman: "I", voicing: [60, 64, 67], motion: null }, { symbol: "F", roman: "IV", voicing: [60, 65, 69], motion: 3 }], 60);
+    const plan = pathPlan(
+      [
+        { symbol: "C", roman: "I", voicing: [60, 64, 67], motion: null },
+        { symbol: "F", roman: "IV", voicing: [60, 65, 69], motion: 3 },
+      ],
+      60,
+    );
     expect(plan.filter((n) => n.start === 2).map((n) => n.midi)).toEqual([60, 65, 69]);
   });
 });

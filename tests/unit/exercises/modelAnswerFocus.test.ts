@@ -18,14 +18,18 @@ const path = (progression: string, key: string, focus: string[], start?: number[
 };
 /** The engine's reading of the path played as block chords, one a second. */
 const techniquesHeard = (steps: Array<{ voicing: number[] }>) =>
-  analyseNotes(steps.flatMap((s, i) => s.voicing.map((midi) => ({ midi, start: i, end: i + 0.95, velocity: 80 })))).chords.map((c) => c.techniques);
+  analyseNotes(
+    steps.flatMap((s, i) => s.voicing.map((midi) => ({ midi, start: i, end: i + 0.95, velocity: 80 }))),
+  ).chords.map((c) => c.techniques);
 
 describe("model answer with focus techniques", () => {
   it("an open-voicings exercise gets an open voicing on every chord, the same chords, and says so", () => {
     const { chords, path: p } = path("vi IV I V", "Ab", ["open-voicing"]);
     expect(p.steps.every((s) => isOpen(s.voicing))).toBe(true);
     // tonal names each voicing as the target chord (Fm, Db, Ab, Eb), whatever its layout.
-    p.steps.forEach((s, i) => expect(Chord.detect(names(s.voicing)).map((n) => Chord.get(n).tonic)).toContain(names([chords[i].root])[0]));
+    p.steps.forEach((s, i) =>
+      expect(Chord.detect(names(s.voicing)).map((n) => Chord.get(n).tonic)).toContain(names([chords[i].root])[0]),
+    );
     expect(techniquesHeard(p.steps).every((t) => t.includes("open-voicing"))).toBe(true);
     expect(p.choices!.join(" ")).toMatch(/Every chord is voiced open/);
     // Without the focus the same start gives close voicings.
@@ -37,10 +41,14 @@ describe("model answer with focus techniques", () => {
     const { path: p } = path("I IV V I", "C", ["added-second"]);
     // Each voicing holds exactly the pitch classes of tonal's Chord.get("Xadd9").
     const pcs = (notes: string[]) => [...new Set(notes.map((n) => Note.chroma(n)!))].sort((a, b) => a - b);
-    expect(p.steps.map((s) => pcs(names(s.voicing)))).toEqual(["Cadd9", "Fadd9", "Gadd9", "Cadd9"].map((c) => pcs(Chord.get(c).notes)));
+    expect(p.steps.map((s) => pcs(names(s.voicing)))).toEqual(
+      ["Cadd9", "Fadd9", "Gadd9", "Cadd9"].map((c) => pcs(Chord.get(c).notes)),
+    );
     expect(p.steps.map((s) => s.symbol)).toEqual(["Cadd9", "Fadd9", "Gadd9", "Cadd9"]);
     expect(techniquesHeard(p.steps).every((t) => t.includes("added-second"))).toBe(true);
-    expect(p.choices).toContain("Each plain major or minor triad adds its 2nd, as the exercise practises: D in C, G in F, A in G.");
+    expect(p.choices).toContain(
+      "Each plain major or minor triad adds its 2nd, as the exercise practises: D in C, G in F, A in G.",
+    );
   });
 
   it("a seventh chord gets no 2nd: it would become a 9th chord, not an added 2nd", () => {

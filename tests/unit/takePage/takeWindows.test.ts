@@ -1,7 +1,18 @@
 import { describe, expect, it } from "vitest";
 import { analyseMidi, readMidi } from "~/analysis";
 import { packNotes, unpackNotes } from "~/takes/packNotes";
-import { allWindows, packMelody, unpackMelody, readTimeline, stitchWindows, timelineOf, windowOf, windowStart, WINDOW_SIZE, type TakeWindow } from "~/takes/takeWindows";
+import {
+  allWindows,
+  packMelody,
+  unpackMelody,
+  readTimeline,
+  stitchWindows,
+  timelineOf,
+  windowOf,
+  windowStart,
+  WINDOW_SIZE,
+  type TakeWindow,
+} from "~/takes/takeWindows";
 import { generateLongTake, generateTake, EXERCISES } from "../../../scripts/lib/takeGenerator";
 
 // The take page carries one window of a long take's analysis and fetches the rest; these
@@ -27,7 +38,9 @@ describe("take windows", () => {
     expect(whole.chords).toEqual(analysis.chords);
     // Melody notes travel packed too (whole milliseconds).
     expect(whole.melodyNotes).toEqual(unpackMelody(packMelody(analysis.melodyNotes)));
-    expect(whole.melodyNotes.map((m) => [m.note, m.noteName])).toEqual(analysis.melodyNotes.map((m) => [m.note, m.noteName]));
+    expect(whole.melodyNotes.map((m) => [m.note, m.noteName])).toEqual(
+      analysis.melodyNotes.map((m) => [m.note, m.noteName]),
+    );
     // Notes travel packed (whole milliseconds, velocity in 0–127), so compare with the packed take.
     expect(whole.notes).toEqual(unpackNotes(packNotes(notes)));
     // Every note travels exactly once.
@@ -65,7 +78,13 @@ describe("take windows", () => {
       expect(Math.abs(s.endSec - c.endSec)).toBeLessThanOrEqual(0.0101);
       expect([s.symbol, s.roman, s.flags]).toEqual([c.symbol, c.roman, c.flags]);
     });
-    analysis.changes.forEach((c, i) => expect([partial.changes[i].from, partial.changes[i].to, partial.changes[i].flags]).toEqual([c.from, c.to, c.flags]));
+    analysis.changes.forEach((c, i) =>
+      expect([partial.changes[i].from, partial.changes[i].to, partial.changes[i].flags]).toEqual([
+        c.from,
+        c.to,
+        c.flags,
+      ]),
+    );
     expect(partial.loaded).toEqual(new Set([0]));
   });
 

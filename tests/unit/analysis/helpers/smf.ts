@@ -39,9 +39,19 @@ export const tempoEvent = (delta: number, microsecondsPerBeat: number) => [
   (microsecondsPerBeat >>> 8) & 0xff,
   microsecondsPerBeat & 0xff,
 ];
-export const noteOn = (delta: number, key: number, velocity = 100, channel = 0) => [...vlq(delta), 0x90 | channel, key, velocity];
+export const noteOn = (delta: number, key: number, velocity = 100, channel = 0) => [
+  ...vlq(delta),
+  0x90 | channel,
+  key,
+  velocity,
+];
 export const noteOff = (delta: number, key: number, channel = 0) => [...vlq(delta), 0x80 | channel, key, 0x40];
-export const controller = (delta: number, number: number, value: number, channel = 0) => [...vlq(delta), 0xb0 | channel, number, value];
+export const controller = (delta: number, number: number, value: number, channel = 0) => [
+  ...vlq(delta),
+  0xb0 | channel,
+  number,
+  value,
+];
 
 /** A chord of `keys` struck at `delta` and released `length` ticks later, as one track's events. */
 export function chordEvents(delta: number, keys: number[], length: number, channel = 0): number[] {
