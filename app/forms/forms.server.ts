@@ -101,3 +101,15 @@ export async function dataWithFlash<T>(
   all.append("Set-Cookie", await flashHeader(request, { tone, message }));
   return data(value, { headers: all });
 }
+
+/**
+ * The posted form. A body that cannot be read as a form (a broken multipart part, a
+ * wrong content type) is the client's error: 400, never a 500.
+ */
+export async function readForm(request: Request): Promise<FormData> {
+  try {
+    return await request.formData();
+  } catch {
+    throw data("The form could not be read. Send it again from the page.", { status: 400 });
+  }
+}

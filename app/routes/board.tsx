@@ -10,7 +10,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { ButtonLink } from "~/components/Button";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
-import { parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { shiftWeek, weekEnd, weekLabel } from "~/utils/progressFigures";
 import { weekStart } from "~/utils/weeks";
 import { boardRows, chartData, pickStudents } from "~/models/board.server";
@@ -71,7 +71,7 @@ const actionSchema = z.object({ intent: z.literal("remind") });
 
 export async function action({ request, context }: Route.ActionArgs) {
   const teacher = await requireTeacher({ request, context });
-  const parsed = parseForm(actionSchema, await request.formData());
+  const parsed = parseForm(actionSchema, await readForm(request));
   if (!parsed.ok) return parsed.response;
   const { sent, alreadyReminded } = await sendPracticeReminders(
     { id: teacher.active.studioId, name: teacher.active.studioName },

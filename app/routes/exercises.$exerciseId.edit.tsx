@@ -2,7 +2,7 @@ import type { Route } from "./+types/exercises.$exerciseId.edit";
 import { requireExerciseEdit } from "~/auth/access.server";
 import { Card } from "~/components/Card";
 import { ExerciseForm } from "~/components/exercises/ExerciseForm";
-import { formFailure, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
 import {
   assigneeIds,
@@ -29,7 +29,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { exercise } = await requireExerciseEdit({ request, context }, params.exerciseId);
   const students = studioStudents(exercise.studioId).map((s) => s.id);
-  const form = await request.formData();
+  const form = await readForm(request);
   const read = readExerciseForm(form, students);
   if (!read.ok) return formFailure({ form, fieldErrors: read.errors });
   updateExercise(exercise.id, read.input);

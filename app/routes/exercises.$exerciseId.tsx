@@ -14,7 +14,7 @@ import { PracticeCare } from "~/components/PracticeCare";
 import { RecordPanel } from "~/components/record/RecordPanel";
 import { checkProgression, targetChordsInKey } from "~/utils/exerciseProgression";
 import { failureMessage } from "~/forms/failure";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { fitsFirstChord } from "~/utils/modelAnswer";
 import { pretty } from "~/utils/noteText";
 import {
@@ -83,7 +83,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     if (error) return formFailure({ formError: error });
     return done("Model take attached.");
   }
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(actionSchema, form);
   if (!parsed.ok) return parsed.response;
   const input = parsed.data;

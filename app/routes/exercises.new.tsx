@@ -2,7 +2,7 @@ import type { Route } from "./+types/exercises.new";
 import { requireTeacher } from "~/auth/access.server";
 import { Card } from "~/components/Card";
 import { ExerciseForm } from "~/components/exercises/ExerciseForm";
-import { formFailure, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
 import { createExercise, readExerciseForm } from "~/models/exercises.server";
 import { studioStudents } from "~/models/progress.server";
@@ -17,7 +17,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireTeacher({ request, context });
   const students = studioStudents(user.active.studioId).map((s) => s.id);
-  const form = await request.formData();
+  const form = await readForm(request);
   const read = readExerciseForm(form, students);
   if (!read.ok) return formFailure({ form, fieldErrors: read.errors });
   const id = createExercise(user.active.studioId, user.id, read.input);

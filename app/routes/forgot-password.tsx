@@ -1,7 +1,7 @@
 import { Form, Link, useActionData, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/forgot-password";
-import { parseForm } from "~/forms/forms.server";
+import { parseForm, readForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -21,7 +21,7 @@ const schema = z.object({ email: emailSchema });
  * cannot be used to find out: the mail is sent after answering.
  */
 export async function action({ request }: Route.ActionArgs) {
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(schema, form);
   if (!parsed.ok) return parsed.response;
   requestPasswordReset(parsed.data.email);

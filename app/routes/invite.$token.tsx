@@ -4,7 +4,7 @@ import type { Route } from "./+types/invite.$token";
 import { passwordSchema, verifyPassword } from "~/auth/password.server";
 import { currentUser } from "~/auth/access.server";
 import { createUserSession } from "~/auth/session.server";
-import { formFailure, parseForm } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -44,7 +44,7 @@ const newAccountSchema = z
 const joinSchema = z.object({ intent: z.literal("join"), password: z.string().max(128).optional() });
 
 export async function action({ request, params, context }: Route.ActionArgs) {
-  const form = await request.formData();
+  const form = await readForm(request);
   const found = findInvitationByToken(params.token);
   if (!found.ok) return formFailure({ form, formError: REASONS[found.reason], status: 410 });
   const { invitation } = found;

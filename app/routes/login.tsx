@@ -10,7 +10,7 @@ import {
   forgetSignInAttempt,
   retryMessage,
 } from "~/auth/throttle.server";
-import { formFailure, parseForm } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -26,7 +26,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 export async function action({ request, context }: Route.ActionArgs) {
   await requireAnonymous({ request, context });
   // The form strategy reads the body itself; read a clone here.
-  const form = await request.clone().formData();
+  const form = await readForm(request.clone());
   const parsed = parseForm(loginSchema, form);
   if (!parsed.ok) return parsed.response;
   const email = parsed.data.email;

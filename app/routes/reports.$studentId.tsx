@@ -10,7 +10,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import "~/components/board/report.css";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { studioTimeZone } from "~/models/progress.server";
 import { isoDate, parseProgressQuery } from "~/models/progressQuery.server";
 import { getProgressReport, listProgressReports, saveProgressReport } from "~/models/progressReports.server";
@@ -68,7 +68,7 @@ const saveSchema = z.object({
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const { user } = await requireStudentOfTeacher({ request, context }, params.studentId);
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(saveSchema, form);
   if (!parsed.ok) return parsed.response;
   const { from, to, summary } = parsed.data;

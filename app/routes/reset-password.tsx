@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/reset-password";
 import { passwordSchema } from "~/auth/password.server";
 import { checkUserToken, consumeUserToken } from "~/auth/tokens.server";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -28,7 +28,7 @@ const schema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ" });
 
 export async function action({ request }: Route.ActionArgs) {
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(schema, form);
   if (!parsed.ok) return parsed.response;
   const used = consumeUserToken(parsed.data.token, "reset-password");

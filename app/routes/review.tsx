@@ -3,7 +3,7 @@ import type { Route } from "./+types/review";
 import { requireTeacher } from "~/auth/access.server";
 import { ListeningList } from "~/components/review/ListeningList";
 import { PageHeader } from "~/components/PageHeader";
-import { formFailure, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { zoneName } from "~/utils/studioTime";
 import {
   listeningFilters,
@@ -39,7 +39,7 @@ const actionSchema = z.object({
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireTeacher({ request, context });
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = actionSchema.safeParse({
     intent: form.get("intent"),
     takeId: form.getAll("takeId").map(String),

@@ -5,7 +5,7 @@ import { forgetCurrentUser, requireUser } from "~/auth/access.server";
 import { passwordSchema, verifyPassword } from "~/auth/password.server";
 import { createUserSession, sessionCookie } from "~/auth/session.server";
 import { failureOf } from "~/forms/failure";
-import { dataWithFlash, formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { dataWithFlash, formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { PageHeader } from "~/components/PageHeader";
 import { flashHeader } from "~/server/flash.server";
 import { deletePersonData } from "~/models/personalData.server";
@@ -59,7 +59,7 @@ const actionSchema = z.discriminatedUnion("intent", [
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireUser({ request, context });
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(actionSchema, form);
   if (!parsed.ok) return parsed.response;
   const values = parsed.data;

@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/signup";
 import { requireAnonymous } from "~/auth/access.server";
 import { passwordSchema } from "~/auth/password.server";
-import { parseForm } from "~/forms/forms.server";
+import { parseForm, readForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { Field } from "~/components/Field";
@@ -30,7 +30,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   await requireAnonymous({ request, context });
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(signupSchema, form);
   if (!parsed.ok) return parsed.response;
   // The same answer whether or not the address has an account: the mail says which.

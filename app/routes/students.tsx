@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/students";
 import { requireCoTeacherOfOwner, requireStudentOfTeacher, requireTeacher } from "~/auth/access.server";
 import { failureOf } from "~/forms/failure";
-import { dataWithFlash, formFailure, parseForm } from "~/forms/forms.server";
+import { dataWithFlash, formFailure, parseForm, readForm } from "~/forms/forms.server";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { DataTable } from "~/components/DataTable";
@@ -72,7 +72,7 @@ const actionSchema = z.discriminatedUnion("intent", [inviteSchema, idSchema, stu
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireTeacher({ request, context });
   const studioId = user.active.studioId;
-  const form = await request.formData();
+  const form = await readForm(request);
   const inviter = { id: user.id, name: user.name };
   const parsed = parseForm(actionSchema, form);
   if (!parsed.ok) return parsed.response;

@@ -6,7 +6,7 @@ import { RouteErrorBoundary } from "~/components/RouteErrorBoundary";
 import { Button } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { PageHeader } from "~/components/PageHeader";
-import { parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { isValidTimeZone, weekKey } from "~/utils/weeks";
 import { studioTimeZone } from "~/models/progress.server";
 import { setStudioTimeZone, timeZoneNames } from "~/models/studioSettings.server";
@@ -33,7 +33,7 @@ const schema = z.object({
 
 export async function action({ request, context }: Route.ActionArgs) {
   const owner = await requireOwner({ request, context });
-  const parsed = parseForm(schema, await request.formData());
+  const parsed = parseForm(schema, await readForm(request));
   if (!parsed.ok) return parsed.response;
   const moved = setStudioTimeZone(owner.active.studioId, parsed.data.timeZone);
   const message = `Time zone set to ${parsed.data.timeZone}. ${moved} take${moved === 1 ? "" : "s"} moved to another week.`;

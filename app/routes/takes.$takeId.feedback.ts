@@ -6,7 +6,7 @@ import { z } from "zod";
 import type { Route } from "./+types/takes.$takeId.feedback";
 import { deny, isTeacherOfTake, requireSameOrigin, requireTakeAccess } from "~/auth/access.server";
 import { safeRedirect } from "~/auth/session.server";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { sendFeedbackNotice } from "~/models/digest.server";
 import {
   addComment,
@@ -34,7 +34,7 @@ const actionSchema = z.discriminatedUnion("intent", [
 export async function action({ request, params, context }: Route.ActionArgs) {
   requireSameOrigin(request);
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
-  const form = await request.formData();
+  const form = await readForm(request);
   const asTeacher = isTeacherOfTake(user, take);
   const back = safeRedirect(form.get("back"), `/takes/${take.id}`);
   const done = (message: string, anchor = "") => redirectWithFlash(`${back}${anchor}`, message, request);

@@ -22,7 +22,7 @@ import { placeMismatches } from "~/takes/mismatchPlaces";
 import { stitchWindows, timelineOf, windowOf, windowVersion } from "~/takes/takeWindows";
 import type { TakeAnalysis } from "~/analysis/types";
 import { failureMessage, failureOf } from "~/forms/failure";
-import { formFailure, parseForm, redirectWithFlash } from "~/forms/forms.server";
+import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { clock, dayLabel, keyOf, pretty, timeLabel } from "~/utils/noteText";
 import { replaceTakeFromForm } from "~/takes/takeUpload.server";
 import { formatBytes } from "~/takes/uploadRows";
@@ -145,7 +145,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     });
   }
 
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseForm(actionSchema, form);
   if (!parsed.ok) return parsed.response;
   const input = parsed.data;

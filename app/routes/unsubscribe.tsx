@@ -7,6 +7,7 @@ import { PageHeader } from "~/components/PageHeader";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
 import { readUnsubscribeToken, type MailPreference } from "~/mail/notifyMail.server";
+import { readForm } from "~/forms/forms.server";
 
 // Works without signing in: the signed token in the mail's link names the person and the
 // kind of mail. Opening the link only asks; the button (a POST) turns the mail off, so a
@@ -40,7 +41,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const form = await request.formData();
+  const form = await readForm(request);
   const { user, pref } = personFor(String(form.get("token") ?? new URL(request.url).searchParams.get("token") ?? ""));
   db()
     .update(users)

@@ -39,7 +39,7 @@ test("a teacher signs up, verifies, invites a student, and the student joins fro
   await expect(page.getByText("Your e-mail address is confirmed.")).toBeVisible();
 
   // The invitation.
-  await page.getByRole("link", { name: "Students" }).click();
+  await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Students" }).click();
   await page.getByLabel("E-mail addresses").fill(studentEmail);
   await page.getByRole("button", { name: "Send invitations" }).click();
   await expect(page.getByText("1 invitation sent.")).toBeVisible();
