@@ -2,7 +2,10 @@ import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, X
 
 export type WeekPoint = { week: string; smoothness: number | null; score: number | null };
 
-/** The weekly chart proper (recharts); loaded on its own once the home page is in the browser. */
+/**
+ * The weekly chart proper (recharts); loaded on its own once the home page is in the browser.
+ * Straight segments, a gap for a week without takes, and a dash as well as a colour per line.
+ */
 export default function WeeklyLines({ points }: { points: WeekPoint[] }) {
   return (
     <ResponsiveContainer width="100%" height="100%">
@@ -15,21 +18,22 @@ export default function WeeklyLines({ points }: { points: WeekPoint[] }) {
         />
         <Legend />
         <Line
-          type="monotone"
+          type="linear"
           dataKey="smoothness"
           name="Smoothness %"
           stroke="var(--color-tide)"
           strokeWidth={2.5}
-          connectNulls
+          connectNulls={false}
           isAnimationActive={false}
         />
         <Line
-          type="monotone"
+          type="linear"
           dataKey="score"
           name="Average score"
           stroke="var(--color-ochre)"
+          strokeDasharray="6 3"
           strokeWidth={2.5}
-          connectNulls
+          connectNulls={false}
           isAnimationActive={false}
         />
       </LineChart>
