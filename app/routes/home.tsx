@@ -7,6 +7,7 @@ import { UnreadFeedback } from "~/components/feedback/UnreadFeedback";
 import { PageHeader } from "~/components/PageHeader";
 import { reviewQueueCount, unreadFeedback } from "~/models/feedback.server";
 import { studioTimeZone } from "~/models/progress.server";
+import { studioShortDate } from "~/utils/studioTime";
 import { todayIn } from "~/models/progressQuery.server";
 import { studentExercises } from "~/models/exercises.server";
 import { teacherWeek } from "~/models/teacherHome.server";
@@ -17,15 +18,20 @@ export const meta: Route.MetaFunction = () => [{ title: "Home · Nearnote" }];
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser({ request, context });
   const active = user.active;
+  const zone = active ? studioTimeZone(active.studioId) : "UTC";
   const student =
     active?.role === "student"
       ? {
           // Ordered and marked done, overdue or due as on the list of exercises.
           exercises: studentExercises(user.id, active.studioId).exercises,
-          takes: listTakesForStudent(user.id, { studioId: active.studioId, limit: 50 }),
+          // Days as the studio's calendar has them (a take late at night belongs to that night).
+          takes: listTakesForStudent(user.id, { studioId: active.studioId, limit: 50 }).map((t) => ({
+            ...t,
+            recordedDay: studioShortDate(t.recordedAt, zone),
+          })),
           weeks: weeklyFiguresForStudent(user.id, active.studioId),
           // The studio's today (YYYY-MM-DD), so "due today" means the same day for everyone in it.
-          today: todayIn(studioTimeZone(active.studioId)),
+          today: todayIn(zone),
           unread: unreadFeedback(user.id, active.studioId),
         }
       : null;

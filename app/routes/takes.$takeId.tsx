@@ -23,17 +23,19 @@ import { stitchWindows, timelineOf, windowOf, windowVersion } from "~/takes/take
 import type { TakeAnalysis } from "~/analysis/types";
 import { failureMessage, failureOf } from "~/forms/failure";
 import { formFailure, parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
-import { clock, dayLabel, keyOf, pretty, timeLabel } from "~/utils/noteText";
+import { clock, keyOf, pretty } from "~/utils/noteText";
 import { replaceTakeFromForm } from "~/takes/takeUpload.server";
 import { formatBytes } from "~/takes/uploadRows";
 import { exerciseForStudent, listExercisesForStudent } from "~/models/exercises.server";
 import { deleteTake, fitNoticeForTake, getTakeView, moveTake } from "~/models/takes.server";
 import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
+import { studioTimeZone } from "~/models/progress.server";
+import { studioDateTime, zoneName } from "~/utils/studioTime";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   {
     title: data
-      ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${dayLabel(data.view.take.recordedAt)} · Nearnote`
+      ? `${data.view.take.exerciseTitle ?? "Practice take"} · ${studioDateTime(data.view.take.recordedAt, data.zone)} · Nearnote`
       : "Take · Nearnote",
   },
 ];
@@ -97,7 +99,9 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const windowed = analysis
     ? { ...analysisForPage(analysis, notes, asked, heard, feedback.intended), version: windowVersion(take) }
     : null;
-  return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id) };
+  // Times as the studio's clock shows them, for teacher and student alike.
+  const zone = studioTimeZone(take.studioId);
+  return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id), zone };
 }
 
 const CHOOSE = "Choose an exercise and a key.";
@@ -176,7 +180,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, windowed, isOwner, exercises, feedback, fit } = loaderData;
+  const { view, windowed, isOwner, exercises, feedback, fit, zone } = loaderData;
   // The flags list and the exercise's grading read chords and changes from the time line and the first window.
   const analysis = useMemo(
     () =>
@@ -200,7 +204,7 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
   const error = failure && failed ? { intent: failure.intent ?? "", message: failed } : null;
   const lead = [
     isOwner ? null : take.studentName,
-    `recorded ${dayLabel(take.recordedAt)}`,
+    `recorded ${studioDateTime(take.recordedAt, zone)}`,
     take.durationSec ? clock(take.durationSec) : null,
     take.key ? `in ${pretty(take.key)}` : null,
   ]
@@ -270,7 +274,9 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
             <dt className="text-ink-soft">Size</dt>
             <dd>{formatBytes(take.size)}</dd>
             <dt className="text-ink-soft">Uploaded</dt>
-            <dd>{timeLabel(take.createdAt)}</dd>
+            <dd>
+              {studioDateTime(take.createdAt, zone)} ({zoneName(zone)} time)
+            </dd>
           </dl>
           <p className="mt-3 text-sm text-ink-soft">
             The file is kept, so nothing is lost: it is analysed again when the engine improves. You can also replace it

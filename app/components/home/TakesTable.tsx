@@ -15,6 +15,8 @@ import { dayLabel, percent, pretty } from "~/utils/noteText";
 export type TakeRow = {
   id: string;
   recordedAt: string;
+  /** The day it was recorded, as the studio's own calendar has it ("Wed 2 Dec"); set by the loader. */
+  recordedDay?: string;
   exerciseTitle: string | null;
   key: string | null;
   status: string;
@@ -43,7 +45,7 @@ const columns = column.columns([
         to={`/takes/${info.row.original.id}`}
         className="whitespace-nowrap font-semibold text-tide-dark underline-offset-4 hover:underline"
       >
-        {dayLabel(info.getValue())}
+        {info.row.original.recordedDay ?? dayLabel(info.getValue())}
       </Link>
     ),
   }),
