@@ -85,7 +85,13 @@ function Account({ user, className }: { user: NavUser; className: string }) {
 export function SiteNav({ user }: { user: NavUser }) {
   const menu = useRef<HTMLDetailsElement>(null);
   const location = useLocation();
+  // Close after a navigation, not when the page first hydrates: a menu opened while the
+  // scripts were still loading stays open.
+  const shownAt = useRef(`${location.pathname}${location.search}`);
   useEffect(() => {
+    const here = `${location.pathname}${location.search}`;
+    if (here === shownAt.current) return;
+    shownAt.current = here;
     if (menu.current) menu.current.open = false;
   }, [location.pathname, location.search]);
   return (
