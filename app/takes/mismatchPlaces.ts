@@ -74,31 +74,3 @@ export function placeMismatches(analysis: Pick<TakeAnalysis, "chords" | "summary
     return { mismatch: m, onChord: null, afterChord: run < 0 ? -1 : (take[run + 1] ?? chords.length) - 1 };
   });
 }
-
-export type StripMark = { on: string[]; before: string[] };
-
-const KIND_WORDS: Record<Mismatch["kind"], string> = {
-  missing: "missing",
-  extra: "extra",
-  "wrong-chord": "wrong chord",
-  "wrong-bass": "wrong bass",
-};
-
-/**
- * Labels for the take page's chord strip, by chord index: what is wrong with the chord itself
- * (`on`), and the target chords missing just before it (`before`); chords missing after the
- * last chord are given to an index one past the end.
- */
-export function stripMarks(placed: readonly PlacedMismatch[]): Record<number, StripMark> {
-  const marks: Record<number, StripMark> = {};
-  const at = (i: number) => (marks[i] ??= { on: [], before: [] });
-  for (const p of placed) {
-    const expected = p.mismatch.expected ?? "";
-    if (p.onChord !== null) {
-      at(p.onChord).on.push(p.mismatch.kind === "extra" ? "extra" : `${KIND_WORDS[p.mismatch.kind]}: ${expected}`);
-    } else if (p.afterChord !== null) {
-      at(p.afterChord + 1).before.push(expected);
-    }
-  }
-  return marks;
-}

@@ -2,10 +2,9 @@
 // its exercise at all (another key, other chords), else the change that cost most motion
 // against its best voicing, else the flag that matters most, else nothing. Pure, so the take
 // page and its tests pick the same step.
-import { estimateKey } from "~/analysis/key";
-import { nameChord } from "~/analysis/naming";
+import { heardKey as engineHeardKey } from "~/analysis/exerciseFit";
 import { parseKey, type Key } from "~/analysis/pitch";
-import type { ChangeFlag, ChangeReport, ChordFlag, ChordReport, FlagName, Summary } from "~/analysis/types";
+import type { ChangeFlag, ChangeReport, ChordFlag, ChordReport, FlagName, NoteEvent, Summary } from "~/analysis/types";
 import { explainChange, explainChord } from "./explainFlags";
 import { pretty, voicingLabel } from "~/utils/noteText";
 
@@ -57,15 +56,8 @@ export function keyWords(name: string): string {
  * The key the notes and chords themselves suggest, whatever key the take was given (the
  * engine's own estimate, rule 23 of RULES.md), as a key name ("D", "Gm").
  */
-export function heardKey(
-  notes: ReadonlyArray<{ midi: number; start: number; end: number }>,
-  chords: readonly ChordReport[],
-): string | null {
-  if (notes.length === 0) return null;
-  const names = chords.map((c) => nameChord(c.notes, c.notes[0]));
-  const bass = (c: ChordReport | undefined) => (c ? c.notes[0] % 12 : null);
-  return estimateKey([...notes], names, { firstBassPc: bass(chords[0]), lastBassPc: bass(chords[chords.length - 1]) })
-    .key.name;
+export function heardKey(notes: readonly NoteEvent[], chords: readonly ChordReport[]): string | null {
+  return notes.length === 0 ? null : engineHeardKey(notes, chords).name;
 }
 
 const sameKey = (a: string, b: string) => {
