@@ -11,6 +11,7 @@ import { ExerciseKeyFields } from "~/components/take/ExerciseKeyFields";
 import { UploadRows } from "~/components/take/UploadRows";
 import { ExerciseFitNotice, MoveToLikelyForm } from "~/components/upload/ExerciseFitNotice";
 import { FileExerciseSelect } from "~/components/upload/FileExerciseSelect";
+import { FileGroups } from "~/components/upload/FileGroups";
 import { uploadTakesFromForm } from "~/takes/takeUpload.server";
 import { MAX_FILES } from "~/takes/uploadLimits";
 import { fieldsForChoice, isFinished, newRow, postedRow, rowFromAnswer, type UploadRow } from "~/takes/uploadRows";
@@ -226,6 +227,8 @@ export default function UploadTakes({ loaderData }: Route.ComponentProps) {
                   ) : null
                 }
               />
+              {/* Without scripts: groups of files for other exercises, under the results of a post. */}
+              <FileGroups exercises={loaderData.exercises} idPrefix={inputId} />
               <div className="flex flex-wrap items-center gap-3">
                 <Button
                   pending={sending || navigation.state === "submitting"}

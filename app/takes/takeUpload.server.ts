@@ -295,16 +295,36 @@ const fileExerciseSchema = z
   .max(80)
   .regex(/^(|free|[^|]+(\|[^|]{1,8})?)$/, "Choose an exercise for each file from the list.");
 
+/** A group of files of the page's no-JavaScript form: field `file-N`, its exercise in `exercise-N`. */
+const GROUP_FILE = /^file-(\d{1,2})$/;
+
 /**
- * The upload page's form: up to ten files in the field `files`, one result each. Each file may
- * go to its own exercise: the n-th `fileExercise` value belongs to the n-th file.
+ * Each stored file's own exercise choice: the n-th file of the field `files` takes the n-th
+ * `fileExercise` value; a file of a group field `file-N` takes that group's `exercise-N`.
+ */
+function choicesOf(form: FormData, files: Stored[]) {
+  const listed = form.getAll("fileExercise").map(String);
+  let n = 0;
+  const raw = files.map((f) => {
+    const group = GROUP_FILE.exec(f.fieldName);
+    if (group) return String(form.get(`exercise-${group[1]}`) ?? "");
+    return f.fieldName === "files" ? (listed[n++] ?? "") : "";
+  });
+  if (listed.length > n) return z.array(fileExerciseSchema).max(n).safeParse(listed);
+  return z.array(fileExerciseSchema).safeParse(raw);
+}
+
+/**
+ * The upload page's form: up to ten files, one result each. Each file may go to its own
+ * exercise: the n-th `fileExercise` value belongs to the n-th file of the field `files`, and
+ * without JavaScript the page sends groups of files (`file-N`), each with its exercise (`exercise-N`).
  */
 export async function uploadTakesFromForm(request: Request, user: SessionUser): Promise<UploadResult[]> {
   try {
     const { form, files } = await receiveUpload(request);
     const fields = await readFields(form, files);
     if (files.length === 0) throw new UploadRefused(400, "Choose one or more MIDI files to upload.");
-    const choices = z.array(fileExerciseSchema).max(files.length).safeParse(form.getAll("fileExercise").map(String));
+    const choices = choicesOf(form, files);
     if (!choices.success) {
       await Promise.all(files.map((f) => removeTakeFile(f.fileKey)));
       throw new UploadRefused(400, choices.error.issues[0].message);

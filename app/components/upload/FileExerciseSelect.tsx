@@ -33,16 +33,25 @@ export function FileExerciseSelect({
         onChange={(e) => onChange(e.target.value)}
         className="w-full min-w-0 rounded-md border border-line bg-white px-3 py-2 text-base text-ink shadow-inner focus:border-tide sm:w-auto sm:flex-1"
       >
-        <option value="">As above: {fallbackTitle}</option>
-        <option value="free">Free practice (no exercise)</option>
-        {exercises.map((e) =>
-          e.keys.map((k) => (
-            <option key={`${e.id}|${k}`} value={`${e.id}|${k}`}>
-              {e.keys.length > 1 ? `${e.title} · in ${pretty(k)}` : e.title}
-            </option>
-          )),
-        )}
+        <ExerciseChoiceOptions exercises={exercises} asAbove={`As above: ${fallbackTitle}`} />
       </select>
     </div>
+  );
+}
+
+/** The choices for one file or group of files: as above (""), free practice, or an exercise in one of its keys. */
+export function ExerciseChoiceOptions({ exercises, asAbove }: { exercises: FileExerciseOption[]; asAbove: string }) {
+  return (
+    <>
+      <option value="">{asAbove}</option>
+      <option value="free">Free practice (no exercise)</option>
+      {exercises.map((e) =>
+        e.keys.map((k) => (
+          <option key={`${e.id}|${k}`} value={`${e.id}|${k}`}>
+            {e.keys.length > 1 ? `${e.title} · in ${pretty(k)}` : e.title}
+          </option>
+        )),
+      )}
+    </>
   );
 }
