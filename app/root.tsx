@@ -7,10 +7,12 @@ import {
   Outlet,
   Scripts,
   ScrollRestoration,
+  useRouteError,
   useRouteLoaderData,
 } from "react-router";
 import type { Route } from "./+types/root";
-import { currentUser, sessionMiddleware } from "~/auth/access.server";
+import { currentUser, sessionMiddleware, viewerOf } from "~/auth/access.server";
+import { errorMessage, refusedViewer } from "~/auth/refusal";
 import { FlashMessage } from "~/components/FlashMessage";
 import { SiteNav, type NavUser } from "~/components/SiteNav";
 import { readFlash } from "~/server/flash.server";
@@ -26,14 +28,15 @@ export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await currentUser({ request, context });
   const { flash, header } = await readFlash(request);
-  const navUser: NavUser = user
-    ? { name: user.name, role: user.active?.role ?? null, studioName: user.active?.studioName ?? null }
-    : null;
+  const navUser: NavUser = user ? viewerOf(user) : null;
   return data({ user: navUser, flash }, header ? { headers: { "Set-Cookie": header } } : undefined);
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const root = useRouteLoaderData<typeof loader>("root");
+  // A layout's middleware that turns a signed-in person away does so before the root loader
+  // runs; its refusal names the person instead, so they still show as signed in.
+  const refused = refusedViewer(useRouteError());
   const nonce = useNonce();
   return (
     <html lang="en">
@@ -50,7 +53,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
         >
           Skip to content
         </a>
-        <SiteNav user={root?.user ?? null} />
+        <SiteNav user={root?.user ?? refused} />
         <main id="main" className="mx-auto max-w-6xl px-4 py-8">
           {root?.flash ? (
             <div className="mb-6">
@@ -86,10 +89,10 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       message = "There is nothing at this address. It may have moved, or the link may be mistyped.";
     } else if (error.status === 403) {
       title = "Not yours to see";
-      message = typeof error.data === "string" && error.data ? error.data : "This page belongs to someone else.";
+      message = errorMessage(error) ?? "This page belongs to someone else.";
     } else {
       title = `${error.status} ${error.statusText}`;
-      message = typeof error.data === "string" && error.data ? error.data : message;
+      message = errorMessage(error) ?? message;
     }
   } else if (import.meta.env.DEV && error instanceof Error) {
     stack = error.stack;

@@ -3,6 +3,7 @@ import { createContext, data, redirect, type MiddlewareFunction, type RouterCont
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
 import { env } from "~/server/env.server";
+import type { Refusal, Viewer } from "./refusal";
 import { getSessionUser, type SessionUser, type StudioRole } from "./session.server";
 
 /**
@@ -58,6 +59,11 @@ export function notFound(mode: AccessMode, message = "Not found"): never {
   throw data(message, { status: 404 });
 }
 
+/** What the navigation shows of a signed-in person. */
+export function viewerOf(user: SessionUser): Viewer {
+  return { name: user.name, role: user.active?.role ?? null, studioName: user.active?.studioName ?? null };
+}
+
 export async function requireUser(args: RequestArgs, mode: AccessMode = "page"): Promise<SessionUser> {
   const user = await currentUser(args);
   if (!user) {
@@ -81,11 +87,16 @@ export function isTeacherRole(role: string | undefined | null) {
   return role === "owner" || role === "teacher";
 }
 
+const isTeacher = (user: SessionUser): user is TeacherContext => isTeacherRole(user.active?.role);
+const isStudent = (user: SessionUser): user is StudentContext => user.active?.role === "student";
+const TEACHERS_ONLY = "Only the studio's teachers can open this.";
+const STUDENTS_ONLY = "This page is for students.";
+
 /** A teacher (owner or co-teacher) working in their active studio. */
 export async function requireTeacher(args: RequestArgs, mode: AccessMode = "page"): Promise<TeacherContext> {
   const user = await requireUser(args, mode);
-  if (!user.active || !isTeacherRole(user.active.role)) deny(mode, "Only the studio's teachers can open this.");
-  return user as TeacherContext;
+  if (!isTeacher(user)) deny(mode, TEACHERS_ONLY);
+  return user;
 }
 
 /** The owner of the active studio (for inviting co-teachers). */
@@ -124,8 +135,8 @@ export async function requireCoTeacherOfOwner(
 
 export async function requireStudent(args: RequestArgs, mode: AccessMode = "page"): Promise<StudentContext> {
   const user = await requireUser(args, mode);
-  if (!user.active || user.active.role !== "student") deny(mode, "This page is for students.");
-  return user as StudentContext;
+  if (!isStudent(user)) deny(mode, STUDENTS_ONLY);
+  return user;
 }
 
 /** Studios where this person teaches right now. */
@@ -270,19 +281,36 @@ export function requireSameOrigin(request: Request) {
 }
 
 /**
- * Middleware for a layout in app/routes.ts: everyone inside must meet `rule`
- * (pages are redirected to /login or shown a 403, API routes answer JSON).
+ * Middleware for an API layout in app/routes.ts: everyone inside must meet `rule`
+ * (401 / 403 JSON otherwise).
  */
-function entryRule(rule: (args: RequestArgs) => Promise<unknown>): MiddlewareFunction<Response> {
+function apiEntryRule(rule: (args: RequestArgs) => Promise<unknown>): MiddlewareFunction<Response> {
   return async (args, next) => {
     await rule(args);
     return next();
   };
 }
 
-export const visitorsOnly = entryRule(requireAnonymous);
-export const signedInOnly = entryRule((args) => requireUser(args));
-export const teachersOnly = entryRule((args) => requireTeacher(args));
-export const studentsOnly = entryRule((args) => requireStudent(args));
-export const signedInApi = entryRule((args) => requireUser(args, "api"));
-export const teachersApi = entryRule((args) => requireTeacher(args, "api"));
+/**
+ * Middleware for a page layout in app/routes.ts: signed-out visitors go to /login, signed-in
+ * people it does not `admit` get a 403 page. The refusal comes before any loader runs (so no
+ * page data is read, not even for a `.data` request), the root loader included: it carries the
+ * person (`Refusal`), so the root's navigation still shows them as signed in.
+ */
+function pageEntryRule(admit: (user: SessionUser) => boolean, message: string): MiddlewareFunction<Response> {
+  return async (args, next) => {
+    const user = await requireUser(args);
+    if (!admit(user)) throw data({ message, viewer: viewerOf(user) } satisfies Refusal, { status: 403 });
+    return next();
+  };
+}
+
+export const visitorsOnly: MiddlewareFunction<Response> = async (args, next) => {
+  await requireAnonymous(args);
+  return next();
+};
+export const signedInOnly = pageEntryRule(() => true, "");
+export const teachersOnly = pageEntryRule(isTeacher, TEACHERS_ONLY);
+export const studentsOnly = pageEntryRule(isStudent, STUDENTS_ONLY);
+export const signedInApi = apiEntryRule((args) => requireUser(args, "api"));
+export const teachersApi = apiEntryRule((args) => requireTeacher(args, "api"));

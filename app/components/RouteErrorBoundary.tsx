@@ -1,15 +1,15 @@
 import { isRouteErrorResponse, Link, useRouteError } from "react-router";
+import { errorMessage } from "~/auth/refusal";
 
 /** The teacher pages (board, students, reports, studio settings) keep the navigation when something fails, and say where to go next. */
 export function RouteErrorBoundary() {
   const error = useRouteError();
   const status = isRouteErrorResponse(error) ? error.status : 500;
   const message =
-    isRouteErrorResponse(error) && typeof error.data === "string" && error.data
-      ? error.data
-      : status === 404
-        ? "There is nothing at this address."
-        : "Nearnote could not show this page. Try again in a moment.";
+    errorMessage(error) ??
+    (status === 404
+      ? "There is nothing at this address."
+      : "Nearnote could not show this page. Try again in a moment.");
   return (
     <section className="mx-auto max-w-xl py-10 text-center">
       <h1 className="text-2xl font-semibold">

@@ -6,12 +6,15 @@
 import path from "node:path";
 import {
   createRequestHandler,
+  isRouteErrorResponse,
   matchRoutes,
   UNSAFE_decodeViaTurboStream,
   UNSAFE_withComponentProps,
   UNSAFE_withErrorBoundaryProps,
   UNSAFE_withHydrateFallbackProps,
   type ServerBuild,
+  type useActionData,
+  type useLoaderData,
 } from "react-router";
 import routeConfig from "~/routes";
 import { resetEnvForTests } from "~/server/env.server";
@@ -122,6 +125,11 @@ export async function send(request: Request): Promise<Response> {
   return response;
 }
 
+/** What a route's loader sends, typed as its page reads it: `ask<LoaderData<typeof loader>>(…)`. */
+export type LoaderData<Loader> = ReturnType<typeof useLoaderData<Loader>>;
+/** What a route's action answers (its failures and successes), typed as its page reads it. */
+export type ActionData<Action> = NonNullable<ReturnType<typeof useActionData<Action>>>;
+
 /** What a page's loader or action answered, read the way the browser's router reads it. */
 export type Answer<T = unknown> = {
   status: number;
@@ -136,8 +144,9 @@ const DATA_SUFFIX = ".data";
 /**
  * Asks a page route for its data as the browser's router does (a single-fetch `.data`
  * request): GET answers what the route's loader returned, any other method what its
- * action returned, each with the status it was sent with. Resource routes (API, files)
- * answer their Response as is: JSON is parsed, text read, anything else left as bytes.
+ * action returned, each with the status it was sent with; a refusal or failure thrown
+ * as `data(body, { status })` answers its body. Resource routes (API, files) answer their
+ * Response as is: JSON is parsed, text read, anything else left as bytes.
  */
 export async function ask<T = unknown>(request: Request, routeId?: string): Promise<Answer<T>> {
   const url = new URL(request.url);
@@ -187,22 +196,13 @@ export async function ask<T = unknown>(request: Request, routeId?: string): Prom
     (typeof decoded.redirect === "string" ? decoded : undefined)) as { redirect: string; status: number } | undefined;
   if (redirect)
     return { status: redirect.status, headers: response.headers, location: redirect.redirect, data: undefined as T };
-  if (isAction) {
-    const result = decoded as { data?: unknown; error?: unknown };
-    return {
-      status: response.status,
-      headers: response.headers,
-      location: null,
-      data: (result.error ?? result.data) as T,
-    };
-  }
-  const routes = decoded as Record<string, { data?: unknown; error?: unknown }>;
-  const answer = Object.values(routes)[0] ?? {};
+  const answer = (isAction ? decoded : (Object.values(decoded)[0] ?? {})) as { data?: unknown; error?: unknown };
+  const error = isRouteErrorResponse(answer.error) ? answer.error.data : answer.error;
   return {
     status: response.status,
     headers: response.headers,
     location: null,
-    data: (answer.error ?? answer.data) as T,
+    data: (error ?? answer.data) as T,
   };
 }
 
