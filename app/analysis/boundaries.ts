@@ -22,19 +22,27 @@ export function lowestSounding(
   strikes: readonly Strike[],
   sounding: ReadonlyMap<NoteEvent, Sounding>,
 ): Array<NoteEvent | null> {
-  const heard = (n: NoteEvent) => heardEndOf(sounding, n);
+  // Notes still sounding, with their heard ends beside them (looked up once per note).
   const active: NoteEvent[] = [];
+  const ends: number[] = [];
   return strikes.map((s) => {
     const t = s.start + HELD_FOR;
-    active.push(...s.notes);
+    for (const n of s.notes) {
+      active.push(n);
+      ends.push(heardEndOf(sounding, n));
+    }
     let low: NoteEvent | null = null;
     let kept = 0;
-    for (const n of active) {
-      if (heard(n) <= s.start + EPS) continue;
-      active[kept++] = n;
-      if (heard(n) > t + EPS && (!low || n.midi < low.midi)) low = n;
+    for (let q = 0; q < active.length; q++) {
+      const n = active[q];
+      const end = ends[q];
+      if (end <= s.start + EPS) continue;
+      active[kept] = n;
+      ends[kept++] = end;
+      if (end > t + EPS && (!low || n.midi < low.midi)) low = n;
     }
     active.length = kept;
+    ends.length = kept;
     return low;
   });
 }

@@ -287,6 +287,8 @@ const QUICK = new Float64Array(FLAT_COUNT);
 /** Far more than the rounding error of the quick pass, far less than any real difference in score. */
 const ROUNDING = 1e-7;
 const BONUS_STRIDE = 13;
+/** Far more than the rounding of a span's weights summed in another order, far less than any real score. */
+const BOUND_MARGIN = 1e-6;
 
 function sameTemplate(a: Template | null, b: Template | null): boolean {
   if (!a || !b) return a === b;
@@ -365,25 +367,39 @@ export function segment(input: SegmentInput, rules: BoundaryRules = boundaryRule
   const w = new Float64Array(13);
   for (let j = 1; j <= n; j++) {
     struck.fill(0);
+    let struckTotal = 0;
     const tj = T[j];
     for (let i = j - 1; i >= 0 && j - i <= MAX_SPAN_STRIKES; i--) {
       if (i < j - 1 && (forced[i + 1] || T[j - 1] - T[i] > MAX_SPAN_SEC)) break;
-      for (let x = off[i]; x < off[i + 1]; x++) struck[P[x]] += Math.max(0, Math.min(HEARD[x], tj) - START[x]);
+      for (let x = off[i]; x < off[i + 1]; x++) {
+        const d = Math.max(0, Math.min(HEARD[x], tj) - START[x]);
+        struck[P[x]] += d;
+        struckTotal += d;
+      }
       if (best[i] === -Infinity) continue;
       const t0 = T[i];
-      w.set(struck);
+      const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
+      const short = tj - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
+      const charges = (i > 0 ? CHANGE_COST : 0) + short + barredCost;
       // Keys held into the span count while they stay down; pedal-carried notes do not count.
+      let heldTotal = 0;
+      for (let q = downOff[i]; q < downOff[i + 1]; q++) {
+        const x = downList[q];
+        heldTotal += Math.max(0, Math.min(KEYEND[x], tj) - t0);
+      }
+      // No template matches more than the span's four heaviest pitch classes (a bound below
+      // the span's whole weight): skip starts whose best possible score cannot win. The whole
+      // weight is tried first, as it needs no weight vector; it skips only starts the exact
+      // bound below skips too (the margin covers the rounding of sums in another order).
+      if (best[j] !== -Infinity && best[i] + struckTotal + heldTotal - charges <= best[j] + EPS - BOUND_MARGIN)
+        continue;
+      w.set(struck);
       for (let q = downOff[i]; q < downOff[i + 1]; q++) {
         const x = downList[q];
         w[P[x]] += Math.max(0, Math.min(KEYEND[x], tj) - t0);
       }
       let total = 0;
       for (let p = 0; p < 12; p++) total += w[p];
-      const barredCost = i > 0 && !forced[i] ? (barred[i] ? TOO_SHORT : 0) + (newBass[i] ? 0 : SAME_BASS_COST) : 0;
-      const short = tj - t0 < minHarmonySec - EPS && !(j === n && i === 0) ? TOO_SHORT : 0;
-      const charges = (i > 0 ? CHANGE_COST : 0) + short + barredCost;
-      // No template matches more than the span's four heaviest pitch classes: skip starts
-      // whose best possible score cannot win.
       if (best[j] !== -Infinity && best[i] + 2 * heaviestFour(w) - total - charges <= best[j] + EPS) continue;
       budget?.spend(SPAN_STEPS);
       const sum = best[i] + spanScoreAt(w, bonusAt, BONUS_STRIDE * i) - charges;
