@@ -5,7 +5,7 @@ import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express from "express";
 import morgan from "morgan";
-import { existsSync } from "node:fs";
+import { existsSync, readdirSync } from "node:fs";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { ServerBuild } from "react-router";
@@ -27,6 +27,22 @@ export function useBuiltWorker(buildDir: string) {
   if (existsSync(entry)) process.env.ANALYSIS_WORKER_ENTRY ??= entry;
 }
 
+/**
+ * The build's other client files (the icon, the piano samples) behind `serve`, asked only for
+ * paths whose first segment names one of them: a page address such as /takes/… then costs no
+ * file-system lookup. A first segment that is not a plain name (dots, escapes) still goes to
+ * `serve`, which normalises and decodes it, so what is served is the same as before.
+ */
+export function clientFiles(clientDir: string, serve: express.RequestHandler): express.RequestHandler {
+  const names = new Set((existsSync(clientDir) ? readdirSync(clientDir) : []).map((n) => n.toLowerCase()));
+  if (existsSync(path.join(clientDir, "index.html"))) names.add("");
+  return (req, res, next) => {
+    const first = req.path.split("/", 2)[1] ?? "";
+    if (/^[A-Za-z0-9_-]*$/.test(first) && !names.has(first.toLowerCase())) return next();
+    return serve(req, res, next);
+  };
+}
+
 /** The Express app over a build; its settings come from the checked configuration (`env()`). */
 export async function createApp(buildDir: string) {
   const config = env();
@@ -42,7 +58,12 @@ export async function createApp(buildDir: string) {
     "/assets",
     express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }),
   );
-  app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }));
+  app.use(
+    clientFiles(
+      path.join(buildDir, "client"),
+      express.static(path.join(buildDir, "client"), { maxAge: "1h", setHeaders: staticHeaders }),
+    ),
+  );
   if (config.accessLog) app.use(morgan("tiny"));
   // Sign-in throttling keys on the client address. Unless a trusted proxy sets it
   // (TRUST_PROXY=1), the address is the socket's own, so a client cannot forge it.
