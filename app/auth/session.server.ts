@@ -1,6 +1,7 @@
-import { and, eq, gt } from "drizzle-orm";
+import { and, eq, gt, sql } from "drizzle-orm";
+import { LRUCache } from "lru-cache";
 import { createCookie, redirect } from "react-router";
-import { db } from "~/db/client.server";
+import { db, preparedQuery } from "~/db/client.server";
 import { memberships, sessions, studios, users, type MembershipRole } from "~/db/schema";
 import { env } from "~/server/env.server";
 
@@ -24,6 +25,7 @@ export function sessionCookie() {
 
 export function resetSessionCookieForTests() {
   cookie = undefined;
+  sessionIds.clear();
 }
 
 export type StudioRole = { studioId: string; studioName: string; role: MembershipRole };
@@ -39,29 +41,50 @@ export type SessionUser = {
   active: StudioRole | null;
 };
 
+/**
+ * Cookie headers already read, with the session id their signature gave (or null): checking
+ * the signature is the costly part of reading the cookie, and its answer for one header never
+ * changes while the secret stays the same.
+ */
+const sessionIds = new LRUCache<string, { id: string | null }>({ max: 10_000 });
+
 export async function readSessionId(request: Request): Promise<string | null> {
-  const value = await sessionCookie().parse(request.headers.get("Cookie"));
-  return typeof value === "string" ? value : null;
+  const header = request.headers.get("Cookie");
+  const known = header && header.length <= 4096 ? sessionIds.get(header) : undefined;
+  if (known) return known.id;
+  const value = await sessionCookie().parse(header);
+  const id = typeof value === "string" ? value : null;
+  if (header && header.length <= 4096) sessionIds.set(header, { id });
+  return id;
 }
+
+const sessionRowQuery = preparedQuery((database) =>
+  database
+    .select({ session: sessions, user: users })
+    .from(sessions)
+    .innerJoin(users, eq(users.id, sessions.userId))
+    .where(and(eq(sessions.id, sql.placeholder("sessionId")), gt(sessions.expiresAt, sql.placeholder("now"))))
+    .prepare(),
+);
+
+const activeRolesQuery = preparedQuery((database) =>
+  database
+    .select({ studioId: studios.id, studioName: studios.name, role: memberships.role })
+    .from(memberships)
+    .innerJoin(studios, eq(studios.id, memberships.studioId))
+    .where(and(eq(memberships.userId, sql.placeholder("userId")), eq(memberships.status, "active")))
+    .orderBy(memberships.createdAt)
+    .prepare(),
+);
 
 /** Loads the signed-in person with their active studio memberships, or null. */
 export async function getSessionUser(request: Request): Promise<SessionUser | null> {
   const sessionId = await readSessionId(request);
   if (!sessionId) return null;
-  const row = db()
-    .select({ session: sessions, user: users })
-    .from(sessions)
-    .innerJoin(users, eq(users.id, sessions.userId))
-    .where(and(eq(sessions.id, sessionId), gt(sessions.expiresAt, new Date())))
-    .get();
+  // expires_at holds milliseconds (timestamp_ms); a placeholder's value is bound as given.
+  const row = sessionRowQuery().get({ sessionId, now: Date.now() });
   if (!row) return null;
-  const roles = db()
-    .select({ studioId: studios.id, studioName: studios.name, role: memberships.role })
-    .from(memberships)
-    .innerJoin(studios, eq(studios.id, memberships.studioId))
-    .where(and(eq(memberships.userId, row.user.id), eq(memberships.status, "active")))
-    .orderBy(memberships.createdAt)
-    .all();
+  const roles = activeRolesQuery().all({ userId: row.user.id });
   const active = roles.find((r) => r.studioId === row.session.activeStudioId) ?? roles[0] ?? null;
   return {
     sessionId,

@@ -40,3 +40,21 @@ export function closeDatabase() {
   instance?.$client.close();
   instance = undefined;
 }
+
+/**
+ * A query built once per connection (Drizzle's `.prepare()`, with `sql.placeholder` for the
+ * values) for the queries nearly every request runs, so they skip building the SQL each time.
+ * A fresh connection (tests swap the file) gets its own.
+ */
+export function preparedQuery<T>(build: (database: Db) => T): () => T {
+  const byConnection = new WeakMap<Db, T>();
+  return () => {
+    const database = db();
+    let query = byConnection.get(database);
+    if (query === undefined) {
+      query = build(database);
+      byConnection.set(database, query);
+    }
+    return query;
+  };
+}
