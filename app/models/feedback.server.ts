@@ -14,6 +14,7 @@ import {
   users,
 } from "~/db/schema";
 import { applyIntendedFlags } from "./intendedFlags.server";
+import { storedAnalysis } from "./takeAnalysis.server";
 
 // Feedback on takes: comments (whole take or pinned to a change) and replies, who has read
 // what, flags the teacher marks as intended, and which takes the teacher has reviewed.
@@ -42,10 +43,7 @@ export const intendSchema = z.object({
 export class FeedbackRefused extends Error {}
 
 function analysisOf(takeId: string) {
-  return (
-    db().select({ analysis: takeMetrics.analysis }).from(takeMetrics).where(eq(takeMetrics.takeId, takeId)).get()
-      ?.analysis ?? null
-  );
+  return storedAnalysis(takeId);
 }
 
 /** Adds a comment or a reply; a reply to a reply joins the same thread. Returns the new comment's id. */
@@ -336,7 +334,7 @@ export function takePageFeedback(
         ?.f ?? [])
     : [];
   const metricsRow = db()
-    .select({ score: takeMetrics.score, analysis: takeMetrics.analysis })
+    .select({ score: takeMetrics.score })
     .from(takeMetrics)
     .where(eq(takeMetrics.takeId, take.id))
     .get();
@@ -347,7 +345,7 @@ export function takePageFeedback(
     intended: intendedFlagList(take.id),
     review: asTeacher ? reviewOf(take.id) : null,
     score: metricsRow?.score ?? null,
-    engineScore: metricsRow?.analysis.summary.score ?? null,
+    engineScore: (metricsRow && storedAnalysis(take.id)?.summary.score) ?? null,
     focusTechniques: focus,
   };
 }

@@ -1,14 +1,20 @@
 import { and, desc, eq, isNull, lt, or, sql } from "drizzle-orm";
 import type { FitWarning } from "~/analysis/exerciseFit";
-import { ANALYSIS_VERSION, readMidi, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
-import { db } from "~/db/client.server";
+import { ANALYSIS_VERSION, type NoteEvent, type PedalSpan, type TakeAnalysis } from "~/analysis";
+import { db, preparedQuery } from "~/db/client.server";
 import { exercises, takeMetrics, takes, users, type Take } from "~/db/schema";
 import { analyseInWorker } from "~/takes/analysisPool.server";
-import { readTakeFile, removeTakeFilesAfterRows } from "~/takes/takeFiles.server";
+import { readTakeFile, readTakeNotes, removeTakeFilesAfterRows } from "~/takes/takeFiles.server";
 import { fitNotice, type FitNotice } from "~/takes/exerciseFitText";
 import { weekKey } from "~/utils/weeks";
 import { studioTimeZone } from "./progress.server";
-import { clearAnalysisRows, exerciseTarget, writeAnalysisRows, type AnalysisOutcome } from "./takeAnalysis.server";
+import {
+  clearAnalysisRows,
+  exerciseTarget,
+  storedAnalysis,
+  writeAnalysisRows,
+  type AnalysisOutcome,
+} from "./takeAnalysis.server";
 
 export type TakeView = {
   take: {
@@ -82,22 +88,30 @@ export function createTakeRecord(t: NewTake): string {
   });
 }
 
-export async function getTakeView(takeId: string): Promise<TakeView | null> {
-  const row = db()
-    .select({ take: takes, studentName: users.name, exerciseTitle: exercises.title, analysis: takeMetrics.analysis })
+const takeViewQuery = preparedQuery((database) =>
+  database
+    .select({ take: takes, studentName: users.name, exerciseTitle: exercises.title })
     .from(takes)
     .innerJoin(users, eq(users.id, takes.studentId))
     .leftJoin(exercises, eq(exercises.id, takes.exerciseId))
-    .leftJoin(takeMetrics, eq(takeMetrics.takeId, takes.id))
-    .where(eq(takes.id, takeId))
-    .get();
+    .where(eq(takes.id, sql.placeholder("takeId")))
+    .prepare(),
+);
+
+/**
+ * A take as its page shows it. The analysis and the notes are shared with other requests
+ * (parsed once, see `storedAnalysis` and `readTakeNotes`): read them, never change them.
+ */
+export async function getTakeView(takeId: string): Promise<TakeView | null> {
+  const row = takeViewQuery().get({ takeId });
   if (!row) return null;
   const t = row.take;
+  const analysis = storedAnalysis(t.id);
   let notes: NoteEvent[] = [];
   let pedal: PedalSpan[] = [];
   if (t.status === "analysed") {
-    const bytes = await readTakeFile(t.fileKey);
-    if (bytes) ({ notes, pedal = [] } = readMidi(bytes));
+    const read = await readTakeNotes(t.fileKey);
+    if (read) ({ notes, pedal } = read);
   }
   return {
     take: {
@@ -118,7 +132,7 @@ export async function getTakeView(takeId: string): Promise<TakeView | null> {
       durationSec: t.durationSec,
       analysisVersion: t.analysisVersion,
     },
-    analysis: row.analysis ?? null,
+    analysis,
     notes,
     pedal,
   };

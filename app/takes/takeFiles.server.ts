@@ -1,7 +1,9 @@
 import { LocalFileStorage } from "@mjackson/file-storage/local";
+import { LRUCache } from "lru-cache";
 import { createHash, randomUUID } from "node:crypto";
 import { mkdir, readdir, rm, stat, unlink, writeFile } from "node:fs/promises";
 import path from "node:path";
+import { readMidi, type NoteEvent, type PedalSpan } from "~/analysis";
 import { env } from "~/server/env.server";
 
 // Take files live under storage/takes/ by a random key: the client's file name
@@ -32,7 +34,34 @@ export async function readTakeFile(fileKey: string): Promise<Uint8Array | null> 
 }
 
 export async function removeTakeFile(fileKey: string) {
+  takeNotes.delete(path.join(takesDir(), fileKey));
   await takeStorage().remove(fileKey);
+}
+
+export type TakeNotes = { notes: NoteEvent[]; pedal: PedalSpan[] };
+
+/**
+ * Notes and pedal read from take files, by folder and key, bounded by their count. A key is
+ * written once (every upload and replacement gets a new one), so what it holds never changes.
+ */
+const takeNotes = new LRUCache<string, TakeNotes>({ maxSize: 1_000_000 });
+
+/**
+ * The notes and pedal of a stored take file (null: no such file), read and parsed once and
+ * then shared (frozen): the take page and its windows draw them on every view.
+ */
+export async function readTakeNotes(fileKey: string): Promise<TakeNotes | null> {
+  const cacheKey = path.join(takesDir(), fileKey);
+  const known = takeNotes.get(cacheKey);
+  if (known) return known;
+  const bytes = await readTakeFile(fileKey);
+  if (!bytes) return null;
+  const { notes, pedal = [] } = readMidi(bytes);
+  for (const n of notes) Object.freeze(n);
+  for (const p of pedal) Object.freeze(p);
+  const read = Object.freeze({ notes: Object.freeze(notes), pedal: Object.freeze(pedal) }) as TakeNotes;
+  takeNotes.set(cacheKey, read, { size: notes.length + pedal.length + 1 });
+  return read;
 }
 
 /**
