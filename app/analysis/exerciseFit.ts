@@ -3,7 +3,7 @@
 // take sent under the wrong exercise (another key, other chords) is flagged with the exercise
 // it most likely belongs to. Pure: runs on an analysis worker beside the take's own analysis.
 import { estimateKey } from "./key";
-import { matchProgression, type PlayedIdentity } from "./matching";
+import { matchProgression, type Mismatch, type PlayedIdentity } from "./matching";
 import { nameChord } from "./naming";
 import { parseKey, pc, ProgressionError, type Key } from "./pitch";
 import { parseProgression } from "./progression";
@@ -137,5 +137,30 @@ export function fitWarning(report: FitReport, filed: { exerciseId: string; key: 
     accuracy: own.accuracy,
     reason: otherKey ? "key" : "chords",
     likely,
+  };
+}
+
+/** A take's chords against a progression a person names (a free-practice take has no target of its own). */
+export type NamedCheck = { target: string; key: string; accuracy: number; loops: number; mismatches: Mismatch[] };
+
+/**
+ * Matches every chord of a take against `target` in `key` exactly as an exercise's target is
+ * matched at analysis (DOMAIN "Matching a take to a target"; loops allowed). Throws
+ * ProgressionError, naming the bad chord, for a key or target that does not parse.
+ */
+export function checkAgainstTarget(chords: readonly ChordReport[], target: string, key: string): NamedCheck {
+  const parsedKey = parseKey(key);
+  const parsed = parseProgression(target, parsedKey);
+  // Every chord, as the analysis matches them, so each difference names the chord it was played at.
+  const played = chords.map(identity);
+  const result = played.length
+    ? matchProgression(played, parsed)
+    : { accuracy: 0, loops: 1, mismatches: [] as Mismatch[] };
+  return {
+    target: target.trim(),
+    key: parsedKey.name,
+    accuracy: result.accuracy,
+    loops: result.loops,
+    mismatches: result.mismatches,
   };
 }

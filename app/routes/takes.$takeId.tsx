@@ -9,6 +9,7 @@ import { FlashMessage } from "~/components/FlashMessage";
 import { PageHeader } from "~/components/PageHeader";
 import { PracticeCare } from "~/components/PracticeCare";
 import { TakeAnalysisView } from "~/components/take/TakeAnalysisView";
+import { PracticeCheckCard } from "~/components/take/PracticeCheckCard";
 import { TakeManage } from "~/components/take/TakeManage";
 import { ChangeComments } from "~/components/feedback/ChangeComments";
 import { ExerciseGrading } from "~/components/feedback/ExerciseGrading";
@@ -19,6 +20,7 @@ import { takePageFeedback } from "~/models/feedback.server";
 import { withIntendedMarks } from "~/takes/intendedScore";
 import { heardKey, nextStep } from "~/takes/nextStep";
 import { placeMismatches } from "~/takes/mismatchPlaces";
+import { practiceCheck, type PracticeCheck } from "~/takes/practiceCheck";
 import { stitchWindows, timelineOf, windowOf, windowVersion } from "~/takes/takeWindows";
 import type { TakeAnalysis } from "~/analysis/types";
 import { failureMessage, failureOf } from "~/forms/failure";
@@ -77,6 +79,11 @@ function analysisForPage(
 }
 
 const changeQuery = z.coerce.number().int().min(1).max(10_000_000);
+/** A progression to check a free-practice take against (`?against=I IV V I&in=D`), and its key. */
+const practiceQuery = z.object({
+  against: z.string().trim().max(300).catch(""),
+  in: z.string().trim().max(8).catch(""),
+});
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const { user, take } = await requireTakeAccess({ request, context }, params.takeId);
@@ -99,9 +106,24 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const windowed = analysis
     ? { ...analysisForPage(analysis, notes, asked, heard, feedback.intended), version: windowVersion(take) }
     : null;
+  // A take without an exercise: the key it is heard in, the open exercise it likely is, and a
+  // progression the page is asked to check it against (nothing stored, the score unchanged).
+  let practice: (PracticeCheck & { key: string }) | null = null;
+  if (!take.exerciseId && analysis) {
+    const query = new URL(request.url).searchParams;
+    const asked = practiceQuery.parse({ against: query.get("against") ?? "", in: query.get("in") ?? "" });
+    const open = listExercisesForStudent(take.studentId, take.studioId);
+    const check = practiceCheck(
+      notes,
+      analysis.chords,
+      open,
+      asked.against ? { target: asked.against, key: asked.in || take.key || analysis.summary.key } : null,
+    );
+    practice = { ...check, key: asked.in || take.key || check.heardKey || analysis.summary.key };
+  }
   // Times as the studio's clock shows them, for teacher and student alike.
   const zone = studioTimeZone(take.studioId);
-  return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id), zone };
+  return { view: rest, windowed, isOwner, exercises, feedback, fit: fitNoticeForTake(take.id), zone, practice };
 }
 
 const CHOOSE = "Choose an exercise and a key.";
@@ -180,7 +202,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function TakePage({ loaderData }: Route.ComponentProps) {
-  const { view, windowed, isOwner, exercises, feedback, fit, zone } = loaderData;
+  const { view, windowed, isOwner, exercises, feedback, fit, zone, practice } = loaderData;
   // The flags list and the exercise's grading read chords and changes from the time line and the first window.
   const analysis = useMemo(
     () =>
@@ -289,6 +311,15 @@ export default function TakePage({ loaderData }: Route.ComponentProps) {
         <Card title={`Against the exercise${take.exerciseTitle ? `: ${take.exerciseTitle}` : ""}`}>
           <ExerciseGrading analysis={analysis} focusTechniques={feedback.focusTechniques} />
         </Card>
+      ) : null}
+      {take.status === "analysed" && analysis && practice ? (
+        <PracticeCheckCard
+          takeId={take.id}
+          check={practice}
+          analysis={analysis}
+          isOwner={isOwner}
+          studentFirstName={take.studentName.split(" ")[0]}
+        />
       ) : null}
       {take.status === "analysed" && analysis ? (
         <Card title="Flags">
