@@ -169,10 +169,12 @@ export function weeksBetween(from: string, to: string, limit = 520): string[] {
   return out;
 }
 
+// Built once: the same as toLocaleDateString("en-GB", these options) without a new formatter per call.
+const WEEK_LABEL = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", timeZone: "UTC" });
+
 /** "2026-W48" → "24 Nov": the Monday a week starts on, for axis labels. */
 export function weekLabel(key: string): string {
-  const d = new Date(`${weekStart(key)}T00:00:00Z`);
-  return d.toLocaleDateString("en-GB", { day: "numeric", month: "short", timeZone: "UTC" });
+  return WEEK_LABEL.format(new Date(`${weekStart(key)}T00:00:00Z`));
 }
 
 /** The Sunday a week ends on (YYYY-MM-DD). */

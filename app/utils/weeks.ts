@@ -1,13 +1,20 @@
 // ISO 8601 weeks in a studio's own time zone. Pure: used by the server and the tests.
 
+// One formatter per time zone: building an Intl.DateTimeFormat costs far more than using one.
+const dateFormats = new Map<string, Intl.DateTimeFormat>();
+
+function dateFormat(timeZone: string): Intl.DateTimeFormat {
+  let f = dateFormats.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" });
+    dateFormats.set(timeZone, f);
+  }
+  return f;
+}
+
 /** The calendar date (y, m, d) that `instant` falls on in `timeZone`. */
 export function localDate(instant: Date, timeZone: string): { year: number; month: number; day: number } {
-  const parts = new Intl.DateTimeFormat("en-CA", {
-    timeZone,
-    year: "numeric",
-    month: "2-digit",
-    day: "2-digit",
-  }).formatToParts(instant);
+  const parts = dateFormat(timeZone).formatToParts(instant);
   const get = (type: string) => Number(parts.find((p) => p.type === type)!.value);
   return { year: get("year"), month: get("month"), day: get("day") };
 }
