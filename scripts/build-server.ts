@@ -23,8 +23,14 @@ await build({
   platform: "node",
   format: "esm",
   target: "node20",
-  // Packages load from node_modules as they are (better-sqlite3 is native).
-  packages: "external",
+  // Packages are bundled too (a cold start then reads a few files, not hundreds), except
+  // those the server build also loads (one copy each), the native SQLite binding and the
+  // worker pool, which starts its workers from its own files.
+  external: ["better-sqlite3", "piscina", "react", "react-dom", "react-router", "@react-router/node"],
+  // Bundled CommonJS packages call require() for Node's own modules.
+  banner: {
+    js: 'import { createRequire as __nearnoteRequire } from "node:module"; const require = __nearnoteRequire(import.meta.url);',
+  },
   sourcemap: true,
   logLevel: "warning",
 });
