@@ -37,9 +37,9 @@ test.describe("without JavaScript", () => {
       await page.getByLabel("MIDI files", { exact: true }).setInputFiles(sample("three-chord-smoothing-d.mid"));
       // Group 1: the ballad; group 2: free practice.
       await groups.getByLabel("Group 1: exercise").selectOption({ label: "Sunday ballad in A♭" });
-      await groups.getByLabel("Group 1: MIDI files").setInputFiles(sample("sunday-ballad-ab.mid"));
+      await groups.getByLabel("Group 1: files").setInputFiles(sample("sunday-ballad-ab.mid"));
       await groups.getByLabel("Group 2: exercise").selectOption({ label: "Free practice (no exercise)" });
-      await groups.getByLabel("Group 2: MIDI files").setInputFiles(sample("minor-colour-g.mid"));
+      await groups.getByLabel("Group 2: files").setInputFiles(sample("minor-colour-g.mid"));
       await documentFits(page);
       mkdirSync(SCREENS, { recursive: true });
       await page.screenshot({ path: `${SCREENS}/upload-groups-form-${size.name}.png`, fullPage: true });

@@ -39,7 +39,7 @@ export function FileGroups({ exercises, idPrefix }: { exercises: FileExerciseOpt
             </div>
             <div className="flex min-w-0 flex-col gap-1">
               <label htmlFor={`${idPrefix}-file-${n}`} className="text-sm font-semibold">
-                Group {n + 1}: MIDI files
+                Group {n + 1}: files
               </label>
               <input
                 id={`${idPrefix}-file-${n}`}
