@@ -3,20 +3,15 @@
 // used to flood an inbox.
 import net from "node:net";
 import type { AddressInfo } from "node:net";
-import { RouterContextProvider } from "react-router";
 import { afterEach, describe, expect, it } from "vitest";
 import { ACCOUNT_MAILS_PER_DAY } from "~/auth/mailLimits.server";
 import { db } from "~/db/client.server";
 import { accountMailSends } from "~/db/schema";
 import { resetEnvForTests } from "~/server/env.server";
 import { mailSettled } from "~/mail/mail.server";
-import * as forgot from "~/routes/forgot-password";
-import * as login from "~/routes/login";
-import * as settings from "~/routes/settings";
-import * as signup from "~/routes/signup";
-import * as verify from "~/routes/verify";
 import { useFreshApp } from "../support/setup";
-import { call, makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
+import { ask } from "../support/app";
+import { makeUser, PASSWORD, post, signIn, useMailCatcher } from "./accountsKit";
 
 const app = useFreshApp();
 const mail = useMailCatcher(app);
@@ -50,21 +45,21 @@ describe("answer first, mail after", () => {
     resetEnvForTests();
     return sockets;
   }
-  /** The action alone (not `call`, which also waits for the mail), given at most 5 s. */
-  const answer = (action: unknown, request: Request) =>
+  /** The page's answer without waiting for the mail it sends afterwards, given at most 5 s. */
+  const answer = (request: Request) =>
     Promise.race([
-      (action as (a: object) => Promise<unknown>)({ request, params: {}, context: new RouterContextProvider() }),
+      ask(request, { waitForMail: false }).then((a) => a.data),
       new Promise((r) => setTimeout(() => r("still waiting for the mail server"), 5000)),
     ]);
 
   it("/forgot-password answers known and unknown addresses alike while the mail server has not even greeted", async () => {
     const sockets = await silentMailServer();
     makeUser("dara@tidewater.example");
-    expect(await answer(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).toEqual({
+    expect(await answer(post("/forgot-password", { email: "dara@tidewater.example" }))).toEqual({
       ok: true,
       email: "dara@tidewater.example",
     });
-    expect(await answer(forgot.action, post("/forgot-password", { email: "nobody@tidewater.example" }))).toEqual({
+    expect(await answer(post("/forgot-password", { email: "nobody@tidewater.example" }))).toEqual({
       ok: true,
       email: "nobody@tidewater.example",
     });
@@ -76,11 +71,11 @@ describe("answer first, mail after", () => {
     const sockets = await silentMailServer();
     makeUser("ines@tidewater.example");
     const form = { name: "Ines Marlowe", password: "tidewater-keys", studioName: "Tidewater Keys" };
-    expect(await answer(signup.action, post("/signup", { ...form, email: "ines@tidewater.example" }))).toEqual({
+    expect(await answer(post("/signup", { ...form, email: "ines@tidewater.example" }))).toEqual({
       ok: true,
       email: "ines@tidewater.example",
     });
-    expect(await answer(signup.action, post("/signup", { ...form, email: "felix@tidewater.example" }))).toEqual({
+    expect(await answer(post("/signup", { ...form, email: "felix@tidewater.example" }))).toEqual({
       ok: true,
       email: "felix@tidewater.example",
     });
@@ -91,13 +86,12 @@ describe("answer first, mail after", () => {
 describe("limits on account mail", () => {
   it("ten posts to /verify after an e-mail change send one link; the rest say when to ask again", async () => {
     const user = makeUser("dara@tidewater.example");
-    const jar = await signIn(login, user.email);
-    await call(
-      settings.action,
+    const jar = await signIn(user.email);
+    await ask(
       post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar),
     );
     for (let i = 0; i < 10; i++) {
-      const r = await call(verify.action, post("/verify", {}, jar));
+      const r = await ask(post("/verify", {}, jar));
       expect(r.location).toBe("/settings");
     }
     expect(mail.all().filter((m) => m.to.includes("dara.o@tidewater.example"))).toHaveLength(1);
@@ -105,28 +99,27 @@ describe("limits on account mail", () => {
 
   it("ten parallel posts to /verify send one link", async () => {
     const user = makeUser("dara@tidewater.example", "Dara", false);
-    const jar = await signIn(login, user.email);
-    await Promise.all(Array.from({ length: 10 }, () => call(verify.action, post("/verify", {}, jar))));
+    const jar = await signIn(user.email);
+    await Promise.all(Array.from({ length: 10 }, () => ask(post("/verify", {}, jar))));
     expect(mail.all()).toHaveLength(1);
   });
 
   it(`caps confirmation links at ${ACCOUNT_MAILS_PER_DAY} a day per account, however often the address changes`, async () => {
     const user = makeUser("dara@tidewater.example");
-    const jar = await signIn(login, user.email);
+    const jar = await signIn(user.email);
     for (let i = 0; i < 10; i++) {
-      await call(
-        settings.action,
+      await ask(
         post("/settings", { intent: "email", email: `dara+${i}@tidewater.example`, currentPassword: PASSWORD }, jar),
       );
-      await call(verify.action, post("/verify", {}, jar));
+      await ask(post("/verify", {}, jar));
       age(2 * 60 * 1000); // two minutes later
     }
     expect(mail.all()).toHaveLength(ACCOUNT_MAILS_PER_DAY);
     // The refusal says why, on the settings page.
-    const refused = await call(verify.action, post("/verify", {}, jar));
+    const refused = await ask(post("/verify", {}, jar));
     expect(refused.headers.get("Set-Cookie")).toBeTruthy();
     age(24 * 60 * 60 * 1000); // a day later
-    await call(verify.action, post("/verify", {}, jar));
+    await ask(post("/verify", {}, jar));
     expect(mail.all()).toHaveLength(ACCOUNT_MAILS_PER_DAY + 1);
   });
 
@@ -134,8 +127,8 @@ describe("limits on account mail", () => {
     makeUser("ines@tidewater.example");
     const form = { name: "Someone", password: "tidewater-keys", studioName: "Any Studio" };
     for (let i = 0; i < 5; i++) {
-      await call(signup.action, post("/signup", { ...form, email: "ines@tidewater.example" }));
-      await call(signup.action, post("/signup", { ...form, email: "felix@tidewater.example" }));
+      await ask(post("/signup", { ...form, email: "ines@tidewater.example" }));
+      await ask(post("/signup", { ...form, email: "felix@tidewater.example" }));
     }
     expect(
       mail
@@ -148,8 +141,8 @@ describe("limits on account mail", () => {
   it("reset links: one a minute and at most a few a day per account", async () => {
     makeUser("dara@tidewater.example");
     for (let i = 0; i < 10; i++) {
-      await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
-      await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
+      await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
+      await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
       age(2 * 60 * 1000);
     }
     expect(mail.all()).toHaveLength(ACCOUNT_MAILS_PER_DAY);

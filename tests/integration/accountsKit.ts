@@ -9,6 +9,7 @@ import { exercises, memberships, studios, takes, users, type MembershipRole } fr
 import { resetEnvForTests } from "~/server/env.server";
 import { mailSettled } from "~/mail/mail.server";
 import { readCaughtMail, startMailCatcher, type CaughtMail } from "~/mail/mailCatcher.server";
+import { ask } from "../support/app";
 import type { FreshApp } from "../support/setup";
 
 export const ORIGIN = "http://127.0.0.1:3000";
@@ -185,10 +186,13 @@ export function makeTakeRow(studentId: string, studioId: string, fileKey: string
     .get();
 }
 
-/** Signs a fixture user in through the real /login action and returns their cookies. */
-export async function signIn(login: { action: unknown }, email: string, password = PASSWORD): Promise<CookieJar> {
-  const jar = new CookieJar();
-  const result = await call(login.action, post("/login", { email, password, redirectTo: "/home" }));
+/** Signs a fixture user in through the real /login page and returns their cookies. */
+export async function signIn(email: string, password?: string): Promise<CookieJar>;
+/** @deprecated The login module is not needed any more: `signIn(email, password?)`. */
+export async function signIn(login: object, email: string, password?: string): Promise<CookieJar>;
+export async function signIn(...args: [string, string?] | [object, string, string?]): Promise<CookieJar> {
+  const [email, password = PASSWORD] = (typeof args[0] === "string" ? args : args.slice(1)) as [string, string?];
+  const result = await ask(post("/login", { email, password, redirectTo: "/home" }));
   if (result.status !== 302) throw new Error(`sign-in of ${email} failed with ${result.status}`);
-  return jar.take(result.headers);
+  return new CookieJar().take(result.headers);
 }

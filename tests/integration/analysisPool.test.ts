@@ -10,11 +10,10 @@ import { resetEnvForTests } from "~/server/env.server";
 import { analyseInWorker, analysisThreads } from "~/takes/analysisPool.server";
 import { analyseTake } from "~/takes/analysisWorker/task";
 import { moveTake, reanalyseTake } from "~/models/takes.server";
-import * as login from "~/routes/login";
-import * as apiTakes from "~/routes/api.takes";
 import { denseChordTake } from "../../scripts/lib/denseTake";
 import { storedTakeFiles, useFreshApp } from "../support/setup";
-import { call, join, makeExercise, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { join, makeExercise, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
 
 // The server analyses takes on worker threads with a time limit per take. The
 // worst case is the densest file the engine accepts: random eight-key chords up
@@ -58,12 +57,11 @@ describe("the analysis pool", () => {
     const studio = makeStudio("Harbour Lane");
     const dara = makeUser("dara@harbour.example", "Dara");
     join(studio.id, dara.id, "student");
-    const jar = await signIn(login, dara.email);
+    const jar = await signIn(dara.email);
     limitTo(300);
     const form = new FormData();
     form.append("file", new File([new Uint8Array(worst())], "dense.mid", { type: "audio/midi" }));
-    const r = await call(
-      apiTakes.action,
+    const r = await ask(
       new Request(`${ORIGIN}/api/takes`, {
         method: "POST",
         body: form,
@@ -83,11 +81,10 @@ describe("the analysis pool", () => {
     const dara = makeUser("dara@harbour.example", "Dara");
     join(studio.id, dara.id, "student");
     const exercise = makeExercise(studio.id);
-    const jar = await signIn(login, dara.email);
+    const jar = await signIn(dara.email);
     const form = new FormData();
     form.append("file", new File([sample("held-bass-d.mid")], "held.mid", { type: "audio/midi" }));
-    const up = await call(
-      apiTakes.action,
+    const up = await ask(
       new Request(`${ORIGIN}/api/takes`, {
         method: "POST",
         body: form,

@@ -5,7 +5,6 @@ import { and, eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { memberships } from "~/db/schema";
-import * as login from "~/routes/login";
 import { ask } from "../support/app";
 import { useFreshApp } from "../support/setup";
 import {
@@ -36,7 +35,7 @@ async function studio() {
   join(s.id, ines.id, "owner");
   join(s.id, rafe.id, "teacher");
   join(s.id, dara.id, "student");
-  return { s, ines, rafe, dara, inesJar: await signIn(login, ines.email), rafeJar: await signIn(login, rafe.email) };
+  return { s, ines, rafe, dara, inesJar: await signIn(ines.email), rafeJar: await signIn(rafe.email) };
 }
 
 const membership = (studioId: string, userId: string) =>
@@ -74,7 +73,7 @@ describe("removing a co-teacher", () => {
     const invited = await ask(post("/students", { intent: "invite", emails: rafe.email, role: "teacher" }, inesJar));
     expect(invited.status).toBe(200);
     const link = linkIn(mail.latestTo(rafe.email));
-    const rafeJar = await signIn(login, rafe.email);
+    const rafeJar = await signIn(rafe.email);
     expect((await ask(post(link, { intent: "join" }, rafeJar))).status).toBe(302);
     expect(membership(s.id, rafe.id)).toMatchObject({ status: "active", role: "teacher", removedAt: null });
     expect((await ask(get("/board", rafeJar))).status).toBe(200);

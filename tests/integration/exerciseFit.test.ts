@@ -12,10 +12,9 @@ import { exercises, takes } from "~/db/schema";
 import { getSessionUser } from "~/auth/session.server";
 import { uploadTakesFromForm } from "~/takes/takeUpload.server";
 import { fitSentence, likelySentence, type FitNotice } from "~/takes/exerciseFitText";
-import * as login from "~/routes/login";
-import * as takePage from "~/routes/takes.$takeId";
 import { useFreshApp } from "../support/setup";
-import { call, get, join, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { get, join, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
 import { chordsMidi, formPost, uploadTake } from "./exercisesKit";
 
 useFreshApp();
@@ -49,7 +48,7 @@ async function setup() {
   const smoothing = add("Three-chord smoothing", ["D"], "I IV V I");
   const ballad = add("Ballad", ["Ab", "G"], "vi IV I V");
   const minor = add("Minor colour", ["Gm"], "iiø7 V7 i");
-  const jar = await signIn(login, dara.email);
+  const jar = await signIn(dara.email);
   return { studio, jar, user: (await getSessionUser(get("/", jar)))!, smoothing, ballad, minor };
 }
 
@@ -163,19 +162,17 @@ describe("a take filed under the wrong exercise", () => {
   it("the take page shows the warning and one click moves the take, which clears it", async () => {
     const s = await setup();
     const { body } = await uploadTake(s.jar, AB_TAKE, { exerciseId: s.smoothing.id });
-    const page = await call(takePage.loader, get(`/takes/${body.id}`, s.jar), { takeId: body.id });
+    const page = await ask(get(`/takes/${body.id}`, s.jar));
     const shown = (page.data as { fit: FitNotice | null }).fit;
     expect(shown?.likely).toMatchObject({ exerciseId: s.ballad.id, key: "Ab", title: "Ballad" });
 
-    const moved = await call(
-      takePage.action,
+    const moved = await ask(
       formPost(`/takes/${body.id}`, { intent: "move", exerciseId: s.ballad.id, key: "Ab" }, s.jar),
-      { takeId: body.id },
     );
     expect(moved.status).toBe(302);
     const row = takeRow(body.id);
     expect([row.exerciseId, row.key, row.exerciseFit]).toEqual([s.ballad.id, "Ab", null]);
-    const after = await call(takePage.loader, get(`/takes/${body.id}`, s.jar), { takeId: body.id });
+    const after = await ask(get(`/takes/${body.id}`, s.jar));
     expect((after.data as { fit: FitNotice | null }).fit).toBeNull();
   });
 });

@@ -6,12 +6,9 @@ import { exercises } from "~/db/schema";
 import type { ExerciseState } from "~/utils/exerciseState";
 import { todayIn } from "~/models/progressQuery.server";
 import { studioTimeZone } from "~/models/progress.server";
-import * as exercisePage from "~/routes/exercises.$exerciseId";
-import * as exercisesList from "~/routes/exercises";
-import * as home from "~/routes/home";
-import * as login from "~/routes/login";
 import { useFreshApp } from "../support/setup";
-import { call, get, join, makeStudio, makeUser, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { get, join, makeStudio, makeUser, signIn } from "./accountsKit";
 import { chordsMidi, uploadAnalysed } from "./exercisesKit";
 
 useFreshApp();
@@ -19,11 +16,11 @@ useFreshApp();
 type Listed = { id: string; state: ExerciseState };
 
 async function statesEverywhere(jar: Awaited<ReturnType<typeof signIn>>, id: string) {
-  const h = (await call(home.loader, get("/home", jar))).data as { student: { exercises: Listed[] } };
-  const l = (await call(exercisesList.loader, get("/exercises", jar))).data as {
+  const h = (await ask(get("/home", jar))).data as { student: { exercises: Listed[] } };
+  const l = (await ask(get("/exercises", jar))).data as {
     student: { due: Listed[]; done: Listed[] };
   };
-  const p = (await call(exercisePage.loader, get(`/exercises/${id}`, jar), { exerciseId: id })).data as {
+  const p = (await ask(get(`/exercises/${id}`, jar))).data as {
     state: ExerciseState;
   };
   const listed = [...l.student.due, ...l.student.done].find((e) => e.id === id)!;
@@ -47,7 +44,7 @@ describe("the student's state of an exercise", () => {
       .values({ studioId: studio.id, title: "Two keys", keys: ["D", "G"], progression: "I IV V I", dueDate: yesterday })
       .returning()
       .get();
-    const jar = await signIn(login, dara.email);
+    const jar = await signIn(dara.email);
 
     await uploadAnalysed(
       jar,

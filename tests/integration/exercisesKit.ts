@@ -2,8 +2,8 @@
 // `midi-file` (a second, independent MIDI writer from npm), and uploads through the real API.
 import { writeMidi, type MidiEvent } from "midi-file";
 import { expect } from "vitest";
-import * as apiTakes from "~/routes/api.takes";
-import { call, CookieJar, ORIGIN } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, ORIGIN } from "./accountsKit";
 
 /**
  * One chord per beat at the file's default tempo (no tempo event: 120 bpm by the SMF spec,
@@ -66,7 +66,7 @@ export async function uploadTake(jar: CookieJar, bytes: Uint8Array, fields: Reco
     body: form,
     headers: { Cookie: jar.header(), Origin: ORIGIN },
   });
-  const result = await call(apiTakes.action, request);
+  const result = await ask(request);
   return { status: result.status, body: result.data as UploadAnswer };
 }
 

@@ -6,9 +6,9 @@ import { resetEnvForTests } from "~/server/env.server";
 import { sendMail } from "~/mail/mail.server";
 import { readCaughtMail, startMailCatcher } from "~/mail/mailCatcher.server";
 import { decodeEncodedWords, decodeQuotedPrintable, parseMessage } from "~/mail/mailStore.server";
-import * as devMail from "~/routes/dev.mail";
 import { useFreshApp } from "../support/setup";
-import { call, get } from "./accountsKit";
+import { ask } from "../support/app";
+import { get } from "./accountsKit";
 
 const app = useFreshApp();
 
@@ -63,10 +63,10 @@ describe("the mail catcher", () => {
   it("is listed at /dev/mail only while MAIL_CATCHER_DIR is set", async () => {
     delete process.env.MAIL_CATCHER_DIR;
     resetEnvForTests();
-    expect((await call(devMail.loader, get("/dev/mail"))).status).toBe(404);
+    expect((await ask(get("/dev/mail"))).status).toBe(404);
     process.env.MAIL_CATCHER_DIR = path.join(app.storageDir, "mail");
     resetEnvForTests();
-    expect((await call(devMail.loader, get("/dev/mail"))).data).toEqual({ messages: [] });
+    expect((await ask(get("/dev/mail"))).data).toEqual({ messages: [] });
   });
 });
 

@@ -6,11 +6,9 @@ import { describe, expect, it } from "vitest";
 import { safeRedirect } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { sessions, takeReviews } from "~/db/schema";
-import * as login from "~/routes/login";
-import * as switchStudio from "~/routes/switch-studio";
-import * as feedback from "~/routes/takes.$takeId.feedback";
 import { useFreshApp } from "../support/setup";
-import { call, join, makeStudio, makeTakeRow, makeUser, ORIGIN, PASSWORD, post, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { join, makeStudio, makeTakeRow, makeUser, ORIGIN, PASSWORD, post, signIn } from "./accountsKit";
 
 useFreshApp();
 
@@ -62,7 +60,7 @@ describe("redirect targets in requests", () => {
   it("sign-in with a tab or newline in redirectTo goes home, one session per sign-in", async () => {
     const user = makeUser("dara@tidewater.example");
     for (const redirectTo of ["/\t/evil.example", "/\n/evil.example", "/home\r\nSet-Cookie: x=1"]) {
-      const result = await call(login.action, post("/login", { email: user.email, password: PASSWORD, redirectTo }));
+      const result = await ask(post("/login", { email: user.email, password: PASSWORD, redirectTo }));
       expect(result.status).toBe(302);
       expect(result.location).toBe("/home");
     }
@@ -75,12 +73,9 @@ describe("redirect targets in requests", () => {
     const user = makeUser("dara@tidewater.example");
     join(a.id, user.id, "student");
     join(b.id, user.id, "student");
-    const jar = await signIn(login, user.email);
+    const jar = await signIn(user.email);
     for (const redirectTo of ["/\\evil.example", "/\t/evil.example", "/\n/x"]) {
-      const result = await call(
-        switchStudio.action,
-        post("/switch-studio", { studioId: b.id, redirectTo }, jar, { Origin: ORIGIN }),
-      );
+      const result = await ask(post("/switch-studio", { studioId: b.id, redirectTo }, jar, { Origin: ORIGIN }));
       expect(result.status).toBe(302);
       expect(result.location).toBe("/home");
     }
@@ -100,36 +95,26 @@ describe("feedback on a take", () => {
 
   it("refuses a post from another origin, a same-site page on another port included", async () => {
     const { take, ines } = setup();
-    const jar = await signIn(login, ines.email);
+    const jar = await signIn(ines.email);
     for (const headers of <Record<string, string>[]>[
       { Origin: "http://127.0.0.1:8080", "Sec-Fetch-Site": "same-site" },
       { Origin: "https://evil.example", "Sec-Fetch-Site": "cross-site" },
       { Origin: "https://evil.example" },
     ]) {
-      const result = await call(
-        feedback.action,
-        post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, headers),
-        { takeId: take.id },
-      );
+      const result = await ask(post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, headers));
       expect(result.status).toBe(403);
     }
     expect(db().select().from(takeReviews).all()).toHaveLength(0);
-    const same = await call(
-      feedback.action,
-      post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, { Origin: ORIGIN }),
-      { takeId: take.id },
-    );
+    const same = await ask(post(`/takes/${take.id}/feedback`, { intent: "review" }, jar, { Origin: ORIGIN }));
     expect(same.status).toBe(302);
     expect(db().select().from(takeReviews).all()).toHaveLength(1);
   });
 
   it("sends the browser back only to a path on the site", async () => {
     const { take, ines } = setup();
-    const jar = await signIn(login, ines.email);
+    const jar = await signIn(ines.email);
     const send = (back: string) =>
-      call(feedback.action, post(`/takes/${take.id}/feedback`, { intent: "unreview", back }, jar, { Origin: ORIGIN }), {
-        takeId: take.id,
-      });
+      ask(post(`/takes/${take.id}/feedback`, { intent: "unreview", back }, jar, { Origin: ORIGIN }));
     for (const back of ["/\\evil.example", "/\t/evil.example", "//evil.example", "/\n"]) {
       expect((await send(back)).location, JSON.stringify(back)).toBe(`/takes/${take.id}`);
     }

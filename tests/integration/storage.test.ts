@@ -12,11 +12,9 @@ import { startBackgroundWork } from "~/server/startup.server";
 import { sweepOrphanTakeFiles } from "~/models/orphanFiles.server";
 import { deletePersonData } from "~/models/personalData.server";
 import { deleteStudentData, getMembership } from "~/models/studios.server";
-import * as login from "~/routes/login";
-import * as apiTakes from "~/routes/api.takes";
-import * as healthz from "~/routes/healthz";
 import { storedTakeFiles, useFreshApp } from "../support/setup";
-import { call, join, makeExercise, makeStudio, makeTakeRow, makeUser, ORIGIN, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { join, makeExercise, makeStudio, makeTakeRow, makeUser, ORIGIN, signIn } from "./accountsKit";
 
 // Take files and the storage folder: deletions remove rows before files, files
 // without rows are swept, a missing or read-only storage folder is never mistaken
@@ -197,7 +195,7 @@ describe("the storage folder", () => {
   }, 60_000);
 
   it("/healthz reports storage that cannot be written with 503", async () => {
-    const ok = await call(healthz.loader, new Request(`${ORIGIN}/healthz`));
+    const ok = await ask(new Request(`${ORIGIN}/healthz`));
     expect(ok.status).toBe(200);
     expect(ok.data).toMatchObject({ database: "ok", storage: "ok" });
     // The takes folder replaced by a plain file: nothing can be written under it
@@ -205,7 +203,7 @@ describe("the storage folder", () => {
     const takesDir = path.join(app.storageDir, "takes");
     rmSync(takesDir, { recursive: true, force: true });
     writeFileSync(takesDir, "not a folder");
-    const bad = await call(healthz.loader, new Request(`${ORIGIN}/healthz`));
+    const bad = await ask(new Request(`${ORIGIN}/healthz`));
     expect(bad.status).toBe(503);
     expect(bad.data).toMatchObject({ database: "ok", storage: "not-writable" });
   });
@@ -216,7 +214,7 @@ describe("a malformed multipart upload", () => {
     const studio = makeStudio("Harbour Lane");
     const dara = makeUser("dara@harbour.example", "Dara");
     join(studio.id, dara.id, "student");
-    const jar = await signIn(login, dara.email);
+    const jar = await signIn(dara.email);
     const boundary = "nearnote-boundary";
     const body = Buffer.concat([
       Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="`),
@@ -228,7 +226,7 @@ describe("a malformed multipart upload", () => {
       body,
       headers: { Cookie: jar.header(), Origin: ORIGIN, "Content-Type": `multipart/form-data; boundary=${boundary}` },
     });
-    const r = await call(apiTakes.action, request);
+    const r = await ask(request);
     expect(r.status).toBe(400);
     expect((r.data as { error: string }).error).toMatch(/could not be read/);
     expect(takeRows()).toBe(0);

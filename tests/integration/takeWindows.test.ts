@@ -5,7 +5,6 @@ import { newFileKey, takeStorage } from "~/takes/takeFiles.server";
 import { changeStub, WINDOW_SIZE, type TakeWindow } from "~/takes/takeWindows";
 import { analyseTakeBytes } from "~/models/takeAnalysis.server";
 import { createTakeRecord } from "~/models/takes.server";
-import * as login from "~/routes/login";
 import { writeMidi, type MidiEvent } from "midi-file";
 import { generateLongTake } from "../../scripts/lib/takeGenerator";
 import { send } from "../support/app";
@@ -137,10 +136,10 @@ async function setup() {
     mara,
     bytes,
     takeId,
-    maraJar: await signIn(login, mara.email),
-    jonahJar: await signIn(login, jonah.email),
-    teacherJar: await signIn(login, teacher.email),
-    strangerJar: await signIn(login, stranger.email),
+    maraJar: await signIn(mara.email),
+    jonahJar: await signIn(jonah.email),
+    teacherJar: await signIn(teacher.email),
+    strangerJar: await signIn(stranger.email),
   };
 }
 

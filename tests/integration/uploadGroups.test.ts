@@ -10,7 +10,6 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
-import * as login from "~/routes/login";
 import { send } from "../support/app";
 import { useFreshApp } from "../support/setup";
 import { get, join, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
@@ -43,7 +42,7 @@ async function setup() {
   const smoothing = add("Three-chord smoothing", ["D"], "I IV V I");
   const ballad = add("Ballad", ["Ab", "G"], "vi IV I V");
   const minor = add("Minor colour", ["Gm"], "iiø7 V7 i");
-  const jar = await signIn(login, dara.email);
+  const jar = await signIn(dara.email);
   return { jar, smoothing, ballad, minor };
 }
 

@@ -117,11 +117,14 @@ async function assembleBuild(): Promise<ServerBuild> {
 
 let handler: ReturnType<typeof createRequestHandler> | undefined;
 
+/** How a test sends a request: by default it waits for the mail the app sends after answering. */
+export type SendOptions = { waitForMail?: boolean };
+
 /** Sends a Request through the app, as the production server does; mail it sends after answering has gone too. */
-export async function send(request: Request): Promise<Response> {
+export async function send(request: Request, { waitForMail = true }: SendOptions = {}): Promise<Response> {
   handler ??= createRequestHandler(await assembleBuild(), "production");
   const response = await handler(request);
-  await mailSettled();
+  if (waitForMail) await mailSettled();
   return response;
 }
 
@@ -148,11 +151,14 @@ const DATA_SUFFIX = ".data";
  * as `data(body, { status })` answers its body. Resource routes (API, files) answer their
  * Response as is: JSON is parsed, text read, anything else left as bytes.
  */
-export async function ask<T = unknown>(request: Request, routeId?: string): Promise<Answer<T>> {
+export async function ask<T = unknown>(
+  request: Request,
+  { routeId, ...options }: SendOptions & { routeId?: string } = {},
+): Promise<Answer<T>> {
   const url = new URL(request.url);
   const leaf = await leafRoute(url.pathname);
   if (!leaf.isPage) {
-    const response = await send(request);
+    const response = await send(request, options);
     const type = response.headers.get("content-type") ?? "";
     const data = type.includes("json")
       ? await response.json()
@@ -174,7 +180,7 @@ export async function ask<T = unknown>(request: Request, routeId?: string): Prom
     // Only the route asked about, not the layouts above it.
     dataUrl.searchParams.set("_routes", routeId ?? leaf.id);
   }
-  const response = await send(new Request(dataUrl, request));
+  const response = await send(new Request(dataUrl, request), options);
   // A redirect answered to the browser's router: 202 with the real status and target in headers.
   const redirectTo = response.headers.get("x-remix-redirect");
   if (redirectTo) {
