@@ -1,6 +1,6 @@
-import { and, eq, inArray } from "drizzle-orm";
+import { and, eq, inArray, sql } from "drizzle-orm";
 import { createContext, data, redirect, type MiddlewareFunction, type RouterContextProvider } from "react-router";
-import { db } from "~/db/client.server";
+import { db, preparedQuery } from "~/db/client.server";
 import { exerciseAssignees, exercises, memberships, takes, type Exercise, type Take } from "~/db/schema";
 import { env } from "~/server/env.server";
 import type { Refusal, Viewer } from "./refusal";
@@ -149,13 +149,21 @@ export function canSeeTake(user: SessionUser, take: Pick<Take, "studentId" | "st
   return take.studentId === user.id || teacherStudioIds(user).includes(take.studioId);
 }
 
+const takeQuery = preparedQuery((database) =>
+  database
+    .select()
+    .from(takes)
+    .where(eq(takes.id, sql.placeholder("takeId")))
+    .prepare(),
+);
+
 export async function requireTakeAccess(
   args: RequestArgs,
   takeId: string | undefined,
   mode: AccessMode = "page",
 ): Promise<{ user: SessionUser; take: Take }> {
   const user = await requireUser(args, mode);
-  const take = takeId ? db().select().from(takes).where(eq(takes.id, takeId)).get() : undefined;
+  const take = takeId ? takeQuery().get({ takeId }) : undefined;
   if (!take) notFound(mode, "There is no such take.");
   if (!canSeeTake(user, take)) deny(mode, "This take belongs to someone else.");
   return { user, take };

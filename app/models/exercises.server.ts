@@ -1,7 +1,7 @@
-import { and, desc, eq, inArray, isNotNull, isNull, or } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { TECHNIQUES } from "~/analysis/types";
-import { db } from "~/db/client.server";
+import { db, preparedQuery } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics, takes, users, type Exercise } from "~/db/schema";
 import { ALL_MAJOR_KEYS, ALL_MINOR_KEYS, checkProgression, splitKeys } from "~/utils/exerciseProgression";
 import { byState, exerciseState, type ExerciseState } from "~/utils/exerciseState";
@@ -276,12 +276,12 @@ export type ExerciseOption = {
 };
 
 /** Exercises of the studio that are set for the whole studio or for this student, not archived. */
-export function listExercisesForStudent(studentId: string, studioId: string): ExerciseOption[] {
-  const assigned = db()
+const studentExercisesQuery = preparedQuery((database) => {
+  const assigned = database
     .select({ id: exerciseAssignees.exerciseId })
     .from(exerciseAssignees)
-    .where(eq(exerciseAssignees.userId, studentId));
-  return db()
+    .where(eq(exerciseAssignees.userId, sql.placeholder("studentId")));
+  return database
     .select({
       id: exercises.id,
       title: exercises.title,
@@ -294,13 +294,17 @@ export function listExercisesForStudent(studentId: string, studioId: string): Ex
     .from(exercises)
     .where(
       and(
-        eq(exercises.studioId, studioId),
+        eq(exercises.studioId, sql.placeholder("studioId")),
         isNull(exercises.archivedAt),
         or(eq(exercises.assignedTo, "studio"), inArray(exercises.id, assigned)),
       ),
     )
     .orderBy(exercises.dueDate)
-    .all();
+    .prepare();
+});
+
+export function listExercisesForStudent(studentId: string, studioId: string): ExerciseOption[] {
+  return studentExercisesQuery().all({ studentId, studioId });
 }
 
 export function exerciseForStudent(studentId: string, studioId: string, exerciseId: string) {

@@ -1,7 +1,7 @@
 import { and, desc, eq, gt, isNull, ne, or, sql } from "drizzle-orm";
 import { z } from "zod";
 import { CHANGE_FLAGS, CHORD_FLAGS } from "~/analysis/types";
-import { db } from "~/db/client.server";
+import { db, preparedQuery } from "~/db/client.server";
 import {
   commentReads,
   comments,
@@ -90,34 +90,49 @@ export function addComment(input: {
 /** A comment with its replies as the take page shows it (the component owns the shape). */
 export type CommentView = CommentItem;
 
+const lastReadQuery = preparedQuery((database) =>
+  database
+    .select()
+    .from(commentReads)
+    .where(and(eq(commentReads.userId, sql.placeholder("userId")), eq(commentReads.takeId, sql.placeholder("takeId"))))
+    .prepare(),
+);
+
 export function lastRead(userId: string, takeId: string): Date | null {
-  return (
-    db()
-      .select()
-      .from(commentReads)
-      .where(and(eq(commentReads.userId, userId), eq(commentReads.takeId, takeId)))
-      .get()?.readAt ?? null
-  );
+  return lastReadQuery().get({ userId, takeId })?.readAt ?? null;
 }
 
-export function markRead(userId: string, takeId: string, at = new Date()) {
-  db()
+// An inserted value goes through its column (the Date becomes read_at's milliseconds).
+const markReadQuery = preparedQuery((database) =>
+  database
     .insert(commentReads)
-    .values({ userId, takeId, readAt: at })
-    .onConflictDoUpdate({ target: [commentReads.userId, commentReads.takeId], set: { readAt: at } })
-    .run();
+    .values({ userId: sql.placeholder("userId"), takeId: sql.placeholder("takeId"), readAt: sql.placeholder("at") })
+    // On a second visit the row keeps its place and takes the new time (`excluded` is the row offered).
+    .onConflictDoUpdate({
+      target: [commentReads.userId, commentReads.takeId],
+      set: { readAt: sql.raw("excluded.read_at") },
+    })
+    .prepare(),
+);
+
+export function markRead(userId: string, takeId: string, at = new Date()) {
+  markReadQuery().run({ userId, takeId, at });
 }
+
+const threadsQuery = preparedQuery((database) =>
+  database
+    .select({ c: comments, authorName: users.name })
+    .from(comments)
+    .innerJoin(users, eq(users.id, comments.authorId))
+    .where(eq(comments.takeId, sql.placeholder("takeId")))
+    .orderBy(comments.createdAt)
+    .prepare(),
+);
 
 /** Threads on a take, oldest first, with what is new to `viewerId` marked unread. */
 export function commentThreads(takeId: string, viewerId: string): CommentView[] {
   const readAt = lastRead(viewerId, takeId);
-  const rows = db()
-    .select({ c: comments, authorName: users.name })
-    .from(comments)
-    .innerJoin(users, eq(users.id, comments.authorId))
-    .where(eq(comments.takeId, takeId))
-    .orderBy(comments.createdAt)
-    .all();
+  const rows = threadsQuery().all({ takeId });
   const view = (r: (typeof rows)[number]): CommentView => ({
     id: r.c.id,
     authorId: r.c.authorId,
@@ -142,8 +157,8 @@ export type IntendedView = {
   byName: string | null;
 };
 
-export function intendedFlagList(takeId: string): IntendedView[] {
-  return db()
+const intendedListQuery = preparedQuery((database) =>
+  database
     .select({
       id: intendedFlags.id,
       on: intendedFlags.on,
@@ -154,8 +169,12 @@ export function intendedFlagList(takeId: string): IntendedView[] {
     })
     .from(intendedFlags)
     .leftJoin(users, eq(users.id, intendedFlags.byId))
-    .where(eq(intendedFlags.takeId, takeId))
-    .all();
+    .where(eq(intendedFlags.takeId, sql.placeholder("takeId")))
+    .prepare(),
+);
+
+export function intendedFlagList(takeId: string): IntendedView[] {
+  return intendedListQuery().all({ takeId });
 }
 
 function rescore(takeId: string) {
@@ -206,13 +225,17 @@ export function applyReviewIntent(intent: ReviewIntent, takeId: string, teacherI
   return "Back in the review queue.";
 }
 
-export function reviewOf(takeId: string) {
-  const row = db()
+const reviewQuery = preparedQuery((database) =>
+  database
     .select({ at: takeReviews.reviewedAt, byName: users.name })
     .from(takeReviews)
     .leftJoin(users, eq(users.id, takeReviews.reviewedById))
-    .where(eq(takeReviews.takeId, takeId))
-    .get();
+    .where(eq(takeReviews.takeId, sql.placeholder("takeId")))
+    .prepare(),
+);
+
+export function reviewOf(takeId: string) {
+  const row = reviewQuery().get({ takeId });
   return row ? { at: row.at.toISOString(), byName: row.byName } : null;
 }
 
@@ -318,6 +341,22 @@ export function repliesSince(studioId: string, since: Date) {
     .all();
 }
 
+const focusQuery = preparedQuery((database) =>
+  database
+    .select({ f: exercises.focusTechniques })
+    .from(exercises)
+    .where(eq(exercises.id, sql.placeholder("exerciseId")))
+    .prepare(),
+);
+
+const scoreQuery = preparedQuery((database) =>
+  database
+    .select({ score: takeMetrics.score })
+    .from(takeMetrics)
+    .where(eq(takeMetrics.takeId, sql.placeholder("takeId")))
+    .prepare(),
+);
+
 /**
  * Everything the take page shows of feedback, for one viewer. Opening the page counts as
  * reading its comments (marking the take reviewed does not happen here: that is a button).
@@ -329,15 +368,8 @@ export function takePageFeedback(
 ) {
   const threads = commentThreads(take.id, viewer.id);
   markRead(viewer.id, take.id);
-  const focus = take.exerciseId
-    ? (db().select({ f: exercises.focusTechniques }).from(exercises).where(eq(exercises.id, take.exerciseId)).get()
-        ?.f ?? [])
-    : [];
-  const metricsRow = db()
-    .select({ score: takeMetrics.score })
-    .from(takeMetrics)
-    .where(eq(takeMetrics.takeId, take.id))
-    .get();
+  const focus = take.exerciseId ? (focusQuery().get({ exerciseId: take.exerciseId })?.f ?? []) : [];
+  const metricsRow = scoreQuery().get({ takeId: take.id });
   return {
     asTeacher,
     canReply: asTeacher || viewer.id === take.studentId,

@@ -3,7 +3,7 @@
 // stays fast however long the takes are.
 import { and, asc, eq, gte, inArray, isNotNull, lte, max, sql } from "drizzle-orm";
 import type { TechniqueName } from "~/analysis/types";
-import { db } from "~/db/client.server";
+import { db, preparedQuery } from "~/db/client.server";
 import { exercises, memberships, studios, takeMetrics, takes, users } from "~/db/schema";
 import {
   combineSums,
@@ -29,8 +29,16 @@ export function studioStudents(studioId: string): StudentRef[] {
     .all();
 }
 
+const timeZoneQuery = preparedQuery((database) =>
+  database
+    .select({ tz: studios.timeZone })
+    .from(studios)
+    .where(eq(studios.id, sql.placeholder("studioId")))
+    .prepare(),
+);
+
 export function studioTimeZone(studioId: string): string {
-  return db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, studioId)).get()?.tz ?? "UTC";
+  return timeZoneQuery().get({ studioId })?.tz ?? "UTC";
 }
 
 /** The studio's current week, in its own time zone. */

@@ -291,13 +291,17 @@ export function replaceTakeRecord(takeId: string, expectedFileKey: string, r: Re
  * The take's warning that it does not fit its exercise, with the titles of that exercise and of
  * the likely one (offered only while that exercise is open), or null when it fits.
  */
-export function fitNoticeForTake(takeId: string): FitNotice | null {
-  const row = db()
+const fitQuery = preparedQuery((database) =>
+  database
     .select({ fit: takes.exerciseFit, title: exercises.title })
     .from(takes)
     .innerJoin(exercises, eq(exercises.id, takes.exerciseId))
-    .where(eq(takes.id, takeId))
-    .get();
+    .where(eq(takes.id, sql.placeholder("takeId")))
+    .prepare(),
+);
+
+export function fitNoticeForTake(takeId: string): FitNotice | null {
+  const row = fitQuery().get({ takeId });
   if (!row?.fit) return null;
   const likelyId = row.fit.likely?.exerciseId;
   const likely = likelyId
