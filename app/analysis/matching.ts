@@ -154,7 +154,11 @@ export function matchProgression(played: PlayedIdentity[], target: TargetChord[]
 
   // The looped target for the largest k worth trying, and its collapsed length after each k.
   const P = takeIdx.length;
-  const maxLoops = Math.max(1, Math.ceil(P / unit.length) + 1);
+  // A target that ends on its first chord (I IV V I) collapses that chord at each loop's seam,
+  // so each loop after the first adds one chord fewer: enough loops to cover the whole take.
+  const seam = unit.length > 1 && sameTarget(target[unit[unit.length - 1]], target[unit[0]]) ? 1 : 0;
+  const perLoop = Math.max(1, unit.length - seam);
+  const maxLoops = Math.max(1, Math.ceil(P / perLoop) + 1);
   const seq: Array<{ index: number; pass: number }> = [];
   const lengthAt: number[] = [0];
   for (let k = 1; k <= maxLoops; k++) {

@@ -244,6 +244,21 @@ describe("matching against a literal reading of the rule (fast-check)", () => {
   });
 });
 
+describe("a target that ends on its first chord", () => {
+  // I IV V I looped: the I at each seam counts once (D G A D G A D …), so k loops are 1 + 3k chords.
+  it.each([10, 48])("I IV V I played %i times through is k = that many, every chord matched", (times) => {
+    const target = parseProgression("I IV V I", parseKey("D"));
+    const played = [maj(2), ...Array.from({ length: times }, () => [maj(7), maj(9), maj(2)]).flat()];
+    expect(matchProgression(played, target)).toMatchObject({
+      loops: times,
+      matched: 1 + 3 * times,
+      targetLength: 1 + 3 * times,
+      accuracy: 1,
+      mismatches: [],
+    });
+  });
+});
+
 describe("long takes", () => {
   it("matches a take of 2,000 changes quickly (hang guard only)", () => {
     const target = parseProgression("I vi IV V", parseKey("G"));
