@@ -3,6 +3,7 @@
 // progression of the person's own. Nothing of it is stored; the take's score stays as it is.
 import {
   checkAgainstTarget,
+  FIT_CHORDS,
   fitCandidates,
   LIKELY_MIN_ACCURACY,
   type FitCandidate,
@@ -46,7 +47,12 @@ export function practiceCheck(
       target: targetTextForKey(e.progression, e.keys, key),
     })),
   );
-  const report = chords.length ? fitCandidates(notes, chords, candidates) : { heardKey: null, fits: [] };
+  // The key and the likely exercise are read from the take's first FIT_CHORDS chords, as at upload,
+  // so a long take's page does not name every chord again on each visit.
+  const head = chords.slice(0, FIT_CHORDS);
+  const headEnd = head.length ? head[head.length - 1].endSec : 0;
+  const headNotes = chords.length > FIT_CHORDS ? notes.filter((n) => n.start < headEnd) : notes;
+  const report = head.length ? fitCandidates(headNotes, head, candidates) : { heardKey: null, fits: [] };
   let likely: LikelyExercise | null = null;
   for (const fit of report.fits) {
     if (fit.accuracy < LIKELY_MIN_ACCURACY) continue;
