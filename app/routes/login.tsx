@@ -18,6 +18,12 @@ import { FlashMessage } from "~/components/FlashMessage";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Nearnote" }];
 
+/** A sign-in refused for too many failures says when to try again (Retry-After): pages pass on only the headers they name. */
+export const headers: Route.HeadersFunction = ({ actionHeaders }) => {
+  const retryAfter = actionHeaders.get("Retry-After");
+  return retryAfter ? { "Retry-After": retryAfter } : new Headers();
+};
+
 export async function loader({ request, context }: Route.LoaderArgs) {
   await requireAnonymous({ request, context });
   return null;

@@ -5,14 +5,9 @@ import { getSessionUser } from "~/auth/session.server";
 import { MAX_FAILURES_PER_EMAIL } from "~/auth/throttle.server";
 import { db } from "~/db/client.server";
 import { accountMailSends, memberships, pendingSignups, sessions, signInFailures, studios, users } from "~/db/schema";
-import * as login from "~/routes/login";
-import * as logout from "~/routes/logout";
-import * as signup from "~/routes/signup";
-import * as students from "~/routes/students";
-import * as verify from "~/routes/verify";
 import { useFreshApp } from "../support/setup";
+import { ask } from "../support/app";
 import {
-  call,
   CookieJar,
   get,
   join,
@@ -37,7 +32,7 @@ const teacherForm = {
 
 describe("teacher sign-up and e-mail verification", () => {
   it("creates nothing until the mailed link is opened; the link creates the verified owner and studio and signs them in", async () => {
-    const result = await call(signup.action, post("/signup", teacherForm));
+    const result = await ask(post("/signup", teacherForm));
     expect(result.status).toBe(200);
     expect(result.data).toEqual({ ok: true, email: "ines@tidewater.example" });
     expect(result.headers.getSetCookie()).toHaveLength(0);
@@ -54,7 +49,7 @@ describe("teacher sign-up and e-mail verification", () => {
     const link = linkIn(message);
     expect(link).toMatch(/^\/verify\?token=/);
     expect(pending.tokenHash).not.toContain(new URL("http://x" + link).searchParams.get("token"));
-    const opened = await call(verify.loader, get(link));
+    const opened = await ask(get(link));
     expect(opened.status).toBe(302);
     expect(opened.location).toBe("/home");
     const user = db().select().from(users).where(eq(users.email, "ines@tidewater.example")).get()!;
@@ -68,21 +63,18 @@ describe("teacher sign-up and e-mail verification", () => {
       emailVerified: true,
       active: { studioName: "Tidewater Keys", role: "owner" },
     });
-    expect((await call(verify.loader, get(link))).status).toBe(410);
+    expect((await ask(get(link))).status).toBe(410);
     expect(db().select().from(pendingSignups).all()).toHaveLength(0);
 
-    const invited = await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
-    );
+    const invited = await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     expect(invited.status).toBe(200);
     expect(mail.latestTo("dara@tidewater.example").subject).toContain("Tidewater Keys");
   });
 
   it("answers a taken address exactly as a new one, and mails its owner instead of saying so", async () => {
     const existing = makeUser("ines@tidewater.example", "Ines Marlowe");
-    const taken = await call(signup.action, post("/signup", { ...teacherForm, password: "someone-elses-guess" }));
-    const fresh = await call(signup.action, post("/signup", { ...teacherForm, email: "felix@tidewater.example" }));
+    const taken = await ask(post("/signup", { ...teacherForm, password: "someone-elses-guess" }));
+    const fresh = await ask(post("/signup", { ...teacherForm, email: "felix@tidewater.example" }));
     expect(taken.status).toBe(fresh.status);
     expect(taken.data).toEqual({ ok: true, email: "ines@tidewater.example" });
     expect(Object.keys(taken.data as object)).toEqual(Object.keys(fresh.data as object));
@@ -101,23 +93,21 @@ describe("teacher sign-up and e-mail verification", () => {
         .all()
         .map((p) => p.email),
     ).toEqual(["felix@tidewater.example"]);
-    expect(
-      (await call(login.action, post("/login", { email: existing.email, password: "someone-elses-guess" }))).status,
-    ).toBe(401);
+    expect((await ask(post("/login", { email: existing.email, password: "someone-elses-guess" }))).status).toBe(401);
   });
 
   it("says an address is taken only when a sign-up link is opened: one link wins, a link for an address taken since says so", async () => {
-    await call(signup.action, post("/signup", teacherForm));
+    await ask(post("/signup", teacherForm));
     const first = linkIn(mail.latestTo("ines@tidewater.example"));
     db()
       .update(accountMailSends)
       .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
       .run();
-    await call(signup.action, post("/signup", { ...teacherForm, studioName: "Tidewater Keys Evenings" }));
+    await ask(post("/signup", { ...teacherForm, studioName: "Tidewater Keys Evenings" }));
     const second = linkIn(mail.latestTo("ines@tidewater.example"));
     expect(second).not.toBe(first);
-    expect((await call(verify.loader, get(second))).status).toBe(302);
-    expect((await call(verify.loader, get(first))).status).toBe(410);
+    expect((await ask(get(second))).status).toBe(302);
+    expect((await ask(get(first))).status).toBe(410);
     expect(
       db()
         .select()
@@ -126,19 +116,16 @@ describe("teacher sign-up and e-mail verification", () => {
         .map((st) => st.name),
     ).toEqual(["Tidewater Keys Evenings"]);
     // A sign-up still waiting when someone else (here an invitation) took the address says so when opened.
-    await call(signup.action, post("/signup", { ...teacherForm, email: "dara@tidewater.example" }));
+    await ask(post("/signup", { ...teacherForm, email: "dara@tidewater.example" }));
     const late = linkIn(mail.latestTo("dara@tidewater.example"));
     makeUser("dara@tidewater.example");
-    const refused = await call(verify.loader, get(late));
+    const refused = await ask(get(late));
     expect(refused.status).toBe(409);
     expect(refused.data).toEqual({ state: "taken" });
   });
 
   it("keeps the typed values on a bad form, with an error beside each bad field", async () => {
-    const bad = await call(
-      signup.action,
-      post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }),
-    );
+    const bad = await ask(post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }));
     expect(bad.status).toBe(400);
     const body = bad.data as { fieldErrors: Record<string, string>; values: Record<string, string> };
     expect(Object.keys(body.fieldErrors).sort()).toEqual(["email", "name", "password", "studioName"]);
@@ -150,8 +137,7 @@ describe("teacher sign-up and e-mail verification", () => {
 describe("sign-in and sign-out", () => {
   it("signs in with a redirect that sets an httpOnly, SameSite=Lax, 30-day cookie and a new session each time", async () => {
     const user = makeUser("dara@tidewater.example");
-    const first = await call(
-      login.action,
+    const first = await ask(
       post("/login", { email: "DARA@tidewater.example", password: PASSWORD, redirectTo: "/settings" }),
     );
     expect(first.status).toBe(302);
@@ -161,7 +147,7 @@ describe("sign-in and sign-out", () => {
     expect(cookie).toMatch(/SameSite=Lax/i);
     expect(cookie).toMatch(/Max-Age=2592000/); // 30 days in seconds
     expect(cookie).not.toMatch(/Secure/i); // APP_URL is http in tests
-    const second = await call(login.action, post("/login", { email: "dara@tidewater.example", password: PASSWORD }));
+    const second = await ask(post("/login", { email: "dara@tidewater.example", password: PASSWORD }));
     const ids = db()
       .select()
       .from(sessions)
@@ -174,8 +160,7 @@ describe("sign-in and sign-out", () => {
 
   it("never redirects to another site after sign-in", async () => {
     makeUser("dara@tidewater.example");
-    const result = await call(
-      login.action,
+    const result = await ask(
       post("/login", { email: "dara@tidewater.example", password: PASSWORD, redirectTo: "//evil.example/x" }),
     );
     expect(result.location).toBe("/home");
@@ -183,14 +168,8 @@ describe("sign-in and sign-out", () => {
 
   it("answers a wrong password and an unknown e-mail alike, without a cookie", async () => {
     makeUser("dara@tidewater.example");
-    const wrong = await call(
-      login.action,
-      post("/login", { email: "dara@tidewater.example", password: "not-the-password" }),
-    );
-    const unknown = await call(
-      login.action,
-      post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }),
-    );
+    const wrong = await ask(post("/login", { email: "dara@tidewater.example", password: "not-the-password" }));
+    const unknown = await ask(post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }));
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect((wrong.data as { formError: string }).formError).toBe((unknown.data as { formError: string }).formError);
@@ -199,15 +178,15 @@ describe("sign-in and sign-out", () => {
 
   it("sends signed-in visitors of /login on to /home", async () => {
     makeUser("dara@tidewater.example");
-    const jar = await signIn(login, "dara@tidewater.example");
-    expect((await call(login.loader, get("/login", jar))).location).toBe("/home");
+    const jar = await signIn("dara@tidewater.example");
+    expect((await ask(get("/login", jar))).location).toBe("/home");
   });
 
   it("signs out: the session row is gone and the old cookie no longer works", async () => {
     makeUser("dara@tidewater.example");
-    const jar = await signIn(login, "dara@tidewater.example");
+    const jar = await signIn("dara@tidewater.example");
     const stolen = jar.header();
-    const out = await call(logout.action, post("/logout", {}, jar, { Origin: "http://127.0.0.1:3000" }));
+    const out = await ask(post("/logout", {}, jar, { Origin: "http://127.0.0.1:3000" }));
     expect(out.status).toBe(302);
     jar.take(out.headers);
     expect(jar.has("nearnote_session")).toBe(false);
@@ -217,9 +196,8 @@ describe("sign-in and sign-out", () => {
 
   it("refuses a cross-site sign-out post", async () => {
     makeUser("dara@tidewater.example");
-    const jar = await signIn(login, "dara@tidewater.example");
-    const result = await call(
-      logout.action,
+    const jar = await signIn("dara@tidewater.example");
+    const result = await ask(
       post("/logout", {}, jar, { Origin: "https://evil.example", "Sec-Fetch-Site": "cross-site" }),
     );
     expect(result.status).toBe(403);
@@ -230,7 +208,7 @@ describe("sign-in and sign-out", () => {
 describe("sessions and verification links", () => {
   it("ignores a session whose row has expired", async () => {
     const user = makeUser("dara@tidewater.example");
-    const jar = await signIn(login, user.email);
+    const jar = await signIn(user.email);
     expect(await getSessionUser(get("/home", jar))).not.toBeNull();
     db()
       .update(sessions)
@@ -242,39 +220,32 @@ describe("sessions and verification links", () => {
   it("sends a fresh verification link on request; the older one stops working", async () => {
     const user = makeUser("ines@tidewater.example", "Ines Marlowe", false);
     join(makeStudio("Tidewater Keys").id, user.id, "owner");
-    const jar = await signIn(login, user.email);
+    const jar = await signIn(user.email);
     // Unverified (say, after changing the address): the studio cannot invite anyone.
-    const refused = await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
-    );
+    const refused = await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     expect(refused.status).toBe(403);
-    expect((await call(verify.action, post("/verify", {}, jar))).location).toBe("/settings");
+    expect((await ask(post("/verify", {}, jar))).location).toBe("/settings");
     const first = linkIn(mail.latestTo("ines@tidewater.example"));
     db()
       .update(accountMailSends)
       .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
       .run();
-    const resent = await call(verify.action, post("/verify", {}, jar));
+    const resent = await ask(post("/verify", {}, jar));
     expect(resent.location).toBe("/settings");
     const second = linkIn(mail.latestTo("ines@tidewater.example"));
     expect(second).not.toBe(first);
-    expect((await call(verify.loader, get(first))).status).toBe(410);
-    expect((await call(verify.loader, get(second))).status).toBe(302);
+    expect((await ask(get(first))).status).toBe(410);
+    expect((await ask(get(second))).status).toBe(302);
     expect((await getSessionUser(get("/home", jar)))?.emailVerified).toBe(true);
-    expect(
-      (await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar)))
-        .status,
-    ).toBe(200);
+    expect((await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar))).status).toBe(
+      200,
+    );
   });
 });
 
 describe("throttling failed sign-ins", () => {
   const attempt = (password: string, address = "203.0.113.7") =>
-    call(
-      login.action,
-      post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }),
-    );
+    ask(post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }));
 
   it("answers 429 with when to retry after 5 failures in 15 minutes, even for the right password", async () => {
     makeUser("dara@tidewater.example");
