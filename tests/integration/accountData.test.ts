@@ -19,16 +19,9 @@ import {
 } from "~/db/schema";
 import { resetEnvForTests } from "~/server/env.server";
 import { takeStorage as takeFileStorage } from "~/takes/takeFiles.server";
-import * as exportMine from "~/routes/api.me.export";
-import * as exportStudent from "~/routes/api.students.$studentId.export";
-import * as forgot from "~/routes/forgot-password";
-import * as login from "~/routes/login";
-import * as reset from "~/routes/reset-password";
-import * as settings from "~/routes/settings";
-import * as students from "~/routes/students";
 import { useFreshApp } from "../support/setup";
+import { ask } from "../support/app";
 import {
-  call,
   get,
   join,
   linkIn,
@@ -67,8 +60,8 @@ function takeFilesOnDisk(): string[] {
 describe("password reset", () => {
   it("answers the same whether or not the address exists, and mails only a real account", async () => {
     makeUser("dara@tidewater.example");
-    const known = await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
-    const unknown = await call(forgot.action, post("/forgot-password", { email: "nobody@tidewater.example" }));
+    const known = await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
+    const unknown = await ask(post("/forgot-password", { email: "nobody@tidewater.example" }));
     expect(known.status).toBe(unknown.status);
     expect(Object.keys(known.data as object)).toEqual(Object.keys(unknown.data as object));
     expect(mail.all().map((m) => m.to[0])).toEqual(["dara@tidewater.example"]);
@@ -76,8 +69,8 @@ describe("password reset", () => {
 
   it("sets a new password once, ends every session, and the link expires after an hour", async () => {
     const user = makeUser("dara@tidewater.example");
-    const oldJar = await signIn(login, user.email);
-    await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
+    const oldJar = await signIn(user.email);
+    await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
     expect(link).toMatch(/^\/reset-password\?token=/);
     const token = new URL("http://x" + link).searchParams.get("token")!;
@@ -85,34 +78,30 @@ describe("password reset", () => {
     expect(row.tokenHash).not.toContain(token);
     expect(row.expiresAt.getTime() - row.createdAt.getTime()).toBe(60 * 60 * 1000);
 
-    expect((await call(reset.loader, get(link))).data).toMatchObject({ valid: true });
-    const done = await call(
-      reset.action,
+    expect((await ask(get(link))).data).toMatchObject({ valid: true });
+    const done = await ask(
       post("/reset-password", { token, password: "a-brand-new-password", confirm: "a-brand-new-password" }),
     );
     expect(done.status).toBe(302);
     expect(done.location).toBe("/login");
     expect(await getSessionUser(get("/home", oldJar))).toBeNull();
     expect(db().select().from(sessions).all()).toHaveLength(0);
-    expect((await call(login.action, post("/login", { email: user.email, password: PASSWORD }))).status).toBe(401);
-    expect(
-      (await call(login.action, post("/login", { email: user.email, password: "a-brand-new-password" }))).status,
-    ).toBe(302);
-    const again = await call(
-      reset.action,
+    expect((await ask(post("/login", { email: user.email, password: PASSWORD }))).status).toBe(401);
+    expect((await ask(post("/login", { email: user.email, password: "a-brand-new-password" }))).status).toBe(302);
+    const again = await ask(
       post("/reset-password", { token, password: "yet-another-password", confirm: "yet-another-password" }),
     );
     expect(again.status).toBe(410);
-    expect((await call(reset.loader, get(link))).status).toBe(410);
+    expect((await ask(get(link))).status).toBe(410);
 
     // Asking again within a minute answers the same but sends nothing more.
     db()
       .update(accountMailSends)
       .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
       .run();
-    await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }));
+    await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
     const sentBefore = mail.all().length;
-    expect((await call(forgot.action, post("/forgot-password", { email: "dara@tidewater.example" }))).status).toBe(200);
+    expect((await ask(post("/forgot-password", { email: "dara@tidewater.example" }))).status).toBe(200);
     expect(mail.all()).toHaveLength(sentBefore);
     const late = new URL("http://x" + linkIn(mail.latestTo("dara@tidewater.example"))).searchParams.get("token")!;
     db()
@@ -122,8 +111,7 @@ describe("password reset", () => {
       .run();
     expect(
       (
-        await call(
-          reset.action,
+        await ask(
           post("/reset-password", { token: late, password: "yet-another-password", confirm: "yet-another-password" }),
         )
       ).status,
@@ -134,13 +122,10 @@ describe("password reset", () => {
 describe("account settings", () => {
   it("changes the name, the mail preferences, and the e-mail only with the password (then unverified)", async () => {
     const user = makeUser("dara@tidewater.example", "Dara");
-    const jar = await signIn(login, user.email);
-    expect(
-      (await call(settings.action, post("/settings", { intent: "profile", name: "Dara Okafor" }, jar))).status,
-    ).toBe(200);
-    await call(settings.action, post("/settings", { intent: "prefs", mailOnFeedback: "on" }, jar));
-    const noPassword = await call(
-      settings.action,
+    const jar = await signIn(user.email);
+    expect((await ask(post("/settings", { intent: "profile", name: "Dara Okafor" }, jar))).status).toBe(200);
+    await ask(post("/settings", { intent: "prefs", mailOnFeedback: "on" }, jar));
+    const noPassword = await ask(
       post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: "wrong" }, jar),
     );
     expect(noPassword.status).toBe(400);
@@ -148,8 +133,7 @@ describe("account settings", () => {
       fieldErrors: { currentPassword: expect.any(String) },
       values: { email: "dara.o@tidewater.example" },
     });
-    const changed = await call(
-      settings.action,
+    const changed = await ask(
       post("/settings", { intent: "email", email: "dara.o@tidewater.example", currentPassword: PASSWORD }, jar),
     );
     expect(changed.status).toBe(200);
@@ -166,10 +150,9 @@ describe("account settings", () => {
 
   it("changes the password: other sessions end, this device gets a new session", async () => {
     const user = makeUser("dara@tidewater.example");
-    const laptop = await signIn(login, user.email);
-    const phone = await signIn(login, user.email);
-    const mismatch = await call(
-      settings.action,
+    const laptop = await signIn(user.email);
+    const phone = await signIn(user.email);
+    const mismatch = await ask(
       post(
         "/settings",
         { intent: "password", currentPassword: PASSWORD, password: "a-brand-new-password", confirm: "nope" },
@@ -177,8 +160,7 @@ describe("account settings", () => {
       ),
     );
     expect(mismatch.status).toBe(400);
-    const result = await call(
-      settings.action,
+    const result = await ask(
       post(
         "/settings",
         {
@@ -203,7 +185,7 @@ describe("account settings", () => {
     resetEnvForTests();
     resetSessionCookieForTests();
     makeUser("dara@tidewater.example");
-    const result = await call(login.action, post("/login", { email: "dara@tidewater.example", password: PASSWORD }));
+    const result = await ask(post("/login", { email: "dara@tidewater.example", password: PASSWORD }));
     expect(result.headers.getSetCookie().find((c) => c.startsWith("nearnote_session="))).toMatch(/; Secure/);
   });
 });
@@ -233,14 +215,14 @@ describe("download my data", () => {
         summary: "Smoother changes this month.",
       })
       .run();
-    const jar = await signIn(login, dara.email);
-    const response = await call(exportMine.loader, get("/api/me/export", jar));
+    const jar = await signIn(dara.email);
+    const response = await ask<Uint8Array>(get("/api/me/export", jar));
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toBe("application/zip");
     expect(response.headers.get("content-disposition")).toMatch(
       /attachment; filename="nearnote-my-data-\d{4}-\d\d-\d\d\.zip"/,
     );
-    const files = unzipSync(new Uint8Array(await (response.data as Response).arrayBuffer()));
+    const files = unzipSync(response.data);
     expect(Object.keys(files).sort()).toEqual(["nearnote-data.json", "takes/001-monday.mid", "takes/002-tuesday.mid"]);
     expect(files["takes/001-monday.mid"]).toEqual(MIDI);
     const json = strFromU8(files["nearnote-data.json"]);
@@ -262,7 +244,7 @@ describe("download my data", () => {
   });
 
   it("is 401 JSON when signed out", async () => {
-    const response = await call(exportMine.loader, get("/api/me/export"));
+    const response = await ask(get("/api/me/export"));
     expect(response.status).toBe(401);
     expect(response.data).toEqual({ error: expect.any(String) });
   });
@@ -276,45 +258,37 @@ describe("removing a student and deleting data", () => {
     join(studio.id, ines.id, "owner");
     join(studio.id, dara.id, "student");
     const take = await storeTake(dara.id, studio.id, "monday.mid");
-    return { studio, ines, dara, take, jar: await signIn(login, ines.email) };
+    return { studio, ines, dara, take, jar: await signIn(ines.email) };
   }
 
   it("removes a student: takes stay, membership inactive, still exportable by the teacher", async () => {
     const { dara, take, jar } = await setup();
-    expect((await call(students.action, post("/students", { intent: "remove", studentId: dara.id }, jar))).status).toBe(
-      200,
-    );
+    expect((await ask(post("/students", { intent: "remove", studentId: dara.id }, jar))).status).toBe(200);
     expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({
       status: "removed",
     });
     expect(db().select().from(takes).where(eq(takes.id, take.id)).get()).toBeDefined();
-    const roster = (await call(students.loader, get("/students", jar))).data as {
+    const roster = (await ask(get("/students", jar))).data as {
       students: { userId: string; status: string; takeCount: number }[];
     };
     expect(roster.students).toEqual([expect.objectContaining({ userId: dara.id, status: "removed", takeCount: 1 })]);
-    const zip = await call(exportStudent.loader, get(`/api/students/${dara.id}/export`, jar), { studentId: dara.id });
+    const zip = await ask<Uint8Array>(get(`/api/students/${dara.id}/export`, jar));
     expect(zip.status).toBe(200);
-    const files = unzipSync(new Uint8Array(await (zip.data as Response).arrayBuffer()));
+    const files = unzipSync(zip.data);
     expect(Object.keys(files)).toContain("takes/001-monday.mid");
     // The removed student no longer has the studio, but can still sign in and take their data.
-    const daraJar = await signIn(login, dara.email);
+    const daraJar = await signIn(dara.email);
     expect((await getSessionUser(get("/home", daraJar)))?.active).toBeNull();
-    expect((await call(exportMine.loader, get("/api/me/export", daraJar))).status).toBe(200);
+    expect((await ask(get("/api/me/export", daraJar))).status).toBe(200);
   });
 
   it("deletes a student's data for good only when confirmed: takes, files, and the account when in no other studio", async () => {
     const { dara, jar } = await setup();
     expect(takeFilesOnDisk().length).toBeGreaterThan(0);
-    const unconfirmed = await call(
-      students.action,
-      post("/students", { intent: "delete-data", studentId: dara.id }, jar),
-    );
+    const unconfirmed = await ask(post("/students", { intent: "delete-data", studentId: dara.id }, jar));
     expect(unconfirmed.status).toBe(400);
     expect(db().select().from(takes).all()).toHaveLength(1);
-    const done = await call(
-      students.action,
-      post("/students", { intent: "delete-data", studentId: dara.id, confirm: "yes" }, jar),
-    );
+    const done = await ask(post("/students", { intent: "delete-data", studentId: dara.id, confirm: "yes" }, jar));
     expect(done.status).toBe(200);
     expect(db().select().from(takes).all()).toHaveLength(0);
     expect(takeFilesOnDisk()).toEqual([]);
@@ -328,16 +302,9 @@ describe("removing a student and deleting data", () => {
     const stranger = makeUser("owen@harbour.example");
     join(other.id, stranger.id, "student");
     expect(
-      (
-        await call(
-          students.action,
-          post("/students", { intent: "delete-data", studentId: stranger.id, confirm: "yes" }, jar),
-        )
-      ).status,
+      (await ask(post("/students", { intent: "delete-data", studentId: stranger.id, confirm: "yes" }, jar))).status,
     ).toBe(403);
-    expect((await call(students.action, post("/students", { intent: "remove", studentId: ines.id }, jar))).status).toBe(
-      403,
-    );
+    expect((await ask(post("/students", { intent: "remove", studentId: ines.id }, jar))).status).toBe(403);
     expect(db().select().from(users).where(eq(users.id, stranger.id)).get()).toBeDefined();
   });
 });
@@ -352,30 +319,28 @@ describe("deleting one's own account", () => {
       .insert(invitations)
       .values({ studioId: studio.id, email: dara.email, role: "student", tokenHash: "h", expiresAt: new Date() })
       .run();
-    const jar = await signIn(login, dara.email);
+    const jar = await signIn(dara.email);
     expect(takeFilesOnDisk().length).toBeGreaterThan(0);
-    await call(forgot.action, post("/forgot-password", { email: dara.email }));
-    await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
+    await ask(post("/forgot-password", { email: dara.email }));
+    await ask(post("/forgot-password", { email: "ines@tidewater.example" }));
     makeUser("ines@tidewater.example");
     // Reset mail is limited per address, known or not: let a minute pass.
     db()
       .update(accountMailSends)
       .set({ sentAt: new Date(Date.now() - 2 * 60 * 1000) })
       .run();
-    await call(forgot.action, post("/forgot-password", { email: "ines@tidewater.example" }));
+    await ask(post("/forgot-password", { email: "ines@tidewater.example" }));
     expect(
       mail
         .all()
         .map((m) => m.to[0])
         .sort(),
     ).toEqual(["dara@tidewater.example", "ines@tidewater.example"]);
-    const wrong = await call(
-      settings.action,
+    const wrong = await ask(
       post("/settings", { intent: "delete-account", currentPassword: "nope", confirm: "yes" }, jar),
     );
     expect(wrong.status).toBe(400);
-    const done = await call(
-      settings.action,
+    const done = await ask(
       post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar),
     );
     expect(done.status).toBe(302);
@@ -400,9 +365,8 @@ describe("deleting one's own account", () => {
     join(shared.id, ines.id, "owner");
     join(shared.id, marta.id, "teacher");
     join(solo.id, ines.id, "owner");
-    const jar = await signIn(login, ines.email);
-    const done = await call(
-      settings.action,
+    const jar = await signIn(ines.email);
+    const done = await ask(
       post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, jar),
     );
     expect(done.status).toBe(302);
@@ -420,9 +384,8 @@ describe("deleting one's own account", () => {
     const kid = makeUser("kid@harbour.example");
     join(lone.id, owen.id, "owner");
     join(lone.id, kid.id, "student");
-    const owenJar = await signIn(login, owen.email);
-    const blocked = await call(
-      settings.action,
+    const owenJar = await signIn(owen.email);
+    const blocked = await ask(
       post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, owenJar),
     );
     expect(blocked.status).toBe(409);

@@ -5,15 +5,9 @@ import { getSessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { invitations, memberships, users } from "~/db/schema";
 import { DAILY_INVITATION_LIMIT } from "~/models/invitations.server";
-import * as devMail from "~/routes/dev.mail";
-import * as devMailMessage from "~/routes/dev.mail.$id";
-import * as invite from "~/routes/invite.$token";
-import * as login from "~/routes/login";
-import * as students from "~/routes/students";
-import * as switchStudio from "~/routes/switch-studio";
 import { useFreshApp } from "../support/setup";
+import { ask } from "../support/app";
 import {
-  call,
   CookieJar,
   get,
   join,
@@ -33,7 +27,7 @@ async function studioWithOwner() {
   const studio = makeStudio("Tidewater Keys");
   const owner = makeUser("ines@tidewater.example", "Ines Marlowe");
   join(studio.id, owner.id, "owner");
-  const jar = await signIn(login, owner.email);
+  const jar = await signIn(owner.email);
   return { studio, owner, jar };
 }
 
@@ -42,8 +36,7 @@ const tokenOf = (link: string) => decodeURIComponent(link.replace(/^\/invite\//,
 describe("invitations", () => {
   it("sends one mail per address, stores only a hash of the token, and shows it in /dev/mail", async () => {
     const { jar } = await studioWithOwner();
-    const result = await call(
-      students.action,
+    const result = await ask(
       post(
         "/students",
         { intent: "invite", emails: "dara@tidewater.example, Felix@tidewater.example\nyuki@tidewater.example" },
@@ -62,17 +55,16 @@ describe("invitations", () => {
     const expires = rows[0].expiresAt.getTime() - rows[0].createdAt.getTime();
     expect(Math.round(expires / 3_600_000)).toBe(7 * 24);
 
-    const list = await call(devMail.loader, get("/dev/mail"));
+    const list = await ask(get("/dev/mail"));
     const listed = (list.data as { messages: { id: string; subject: string }[] }).messages;
     expect(listed).toHaveLength(3);
-    const shown = await call(devMailMessage.loader, get(`/dev/mail/${listed[0].id}`), { id: listed[0].id });
+    const shown = await ask(get(`/dev/mail/${listed[0].id}`));
     expect((shown.data as { message: { text: string } }).message.text).toContain("/invite/");
   });
 
   it("refuses invalid addresses by name and sends nothing", async () => {
     const { jar } = await studioWithOwner();
-    const result = await call(
-      students.action,
+    const result = await ask(
       post("/students", { intent: "invite", emails: "dara@tidewater.example, not-an-address" }, jar),
     );
     expect(result.status).toBe(400);
@@ -85,10 +77,9 @@ describe("invitations", () => {
 
   it("is accepted once: the student sets a name and password, lands on /home, and the link is then refused", async () => {
     const { studio, jar } = await studioWithOwner();
-    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    const token = tokenOf(link);
-    const page = await call(invite.loader, get(link), { token });
+    const page = await ask(get(link));
     expect(page.data).toMatchObject({
       ok: true,
       studioName: "Tidewater Keys",
@@ -96,10 +87,8 @@ describe("invitations", () => {
       hasAccount: false,
     });
 
-    const mismatch = await call(
-      invite.action,
+    const mismatch = await ask(
       post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "typo" }),
-      { token },
     );
     expect(mismatch.status).toBe(400);
     expect(mismatch.data).toMatchObject({
@@ -107,10 +96,8 @@ describe("invitations", () => {
       values: { name: "Dara Okafor" },
     });
 
-    const accepted = await call(
-      invite.action,
+    const accepted = await ask(
       post(link, { intent: "create", name: "Dara Okafor", password: "a-good-password", confirm: "a-good-password" }),
-      { token },
     );
     expect(accepted.status).toBe(302);
     expect(accepted.location).toBe("/home");
@@ -122,13 +109,11 @@ describe("invitations", () => {
       active: { studioId: studio.id, role: "student" },
     });
 
-    const reused = await call(invite.loader, get(link), { token });
+    const reused = await ask(get(link));
     expect(reused.status).toBe(410);
     expect((reused.data as { message: string }).message).toMatch(/already used/);
-    const reusedPost = await call(
-      invite.action,
+    const reusedPost = await ask(
       post(link, { intent: "create", name: "Someone", password: "a-good-password", confirm: "a-good-password" }),
-      { token },
     );
     expect(reusedPost.status).toBe(410);
     expect(db().select().from(users).where(eq(users.name, "Someone")).get()).toBeUndefined();
@@ -136,19 +121,17 @@ describe("invitations", () => {
 
   it("is refused once expired", async () => {
     const { jar } = await studioWithOwner();
-    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
     db()
       .update(invitations)
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .run();
-    const page = await call(invite.loader, get(link), { token: tokenOf(link) });
+    const page = await ask(get(link));
     expect(page.status).toBe(410);
     expect((page.data as { message: string }).message).toMatch(/expired/);
-    const accept = await call(
-      invite.action,
+    const accept = await ask(
       post(link, { intent: "create", name: "Dara", password: "a-good-password", confirm: "a-good-password" }),
-      { token: tokenOf(link) },
     );
     expect(accept.status).toBe(410);
     expect(db().select().from(users).where(eq(users.email, "dara@tidewater.example")).get()).toBeUndefined();
@@ -156,62 +139,46 @@ describe("invitations", () => {
 
   it("can be revoked (the link dies) and resent (a new link, the old one dies)", async () => {
     const { jar } = await studioWithOwner();
-    await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example, felix@tidewater.example" }, jar),
-    );
+    await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example, felix@tidewater.example" }, jar));
     const daraLink = linkIn(mail.latestTo("dara@tidewater.example"));
     const felixLink = linkIn(mail.latestTo("felix@tidewater.example"));
-    const pending = (await call(students.loader, get("/students", jar))).data as {
+    const pending = (await ask(get("/students", jar))).data as {
       pending: { id: string; email: string }[];
     };
     const dara = pending.pending.find((p) => p.email === "dara@tidewater.example")!;
     const felix = pending.pending.find((p) => p.email === "felix@tidewater.example")!;
 
-    expect(
-      (await call(students.action, post("/students", { intent: "revoke", invitationId: dara.id }, jar))).status,
-    ).toBe(200);
-    const revoked = await call(invite.loader, get(daraLink), { token: tokenOf(daraLink) });
+    expect((await ask(post("/students", { intent: "revoke", invitationId: dara.id }, jar))).status).toBe(200);
+    const revoked = await ask(get(daraLink));
     expect(revoked.status).toBe(410);
     expect((revoked.data as { message: string }).message).toMatch(/withdrawn/);
 
-    expect(
-      (await call(students.action, post("/students", { intent: "resend", invitationId: felix.id }, jar))).status,
-    ).toBe(200);
+    expect((await ask(post("/students", { intent: "resend", invitationId: felix.id }, jar))).status).toBe(200);
     const newLink = linkIn(mail.latestTo("felix@tidewater.example"));
     expect(newLink).not.toBe(felixLink);
-    expect((await call(invite.loader, get(felixLink), { token: tokenOf(felixLink) })).status).toBe(410);
-    expect((await call(invite.loader, get(newLink), { token: tokenOf(newLink) })).status).toBe(200);
+    expect((await ask(get(felixLink))).status).toBe(410);
+    expect((await ask(get(newLink))).status).toBe(200);
     expect(db().select().from(invitations).where(eq(invitations.id, felix.id)).get()!.sentCount).toBe(2);
   });
 
   it("lets the owner invite a co-teacher, who joins as a teacher; a co-teacher cannot invite teachers", async () => {
     const { studio, jar } = await studioWithOwner();
-    await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "marta@tidewater.example", role: "teacher" }, jar),
-    );
+    await ask(post("/students", { intent: "invite", emails: "marta@tidewater.example", role: "teacher" }, jar));
     const link = linkIn(mail.latestTo("marta@tidewater.example"));
     expect(mail.latestTo("marta@tidewater.example").text).toContain("as a co-teacher");
-    const joined = await call(
-      invite.action,
+    const joined = await ask(
       post(link, { intent: "create", name: "Marta Quill", password: "a-good-password", confirm: "a-good-password" }),
-      { token: tokenOf(link) },
     );
     expect(joined.status).toBe(302);
     const coJar = new CookieJar().take(joined.headers);
     const me = await getSessionUser(get("/students", coJar));
     expect(me?.active).toMatchObject({ studioId: studio.id, role: "teacher" });
-    expect((await call(students.loader, get("/students", coJar))).status).toBe(200);
-    const refused = await call(
-      students.action,
+    expect((await ask(get("/students", coJar))).status).toBe(200);
+    const refused = await ask(
       post("/students", { intent: "invite", emails: "x@tidewater.example", role: "teacher" }, coJar),
     );
     expect(refused.status).toBe(403);
-    const asStudent = await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "x@tidewater.example" }, coJar),
-    );
+    const asStudent = await ask(post("/students", { intent: "invite", emails: "x@tidewater.example" }, coJar));
     expect(asStudent.status).toBe(200);
   });
 
@@ -220,38 +187,25 @@ describe("invitations", () => {
     const other = makeStudio("Harbour Lights");
     const dara = makeUser("dara@tidewater.example", "Dara Okafor");
     join(other.id, dara.id, "student");
-    const sent = await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
-    );
+    const sent = await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     expect(sent.data).toMatchObject({ ok: true, message: "1 invitation sent." });
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    expect((await call(invite.loader, get(link), { token: tokenOf(link) })).data).toMatchObject({ hasAccount: true });
-    const wrong = await call(invite.action, post(link, { intent: "join", password: "wrong-password" }), {
-      token: tokenOf(link),
-    });
+    expect((await ask(get(link))).data).toMatchObject({ hasAccount: true });
+    const wrong = await ask(post(link, { intent: "join", password: "wrong-password" }));
     expect(wrong.status).toBe(400);
-    const joined = await call(invite.action, post(link, { intent: "join", password: PASSWORD }), {
-      token: tokenOf(link),
-    });
+    const joined = await ask(post(link, { intent: "join", password: PASSWORD }));
     expect(joined.status).toBe(302);
     const daraJar = new CookieJar().take(joined.headers);
     const me = (await getSessionUser(get("/home", daraJar)))!;
     expect(me.studios.map((s) => s.studioName).sort()).toEqual(["Harbour Lights", "Tidewater Keys"]);
     expect(me.active?.studioId).toBe(studio.id);
 
-    const switched = await call(
-      switchStudio.action,
-      post("/switch-studio", { studioId: other.id, redirectTo: "/home" }, daraJar),
-    );
+    const switched = await ask(post("/switch-studio", { studioId: other.id, redirectTo: "/home" }, daraJar));
     expect(switched.location).toBe("/home");
     expect((await getSessionUser(get("/home", daraJar)))?.active?.studioName).toBe("Harbour Lights");
     const stranger = makeStudio("Elsewhere");
-    expect((await call(switchStudio.action, post("/switch-studio", { studioId: stranger.id }, daraJar))).status).toBe(
-      403,
-    );
-    const crossSite = await call(
-      switchStudio.action,
+    expect((await ask(post("/switch-studio", { studioId: stranger.id }, daraJar))).status).toBe(403);
+    const crossSite = await ask(
       post("/switch-studio", { studioId: studio.id }, daraJar, { "Sec-Fetch-Site": "cross-site" }),
     );
     expect(crossSite.status).toBe(403);
@@ -262,15 +216,15 @@ describe("invitations", () => {
     const { studio, jar } = await studioWithOwner();
     const dara = makeUser("dara@tidewater.example", "Dara Okafor");
     join(studio.id, dara.id, "student");
-    await call(students.action, post("/students", { intent: "remove", studentId: dara.id }, jar));
-    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    await ask(post("/students", { intent: "remove", studentId: dara.id }, jar));
+    await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    const daraJar = await signIn(login, dara.email);
-    expect((await call(invite.loader, get(link, daraJar), { token: tokenOf(link) })).data).toMatchObject({
+    const daraJar = await signIn(dara.email);
+    expect((await ask(get(link, daraJar))).data).toMatchObject({
       signedInAs: "dara@tidewater.example",
       hasAccount: true,
     });
-    const joined = await call(invite.action, post(link, { intent: "join" }, daraJar), { token: tokenOf(link) });
+    const joined = await ask(post(link, { intent: "join" }, daraJar));
     expect(joined.status).toBe(302);
     expect(db().select().from(memberships).where(eq(memberships.userId, dara.id)).get()).toMatchObject({
       status: "active",
@@ -281,16 +235,14 @@ describe("invitations", () => {
 
   it("refuses to let someone signed in as another person accept", async () => {
     const { jar } = await studioWithOwner();
-    await call(students.action, post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
+    await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    const refused = await call(
-      invite.action,
+    const refused = await ask(
       post(link, { intent: "create", name: "Ines", password: "a-good-password", confirm: "a-good-password" }, jar),
-      { token: tokenOf(link) },
     );
     expect(refused.status).toBe(403);
     expect((refused.data as { formError: string }).formError).toMatch(/This invitation is for dara@tidewater\.example/);
-    expect((await call(invite.loader, get(link), { token: tokenOf(link) })).status).toBe(200);
+    expect((await ask(get(link))).status).toBe(200);
   });
 
   it(`stops at ${DAILY_INVITATION_LIMIT} invitation mails a day per studio`, async () => {
@@ -298,25 +250,19 @@ describe("invitations", () => {
     const many = Array.from({ length: DAILY_INVITATION_LIMIT - 1 }, (_, i) => `student${i}@tidewater.example`).join(
       ",",
     );
-    expect((await call(students.action, post("/students", { intent: "invite", emails: many }, jar))).status).toBe(200);
-    const over = await call(
-      students.action,
+    expect((await ask(post("/students", { intent: "invite", emails: many }, jar))).status).toBe(200);
+    const over = await ask(
       post("/students", { intent: "invite", emails: "a@tidewater.example, b@tidewater.example" }, jar),
     );
     expect(over.status).toBe(429);
     expect(over.data).toMatchObject({ fieldErrors: { emails: expect.stringMatching(/1 left/) } });
-    expect(
-      (await call(students.action, post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status,
-    ).toBe(200);
-    const pending = (await call(students.loader, get("/students", jar))).data as {
+    expect((await ask(post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status).toBe(200);
+    const pending = (await ask(get("/students", jar))).data as {
       pending: { id: string }[];
       invitesLeftToday: number;
     };
     expect(pending.invitesLeftToday).toBe(0);
-    const resend = await call(
-      students.action,
-      post("/students", { intent: "resend", invitationId: pending.pending[0].id }, jar),
-    );
+    const resend = await ask(post("/students", { intent: "resend", invitationId: pending.pending[0].id }, jar));
     expect(resend.status).toBe(429);
     expect(mail.all()).toHaveLength(DAILY_INVITATION_LIMIT);
   });
@@ -325,10 +271,7 @@ describe("invitations", () => {
     const { studio, jar } = await studioWithOwner();
     const dara = makeUser("dara@tidewater.example");
     join(studio.id, dara.id, "student");
-    const result = await call(
-      students.action,
-      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
-    );
+    const result = await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     expect((result.data as { message: string }).message).toMatch(
       /0 invitations sent\. Skipped: dara@tidewater\.example \(already in this studio\)/,
     );
