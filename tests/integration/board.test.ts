@@ -6,12 +6,9 @@ import { createUserSession } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { studios, takes } from "~/db/schema";
 import { boardRows } from "~/models/board.server";
-import * as boardRoute from "~/routes/board";
-import * as reportRoute from "~/routes/reports.$studentId";
-import * as studentRoute from "~/routes/students.$studentId";
-import * as settingsRoute from "~/routes/studio.settings";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeStudio, makeUser, post, useMailCatcher } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeStudio, makeUser, post, useMailCatcher } from "./accountsKit";
 import { insertHandTake } from "./progressKit";
 
 const app = useFreshApp();
@@ -140,7 +137,7 @@ describe("board status against its own row", () => {
 describe("board page", () => {
   it("mails students without a take this week once, and says who was reminded", async () => {
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: new Date().toISOString(), score: 70 });
-    const first = await call(boardRoute.action, post("/board", { intent: "remind" }, jars.owner));
+    const first = await ask(post("/board", { intent: "remind" }, jars.owner));
     expect(first.status).toBe(302);
     const recipients = mail
       .all()
@@ -157,20 +154,17 @@ describe("board page", () => {
     expect(message.text).toContain("http://127.0.0.1:3000/takes/new");
     expect(message.text).toMatch(/breaks/);
     // A second click the same week sends nothing more.
-    await call(boardRoute.action, post("/board", { intent: "remind" }, jars.coTeacher));
+    await ask(post("/board", { intent: "remind" }, jars.coTeacher));
     expect(mail.all().length).toBe(4);
-    const page = await call(boardRoute.loader, get("/board", jars.owner));
+    const page = await ask(get("/board", jars.owner));
     const quiet = (page.data as { quiet: { name: string; reminded: boolean }[] }).quiet;
     expect(quiet.map((q) => q.name)).not.toContain("Dara Okafor");
     expect(quiet.every((q) => q.reminded)).toBe(true);
-    expect((await call(boardRoute.action, post("/board", { intent: "shout" }, jars.owner))).status).toBe(400);
+    expect((await ask(post("/board", { intent: "shout" }, jars.owner))).status).toBe(400);
   });
 
   it("keeps the chart's choice from the address and refuses another studio's students", async () => {
-    const page = await call(
-      boardRoute.loader,
-      get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner),
-    );
+    const page = await ask(get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner));
     const d = page.data as {
       choice: { metric: string; studentIds: string[]; from: string; to: string };
       chart: { weeks: string[]; series: unknown[] };
@@ -179,14 +173,14 @@ describe("board page", () => {
     expect(d.chart.weeks[0]).toBe("2026-W41");
     expect(d.chart.weeks.at(-1)).toBe("2026-W48");
     expect(d.chart.series).toHaveLength(1);
-    expect((await call(boardRoute.loader, get(`/board?student=${s.slider}`, jars.otherTeacher))).status).toBe(403);
+    expect((await ask(get(`/board?student=${s.slider}`, jars.otherTeacher))).status).toBe(403);
     // A hand-edited bad value falls back to the default view.
-    expect((await call(boardRoute.loader, get("/board?metric=zzz", jars.owner))).location).toBe("/board");
-    expect((await call(boardRoute.loader, get("/board?week=1999-W01", jars.owner))).location).toBe("/board");
+    expect((await ask(get("/board?metric=zzz", jars.owner))).location).toBe("/board");
+    expect((await ask(get("/board?week=1999-W01", jars.owner))).location).toBe("/board");
   });
 
   it("shows an earlier week on request, against the week before it, without the reminder card", async () => {
-    const current = (await call(boardRoute.loader, get("/board", jars.owner))).data as {
+    const current = (await ask(get("/board", jars.owner))).data as {
       week: { key: string; isCurrent: boolean };
       weekOptions: { key: string; label: string }[];
     };
@@ -199,20 +193,20 @@ describe("board page", () => {
       at: new Date(Date.now() - 7 * DAY).toISOString(),
       score: 64,
     });
-    const page = await call(boardRoute.loader, get(`/board?week=${lastWeek}`, jars.owner));
+    const page = await ask(get(`/board?week=${lastWeek}`, jars.owner));
     const d = page.data as {
       week: { key: string; isCurrent: boolean };
       quiet: unknown[];
-      rows: { name: string; thisWeek: { score: number | null } }[];
+      table: { rows: { name: string; thisWeek: { score: number | null } }[] };
     };
     expect(d.week).toMatchObject({ key: lastWeek, isCurrent: false });
     expect(d.quiet).toEqual([]);
-    expect(d.rows.find((r) => r.name === "Felix Brandt")!.thisWeek.score).toBe(64);
+    expect(d.table.rows.find((r) => r.name === "Felix Brandt")!.thisWeek.score).toBe(64);
   });
 
   it("says there are no students yet in an empty studio", async () => {
-    const page = await call(boardRoute.loader, get("/board", jars.otherTeacher));
-    expect((page.data as { rows: unknown[]; chart: unknown }).rows).toEqual([]);
+    const page = await ask(get("/board", jars.otherTeacher));
+    expect((page.data as { table: { rows: unknown[]; total: number } }).table).toMatchObject({ rows: [], total: 0 });
     expect((page.data as { chart: unknown }).chart).toBeNull();
   });
 });
@@ -221,23 +215,16 @@ describe("studio time zone", () => {
   it("lets the owner change it, recomputing week keys; a co-teacher only reads it", async () => {
     const t = insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-30T02:00:00Z" }); // Monday 02:00 UTC
     expect(t.weekKey).toBe("2026-W49");
-    const changed = await call(
-      settingsRoute.action,
-      post("/studio/settings", { timeZone: "America/Los_Angeles" }, jars.owner),
-    );
+    const changed = await ask(post("/studio/settings", { timeZone: "America/Los_Angeles" }, jars.owner));
     expect(changed.status).toBe(302);
     // Sunday 18:00 in Los Angeles: the take moves back to week 48.
     expect(db().select({ w: takes.weekKey }).from(takes).where(eq(takes.id, t.id)).get()!.w).toBe("2026-W48");
     expect(db().select({ tz: studios.timeZone }).from(studios).where(eq(studios.id, s.studio)).get()!.tz).toBe(
       "America/Los_Angeles",
     );
-    expect(
-      (await call(settingsRoute.action, post("/studio/settings", { timeZone: "Nowhere/Atlantis" }, jars.owner))).status,
-    ).toBe(400);
-    expect(
-      (await call(settingsRoute.action, post("/studio/settings", { timeZone: "UTC" }, jars.coTeacher))).status,
-    ).toBe(403);
-    const view = await call(settingsRoute.loader, get("/studio/settings", jars.coTeacher));
+    expect((await ask(post("/studio/settings", { timeZone: "Nowhere/Atlantis" }, jars.owner))).status).toBe(400);
+    expect((await ask(post("/studio/settings", { timeZone: "UTC" }, jars.coTeacher))).status).toBe(403);
+    const view = await ask(get("/studio/settings", jars.coTeacher));
     expect(view.data).toMatchObject({ canEdit: false, timeZone: "America/Los_Angeles" });
   });
 });
@@ -254,43 +241,32 @@ describe("reports and the student page", () => {
       best: 15,
       techniques: { "open-voicing": 2 },
     });
-    const params = { studentId: s.climber };
-    const empty = await call(
-      reportRoute.action,
+    const empty = await ask(
       post(
         `/reports/${s.climber}`,
         { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "  " },
         jars.owner,
       ),
-      params,
     );
     expect(empty.status).toBe(400);
-    const badDate = await call(
-      reportRoute.action,
+    const badDate = await ask(
       post(
         `/reports/${s.climber}`,
         { intent: "save", from: "2026-02-30", to: "2026-03-31", summary: "Fine." },
         jars.owner,
       ),
-      params,
     );
     expect(badDate.status).toBe(400);
-    const saved = await call(
-      reportRoute.action,
+    const saved = await ask(
       post(
         `/reports/${s.climber}`,
         { intent: "save", from: "2026-11-01", to: "2026-11-30", summary: "Smoother changes; open voicings are new." },
         jars.owner,
       ),
-      params,
     );
     expect(saved.status).toBe(302);
     const reportId = new URL(saved.location!, "http://x").searchParams.get("report")!;
-    const reopened = await call(
-      reportRoute.loader,
-      get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher),
-      params,
-    );
+    const reopened = await ask(get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher));
     const d = reopened.data as {
       from: string;
       to: string;
@@ -307,25 +283,15 @@ describe("reports and the student page", () => {
     expect(d.progress.total.smoothness).toBe(0.75); // 15 / 20
     expect(d.progress.gained).toEqual(["open-voicing"]);
     expect(d.savedReports).toHaveLength(1);
-    expect(
-      (
-        await call(reportRoute.loader, get(`/reports/${s.slider}?report=${reportId}`, jars.owner), {
-          studentId: s.slider,
-        })
-      ).status,
-    ).toBe(404);
-    expect((await call(reportRoute.loader, get(`/reports/${s.climber}`, jars.otherTeacher), params)).status).toBe(403);
-    expect((await call(reportRoute.loader, get(`/reports/${s.climber}`, jars.student), params)).status).toBe(403);
+    expect((await ask(get(`/reports/${s.slider}?report=${reportId}`, jars.owner))).status).toBe(404);
+    expect((await ask(get(`/reports/${s.climber}`, jars.otherTeacher))).status).toBe(403);
+    expect((await ask(get(`/reports/${s.climber}`, jars.student))).status).toBe(403);
   });
 
   it("shows one student's weeks, techniques, exercises and takes to their teacher", async () => {
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-18T15:00:00Z", score: 60 });
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-25T15:00:00Z", failed: true });
-    const page = await call(
-      studentRoute.loader,
-      get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner),
-      { studentId: s.climber },
-    );
+    const page = await ask(get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner));
     const d = page.data as {
       weeks: { week: string; takes: number }[];
       takes: unknown[];

@@ -7,14 +7,10 @@ import { eq } from "drizzle-orm";
 import { beforeEach, describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { exerciseAssignees, exercises, takeMetrics } from "~/db/schema";
-import * as login from "~/routes/login";
-import * as exercisesList from "~/routes/exercises";
-import * as exerciseNew from "~/routes/exercises.new";
-import * as exercisePage from "~/routes/exercises.$exerciseId";
-import * as exerciseEdit from "~/routes/exercises.$exerciseId.edit";
 import { ALL_MAJOR_KEYS } from "~/utils/exerciseProgression";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeStudio, makeUser, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeStudio, makeUser, signIn } from "./accountsKit";
 import { chordsMidi, formPost, uploadAnalysed, uploadTake } from "./exercisesKit";
 
 useFreshApp();
@@ -32,9 +28,9 @@ beforeEach(async () => {
   join(studio.id, people.ines.id, "owner");
   join(studio.id, people.dara.id, "student");
   join(studio.id, people.felix.id, "student");
-  ines = await signIn(login, people.ines.email);
-  dara = await signIn(login, people.dara.email);
-  felix = await signIn(login, people.felix.email);
+  ines = await signIn(people.ines.email);
+  dara = await signIn(people.dara.email);
+  felix = await signIn(people.felix.email);
   ids = { dara: people.dara.id, felix: people.felix.id, studio: studio.id };
 });
 
@@ -50,16 +46,13 @@ const base = {
 };
 
 async function createExercise(fields: Record<string, string>, extra: Array<[string, string]> = []) {
-  const r = await call(
-    exerciseNew.action,
-    formPost("/exercises/new", [...Object.entries({ ...base, ...fields }), ...extra], ines),
-  );
+  const r = await ask(formPost("/exercises/new", [...Object.entries({ ...base, ...fields }), ...extra], ines));
   expect(r.status, JSON.stringify(r.data)).toBe(302);
   return r.location!.split("/").pop()!;
 }
 
 async function expanded(id: string, jar = ines) {
-  const r = await call(exercisePage.loader, get(`/exercises/${id}`, jar), { exerciseId: id });
+  const r = await ask(get(`/exercises/${id}`, jar));
   expect(r.status).toBe(200);
   return (r.data as { expanded: Array<{ key: string; chords: Array<{ symbol: string; roman: string | null }> }> })
     .expanded;
@@ -109,26 +102,24 @@ describe("setting exercises", () => {
   });
 
   it("refuses a malformed progression, naming the bad token and its position", async () => {
-    const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, progression: "I IV Vx7 I" }, ines));
+    const r = await ask(formPost("/exercises/new", { ...base, progression: "I IV Vx7 I" }, ines));
     expect(r.status).toBe(400);
     expect((r.data as { fieldErrors: { progression: string } }).fieldErrors.progression).toContain('Token 3 "Vx7"');
     expect(db().select().from(exercises).all()).toHaveLength(0);
   });
 
   it("refuses students, and a bad tempo, with field errors", async () => {
-    const asStudent = await call(exerciseNew.action, formPost("/exercises/new", base, dara));
+    const asStudent = await ask(formPost("/exercises/new", base, dara));
     expect(asStudent.status).toBe(403);
-    const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, tempo: "900" }, ines));
+    const r = await ask(formPost("/exercises/new", { ...base, tempo: "900" }, ines));
     expect(r.status).toBe(400);
     expect((r.data as { fieldErrors: { tempo: string } }).fieldErrors.tempo).toMatch(/20–300/);
   });
 
   it("edits and archives; archived exercises leave the students' list", async () => {
     const id = await createExercise({});
-    const edit = await call(
-      exerciseEdit.action,
+    const edit = await ask(
       formPost(`/exercises/${id}/edit`, { ...base, title: "Drill two", progression: "I vi IV V" }, ines),
-      { exerciseId: id },
     );
     expect(edit.status).toBe(302);
     expect(db().select().from(exercises).where(eq(exercises.id, id)).get()).toMatchObject({
@@ -136,14 +127,11 @@ describe("setting exercises", () => {
       progression: "I vi IV V",
     });
     const studentList = async () =>
-      (await call(exercisesList.loader, get("/exercises", dara))).data as { student: { due: Array<{ id: string }> } };
+      (await ask(get("/exercises", dara))).data as { student: { due: Array<{ id: string }> } };
     expect((await studentList()).student.due.map((e) => e.id)).toEqual([id]);
-    expect(
-      (await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "archive" }, ines), { exerciseId: id }))
-        .status,
-    ).toBe(302);
+    expect((await ask(formPost(`/exercises/${id}`, { intent: "archive" }, ines))).status).toBe(302);
     expect((await studentList()).student.due).toEqual([]);
-    const teacherList = (await call(exercisesList.loader, get("/exercises", ines))).data as {
+    const teacherList = (await ask(get("/exercises", ines))).data as {
       teacher: Array<{ id: string; archived: boolean }>;
     };
     expect(teacherList.teacher).toEqual([expect.objectContaining({ id, archived: true })]);
@@ -155,13 +143,13 @@ describe("assigned to chosen students", () => {
     const id = await createExercise({ assignedTo: "students" }, [["students", ids.dara]]);
     expect(db().select().from(exerciseAssignees).all()).toEqual([{ exerciseId: id, userId: ids.dara }]);
     const listOf = async (jar: CookieJar) =>
-      (
-        (await call(exercisesList.loader, get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }
-      ).student.due.map((e) => e.id);
+      ((await ask(get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }).student.due.map(
+        (e) => e.id,
+      );
     expect(await listOf(dara)).toEqual([id]);
     expect(await listOf(felix)).toEqual([]);
-    expect((await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).status).toBe(200);
-    expect((await call(exercisePage.loader, get(`/exercises/${id}`, felix), { exerciseId: id })).status).toBe(403);
+    expect((await ask(get(`/exercises/${id}`, dara))).status).toBe(200);
+    expect((await ask(get(`/exercises/${id}`, felix))).status).toBe(403);
     const refused = await uploadTake(
       felix,
       chordsMidi([
@@ -174,7 +162,7 @@ describe("assigned to chosen students", () => {
   });
 
   it("refuses an empty choice", async () => {
-    const r = await call(exerciseNew.action, formPost("/exercises/new", { ...base, assignedTo: "students" }, ines));
+    const r = await ask(formPost("/exercises/new", { ...base, assignedTo: "students" }, ines));
     expect(r.status).toBe(400);
     expect((r.data as { fieldErrors: { students: string } }).fieldErrors.students).toMatch(/at least one/);
   });
@@ -229,7 +217,7 @@ describe("grading takes against the exercise", () => {
       ["missing", "Ab", 1],
       ["missing", "Eb", 1],
     ]);
-    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
       mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }>;
     };
     expect(page.mine[0].takes.map((t) => t.accuracy)).toEqual([0.75]);
@@ -267,7 +255,7 @@ describe("grading takes against the exercise", () => {
     const id = await createExercise({ keys: "D G" });
     const first = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     const second = await uploadAnalysed(dara, chordsMidi([D, G, A, D]), { exerciseId: id, key: "D" });
-    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
       mine: Array<{ key: string; takes: Array<{ id: string }>; best: number | null }>;
     };
     expect(page.mine.map((p) => [p.key, p.takes.length])).toEqual([
@@ -275,7 +263,7 @@ describe("grading takes against the exercise", () => {
       ["G", 0],
     ]);
     expect(page.mine[0].best).toBe(Math.max(first.analysis.summary.score, second.analysis.summary.score));
-    const list = (await call(exercisesList.loader, get("/exercises", dara))).data as {
+    const list = (await ask(get("/exercises", dara))).data as {
       student: { due: Array<{ id: string }>; done: unknown[] };
     };
     expect(list.student.due.map((e) => e.id)).toEqual([id]); // G has no take yet: still to do
@@ -289,11 +277,11 @@ describe("grading takes against the exercise", () => {
       ]),
       { exerciseId: id, key: "G" },
     );
-    const after = (await call(exercisesList.loader, get("/exercises", dara))).data as {
+    const after = (await ask(get("/exercises", dara))).data as {
       student: { due: unknown[]; done: Array<{ id: string }> };
     };
     expect(after.student.done.map((e) => e.id)).toEqual([id]);
-    const teacher = (await call(exercisePage.loader, get(`/exercises/${id}`, ines), { exerciseId: id })).data as {
+    const teacher = (await ask(get(`/exercises/${id}`, ines))).data as {
       students: Array<{ name: string; done: boolean }>;
     };
     expect(teacher.students).toEqual([
@@ -309,33 +297,20 @@ describe("editing the target and the model answer", () => {
     const body = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     expect(body.analysis.summary.accuracy).toBe(0.75);
     // Now the target is I IV vi I: B minor is what was asked for.
-    const r = await call(
-      exerciseEdit.action,
-      formPost(`/exercises/${id}/edit`, { ...base, progression: "I IV vi I" }, ines),
-      { exerciseId: id },
-    );
+    const r = await ask(formPost(`/exercises/${id}/edit`, { ...base, progression: "I IV vi I" }, ines));
     expect(r.status).toBe(302);
     expect(db().select().from(takeMetrics).where(eq(takeMetrics.takeId, body.id)).get()!.accuracy).toBe(1);
   });
 
   it("saves a starting voicing only when it holds the first chord's tones", async () => {
     const id = await createExercise({});
-    const save = (notes: string) =>
-      call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "model-start", notes }, ines), {
-        exerciseId: id,
-      });
+    const save = (notes: string) => ask(formPost(`/exercises/${id}`, { intent: "model-start", notes }, ines));
     expect((await save("57,62,65")).status).toBe(400); // A3 D4 F4: F natural is not in D major
     expect((await save("57,62,66")).status).toBe(302); // A3 D4 F#4
     expect(db().select().from(exercises).where(eq(exercises.id, id)).get()!.modelStart).toEqual([57, 62, 66]);
-    expect(
-      (
-        await call(
-          exercisePage.action,
-          formPost(`/exercises/${id}`, { intent: "model-start", notes: "57,62,66" }, dara),
-          { exerciseId: id },
-        )
-      ).status,
-    ).toBe(403);
+    expect((await ask(formPost(`/exercises/${id}`, { intent: "model-start", notes: "57,62,66" }, dara))).status).toBe(
+      403,
+    );
   });
 
   it("attaches the teacher's own model take, plays it back as notes, refuses a file that is not MIDI, and removes it", async () => {
@@ -343,33 +318,25 @@ describe("editing the target and the model answer", () => {
     const attach = (bytes: Uint8Array, name: string) => {
       const form = new FormData();
       form.append("file", new File([new Uint8Array(bytes)], name, { type: "audio/midi" }));
-      return call(
-        exercisePage.action,
+      return ask(
         new Request(`http://127.0.0.1:3000/exercises/${id}?intent=model-take`, {
           method: "POST",
           body: form,
           headers: { Cookie: ines.header(), Origin: "http://127.0.0.1:3000" },
         }),
-        { exerciseId: id },
       );
     };
     expect((await attach(new TextEncoder().encode("not a midi file at all"), "notes.txt")).status).toBe(400);
     expect((await attach(chordsMidi([D, G, A, D]), "model.mid")).status).toBe(302);
-    const page = (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
       modelTake: { name: string; notes: Array<{ midi: number }> };
     };
     expect(page.modelTake.name).toBe("model.mid");
     expect(page.modelTake.notes.map((n) => n.midi)).toEqual([D, G, A, D].flat());
+    expect((await ask(formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines))).status).toBe(302);
     expect(
       (
-        await call(exercisePage.action, formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines), {
-          exerciseId: id,
-        })
-      ).status,
-    ).toBe(302);
-    expect(
-      (
-        (await call(exercisePage.loader, get(`/exercises/${id}`, dara), { exerciseId: id })).data as {
+        (await ask(get(`/exercises/${id}`, dara))).data as {
           modelTake: unknown;
         }
       ).modelTake,

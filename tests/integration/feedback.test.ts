@@ -12,13 +12,9 @@ import {
   unreadFeedback,
 } from "~/models/feedback.server";
 import { reanalyseTake } from "~/models/takes.server";
-import * as login from "~/routes/login";
-import * as feedback from "~/routes/takes.$takeId.feedback";
-import * as review from "~/routes/review";
-import * as home from "~/routes/home";
-import * as takePage from "~/routes/takes.$takeId";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, signIn, useMailCatcher } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeExercise, makeStudio, makeUser, signIn, useMailCatcher } from "./accountsKit";
 import { chordsMidi, formPost, uploadAnalysed } from "./exercisesKit";
 
 const app = useFreshApp();
@@ -57,18 +53,14 @@ beforeEach(async () => {
   join(studio.id, p.dara.id, "student");
   join(studio.id, p.felix.id, "student");
   const exercise = makeExercise(studio.id);
-  [ines, dara, felix] = [
-    await signIn(login, p.ines.email),
-    await signIn(login, p.dara.email),
-    await signIn(login, p.felix.email),
-  ];
+  [ines, dara, felix] = [await signIn(p.ines.email), await signIn(p.dara.email), await signIn(p.felix.email)];
   const body = await uploadAnalysed(dara, chordsMidi(CLUMSY), { exerciseId: exercise.id, key: "D" });
   engine = body.analysis.summary as unknown as typeof engine;
   ids = { ines: p.ines.id, dara: p.dara.id, felix: p.felix.id, studio: studio.id, take: body.id };
 });
 
 const postFeedback = (jar: CookieJar, fields: Record<string, string>) =>
-  call(feedback.action, formPost(`/takes/${ids.take}/feedback`, fields, jar), { takeId: ids.take });
+  ask(formPost(`/takes/${ids.take}/feedback`, fields, jar));
 const metrics = () => db().select().from(takeMetrics).where(eq(takeMetrics.takeId, ids.take)).get()!;
 
 describe("comments and replies", () => {
@@ -119,7 +111,7 @@ describe("comments and replies", () => {
 
   it("the take page carries the threads, marks them read for whoever opens it, and offers review to teachers only", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "0", body: "Keep the top note." });
-    const asStudent = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
+    const asStudent = (await ask(get(`/takes/${ids.take}`, dara))).data as {
       feedback: {
         threads: Array<{ changeIdx: number | null; unread: boolean }>;
         asTeacher: boolean;
@@ -130,7 +122,7 @@ describe("comments and replies", () => {
     expect(asStudent.feedback).toMatchObject({ asTeacher: false, canReply: true, review: null });
     expect(asStudent.feedback.threads).toEqual([expect.objectContaining({ changeIdx: 0, unread: true })]);
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
-    const asTeacher = (await call(takePage.loader, get(`/takes/${ids.take}`, ines), { takeId: ids.take })).data as {
+    const asTeacher = (await ask(get(`/takes/${ids.take}`, ines))).data as {
       feedback: { asTeacher: boolean };
     };
     expect(asTeacher.feedback.asTeacher).toBe(true);
@@ -153,11 +145,11 @@ describe("comments and replies", () => {
 
   it("shows the unread feedback on the student's home page, and the review count on the teacher's", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "2", body: "Big jump here." });
-    const student = (await call(home.loader, get("/home", dara))).data as {
+    const student = (await ask(get("/home", dara))).data as {
       student: { unread: Array<{ takeId: string; count: number }> };
     };
     expect(student.student.unread).toEqual([expect.objectContaining({ takeId: ids.take, count: 1 })]);
-    const teacher = (await call(home.loader, get("/home", ines))).data as { teacher: { toReview: number } };
+    const teacher = (await ask(get("/home", ines))).data as { teacher: { toReview: number } };
     expect(teacher.teacher.toReview).toBe(1);
   });
 
@@ -211,7 +203,7 @@ describe("intended flags", () => {
     expect(page.score).toBe(byHand(6 / 7));
 
     // The take page shows the score without the intended flag, and the engine's beside it.
-    const shown = (await call(takePage.loader, get(`/takes/${ids.take}`, dara), { takeId: ids.take })).data as {
+    const shown = (await ask(get(`/takes/${ids.take}`, dara))).data as {
       windowed: { summary: { score: number; scoreParts: { cleanliness: number } } };
       feedback: { score: number; engineScore: number };
     };
@@ -273,14 +265,14 @@ describe("review queue", () => {
     takePageFeedback({ id: ids.ines }, { id: ids.take, studentId: ids.dara, exerciseId: null }, true);
     expect(reviewQueueCount(ids.studio)).toBe(2);
 
-    const done = await call(review.action, formPost("/review", { intent: "review", takeId: ids.take }, ines));
+    const done = await ask(formPost("/review", { intent: "review", takeId: ids.take }, ines));
     expect(done.status).toBe(302);
     expect(done.location).toBe(`/review?undo=${ids.take}`);
     expect(reviewQueue(ids.studio).map((t) => t.id)).toEqual([second.id]);
-    const page = (await call(review.loader, get(`/review?undo=${ids.take}`, ines))).data as { undo: string[] };
+    const page = (await ask(get(`/review?undo=${ids.take}`, ines))).data as { undo: string[] };
     expect(page.undo).toEqual([ids.take]);
 
-    await call(review.action, formPost("/review", { intent: "unreview", takeId: ids.take }, ines));
+    await ask(formPost("/review", { intent: "unreview", takeId: ids.take }, ines));
     expect(reviewQueueCount(ids.studio)).toBe(2);
 
     // The same from the take page's button.
@@ -294,8 +286,6 @@ describe("review queue", () => {
 
   it("is for teachers only", async () => {
     expect((await postFeedback(dara, { intent: "review" })).status).toBe(403);
-    expect((await call(review.action, formPost("/review", { intent: "review", takeId: ids.take }, dara))).status).toBe(
-      403,
-    );
+    expect((await ask(formPost("/review", { intent: "review", takeId: ids.take }, dara))).status).toBe(403);
   });
 });

@@ -10,10 +10,9 @@ import { eq } from "drizzle-orm";
 import { weeklyFigures } from "~/models/progress.server";
 import { weekKey } from "~/utils/weeks";
 import { setStudioTimeZone } from "~/models/studioSettings.server";
-import * as apiProgress from "~/routes/api.progress";
-import * as csvExport from "~/routes/api.export.progress[.]csv";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeExercise, makeStudio, makeUser } from "./accountsKit";
 import { insertHandTake } from "./progressKit";
 
 useFreshApp();
@@ -221,7 +220,7 @@ describe("CSV export", () => {
   const url = "/api/export/progress.csv?from=2026-11-16&to=2026-11-29";
 
   it("parses back with csv-parse (7.0.3) to the same numbers: names first, headers in words, the id last", async () => {
-    const result = await call(csvExport.loader, get(url, jars.teacher));
+    const result = await ask(get(url, jars.teacher));
     expect(result.status).toBe(200);
     expect(result.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(result.headers.get("content-disposition")).toBe(
@@ -288,8 +287,7 @@ describe("CSV export", () => {
     // Ten weeks past today: the range asks for weeks still to come.
     const later = new Date(Date.now() + 70 * 86_400_000).toISOString().slice(0, 10);
     const records: Record<string, string>[] = parse(
-      (await call(csvExport.loader, get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher)))
-        .data as string,
+      (await ask(get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher))).data as string,
       { columns: true },
     );
     const weeks = [...new Set(records.map((r) => r["ISO week"]))];
@@ -299,53 +297,44 @@ describe("CSV export", () => {
     expect(records.length).toBe(2 * weeks.length);
     // A range wholly in the future has the header and nothing else.
     const future: string[][] = parse(
-      (await call(csvExport.loader, get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher)))
-        .data as string,
+      (await ask(get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher))).data as string,
     );
     expect(future.length).toBe(1);
   });
 
   it("exports only the chosen students, and refuses a bad or missing range with 400", async () => {
-    const one = await call(csvExport.loader, get(`${url}&student=${ids.zoe}`, jars.teacher));
+    const one = await ask(get(`${url}&student=${ids.zoe}`, jars.teacher));
     expect((parse(one.data as string, { columns: true }) as unknown[]).length).toBe(2);
-    expect((await call(csvExport.loader, get("/api/export/progress.csv", jars.teacher))).status).toBe(400);
-    expect(
-      (await call(csvExport.loader, get("/api/export/progress.csv?from=2026-12-01&to=2026-11-01", jars.teacher)))
-        .status,
-    ).toBe(400);
-    expect(
-      (await call(csvExport.loader, get("/api/export/progress.csv?from=2026-02-30&to=2026-03-01", jars.teacher)))
-        .status,
-    ).toBe(400);
+    expect((await ask(get("/api/export/progress.csv", jars.teacher))).status).toBe(400);
+    expect((await ask(get("/api/export/progress.csv?from=2026-12-01&to=2026-11-01", jars.teacher))).status).toBe(400);
+    expect((await ask(get("/api/export/progress.csv?from=2026-02-30&to=2026-03-01", jars.teacher))).status).toBe(400);
   });
 
   it("keeps a name that looks like a formula as text", async () => {
     db().update(users).set({ name: "=SUM(A1:A9)" }).where(eq(users.id, ids.bjorn)).run();
-    const records: Record<string, string>[] = parse(
-      (await call(csvExport.loader, get(url, jars.teacher))).data as string,
-      { columns: true },
-    );
+    const records: Record<string, string>[] = parse((await ask(get(url, jars.teacher))).data as string, {
+      columns: true,
+    });
     expect(records[0].Student).toBe("'=SUM(A1:A9)");
   });
 
   it("is refused to a student (403) and to another studio's teacher naming our students (403)", async () => {
-    const asStudent = await call(csvExport.loader, get(url, jars.student));
+    const asStudent = await ask(get(url, jars.student));
     expect(asStudent.status).toBe(403);
-    const asOther = await call(csvExport.loader, get(`${url}&student=${ids.zoe}`, jars.otherTeacher));
+    const asOther = await ask(get(`${url}&student=${ids.zoe}`, jars.otherTeacher));
     expect(asOther.status).toBe(403);
     expect(asOther.data).toEqual({ error: expect.any(String) });
     // Without naming anyone, the other teacher gets their own (empty) studio, never ours.
-    const own = await call(csvExport.loader, get(url, jars.otherTeacher));
+    const own = await ask(get(url, jars.otherTeacher));
     expect(own.status).toBe(200);
     expect(own.data).not.toContain(ids.zoe);
-    expect((await call(csvExport.loader, get(url))).status).toBe(401);
+    expect((await ask(get(url))).status).toBe(401);
   });
 });
 
 describe("chart API", () => {
   it("returns one series per chosen student with the chosen metric per week", async () => {
-    const result = await call(
-      apiProgress.loader,
+    const result = await ask(
       get(
         `/api/progress?metric=smoothness&from=2026-11-16&to=2026-11-29&student=${ids.zoe}&student=${ids.bjorn}`,
         jars.teacher,
@@ -366,10 +355,8 @@ describe("chart API", () => {
   });
 
   it("refuses unknown metrics (400), students (403) and other studios' teachers (403)", async () => {
-    expect((await call(apiProgress.loader, get("/api/progress?metric=shoe-size", jars.teacher))).status).toBe(400);
-    expect((await call(apiProgress.loader, get("/api/progress", jars.student))).status).toBe(403);
-    expect((await call(apiProgress.loader, get(`/api/progress?student=${ids.zoe}`, jars.otherTeacher))).status).toBe(
-      403,
-    );
+    expect((await ask(get("/api/progress?metric=shoe-size", jars.teacher))).status).toBe(400);
+    expect((await ask(get("/api/progress", jars.student))).status).toBe(403);
+    expect((await ask(get(`/api/progress?student=${ids.zoe}`, jars.otherTeacher))).status).toBe(403);
   });
 });
