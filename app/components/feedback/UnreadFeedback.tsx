@@ -1,6 +1,6 @@
 import { Link } from "react-router";
 import { Card } from "~/components/Card";
-import { dayLabel } from "~/utils/noteText";
+import { dayLabel } from "~/utils/plainText";
 
 export type UnreadItem = {
   takeId: string;

@@ -1,10 +1,10 @@
 import { Link } from "react-router";
 import { ButtonLink } from "~/components/Button";
 import { Card } from "~/components/Card";
-import { dayLabel } from "~/utils/noteText";
+import { dayLabel } from "~/utils/plainText";
 import { studioDateTime, studioShortDate, zoneName } from "~/utils/studioTime";
 import type { FirstRunStep, TeacherWeek } from "~/models/teacherHome.server";
-import { dueWords } from "./StudentHome";
+import { dueWords } from "~/utils/exerciseState";
 
 const STEP_TEXT: Record<FirstRunStep["id"], { title: string; todo: string; link: string; action: string }> = {
   "confirm-email": {
