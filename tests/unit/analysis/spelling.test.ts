@@ -10,11 +10,13 @@ import {
   chordNoteNames,
   nameChord,
   needsContext,
+  requiredIntervals,
   romanOf,
   rootName,
   spelledSymbol,
 } from "../../../app/analysis/naming";
-import { parseKey, pc } from "../../../app/analysis/pitch";
+import { noteName, parseKey, pc } from "../../../app/analysis/pitch";
+import type { SpellingContext } from "../../../app/analysis/spelling";
 import { parseProgression, targetPcs } from "../../../app/analysis/progression";
 
 const KEYS = ["C", "G", "D", "A", "E", "B", "F#", "C#", "F", "Bb", "Eb", "Ab", "Db", "Gb", "Cb"];
@@ -262,5 +264,146 @@ describe("Roman numerals as teachers write them", () => {
       ),
       { numRuns: 2000, seed: 21 },
     );
+  });
+});
+
+describe("edges of rule 21's spelling", () => {
+  const spelled = (pitches: number[], key: string | null, ctx?: SpellingContext) => {
+    const k = key ? parseKey(key) : null;
+    const name = nameChord(pitches, pitches[0]);
+    return {
+      notes: chordNoteNames(pitches, name, k, ctx),
+      root: rootName(name, k, ctx),
+      symbol: spelledSymbol(name, pitches[0], k, ctx),
+      roman: k ? romanOf(name, k, pitches[0], ctx) : null,
+    };
+  };
+
+  it("only a diminished seventh moves its root for what follows: G7 before B stays G7 (not a Bb chord)", () => {
+    // B is a half step above Bb, a minor third above G: it would be a diminished seventh's target
+    for (const [pitches, nextBassPc, key, names] of [
+      [[55, 59, 62, 65], 11, "C", ["G3", "B3", "D4", "F4"]],
+      [[57, 61, 64, 67], 1, "D", ["A3", "C#4", "E4", "G4"]],
+      [[50, 54, 57, 60], 4, "G", ["D3", "F#3", "A3", "C4"]],
+    ] as Array<[number[], number, string, string[]]>) {
+      const s = spelled(pitches, key, { nextBassPc });
+      expect(s.notes, key).toEqual(names);
+      expect(s.symbol, key).toBe(`${names[0].slice(0, -1)}7`);
+      expect(s.roman, key).toBe("V7");
+    }
+    // a chord with no name never needs the context
+    expect(needsContext(nameChord([60], 60))).toBe(false);
+    expect(needsContext(nameChord([55, 59, 62], 55))).toBe(false);
+  });
+
+  it("a context without a next bass or root spells a diminished seventh as it does without one", () => {
+    // D F Ab B: B is a half step below C, which a missing (null) target must not stand for
+    for (const key of ["C", "Eb", "A"]) {
+      const none = spelled([62, 65, 68, 71], key);
+      expect(spelled([62, 65, 68, 71], key, { nextBassPc: null, nextRootPc: null }), key).toEqual(none);
+      expect(spelled([62, 65, 68, 71], key, { nextBassPc: undefined }), key).toEqual(none);
+    }
+  });
+
+  it("a leading tone that would need a double sharp is spelled with fewer accidentals: G°7 before G#m in E, not F##°7", () => {
+    // rule 21 (fewer accidentals, as A, not Bbb): the root a half step below G# on the letter F
+    // would be F##; G is the spelling with fewer accidentals
+    expect(spelled([55, 58, 61, 64], "E", { nextBassPc: 8 })).toMatchObject({
+      root: "G",
+      notes: ["G3", "Bb3", "Db4", "Fb4"],
+    });
+    // transposed: A°7 before A#m in F# (not G##°7), D°7 before D#m in B (not C##°7)
+    expect(spelled([57, 60, 63, 66], "F#", { nextBassPc: 10 }).root).toBe("A");
+    expect(spelled([62, 65, 68, 71], "B", { nextBassPc: 3 }).root).toBe("D");
+    // a single sharp is kept: D#°7 before Em in G (rule 21's example shape)
+    expect(spelled([51, 54, 57, 60], "G", { nextBassPc: 4 }).root).toBe("D#");
+  });
+
+  it("a foreign root whose flat spelling needs a double flat takes the sharp one: F#m in C, not Gb Bbb Db", () => {
+    for (const [pitches, key, root, names] of [
+      [[54, 57, 61], "C", "F#", ["F#3", "A3", "C#4"]],
+      [[54, 57, 61], "Bb", "F#", ["F#3", "A3", "C#4"]],
+      [[59, 62, 66], "F", "B", ["B3", "D4", "F#4"]],
+    ] as Array<[number[], string, string, string[]]>) {
+      expect(spelled(pitches, key), key).toMatchObject({ root, notes: names });
+      // tonal agrees that these are the chord's pitches
+      expect(
+        names.map((n) => Note.midi(n)),
+        key,
+      ).toEqual(pitches);
+    }
+  });
+
+  it("single accidentals do not count against the flat spelling: G#/Ab minor in C is Ab Cb Eb (the flat one on a tie)", () => {
+    expect(spelled([56, 59, 63], "C")).toMatchObject({ root: "Ab", notes: ["Ab3", "Cb4", "Eb4"] });
+    // transposed: Eb minor in G, Db minor in F
+    expect(spelled([51, 54, 58], "G")).toMatchObject({ root: "Eb", notes: ["Eb3", "Gb3", "Bb3"] });
+    expect(spelled([49, 52, 56], "F")).toMatchObject({ root: "Db", notes: ["Db3", "Fb3", "Ab3"] });
+  });
+
+  it("a root in the key keeps the key's letter even when its chord needs a double flat: Bb°7 in F", () => {
+    expect(spelled([58, 61, 64, 67], "F")).toMatchObject({ root: "Bb", notes: ["Bb3", "Db4", "Fb4", "Abb4"] });
+    expect(spelled([51, 54, 57, 60], "Bb")).toMatchObject({ root: "Eb", notes: ["Eb3", "Gb3", "Bbb3", "Dbb4"] });
+  });
+
+  it("a natural foreign root stays natural: F°7 in G is F Ab Cb Ebb, not E# G# B D", () => {
+    // fewer accidentals on the root first (rule 21); the double-flat test is only between two
+    // roots of one accidental each
+    expect(spelled([53, 56, 59, 62], "G")).toMatchObject({ root: "F", notes: ["F3", "Ab3", "Cb4", "Ebb4"] });
+    expect(spelled([60, 63, 66, 69], "D")).toMatchObject({ root: "C", notes: ["C4", "Eb4", "Gb4", "Bbb4"] });
+  });
+
+  it("no tone is spelled with three accidentals: Cb°7 in Gb spells its 7th as the key does (Ab, not Bbbb)", () => {
+    const s = spelled([59, 62, 65, 68], "Gb");
+    expect(s.root).toBe("Cb");
+    // Cb4 is MIDI 59: octave numbers go with the letter (tonal's Note.midi agrees below)
+    expect(s.notes).toEqual(["Cb4", "Ebb4", "Gbb4", "Ab4"]);
+    expect(s.notes.map((n) => Note.midi(n))).toEqual([59, 62, 65, 68]);
+  });
+
+  it("notes outside the named chord, and every note of a chord with no name, are spelled as noteName spells them", () => {
+    const c = parseKey("C");
+    expect(chordNoteNames([60, 64, 67, 61], nameChord([60, 64, 67], 60), c)).toEqual([
+      "C4",
+      "E4",
+      "G4",
+      noteName(61, c),
+    ]);
+    const unnamed = nameChord([60, 61], 60);
+    expect(unnamed.rootPc).toBeNull();
+    expect(chordNoteNames([60, 61], unnamed, c)).toEqual([noteName(60, c), noteName(61, c)]);
+    expect(spelledSymbol(unnamed, 60, c)).toBeNull();
+    expect(rootName(unnamed, c)).toBeNull();
+    expect(romanOf(unnamed, c, 60)).toBeNull();
+  });
+
+  it("a chord with a root but no triad (a bare fifth) has no required tones and no Roman numeral", () => {
+    const fifth = nameChord([48, 55], 48);
+    expect(fifth.rootPc).toBe(0);
+    expect(fifth.triad).toBeNull();
+    expect(requiredIntervals(fifth)).toEqual([]);
+    expect(romanOf(fifth, parseKey("C"), 48)).toBeNull();
+    expect(romanOf(fifth, parseKey("C"))).toBeNull();
+  });
+
+  it("without a bass an added sixth stays in the numeral: Eb6 in Bb is IVadd6 (bass unknown, or on the root)", () => {
+    for (const [pitches, key] of [
+      [[51, 55, 58, 60], "Bb"],
+      [[53, 57, 60, 62], "C"],
+      [[55, 59, 62, 64], "D"],
+    ] as Array<[number[], string]>) {
+      const k = parseKey(key);
+      const name = nameChord(pitches, pitches[0]);
+      expect(romanOf(name, k), key).toBe("IVadd6");
+      expect(romanOf(name, k, null), key).toBe("IVadd6");
+      expect(romanOf(name, k, pitches[0]), key).toBe("IVadd6");
+    }
+  });
+
+  it("a major seventh in the bass takes the figure 42: Cmaj7 over B is Imaj42 (common practice figures)", () => {
+    // figured bass: the seventh in the bass is 4/2 (S. Kostka & D. Payne, Tonal Harmony, from memory)
+    expect(spelled([47, 52, 55, 60], "C").roman).toBe("Imaj42");
+    expect(spelled([54, 59, 62, 67], "G").roman).toBe("Imaj42");
+    expect(spelled([52, 57, 60, 65], "F").roman).toBe("Imaj42");
   });
 });

@@ -216,6 +216,17 @@ describe("steady time on the onsets the reports show (rule 22, with rule 1's 80 
     expect(s.tempo).not.toEqual(tempoSteadiness([0, 1]));
   });
 
+  it("the file's tempo map is used where it is given: 100 bpm against the default 120 (MIDI spec)", () => {
+    // Standard MIDI File 1.0: 120 bpm until a tempo event says otherwise; strikes 0.6 s apart
+    // follow a 100 bpm grid, not 120 bpm's
+    const chords = [0, 0.6, 1.2, 1.8].map((startSec) => chord({ startSec, topNote: 72 }));
+    const tempos = [{ time: 0, bpm: 100 }];
+    const s = summarise(input({ chords, tempos }));
+    expect(s.tempo).toEqual(tempoSteadiness([0, 0.6, 1.2, 1.8], tempos));
+    expect(s.tempo.beatFrom).toBe("tempo-map");
+    expect(summarise(input({ chords })).tempo.beatFrom).toBe("strikes");
+  });
+
   it("the strike onsets given win over those the reports show", () => {
     const chords = [chord({ startSec: 0, topNote: 72 }), chord({ startSec: 1, topNote: 72 })];
     const s = summarise(input({ chords, strikeOnsets: [0, 0.25, 1] }));
