@@ -40,6 +40,11 @@ export default function handleRequest(
       </NonceContext.Provider>,
       {
         nonce,
+        // A part behind a Suspense boundary that is ready with the page stays in place in the
+        // HTML. (By default React moves any boundary past the first 12,800 bytes to the end of
+        // the stream, behind its fallback, for a script to swap in: without scripts the page
+        // would show the fallback.) Parts still loading stream in as before.
+        progressiveChunkSize: Number.POSITIVE_INFINITY,
         [readyOption]() {
           shellRendered = true;
           const body = new PassThrough({

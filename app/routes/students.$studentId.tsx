@@ -12,19 +12,21 @@ import { Card } from "~/components/Card";
 import { DataTable } from "~/components/DataTable";
 import { EmptyState } from "~/components/EmptyState";
 import { PageHeader } from "~/components/PageHeader";
+import { Pager } from "~/components/Pager";
 import { db } from "~/db/client.server";
 import { users } from "~/db/schema";
 import { formatMetric } from "~/utils/progressFigures";
 import { studioTimeZone } from "~/models/progress.server";
 import { parseProgressQuery } from "~/models/progressQuery.server";
 import { studentProgress } from "~/models/studentProgress.server";
-import { listTakesForStudent } from "~/models/takes.server";
+import { readTakeListQuery, studentTakesPage } from "~/models/takeList.server";
+import { pagerLinks } from "~/utils/listLinks";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.student.name ?? "Student"} · Progress · Nearnote` },
 ];
 
-export async function loader({ request, params, context }: Route.LoaderArgs) {
+export async function loader({ request, params, context, url }: Route.LoaderArgs) {
   const { user, membership } = await requireStudentOfTeacher({ request, context }, params.studentId);
   const studioId = user.active.studioId;
   const parsed = parseProgressQuery(new URL(request.url), studioTimeZone(studioId));
@@ -35,6 +37,12 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     .from(users)
     .where(eq(users.id, params.studentId))
     .get()!;
+  // The takes a page at a time, newest first; the pages keep the period chosen above.
+  const takes = studentTakesPage(student.id, studioId, {
+    ...readTakeListQuery(url.searchParams),
+    sort: "date",
+    dir: "desc",
+  });
   return {
     timeZone: studioTimeZone(studioId),
     student,
@@ -42,7 +50,9 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     from: q.from,
     to: q.to,
     ...studentProgress(studioId, student, q.fromWeek, q.toWeek),
-    takes: listTakesForStudent(student.id, { studioId, limit: 50 }),
+    takes: takes.rows,
+    takesTotal: takes.total,
+    takesPager: pagerLinks(url, takes.page, takes.pages, "#takes-heading"),
   };
 }
 
@@ -128,10 +138,10 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
       </div>
       <section aria-labelledby="takes-heading" className="flex flex-col gap-3">
         <h2 id="takes-heading" className="text-lg font-semibold">
-          Takes
+          Takes <span className="text-sm font-normal text-ink-soft">({d.takesTotal})</span>
         </h2>
         <DataTable
-          caption={`${d.student.name}'s latest takes`}
+          caption={`${d.student.name}'s takes, newest first`}
           isEmpty={d.takes.length === 0}
           empty={
             <EmptyState title="No takes yet">Takes appear here as soon as {d.student.name} uploads one.</EmptyState>
@@ -170,6 +180,7 @@ export default function StudentProgress({ loaderData: d }: Route.ComponentProps)
             </tr>
           ))}
         </DataTable>
+        <Pager links={d.takesPager} label={`Pages of ${d.student.name}'s takes`} />
       </section>
     </div>
   );

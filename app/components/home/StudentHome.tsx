@@ -1,13 +1,30 @@
+import { Suspense } from "react";
 import { Link } from "react-router";
 import { ButtonLink } from "~/components/Button";
 import { Card } from "~/components/Card";
 import { EmptyState } from "~/components/EmptyState";
+import { lazyInPlace } from "~/components/lazyInPlace";
 import { PracticeCare } from "~/components/PracticeCare";
 import { ExerciseStateBadge } from "~/components/exercises/ExerciseStateBadge";
+import type { TakeList } from "~/models/takeList.server";
 import { dueWords, type ExerciseState } from "~/utils/exerciseState";
-import { dayLabel, pretty } from "~/utils/noteText";
-import { TakesTable, type TakeRow } from "./TakesTable";
-import { WeeklyChart, type WeekFigures } from "./WeeklyChart";
+import type { WeekFigures } from "./WeeklyChart";
+
+/**
+ * The week-by-week card, its chart and its table: nothing in them answers a click before the
+ * chart library has loaded anyway, so their code comes with it, after the page has hydrated.
+ * The home page's loader preloads it on the server, so the HTML carries the figures in place.
+ */
+export const weeklyChart = lazyInPlace(() => import("./WeeklyChart").then((m) => m.WeekByWeek));
+const WeekByWeek = weeklyChart.Component;
+
+/**
+ * The list of takes, at the foot of the page: its sorting and paging are plain links that
+ * work in the server's HTML, so its code follows the page rather than holding it up.
+ * Preloaded by the loader on the server like the chart.
+ */
+export const takesTable = lazyInPlace(() => import("./TakesTable").then((m) => m.TakesTable));
+const TakesTable = takesTable.Component;
 
 export type DueExercise = {
   id: string;
@@ -15,6 +32,10 @@ export type DueExercise = {
   keys: string[];
   dueDate: string | null;
   progression: string;
+  /** the progression and the keys with typographic accidentals, and the due day, as the loader words them */
+  progressionText: string;
+  keysText: string;
+  dueLabel: string | null;
   tempo: number | null;
   state: ExerciseState;
   progress: Array<{ key: string; takes: Array<{ status: string }> }>;
@@ -35,15 +56,13 @@ function ExerciseItem({ exercise }: { exercise: DueExercise }) {
           </Link>
         </p>
         <p className="break-words text-sm text-ink-soft">
-          <span className="font-mono text-ink">{pretty(exercise.progression)}</span>
-          {exercise.keys.length ? ` · in ${exercise.keys.map(pretty).join(", ")}` : ""}
+          <span className="font-mono text-ink">{exercise.progressionText}</span>
+          {exercise.keysText ? ` · in ${exercise.keysText}` : ""}
           {exercise.tempo ? ` · ♩ = ${exercise.tempo}` : ""}
         </p>
         <p className="mt-1 flex flex-wrap items-center gap-2 text-sm">
           <ExerciseStateBadge state={exercise.state} />
-          {exercise.dueDate ? (
-            <span className="whitespace-nowrap text-ink-soft">{dayLabel(`${exercise.dueDate}T12:00:00Z`)}</span>
-          ) : null}
+          {exercise.dueLabel ? <span className="whitespace-nowrap text-ink-soft">{exercise.dueLabel}</span> : null}
           {done ? null : <span className="text-ink-soft">{exercise.state.detail}</span>}
         </p>
       </div>
@@ -66,7 +85,7 @@ export function StudentHome({
   weeks,
 }: {
   exercises: DueExercise[];
-  takes: TakeRow[];
+  takes: TakeList;
   weeks: WeekFigures[];
   /** the studio's today; the exercises' states are already decided against it */
   today?: string;
@@ -105,30 +124,26 @@ export function StudentHome({
         )}
       </Card>
 
-      <Card title="Week by week">
-        {weeks.length === 0 ? (
-          <p className="text-sm text-ink-soft">
-            Your smoothness and score appear here by week once a take is analysed.
-          </p>
-        ) : (
-          <WeeklyChart weeks={weeks} />
-        )}
-        <p className="mt-3 text-xs text-ink-soft">
-          Smoothness is the motion you could have had over the motion you played, summed over the week.{" "}
-          <Link to="/privacy" className="underline">
-            What Nearnote keeps
-          </Link>
-        </p>
-      </Card>
+      <Suspense
+        fallback={
+          <Card title="Week by week">
+            <p className="text-sm text-ink-soft">Loading the chart…</p>
+          </Card>
+        }
+      >
+        <WeekByWeek weeks={weeks} />
+      </Suspense>
 
-      <Card title="Latest takes">
-        {takes.length === 0 ? (
+      <Card title="Your takes">
+        {takes.total === 0 ? (
           <EmptyState title="No takes yet" action={<ButtonLink to="/takes/new">Upload your first take</ButtonLink>}>
             Record a few passes of your exercise as MIDI and upload them: Nearnote goes through every chord change and
             shows what could move less.
           </EmptyState>
         ) : (
-          <TakesTable takes={takes} />
+          <Suspense fallback={<p className="text-sm text-ink-soft">Loading your takes…</p>}>
+            <TakesTable list={takes} caption="Your takes" />
+          </Suspense>
         )}
       </Card>
 

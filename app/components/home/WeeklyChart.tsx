@@ -1,5 +1,7 @@
 import { lazy, Suspense, useEffect, useState } from "react";
-import { dayLabel } from "~/utils/noteText";
+import { Link } from "react-router";
+import { Card } from "~/components/Card";
+import { dayLabel } from "~/utils/plainText";
 import { weekStart } from "~/utils/weeks";
 
 // The chart library is fetched only when a chart is drawn, not with the page.
@@ -86,5 +88,24 @@ export function WeeklyChart({ weeks }: { weeks: WeekFigures[] }) {
         </table>
       </details>
     </div>
+  );
+}
+
+/** The student's week-by-week card: the chart and its table, or a word on what will appear there. */
+export function WeekByWeek({ weeks }: { weeks: WeekFigures[] }) {
+  return (
+    <Card title="Week by week">
+      {weeks.length === 0 ? (
+        <p className="text-sm text-ink-soft">Your smoothness and score appear here by week once a take is analysed.</p>
+      ) : (
+        <WeeklyChart weeks={weeks} />
+      )}
+      <p className="mt-3 text-xs text-ink-soft">
+        Smoothness is the motion you could have had over the motion you played, summed over the week.{" "}
+        <Link to="/privacy" className="underline">
+          What Nearnote keeps
+        </Link>
+      </p>
+    </Card>
   );
 }
