@@ -14,6 +14,7 @@ import { parseForm, readForm, redirectWithFlash } from "~/forms/forms.server";
 import { shiftWeek, weekEnd, weekLabel } from "~/utils/progressFigures";
 import { weekStart } from "~/utils/weeks";
 import { boardRows, chartData, pickStudents } from "~/models/board.server";
+import { boardTable } from "~/models/boardTable.server";
 import { currentWeek, studioTimeZone } from "~/models/progress.server";
 import { parseProgressQuery } from "~/models/progressQuery.server";
 import { sendPracticeReminders } from "~/models/reminders.server";
@@ -25,7 +26,7 @@ const WEEK_CHOICES = 12;
 
 export const meta: Route.MetaFunction = () => [{ title: "Progress board · Nearnote" }];
 
-export async function loader({ request, context }: Route.LoaderArgs) {
+export async function loader({ request, context, url: pageUrl }: Route.LoaderArgs) {
   const teacher = await requireTeacher({ request, context });
   const studioId = teacher.active.studioId;
   const timeZone = studioTimeZone(studioId);
@@ -54,7 +55,9 @@ export async function loader({ request, context }: Route.LoaderArgs) {
       key,
       label: i === 0 ? "This week" : i === 1 ? "Last week" : `Week of ${weekLabel(key)}`,
     })),
-    rows,
+    // The table a page at a time (filtered and sorted as the address says); the chart's
+    // choices and the reminder read every student.
+    table: boardTable(rows, pageUrl),
     students: rows.map((r) => ({ id: r.studentId, name: r.name })),
     choice: { metric: query.metric, studentIds: chosenIds, from: query.from, to: query.to },
     chart: chart && { ...chart, from: query.from, to: query.to },
@@ -88,7 +91,7 @@ export async function action({ request, context }: Route.ActionArgs) {
 
 export default function Board({ loaderData }: Route.ComponentProps) {
   const navigation = useNavigation();
-  const { rows, week, weekOptions, chart, choice, students, quiet, timeZone } = loaderData;
+  const { table, week, weekOptions, chart, choice, students, quiet, timeZone } = loaderData;
   return (
     <div className="flex flex-col gap-6">
       <PageHeader
@@ -100,7 +103,7 @@ export default function Board({ loaderData }: Route.ComponentProps) {
           </ButtonLink>
         }
       />
-      {rows.length === 0 ? (
+      {table.total === 0 ? (
         <EmptyState title="No students yet" action={<ButtonLink to="/students">Invite students</ButtonLink>}>
           The board fills in as soon as your students join and upload their first takes. Invite them from the Students
           page: each gets a link to set a password.
@@ -112,7 +115,7 @@ export default function Board({ loaderData }: Route.ComponentProps) {
             pending={navigation.state === "submitting" && navigation.formData?.get("intent") === "remind"}
           />
           <WeekPicker week={week.key} options={weekOptions} />
-          <BoardTable rows={rows} timeZone={timeZone} />
+          <BoardTable table={table} timeZone={timeZone} />
           {chart ? <ChartPanel students={students} choice={choice} data={chart} /> : null}
           <p className="text-xs text-ink-soft">
             Smoothness is the best possible motion divided by the motion played, summed over the week. Status compares

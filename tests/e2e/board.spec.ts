@@ -19,8 +19,10 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   await expect(page.getByRole("heading", { level: 1, name: "Progress board" })).toBeVisible();
   await expect(page.getByText(/^The week of/)).toBeVisible();
 
-  // Sort by smoothness: numeric columns sort descending first; students with no value that week go last.
-  await board.getByRole("button", { name: /smooth/i }).click();
+  // Sort by smoothness (on the server: the header is a link): numeric columns sort descending first;
+  // students with no value that week go last.
+  await board.getByRole("link", { name: /smooth/i }).click();
+  await expect(page).toHaveURL(/sort=smoothness&dir=desc/);
   await expect(board.getByRole("columnheader", { name: /smooth/i })).toHaveAttribute("aria-sort", "descending");
   const smoothCells = await board.locator("tbody tr td:nth-child(6)").allInnerTexts();
   const values = smoothCells.map((t) => (/^(\d+)%/.exec(t.trim()) ? Number(/^(\d+)%/.exec(t.trim())![1]) : null));
@@ -29,10 +31,14 @@ test("the demo teacher sorts the board, switches the chart in place, downloads t
   expect(present).toEqual([...present].sort((a, b) => b - a));
   expect(values.slice(present.length).every((v) => v === null)).toBe(true);
 
-  // Filtering by name narrows the rows.
+  // Filtering by name narrows the rows (a GET form: the address keeps the week and the order).
   await page.getByRole("searchbox").fill("Dara");
+  await page.getByRole("button", { name: "Filter" }).click();
   await expect(board.locator("tbody tr")).toHaveCount(1);
+  await expect(page).toHaveURL(/week=\d{4}-W\d{2}.*name=Dara|name=Dara.*week=\d{4}-W\d{2}/);
   await page.getByRole("searchbox").fill("");
+  await page.getByRole("button", { name: "Filter" }).click();
+  await expect(board.getByRole("row")).toHaveCount(1 + 6);
 
   // Switch the chart's metric: the choice goes into the address (replace, no scroll), the loader redraws, no page load.
   await page.evaluate(() => ((window as unknown as { boardMarker: string }).boardMarker = "still here"));

@@ -1,35 +1,14 @@
-import {
-  columnFilteringFeature,
-  createColumnHelper,
-  createFilteredRowModel,
-  createSortedRowModel,
-  filterFn_equalsString,
-  filterFn_includesString,
-  rowSortingFeature,
-  sortFn_alphanumeric,
-  sortFn_basic,
-  tableFeatures,
-  useTable,
-  type SortingState,
-} from "@tanstack/react-table";
-import { useMemo, useState } from "react";
-import { Link } from "react-router";
+import type { ReactNode } from "react";
+import { Form, Link } from "react-router";
+import { Pager } from "~/components/Pager";
 import { TECHNIQUES } from "~/analysis/types";
 import { TECHNIQUE_WORDS } from "~/takes/takeWords";
 import { METRICS, type MetricId } from "~/utils/progressFigures";
 import type { BoardRow } from "~/models/board.server";
+import type { BoardSort, BoardTable as BoardTableData } from "~/models/boardTable.server";
 import { Delta } from "./Delta";
 import { Sparkline } from "./Sparkline";
 import { STATUS_LABELS, StatusBadge } from "./StatusBadge";
-
-const features = tableFeatures({
-  rowSortingFeature,
-  columnFilteringFeature,
-  sortedRowModel: createSortedRowModel(),
-  filteredRowModel: createFilteredRowModel(),
-  sortFns: { alphanumeric: sortFn_alphanumeric, basic: sortFn_basic },
-  filterFns: { includesString: filterFn_includesString, equalsString: filterFn_equalsString },
-});
 
 /** Short tags for the techniques column; the full name is the tooltip and what screen readers get. */
 const TECHNIQUE_SHORT: Record<(typeof TECHNIQUES)[number], string> = {
@@ -41,52 +20,42 @@ const TECHNIQUE_SHORT: Record<(typeof TECHNIQUES)[number], string> = {
   "smooth-top-line": "top",
 };
 
-const col = createColumnHelper<typeof features, BoardRow>();
+type Column = { id: BoardSort | "trend"; header: string; cell: (r: BoardRow) => ReactNode };
 
-/** A this-week metric with its change since last week; weeks without a value sort last. */
-function metricColumn(metric: MetricId) {
-  return col.accessor((r) => r.thisWeek[metric], {
+/** A this-week metric with its change since last week. */
+function metricColumn(metric: MetricId & BoardSort): Column {
+  return {
     id: metric,
     header: METRICS[metric].short,
-    sortFn: "basic",
-    sortUndefined: "last",
-    cell: (info) => (
-      <Delta metric={metric} now={info.row.original.thisWeek[metric]} before={info.row.original.lastWeek[metric]} />
-    ),
-  });
+    cell: (r) => <Delta metric={metric} now={r.thisWeek[metric]} before={r.lastWeek[metric]} />,
+  };
 }
 
 /** The board's columns; dates print in the studio's calendar. */
-function boardColumns(timeZone: string) {
-  return col.columns([
-    col.accessor("name", {
+function boardColumns(timeZone: string): Column[] {
+  return [
+    {
+      id: "name",
       header: "Student",
-      sortFn: "alphanumeric",
-      filterFn: "includesString",
-      cell: (info) => (
+      cell: (r) => (
         <span className="inline-flex flex-col">
           <Link
-            to={`/students/${info.row.original.studentId}`}
+            to={`/students/${r.studentId}`}
             className="whitespace-nowrap font-semibold text-tide-dark hover:underline"
           >
-            {info.getValue()}
+            {r.name}
           </Link>
           <Link
-            to={`/reports/${info.row.original.studentId}`}
+            to={`/reports/${r.studentId}`}
             className="text-xs text-tide-dark underline-offset-2 hover:underline"
-            aria-label={`Report for ${info.row.original.name}`}
+            aria-label={`Report for ${r.name}`}
           >
             Report
           </Link>
         </span>
       ),
-    }),
-    col.accessor("status", {
-      header: "Status",
-      sortFn: "alphanumeric",
-      filterFn: "equalsString",
-      cell: (info) => <StatusBadge status={info.getValue()} compare={info.row.original.compare} />,
-    }),
+    },
+    { id: "status", header: "Status", cell: (r) => <StatusBadge status={r.status} compare={r.compare} /> },
     metricColumn("takes"),
     metricColumn("practiceMinutes"),
     metricColumn("score"),
@@ -94,12 +63,11 @@ function boardColumns(timeZone: string) {
     metricColumn("motionPerChange"),
     metricColumn("leapsPer10"),
     metricColumn("accuracy"),
-    col.accessor((r) => TECHNIQUES.filter((t) => r.thisWeek.techniques[t] > 0).length, {
+    {
       id: "techniques",
       header: "Techniques",
-      sortFn: "basic",
-      cell: (info) => {
-        const used = TECHNIQUES.filter((t) => info.row.original.thisWeek.techniques[t] > 0);
+      cell: (r) => {
+        const used = TECHNIQUES.filter((t) => r.thisWeek.techniques[t] > 0);
         if (!used.length) return "–";
         return (
           <span className="inline-flex flex-wrap gap-1">
@@ -116,32 +84,25 @@ function boardColumns(timeZone: string) {
           </span>
         );
       },
-    }),
-    col.accessor((r) => r.lastTakeAt ?? "", {
+    },
+    {
       id: "lastTake",
       header: "Last take",
-      sortFn: "alphanumeric",
-      cell: (info) =>
-        info.row.original.lastTakeAt ? (
-          <time dateTime={info.row.original.lastTakeAt} className="whitespace-nowrap">
-            {shortDate(info.row.original.lastTakeAt, timeZone)}
+      cell: (r) =>
+        r.lastTakeAt ? (
+          <time dateTime={r.lastTakeAt} className="whitespace-nowrap">
+            {shortDate(r.lastTakeAt, timeZone)}
           </time>
         ) : (
           "never"
         ),
-    }),
-    col.display({
+    },
+    {
       id: "trend",
       header: "Trend",
-      cell: (info) => (
-        <Sparkline
-          width={60}
-          values={info.row.original.trend}
-          label={`${info.row.original.name}'s mean score over 8 weeks`}
-        />
-      ),
-    }),
-  ]);
+      cell: (r) => <Sparkline width={60} values={r.trend} label={`${r.name}'s mean score over 8 weeks`} />,
+    },
+  ];
 }
 
 /** Column names for the phone layout, where each row is a card and each cell says what it is. */
@@ -159,42 +120,49 @@ function shortDate(iso: string, timeZone: string) {
   return new Date(iso).toLocaleDateString("en-GB", { day: "numeric", month: "short", timeZone });
 }
 
-export function BoardTable({ rows, timeZone }: { rows: BoardRow[]; timeZone: string }) {
-  const [sorting, setSorting] = useState<SortingState>([]);
-  const [nameFilter, setNameFilter] = useState("");
-  const [statusFilter, setStatusFilter] = useState("");
-  const columnFilters = [
-    ...(nameFilter ? [{ id: "name", value: nameFilter }] : []),
-    ...(statusFilter ? [{ id: "status", value: statusFilter }] : []),
-  ];
-  const columns = useMemo(() => boardColumns(timeZone), [timeZone]);
-  const table = useTable({
-    features,
-    columns,
-    data: rows,
-    state: { sorting, columnFilters },
-    onSortingChange: setSorting,
-    getRowId: (r) => r.studentId,
-  });
-  const shown = table.getRowModel().rows;
+/**
+ * The board's students a page at a time, filtered and sorted on the server: the filters are
+ * a GET form and each sortable header a link, so all of it works without scripts.
+ */
+export function BoardTable({ table, timeZone }: { table: BoardTableData; timeZone: string }) {
+  const columns = boardColumns(timeZone);
+  const { query, rows } = table;
+  const first = (query.page - 1) * table.pageSize + 1;
   return (
-    <div className="flex flex-col gap-3">
-      <div className="no-print flex flex-wrap items-end gap-4" role="search" aria-label="Filter students">
+    <div className="flex flex-col gap-3" id="students">
+      <Form
+        method="get"
+        className="no-print flex flex-wrap items-end gap-4"
+        role="search"
+        aria-label="Filter students"
+        preventScrollReset
+      >
+        {table.keep.map(([name, value], i) => (
+          <input key={`${name}-${i}`} type="hidden" name={name} value={value} />
+        ))}
+        {query.sort !== "name" || query.dir !== "asc" ? (
+          <>
+            <input type="hidden" name="sort" value={query.sort} />
+            <input type="hidden" name="dir" value={query.dir} />
+          </>
+        ) : null}
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Name
           <input
             type="search"
-            value={nameFilter}
-            onChange={(e) => setNameFilter(e.target.value)}
-            placeholder="Type to filter"
+            name="name"
+            defaultValue={query.name}
+            key={query.name}
+            placeholder="Part of a name"
             className="rounded-md border border-line bg-white px-3 py-1.5 font-normal"
           />
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Status
           <select
-            value={statusFilter}
-            onChange={(e) => setStatusFilter(e.target.value)}
+            name="status"
+            defaultValue={query.status ?? ""}
+            key={query.status ?? ""}
             className="rounded-md border border-line bg-white px-3 py-1.5 font-normal"
           >
             <option value="">All</option>
@@ -205,66 +173,77 @@ export function BoardTable({ rows, timeZone }: { rows: BoardRow[]; timeZone: str
             ))}
           </select>
         </label>
-        <p className="text-sm text-ink-soft" aria-live="polite">
-          {shown.length} of {rows.length} students
+        <button
+          type="submit"
+          className="rounded-md border border-line bg-card px-3 py-1.5 text-sm font-semibold text-tide-dark hover:border-tide"
+        >
+          Filter
+        </button>
+        <p className="text-sm text-ink-soft" aria-live="polite" data-testid="board-count">
+          {table.matching} of {table.total} students
+          {table.pager.pages > 1 ? ` · ${first}–${first + rows.length - 1} shown` : ""}
         </p>
-      </div>
+      </Form>
       <div className="rounded-lg border border-line bg-card">
         <table className="table-cards w-full border-collapse text-left text-sm">
           <caption className="sr-only">
             This week's figures per student, with the change since last week. Column headers sort.
           </caption>
           <thead className="bg-paper text-xs uppercase tracking-wide text-ink-soft">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      className="px-1.5 py-2 align-bottom"
-                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
-                    >
-                      {header.column.getCanSort() ? (
-                        <button
-                          type="button"
-                          onClick={header.column.getToggleSortingHandler()}
-                          className="inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink"
-                        >
-                          <table.FlexRender header={header} />
-                          <span aria-hidden="true">{sorted === "asc" ? "↑" : sorted === "desc" ? "↓" : ""}</span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={header} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
+            <tr>
+              {columns.map((c) => {
+                const sorted = c.id === query.sort ? query.dir : null;
+                return (
+                  <th
+                    key={c.id}
+                    scope="col"
+                    className="px-1.5 py-2 align-bottom"
+                    aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
+                  >
+                    {c.id === "trend" ? (
+                      c.header
+                    ) : (
+                      <Link
+                        to={table.sortLinks[c.id]}
+                        preventScrollReset
+                        className="inline-flex items-center gap-1 uppercase tracking-wide hover:text-ink"
+                      >
+                        {c.header}
+                        <span aria-hidden="true">{sorted === "asc" ? "↑" : sorted === "desc" ? "↓" : ""}</span>
+                      </Link>
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
           </thead>
           <tbody className="divide-y divide-line">
-            {shown.map((row) => (
-              <tr key={row.id} className="hover:bg-paper/60" data-testid="board-row">
-                {row.getAllCells().map((cell) => (
+            {rows.map((r) => (
+              <tr key={r.studentId} className="hover:bg-paper/60" data-testid="board-row">
+                {columns.map((c) => (
                   <td
-                    key={cell.id}
-                    className={`px-1.5 py-2 align-middle ${cell.column.id === "name" ? "card-title" : ""}`}
-                    data-label={CELL_LABELS[cell.column.id] || undefined}
-                    data-column={cell.column.id}
+                    key={c.id}
+                    className={`px-1.5 py-2 align-middle ${c.id === "name" ? "card-title" : ""}`}
+                    data-label={CELL_LABELS[c.id] || undefined}
+                    data-column={c.id}
                   >
-                    <table.FlexRender cell={cell} />
+                    {c.cell(r)}
                   </td>
                 ))}
               </tr>
             ))}
           </tbody>
         </table>
-        {shown.length === 0 ? (
+        {rows.length === 0 ? (
           <p className="px-4 py-6 text-center text-sm text-ink-soft">No student matches these filters.</p>
         ) : null}
       </div>
+      <Pager
+        links={table.pager}
+        label="Pages of the board's students"
+        before="← Previous students"
+        after="Next students →"
+      />
     </div>
   );
 }
