@@ -2,7 +2,7 @@ import { spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { count, eq } from "drizzle-orm";
-import { afterEach, describe, expect, it, vi } from "vitest";
+import { afterEach, describe, expect, it, onTestFinished, vi } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
 import { ConfigError, env, resetEnvForTests } from "~/server/env.server";
@@ -121,6 +121,13 @@ describe("sweeping orphan files", () => {
     await putFile("left-by-a-crash");
     await age(2); // written before this process started
     const log = vi.spyOn(console, "log").mockImplementation(() => {});
+    // The in-process app keeps background work off for the other tests; a started server runs it.
+    process.env.NEARNOTE_BACKGROUND = "on";
+    resetEnvForTests();
+    onTestFinished(() => {
+      process.env.NEARNOTE_BACKGROUND = "off";
+      resetEnvForTests();
+    });
     startBackgroundWork();
     await expect.poll(() => storedFiles().length, { timeout: 10_000 }).toBe(1);
     await expect

@@ -6,12 +6,9 @@ import { getSessionUser } from "~/auth/session.server";
 import { db } from "~/db/client.server";
 import { comments, intendedFlags, memberships, takeReviews, takes } from "~/db/schema";
 import { switchActiveStudio } from "~/models/studios.server";
-import * as login from "~/routes/login";
-import * as apiTakes from "~/routes/api.takes";
-import * as takePage from "~/routes/takes.$takeId";
-import * as takeFeedback from "~/routes/takes.$takeId.feedback";
 import { storedTakeFiles, useFreshApp } from "../support/setup";
-import { call, CookieJar, join, makeExercise, makeStudio, makeUser, ORIGIN, post, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, join, makeExercise, makeStudio, makeUser, ORIGIN, post, signIn } from "./accountsKit";
 
 // Changing a take: a replacement stays the same take in its own studio, racing
 // replacements land once, and only an active member of the take's studio may
@@ -53,15 +50,12 @@ async function setup() {
   join(cliff.id, dara.id, "student");
   join(harbour.id, ines.id, "owner");
   const exercise = makeExercise(harbour.id);
-  const daraJar = await signIn(login, dara.email);
+  const daraJar = await signIn(dara.email);
   const sessionUser = async () =>
     (await getSessionUser(new Request(ORIGIN, { headers: { Cookie: daraJar.header() } })))!;
   // Make sure Harbour Lane is active for the upload.
   switchActiveStudio((await sessionUser()).sessionId, dara.id, harbour.id);
-  const up = await call(
-    apiTakes.action,
-    uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))),
-  );
+  const up = await ask(uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))));
   expect(up.status).toBe(201);
   const takeId = (up.data as { id: string }).id;
   return { harbour, cliff, dara, ines, exercise, daraJar, takeId, sessionUser };
@@ -90,9 +84,7 @@ describe("replacing a take", () => {
     // Dara now works in Cliff Road.
     switchActiveStudio((await s.sessionUser()).sessionId, s.dara.id, s.cliff.id);
 
-    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")), {
-      takeId: s.takeId,
-    });
+    const r = await ask(replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")));
     expect(r.status).toBe(302);
     expect(r.location).toBe(`/takes/${s.takeId}`);
     const all = db().select().from(takes).all();
@@ -124,9 +116,7 @@ describe("replacing a take", () => {
   it("claims the take once when four replacements race: one take, one file", async () => {
     const s = await setup();
     const files = ["held-bass-d.mid", "minor-colour-g.mid", "falling-bass-eb.mid", "sunday-ballad-ab.mid"];
-    const results = await Promise.all(
-      files.map((f) => call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample(f), f), { takeId: s.takeId })),
-    );
+    const results = await Promise.all(files.map((f) => ask(replaceRequest(s.daraJar, s.takeId, sample(f), f))));
     expect(results.filter((r) => r.status === 302)).toHaveLength(1);
     expect(results.filter((r) => r.status === 409)).toHaveLength(3);
     expect(takeCount()).toBe(1);
@@ -137,14 +127,9 @@ describe("replacing a take", () => {
   it("removes the new file when the replacement is refused", async () => {
     const s = await setup();
     // The same content as another of her takes: refused as a duplicate.
-    const other = await call(
-      apiTakes.action,
-      uploadRequest(s.daraJar, multipart("other.mid", sample("held-bass-d.mid"))),
-    );
+    const other = await ask(uploadRequest(s.daraJar, multipart("other.mid", sample("held-bass-d.mid"))));
     expect(other.status).toBe(201);
-    const r = await call(takePage.action, replaceRequest(s.daraJar, s.takeId, sample("held-bass-d.mid")), {
-      takeId: s.takeId,
-    });
+    const r = await ask(replaceRequest(s.daraJar, s.takeId, sample("held-bass-d.mid")));
     expect(r.status).toBe(409);
     expect(takeCount()).toBe(2);
     expect(storedFiles()).toHaveLength(2);
@@ -168,27 +153,19 @@ describe("a student removed from the take's studio", () => {
     // Still active in Cliff Road, so still signed in with a studio.
     const before = db().select().from(takes).get()!;
 
-    const move = await call(
-      takePage.action,
+    const move = await ask(
       post(`/takes/${s.takeId}`, { intent: "move", exerciseId: s.exercise.id, key: "D" }, s.daraJar),
-      { takeId: s.takeId },
     );
     expect(move.status).toBe(403);
-    const replace = await call(
-      takePage.action,
-      replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")),
-      { takeId: s.takeId },
-    );
+    const replace = await ask(replaceRequest(s.daraJar, s.takeId, sample("three-chord-smoothing-d.mid")));
     expect(replace.status).toBe(403);
-    const reply = await call(
-      takeFeedback.action,
+    const reply = await ask(
       post(
         `/takes/${s.takeId}/feedback`,
         { intent: "comment", body: "Will do!", parentId: teacherComment.id },
         s.daraJar,
         { Origin: ORIGIN },
       ),
-      { takeId: s.takeId },
     );
     expect([400, 403]).toContain(reply.status);
 

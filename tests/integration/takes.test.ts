@@ -1,20 +1,18 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { count, eq } from "drizzle-orm";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, onTestFinished } from "vitest";
 import { ANALYSIS_VERSION } from "~/analysis";
 import { db } from "~/db/client.server";
 import { takeMetrics, takes } from "~/db/schema";
 import { getSessionUser } from "~/auth/session.server";
 import { replaceTakeFromForm, uploadTakesFromForm } from "~/takes/takeUpload.server";
+import { resetEnvForTests } from "~/server/env.server";
 import { startBackgroundWork } from "~/server/startup.server";
 import { moveTake, reanalyseOutdated } from "~/models/takes.server";
-import * as login from "~/routes/login";
-import * as apiTakes from "~/routes/api.takes";
-import * as apiTake from "~/routes/api.takes.$takeId";
-import * as apiTakeFile from "~/routes/api.takes.$takeId.file";
 import { storedTakeFiles, useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeExercise, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
 
 const app = useFreshApp();
 const sample = (name: string) => new Uint8Array(readFileSync(path.resolve("samples", name)));
@@ -52,9 +50,9 @@ async function setup() {
   return {
     studio,
     exercise,
-    dara: await signIn(login, dara.email),
-    felix: await signIn(login, felix.email),
-    ines: await signIn(login, ines.email),
+    dara: await signIn(dara.email),
+    felix: await signIn(felix.email),
+    ines: await signIn(ines.email),
     ids: { dara: dara.id, felix: felix.id },
   };
 }
@@ -62,8 +60,7 @@ async function setup() {
 describe("uploading takes", () => {
   it("stores a good take, its file and every analysis row in one go (201)", async () => {
     const s = await setup();
-    const r = await call(
-      apiTakes.action,
+    const r = await ask(
       upload(s.dara, multipart([{ name: "../three chords.mid", bytes: sample("three-chord-smoothing-d.mid") }])),
     );
     expect(r.status).toBe(201);
@@ -80,16 +77,15 @@ describe("uploading takes", () => {
     expect(stored.changes).toHaveLength(body.analysis.changes.length);
     expect(storedFiles()).toHaveLength(1);
 
-    const file = await call(apiTakeFile.loader, get(`/api/takes/${body.id}/file`, s.ines), { takeId: body.id });
+    const file = await ask<Uint8Array>(get(`/api/takes/${body.id}/file`, s.ines));
     expect(file.status).toBe(200);
-    const bytes = new Uint8Array(await (file.data as Response).arrayBuffer());
+    const bytes = file.data;
     expect(bytes).toEqual(sample("three-chord-smoothing-d.mid"));
   });
 
   it("refuses a file that is not MIDI with 415 and keeps nothing", async () => {
     const s = await setup();
-    const r = await call(
-      apiTakes.action,
+    const r = await ask(
       upload(s.dara, multipart([{ name: "notes.mid", bytes: new TextEncoder().encode("just some text") }])),
     );
     expect(r.status).toBe(415);
@@ -102,10 +98,10 @@ describe("uploading takes", () => {
     const s = await setup();
     const big = new Uint8Array(2 * 1024 * 1024 + 1);
     big.set(sample("three-chord-smoothing-d.mid"));
-    const r1 = await call(apiTakes.action, upload(s.dara, multipart([{ name: "big.mid", bytes: big }])));
+    const r1 = await ask(upload(s.dara, multipart([{ name: "big.mid", bytes: big }])));
     expect(r1.status).toBe(413);
     const eleven = Array.from({ length: 11 }, (_, i) => ({ name: `t${i}.mid`, bytes: sample("held-bass-d.mid") }));
-    const r2 = await call(apiTakes.action, upload(s.dara, multipart(eleven)));
+    const r2 = await ask(upload(s.dara, multipart(eleven)));
     expect(r2.status).toBe(413);
     expect((r2.data as { error: string }).error).toMatch(/at most 10 files/);
     expect(rows(takes)).toBe(0);
@@ -115,7 +111,7 @@ describe("uploading takes", () => {
   it("keeps a truncated MIDI file as a failed take (422) so it can be analysed again later", async () => {
     const s = await setup();
     const whole = sample("sunday-ballad-ab.mid");
-    const r = await call(apiTakes.action, upload(s.dara, multipart([{ name: "cut.mid", bytes: whole.slice(0, 40) }])));
+    const r = await ask(upload(s.dara, multipart([{ name: "cut.mid", bytes: whole.slice(0, 40) }])));
     expect(r.status).toBe(422);
     const body = r.data as { id: string; status: string; error: string };
     expect(body.status).toBe("failed");
@@ -129,20 +125,19 @@ describe("uploading takes", () => {
   it("answers 409 with the existing take when the same student sends the same content again", async () => {
     const s = await setup();
     const bytes = sample("held-bass-d.mid");
-    const first = await call(apiTakes.action, upload(s.dara, multipart([{ name: "a.mid", bytes }])));
-    const again = await call(apiTakes.action, upload(s.dara, multipart([{ name: "b.mid", bytes }])));
+    const first = await ask(upload(s.dara, multipart([{ name: "a.mid", bytes }])));
+    const again = await ask(upload(s.dara, multipart([{ name: "b.mid", bytes }])));
     expect(again.status).toBe(409);
     expect((again.data as { id: string }).id).toBe((first.data as { id: string }).id);
     expect(storedFiles()).toHaveLength(1);
     // Another student may send the same file: it is their own take.
-    const other = await call(apiTakes.action, upload(s.felix, multipart([{ name: "a.mid", bytes }])));
+    const other = await ask(upload(s.felix, multipart([{ name: "a.mid", bytes }])));
     expect(other.status).toBe(201);
   });
 
   it("grades a take against its exercise and uses the file's own date", async () => {
     const s = await setup();
-    const r = await call(
-      apiTakes.action,
+    const r = await ask(
       upload(
         s.dara,
         multipart([{ name: "d.mid", bytes: sample("three-chord-smoothing-d.mid") }], {
@@ -167,16 +162,13 @@ describe("uploading takes", () => {
 describe("reading and managing takes", () => {
   async function uploaded() {
     const s = await setup();
-    const r = await call(
-      apiTakes.action,
-      upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])),
-    );
+    const r = await ask(upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])));
     return { ...s, takeId: (r.data as { id: string }).id };
   }
 
   it("serves the take to its student and their teacher, and 403 to another student", async () => {
     const s = await uploaded();
-    const mine = await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.dara), { takeId: s.takeId });
+    const mine = await ask(get(`/api/takes/${s.takeId}`, s.dara));
     expect(mine.status).toBe(200);
     const body = mine.data as {
       id: string;
@@ -185,27 +177,23 @@ describe("reading and managing takes", () => {
     };
     expect(body.id).toBe(s.takeId);
     expect(body.analysis.summary.analysisVersion).toBe(ANALYSIS_VERSION);
-    expect((await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.ines), { takeId: s.takeId })).status).toBe(200);
-    expect((await call(apiTake.loader, get(`/api/takes/${s.takeId}`, s.felix), { takeId: s.takeId })).status).toBe(403);
-    expect(
-      (await call(apiTakeFile.loader, get(`/api/takes/${s.takeId}/file`, s.felix), { takeId: s.takeId })).status,
-    ).toBe(403);
-    const list = await call(apiTakes.loader, get(`/api/takes?student=${s.ids.dara}`, s.ines));
+    expect((await ask(get(`/api/takes/${s.takeId}`, s.ines))).status).toBe(200);
+    expect((await ask(get(`/api/takes/${s.takeId}`, s.felix))).status).toBe(403);
+    expect((await ask(get(`/api/takes/${s.takeId}/file`, s.felix))).status).toBe(403);
+    const list = await ask(get(`/api/takes?student=${s.ids.dara}`, s.ines));
     expect((list.data as { takes: { id: string }[] }).takes.map((t) => t.id)).toEqual([s.takeId]);
-    expect((await call(apiTakes.loader, get(`/api/takes?student=${s.ids.dara}`, s.felix))).status).toBe(403);
-    expect((await call(apiTakes.loader, get(`/api/takes`, s.felix))).data).toEqual({ takes: [] });
+    expect((await ask(get(`/api/takes?student=${s.ids.dara}`, s.felix))).status).toBe(403);
+    expect((await ask(get(`/api/takes`, s.felix))).data).toEqual({ takes: [] });
   });
 
   it("lets only the take's student delete it, with its rows and file", async () => {
     const s = await uploaded();
     const del = (jar: CookieJar) =>
-      call(
-        apiTake.action,
+      ask(
         new Request(`${ORIGIN}/api/takes/${s.takeId}`, {
           method: "DELETE",
           headers: { Cookie: jar.header(), Origin: ORIGIN },
         }),
-        { takeId: s.takeId },
       );
     expect((await del(s.felix)).status).toBe(403);
     expect((await del(s.ines)).status).toBe(403);
@@ -233,6 +221,13 @@ describe("reading and managing takes", () => {
   it("re-analyses outdated takes in the background when the server starts", async () => {
     const s = await uploaded();
     db().update(takes).set({ analysisVersion: 0 }).where(eq(takes.id, s.takeId)).run();
+    // The in-process app keeps background work off for the other tests; a started server runs it.
+    process.env.NEARNOTE_BACKGROUND = "on";
+    resetEnvForTests();
+    onTestFinished(() => {
+      process.env.NEARNOTE_BACKGROUND = "off";
+      resetEnvForTests();
+    });
     startBackgroundWork();
     await expect
       .poll(() => db().select().from(takes).where(eq(takes.id, s.takeId)).get()!.analysisVersion, { timeout: 5000 })

@@ -11,10 +11,9 @@ import { strFromU8, unzipSync } from "fflate";
 import { buildPersonalExport, deletePersonData } from "~/models/personalData.server";
 import { teacherWeek, SITTING_MS } from "~/models/teacherHome.server";
 import { listeningPage, markHeard, readListeningQuery } from "~/models/listening.server";
-import * as homeRoute from "~/routes/home";
-import * as reviewRoute from "~/routes/review";
 import { useFreshApp } from "../support/setup";
-import { call, CookieJar, get, join, makeExercise, makeStudio, makeUser, post } from "./accountsKit";
+import { ask } from "../support/app";
+import { CookieJar, get, join, makeExercise, makeStudio, makeUser, post } from "./accountsKit";
 import { insertHandTake } from "./progressKit";
 
 useFreshApp();
@@ -173,7 +172,7 @@ describe("teacher home", () => {
     makeExercise(fresh.id);
     expect(steps()).toBeNull(); // all done: the list goes away
     // Through the page: the loader hands the teacher's week to the view.
-    const page = await call(homeRoute.loader, get("/home", await jarFor(owner.id)));
+    const page = await ask(get("/home", await jarFor(owner.id)));
     const d = page.data as { teacher: { week: { firstRun: unknown; notPractised: unknown[] } } };
     expect(d.teacher.week.firstRun).toBeNull();
     expect(d.teacher.week.notPractised).toEqual([]);
@@ -250,7 +249,7 @@ describe("takes to listen to", () => {
       body,
       headers: { Cookie: jar.header() },
     });
-    const done = await call(reviewRoute.action, request);
+    const done = await ask(request);
     expect(done.status).toBe(302);
     const back = new URL(done.location!, "http://x");
     expect(back.searchParams.get("student")).toBe(s.dara);
@@ -266,21 +265,19 @@ describe("takes to listen to", () => {
     // One row's own button marks that take alone, whatever else is ticked.
     const only = new URLSearchParams({ intent: "review", only: ids[5] });
     only.append("takeId", ids[6]);
-    await call(
-      reviewRoute.action,
+    await ask(
       new Request("http://127.0.0.1:3000/review", { method: "POST", body: only, headers: { Cookie: jar.header() } }),
     );
     expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams())).total).toBe(26);
     // Undo puts the three back.
     const undo = new URLSearchParams({ intent: "unreview" });
     for (const id of ids.slice(0, 3)) undo.append("takeId", id);
-    await call(
-      reviewRoute.action,
+    await ask(
       new Request("http://127.0.0.1:3000/review", { method: "POST", body: undo, headers: { Cookie: jar.header() } }),
     );
     expect(listeningPage(s.studio, readListeningQuery(new URLSearchParams())).total).toBe(29);
     // Nothing ticked is refused with a message.
-    expect((await call(reviewRoute.action, post("/review", { intent: "review" }, jar))).status).toBe(400);
+    expect((await ask(post("/review", { intent: "review" }, jar))).status).toBe(400);
   });
 
   it("never marks another studio's take", () => {
@@ -299,10 +296,10 @@ describe("takes to listen to", () => {
 
   it("shows the page with the studio's time zone for a teacher and refuses a student", async () => {
     db().update(studios).set({ timeZone: "Asia/Tokyo" }).where(eq(studios.id, s.studio)).run();
-    const page = await call(reviewRoute.loader, get("/review?student=" + s.felix, await jarFor(s.teacher)));
+    const page = await ask(get("/review?student=" + s.felix, await jarFor(s.teacher)));
     const d = page.data as { timeZone: string; list: { total: number } };
     expect(d.timeZone).toBe("Asia/Tokyo");
     expect(d.list.total).toBe(10);
-    expect((await call(reviewRoute.loader, get("/review", await jarFor(s.dara)))).status).toBe(403);
+    expect((await ask(get("/review", await jarFor(s.dara)))).status).toBe(403);
   });
 });
