@@ -1,60 +1,16 @@
-// Helpers for the accounts integration tests: real Requests into the real
-// loaders and actions, a cookie jar, the local mail catcher and a few fixtures.
+// Helpers for the integration tests: Requests for the app's real handler (tests/support/app.ts),
+// a cookie jar, the local mail catcher and a few fixtures.
 import path from "node:path";
 import bcrypt from "bcryptjs";
-import { RouterContextProvider } from "react-router";
 import { afterEach, beforeEach } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, memberships, studios, takes, users, type MembershipRole } from "~/db/schema";
 import { resetEnvForTests } from "~/server/env.server";
-import { mailSettled } from "~/mail/mail.server";
 import { readCaughtMail, startMailCatcher, type CaughtMail } from "~/mail/mailCatcher.server";
 import { ask } from "../support/app";
 import type { FreshApp } from "../support/setup";
 
 export const ORIGIN = "http://127.0.0.1:3000";
-
-export type Outcome = {
-  status: number;
-  thrown: boolean;
-  headers: Headers;
-  location: string | null;
-  data: unknown;
-};
-
-type Handler = (args: { request: Request; params: Record<string, string>; context: RouterContextProvider }) => unknown;
-
-/**
- * Runs a loader or action as React Router would and reports what came back, thrown or
- * returned. Mail the handler left to send after answering has been sent by then too.
- */
-export async function call(handler: unknown, request: Request, params: Record<string, string> = {}): Promise<Outcome> {
-  let value: unknown;
-  let thrown = false;
-  try {
-    value = await (handler as Handler)({ request, params, context: new RouterContextProvider() });
-  } catch (error) {
-    value = error;
-    thrown = true;
-  }
-  await mailSettled();
-  if (value instanceof Response) {
-    const type = value.headers.get("content-type") ?? "";
-    const data = type.includes("json")
-      ? await value.clone().json()
-      : type.startsWith("text")
-        ? await value.clone().text()
-        : value;
-    return { status: value.status, thrown, headers: value.headers, location: value.headers.get("location"), data };
-  }
-  if (value && typeof value === "object" && (value as { type?: string }).type === "DataWithResponseInit") {
-    const d = value as { data: unknown; init: ResponseInit | null };
-    const headers = new Headers(d.init?.headers);
-    return { status: d.init?.status ?? 200, thrown, headers, location: headers.get("location"), data: d.data };
-  }
-  if (thrown) throw value;
-  return { status: 200, thrown, headers: new Headers(), location: null, data: value };
-}
 
 /** A browser's cookies, enough for our signed cookies. */
 export class CookieJar {

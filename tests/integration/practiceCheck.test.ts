@@ -7,7 +7,6 @@ import { eq } from "drizzle-orm";
 import { describe, expect, it } from "vitest";
 import { db } from "~/db/client.server";
 import { exercises, takes } from "~/db/schema";
-import * as login from "~/routes/login";
 import { send } from "../support/app";
 import { useFreshApp } from "../support/setup";
 import { get, join, makeStudio, makeUser, ORIGIN, signIn } from "./accountsKit";
@@ -39,8 +38,8 @@ async function setup() {
   const smoothing = add("Three-chord smoothing", ["D"], "I IV V I");
   const ballad = add("Ballad", ["Ab"], "vi IV I V");
   return {
-    jar: await signIn(login, dara.email),
-    teacherJar: await signIn(login, teacher.email),
+    jar: await signIn(dara.email),
+    teacherJar: await signIn(teacher.email),
     smoothing,
     ballad,
   };
