@@ -9,6 +9,7 @@
 import { Chord, Note } from "tonal";
 import { describe, expect, it } from "vitest";
 import {
+  checkAgainstTarget,
   FIT_CHORDS,
   FIT_MIN_ACCURACY,
   FIT_NO_MATCH,
@@ -19,6 +20,7 @@ import {
   LIKELY_MIN_ACCURACY,
   type FitReport,
 } from "../../../app/analysis/exerciseFit";
+import { ProgressionError } from "../../../app/analysis/pitch";
 import type { ChordReport, NoteEvent } from "../../../app/analysis/types";
 
 // Root-position triads in C major (C4 = 60)
@@ -64,6 +66,13 @@ describe("fitCandidates", () => {
     const take = [C, [], C];
     const fit = fitCandidates(notesOf([C, C]), reports(take), [{ exerciseId: "x", key: "C", target: "I" }]);
     expect(fit.fits[0].accuracy).toBe(1);
+    // I V I looped twice, with an empty report between the loops: still every chord played
+    // (were it read as a wrong chord, the best alignment would play the target three times
+    // with one chord wrong: 6 of 7)
+    const looped = [C, G, C, [], C, G, C];
+    expect(fitCandidates([], reports(looped), [{ exerciseId: "x", key: "C", target: "I V I" }]).fits[0].accuracy).toBe(
+      1,
+    );
   });
 
   it(`only the first ${FIT_CHORDS} chords are compared`, () => {
@@ -73,6 +82,19 @@ describe("fitCandidates", () => {
     const beyond = [...Array<number[]>(FIT_CHORDS).fill(Fs), C, C];
     expect(fitCandidates([], reports(within), target).fits[0].accuracy).toBe(1);
     expect(fitCandidates([], reports(beyond), target).fits[0].accuracy).toBe(0);
+  });
+
+  it("the chord's pitch classes count: C E G B is Imaj7, not I7, and C E G is neither", () => {
+    // tonal's Chord.detect names C E G B Cmaj7
+    expect(symbol([60, 64, 67, 71])).toBe("Cmaj7");
+    const fits = fitCandidates([], reports([[60, 64, 67, 71]]), [
+      { exerciseId: "maj7", key: "C", target: "Imaj7" },
+      { exerciseId: "dom7", key: "C", target: "I7" },
+    ]).fits;
+    expect(fits.map((f) => f.accuracy)).toEqual([1, 0]);
+    expect(fitCandidates([], reports([C]), [{ exerciseId: "maj7", key: "C", target: "Imaj7" }]).fits[0].accuracy).toBe(
+      0,
+    );
   });
 
   it("an error other than a progression error is not swallowed", () => {
@@ -123,6 +145,20 @@ describe("fitWarning", () => {
       filedKey: "C",
       accuracy: 0.49,
       likely: null,
+    });
+  });
+
+  it("the filed exercise is the one with its id and its key, wherever it stands in the list", () => {
+    const fits: Array<[string, string, number]> = [
+      ["b", "C", 0.1],
+      ["a", "D", 0.1],
+      ["a", "C", 0.9],
+    ];
+    // a/C plays 90% of its chords: no verdict (another exercise in C, or a in D, would give one)
+    expect(fitWarning(report("C", fits), { exerciseId: "a", key: "C" })).toBeNull();
+    expect(fitWarning(report("C", fits), { exerciseId: "a", key: "D" })).toMatchObject({
+      filedKey: "D",
+      accuracy: 0.1,
     });
   });
 
@@ -252,6 +288,32 @@ describe("fitWarning", () => {
         ["b", "C", 0.8],
       ])?.exerciseId,
     ).toBe("c");
+    // the heard key's family only breaks ties: a better match in another key still wins
+    expect(
+      best([
+        ["a", "C", 0.1],
+        ["b", "C", 0.9],
+        ["c", "D", 0.7],
+      ])?.exerciseId,
+    ).toBe("b");
+    // an unreadable key, or an unreadable heard key, is in no family
+    expect(
+      best([
+        ["a", "C", 0.1],
+        ["h", "H", 0.8],
+        ["c", "D", 0.8],
+      ])?.exerciseId,
+    ).toBe("c");
+    expect(
+      fitWarning(
+        report("", [
+          ["a", "C", 0.1],
+          ["b", "C", 0.8],
+          ["c", "D", 0.8],
+        ]),
+        filed,
+      )?.likely?.exerciseId,
+    ).toBe("b");
     // of two outside the heard key's family, the first found stays
     expect(
       best([
@@ -267,5 +329,33 @@ describe("fitWarning", () => {
         ["a", "D", 0.9],
       ]),
     ).toEqual({ exerciseId: "a", key: "D", accuracy: 0.9 });
+  });
+});
+
+describe("checkAgainstTarget: every chord against a progression a person names", () => {
+  it("I IV V I in C, written with spaces around and the key in lower case", () => {
+    const take = reports([C, F, G, C]);
+    expect(checkAgainstTarget(take, "  I IV V I ", "c")).toEqual({
+      target: "I IV V I",
+      key: "C",
+      accuracy: 1,
+      loops: 1,
+      mismatches: [],
+    });
+  });
+
+  it("no chords: nothing played, one pass, no differences listed", () => {
+    expect(checkAgainstTarget([], "I V", "G")).toEqual({
+      target: "I V",
+      key: "G",
+      accuracy: 0,
+      loops: 1,
+      mismatches: [],
+    });
+  });
+
+  it("a key or a target that does not parse is refused", () => {
+    expect(() => checkAgainstTarget(reports([C]), "I", "H")).toThrow(ProgressionError);
+    expect(() => checkAgainstTarget(reports([C]), "I )(", "C")).toThrow(ProgressionError);
   });
 });

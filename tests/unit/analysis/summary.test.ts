@@ -209,6 +209,28 @@ describe("steady time on the onsets the reports show (rule 22, with rule 1's 80 
     expect(s.melodyNoteCount).toBe(3);
   });
 
+  it("a bass-line note or a non-chord tone between two chords is a strike of its own", () => {
+    // chords at 0 and 2 s alone are 2 s apart; a note at 1 s halves the gap
+    const alone = tempoSteadiness([0, 2]);
+    expect(tempoSteadiness([0, 1, 2])).not.toEqual(alone);
+    const bass = [chord({ startSec: 0, topNote: 72, bassLine: [1] }), chord({ startSec: 2, topNote: 72 })];
+    expect(summarise(input({ chords: bass })).tempo).toEqual(tempoSteadiness([0, 1, 2]));
+    const tone = [chord({ startSec: 0, topNote: 72, nonChordTones: [1] }), chord({ startSec: 2, topNote: 72 })];
+    expect(summarise(input({ chords: tone })).tempo).toEqual(tempoSteadiness([0, 1, 2]));
+  });
+
+  it("the 80 ms window runs from the strike's own onset, late in the take too", () => {
+    // a melody note 50 ms after the chord at 2 s is struck with it
+    const chords = [
+      chord({ startSec: 0, topNote: 72 }),
+      chord({ startSec: 1, topNote: 72 }),
+      chord({ startSec: 2, topNote: 72 }),
+    ];
+    const s = summarise(input({ chords, melodyNotes: [tune(76, 2.05)] }));
+    expect(s.tempo).toEqual(tempoSteadiness([0, 1, 2]));
+    expect(tempoSteadiness([0, 1, 2, 2.05])).not.toEqual(tempoSteadiness([0, 1, 2]));
+  });
+
   it("an onset more than 80 ms after the last counted one is a strike of its own", () => {
     const chords = [chord({ startSec: 0, topNote: 72 }), chord({ startSec: 1, topNote: 72 })];
     const s = summarise(input({ chords, melodyNotes: [tune(79, 0.3)] }));
@@ -242,6 +264,18 @@ describe("the top line (RULES.md terms; rule 1's 80 ms)", () => {
     // exactly 80 ms apart is still one strike; 90 ms apart are two
     expect(topLineNotes([{ startSec: 0, topNote: 72 }], [tune(76, 0.08)])).toEqual([76]);
     expect(topLineNotes([{ startSec: 0, topNote: 72 }], [tune(76, 0.09)])).toEqual([72, 76]);
+  });
+
+  it("without a melody every voicing's top counts, even two harmonies begun within 80 ms", () => {
+    expect(
+      topLineNotes(
+        [
+          { startSec: 0, topNote: 72 },
+          { startSec: 0.05, topNote: 74 },
+        ],
+        [],
+      ),
+    ).toEqual([72, 74]);
   });
 
   it("notes are taken in time order, and of two at one time the higher first", () => {
