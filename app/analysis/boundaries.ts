@@ -3,7 +3,7 @@
 // between two strikes of the same comping chord, a comping re-strike and a short melody note
 // left by step never begin a harmony; and whether each strike brings a new bass.
 import { pc } from "./pitch";
-import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
+import { heardEndOf, soundEndOf, type Soundings } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NoteEvent } from "./types";
 
@@ -18,10 +18,7 @@ const SHORT_NOTE_SEC = 0.75;
 const EPS = 1e-9;
 
 /** The lowest note sounding 150 ms after each strike begins, by a sweep over the take. */
-export function lowestSounding(
-  strikes: readonly Strike[],
-  sounding: ReadonlyMap<NoteEvent, Sounding>,
-): Array<NoteEvent | null> {
+export function lowestSounding(strikes: readonly Strike[], sounding: Soundings): Array<NoteEvent | null> {
   // Notes still sounding, with their heard ends beside them (looked up once per note).
   const active: NoteEvent[] = [];
   const ends: number[] = [];
@@ -137,10 +134,7 @@ export type BoundaryRules = {
  * chord, a re-strike of the comping chord, and a short melody note that leaves by step may
  * not.
  */
-export function boundaryRules(input: {
-  strikes: readonly Strike[];
-  sounding: ReadonlyMap<NoteEvent, Sounding>;
-}): BoundaryRules {
+export function boundaryRules(input: { strikes: readonly Strike[]; sounding: Soundings }): BoundaryRules {
   const { strikes, sounding } = input;
   const forced = strikes.map(() => false);
   const barred = strikes.map(() => false);

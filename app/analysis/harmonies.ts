@@ -5,7 +5,7 @@ import { pc } from "./pitch";
 import type { Budget } from "./budget";
 import { identity, splitOnBassChange, splitOnNewChord } from "./harmonySplits";
 import { boundaryRules, HELD_FOR, MIN_HARMONY_SEC, segment, TEMPLATES, type Segment } from "./segment";
-import { heardEndOf, soundEndOf, type Sounding } from "./sounding";
+import { heardEndOf, soundEndOf, type Soundings } from "./sounding";
 import { firstAtOrAfter, type Strike } from "./strikes";
 import type { NonChordToneKind, NoteEvent } from "./types";
 
@@ -51,7 +51,7 @@ export type Harmony = {
 export type ReadInput = {
   budget?: Budget;
   strikes: Strike[];
-  sounding: ReadonlyMap<NoteEvent, Sounding>;
+  sounding: Soundings;
   endTime: number;
   minHarmonySec?: number;
 };

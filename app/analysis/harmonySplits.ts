@@ -5,7 +5,7 @@ import type { Budget } from "./budget";
 import { nameChord } from "./naming";
 import { pc } from "./pitch";
 import { HELD_FOR, lowestSounding, type BoundaryRules, type Segment } from "./segment";
-import type { Sounding } from "./sounding";
+import type { Soundings } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NoteEvent } from "./types";
 
@@ -21,7 +21,7 @@ export const NAMING_STEPS = 300;
 export function splitOnBassChange(
   segs: Segment[],
   strikes: readonly Strike[],
-  sounding: ReadonlyMap<NoteEvent, Sounding>,
+  sounding: Soundings,
   forced: readonly boolean[],
   endTime: number,
   minSec: number,

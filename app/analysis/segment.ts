@@ -11,7 +11,7 @@
 import type { Budget } from "./budget";
 import { pc } from "./pitch";
 import { boundaryRules, HELD_FOR, type BoundaryRules } from "./boundaries";
-import { heardEndOf, type Sounding } from "./sounding";
+import { heardEndOf, type Soundings } from "./sounding";
 import type { Strike } from "./strikes";
 import type { NoteEvent } from "./types";
 
@@ -112,7 +112,7 @@ export type SegmentInput = {
   /** the take's budget: each span scored spends SPAN_STEPS */
   budget?: Budget;
   strikes: readonly Strike[];
-  sounding: ReadonlyMap<NoteEvent, Sounding>;
+  sounding: Soundings;
   /** end of the take (the last sound) */
   endTime: number;
   /** shortest harmony: MIN_HARMONY_SEC, or about a beat in a take that follows its tempo map */

@@ -34,21 +34,56 @@ export function pedalDuring(pedal: readonly PedalSpan[], start: number, end: num
   return lo < pedal.length && pedal[lo].start < end;
 }
 
-export type Sounding = {
-  /** end of the sound: key release, carried on by the pedal, cut by a re-strike of the same key */
-  soundEnd: number;
-  /** soundEnd cut where the ear hears the note resolve by step (rule 15, last point) */
-  heardEnd: number;
-};
+/**
+ * Each note's end of sound (key release, carried on by the pedal, cut by a re-strike of the
+ * same key) and heard end (that end cut where the ear hears the note resolve by step, rule
+ * 15, last point), by note: two numbers per note in one typed array, so a long take keeps no
+ * object per note for them.
+ */
+export class Soundings {
+  private readonly index = new Map<NoteEvent, number>();
+  private ends: Float64Array;
+
+  constructor(expected = 0) {
+    this.ends = new Float64Array(2 * Math.max(expected, 4));
+  }
+
+  set(n: NoteEvent, soundEnd: number, heardEnd: number): void {
+    let at = this.index.get(n);
+    if (at === undefined) {
+      at = this.index.size;
+      this.index.set(n, at);
+      if (2 * at + 2 > this.ends.length) {
+        const grown = new Float64Array(2 * this.ends.length);
+        grown.set(this.ends);
+        this.ends = grown;
+      }
+    }
+    this.ends[2 * at] = soundEnd;
+    this.ends[2 * at + 1] = heardEnd;
+  }
+
+  /** The end of a note's sound (its key release when the note is not listed). */
+  soundEnd(n: NoteEvent): number {
+    const at = this.index.get(n);
+    return at === undefined ? n.end : this.ends[2 * at];
+  }
+
+  /** The end of a note for reading harmonies (its key release when the note is not listed). */
+  heardEnd(n: NoteEvent): number {
+    const at = this.index.get(n);
+    return at === undefined ? n.end : this.ends[2 * at + 1];
+  }
+}
 
 /** The end of a note's sound (its key release when the map does not know it). */
-export function soundEndOf(sounding: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent): number {
-  return sounding.get(n)?.soundEnd ?? n.end;
+export function soundEndOf(sounding: Soundings, n: NoteEvent): number {
+  return sounding.soundEnd(n);
 }
 
 /** The end of a note for reading harmonies (its key release when the map does not know it). */
-export function heardEndOf(sounding: ReadonlyMap<NoteEvent, Sounding>, n: NoteEvent): number {
-  return sounding.get(n)?.heardEnd ?? n.end;
+export function heardEndOf(sounding: Soundings, n: NoteEvent): number {
+  return sounding.heardEnd(n);
 }
 
 function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
@@ -63,7 +98,7 @@ function firstOnsetAfter(list: readonly NoteEvent[], time: number): number {
 }
 
 /** Sound and heard ends of every note (notes sorted by onset). */
-export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[]): Map<NoteEvent, Sounding> {
+export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpan[]): Soundings {
   // Notes by pitch, in onset order (two spare lists each side for the steps below).
   const byPitch: Array<NoteEvent[] | undefined> = new Array(132);
   for (const n of sorted) {
@@ -71,7 +106,7 @@ export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpa
     if (list) list.push(n);
     else byPitch[n.midi + 2] = [n];
   }
-  const out = new Map<NoteEvent, Sounding>();
+  const out = new Soundings(sorted.length);
   for (const n of sorted) {
     // The pedal catches a note only when it is down a moment before the key comes up: a pedal
     // pressed as the hand lets go (within PEDAL_CATCH) is the change of pedal itself.
@@ -89,7 +124,7 @@ export function soundings(sorted: readonly NoteEvent[], pedal: readonly PedalSpa
         if (t < heardEnd) heardEnd = Math.max(n.end, t);
       }
     }
-    out.set(n, { soundEnd, heardEnd });
+    out.set(n, soundEnd, heardEnd);
   }
   return out;
 }

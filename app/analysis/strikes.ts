@@ -24,6 +24,17 @@ export type Strike = {
   held: NoteEvent[];
 };
 
+// Most strikes have no grace notes and hold no earlier notes: they share these empty lists
+// (frozen, so nothing can add to a shared one) until a note is added, which gives the strike
+// its own list. A long take then keeps two objects fewer per strike.
+const NO_GRACES: Grace[] = Object.freeze([]) as unknown as Grace[];
+const NONE_HELD: NoteEvent[] = Object.freeze([]) as unknown as NoteEvent[];
+
+function addGrace(s: Strike, g: Grace): void {
+  if (s.graces === NO_GRACES) s.graces = [g];
+  else s.graces.push(g);
+}
+
 /** First index of a note starting at or after `time` (notes sorted by onset). */
 export function firstAtOrAfter(list: readonly NoteEvent[], time: number): number {
   let lo = 0;
@@ -86,9 +97,9 @@ export function groupStrikes(sorted: NoteEvent[], graces: Map<NoteEvent, NoteEve
       // The resolution belongs to the grace note's strike even when it begins later; in the
       // rare case it was struck first, the grace note goes to the resolution's strike.
       const placed = owner.get(target);
-      if (placed) placed.graces.push({ note: n, target });
+      if (placed) addGrace(placed, { note: n, target });
       else {
-        s.graces.push({ note: n, target });
+        addGrace(s, { note: n, target });
         owner.set(target, s);
         s.notes.push(target);
         lastOnset = Math.max(lastOnset, target.start);
@@ -100,7 +111,7 @@ export function groupStrikes(sorted: NoteEvent[], graces: Map<NoteEvent, NoteEve
     if (owner.has(n)) continue;
     const joins = current && n.start - lastOnset <= STRIKE_GAP + EPS && n.start - current.start <= STRIKE_SPAN + EPS;
     if (!joins) {
-      current = { start: n.start, notes: [], graces: [], held: [] };
+      current = { start: n.start, notes: [], graces: NO_GRACES, held: NONE_HELD };
       strikes.push(current);
       lastOnset = n.start;
     }
@@ -163,8 +174,10 @@ export function addHeldNotes(strikes: Strike[]): void {
       else if (
         n.start < s.start - EPS &&
         !(pitch >= 0 && pitch < 128 ? own[pitch] === k : s.notes.some((x) => x.midi === pitch))
-      )
-        s.held.push(n);
+      ) {
+        if (s.held === NONE_HELD) s.held = [n];
+        else s.held.push(n);
+      }
     }
     for (const n of s.notes) {
       const prev = down.get(n.midi);
