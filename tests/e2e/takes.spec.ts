@@ -250,6 +250,31 @@ test.describe("without JavaScript", () => {
     await expect(rows.nth(0)).toContainText("falling-bass-eb.mid");
     await expect(rows.nth(0).getByRole("link", { name: /Open take/ })).toHaveAttribute("href", /^\/takes\/.+/);
   });
+
+  test("the home page's takes and the teacher's week arrive whole, and the takes sort by plain links", async ({
+    page,
+  }) => {
+    await signIn(page, "dara@tidewater.example");
+    await page.goto("/home");
+    // The parts whose code loads on its own are in the page as the server sent it, not a fallback.
+    await expect(page.getByRole("heading", { name: "Week by week" })).toBeVisible();
+    await expect(page.getByText("Loading the chart")).toHaveCount(0);
+    const table = page.getByRole("table", { name: /Your takes/ });
+    const rows = table.getByTestId("take-row");
+    expect(await rows.count()).toBeGreaterThan(1);
+    const scoreHeader = table.getByRole("columnheader", { name: "Score" });
+    await scoreHeader.getByRole("link").click();
+    await expect(page).toHaveURL(/\/home\?sort=score&dir=desc#takes$/);
+    await expect(scoreHeader).toHaveAttribute("aria-sort", "descending");
+    const scores = (await rows.locator("td:last-child").allTextContents()).map(Number).filter((n) => !Number.isNaN(n));
+    expect(scores).toEqual([...scores].sort((a, b) => b - a));
+    await page.getByRole("button", { name: "Sign out" }).click();
+
+    await signIn(page, "ines@tidewater.example");
+    await page.goto("/home");
+    await expect(page.getByText("Loading your studio's week")).toHaveCount(0);
+    await expect(page.getByTestId("not-practised")).toBeVisible();
+  });
 });
 
 test("a teacher reads a student's take without the student's controls; another student is refused", async ({
