@@ -69,3 +69,41 @@ test.describe("without JavaScript", () => {
     });
   }
 });
+
+test.describe("with JavaScript", () => {
+  const withScripts = [
+    { ...SIZES[0], student: "yuki@tidewater.example" },
+    { ...SIZES[1], student: "felix@tidewater.example" },
+  ];
+  for (const size of withScripts) {
+    test(`each file's own choice files it under its exercise (${size.name})`, async ({ page }) => {
+      test.setTimeout(120_000);
+      await page.setViewportSize({ width: size.width, height: size.height });
+      await signIn(page, size.student);
+      await page.goto("/takes/new");
+      // Scripts running: the upload button waits for files, and no groups are offered.
+      await expect(page.getByRole("button", { name: /^Upload/ })).toBeDisabled();
+      await expect(page.getByRole("group", { name: "Files for other exercises" })).toHaveCount(0);
+      await page.getByLabel("Exercise", { exact: true }).selectOption({ label: "Three-chord smoothing in D" });
+      await page
+        .getByLabel("MIDI files", { exact: true })
+        .setInputFiles([sample("three-chord-smoothing-d.mid"), sample("falling-bass-eb.mid")]);
+      const rows = page.getByTestId("upload-row");
+      await expect(rows).toHaveCount(2);
+      await expect(rows.nth(0).getByRole("combobox")).toContainText("As above: Three-chord smoothing in D");
+      await rows.nth(1).getByRole("combobox").selectOption({ label: "Falling bass in E♭" });
+      await documentFits(page);
+      await page.screenshot({ path: `${SCREENS}/upload-per-file-${size.name}.png`, fullPage: true });
+      await page.getByRole("button", { name: "Upload 2 takes" }).click();
+      await expect(rows.nth(0)).toHaveAttribute("data-stage", "analysed");
+      await expect(rows.nth(1)).toHaveAttribute("data-stage", "analysed");
+      await expect(page.getByTestId("fit-notice")).toHaveCount(0);
+
+      const href = await page.getByRole("link", { name: "Open take falling-bass-eb.mid" }).getAttribute("href");
+      await page.getByRole("link", { name: "Open take three-chord-smoothing-d.mid" }).click();
+      await expect(page.getByRole("heading", { level: 1 })).toHaveText("Three-chord smoothing in D");
+      await page.goto(href!);
+      await expect(page.getByRole("heading", { level: 1 })).toHaveText("Falling bass in E♭");
+    });
+  }
+});
