@@ -60,10 +60,10 @@ function takeFilesOnDisk(): string[] {
 describe("password reset", () => {
   it("answers the same whether or not the address exists, and mails only a real account", async () => {
     makeUser("dara@tidewater.example");
-    const known = await ask(post("/forgot-password", { email: "dara@tidewater.example" }));
-    const unknown = await ask(post("/forgot-password", { email: "nobody@tidewater.example" }));
+    const known = await ask<object>(post("/forgot-password", { email: "dara@tidewater.example" }));
+    const unknown = await ask<object>(post("/forgot-password", { email: "nobody@tidewater.example" }));
     expect(known.status).toBe(unknown.status);
-    expect(Object.keys(known.data as object)).toEqual(Object.keys(unknown.data as object));
+    expect(Object.keys(known.data)).toEqual(Object.keys(unknown.data));
     expect(mail.all().map((m) => m.to[0])).toEqual(["dara@tidewater.example"]);
   });
 
@@ -268,9 +268,11 @@ describe("removing a student and deleting data", () => {
       status: "removed",
     });
     expect(db().select().from(takes).where(eq(takes.id, take.id)).get()).toBeDefined();
-    const roster = (await ask(get("/students", jar))).data as {
-      students: { userId: string; status: string; takeCount: number }[];
-    };
+    const roster = (
+      await ask<{
+        students: { userId: string; status: string; takeCount: number }[];
+      }>(get("/students", jar))
+    ).data;
     expect(roster.students).toEqual([expect.objectContaining({ userId: dara.id, status: "removed", takeCount: 1 })]);
     const zip = await ask<Uint8Array>(get(`/api/students/${dara.id}/export`, jar));
     expect(zip.status).toBe(200);
@@ -385,11 +387,11 @@ describe("deleting one's own account", () => {
     join(lone.id, owen.id, "owner");
     join(lone.id, kid.id, "student");
     const owenJar = await signIn(owen.email);
-    const blocked = await ask(
+    const blocked = await ask<{ formError: string }>(
       post("/settings", { intent: "delete-account", currentPassword: PASSWORD, confirm: "yes" }, owenJar),
     );
     expect(blocked.status).toBe(409);
-    expect((blocked.data as { formError: string }).formError).toMatch(/Harbour Lights still has students/);
+    expect(blocked.data.formError).toMatch(/Harbour Lights still has students/);
     expect(db().select().from(users).where(eq(users.id, owen.id)).get()).toBeDefined();
   });
 });

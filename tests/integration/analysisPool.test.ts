@@ -84,7 +84,7 @@ describe("the analysis pool", () => {
     const jar = await signIn(dara.email);
     const form = new FormData();
     form.append("file", new File([sample("held-bass-d.mid")], "held.mid", { type: "audio/midi" }));
-    const up = await ask(
+    const up = await ask<{ id: string }>(
       new Request(`${ORIGIN}/api/takes`, {
         method: "POST",
         body: form,
@@ -92,7 +92,7 @@ describe("the analysis pool", () => {
       }),
     );
     expect(up.status).toBe(201);
-    const id = (up.data as { id: string }).id;
+    const id = up.data.id;
     // The stored file swapped for the worst case, as if an older engine had let it through.
     const take = db().select().from(takes).where(eq(takes.id, id)).get()!;
     const { takeStorage } = await import("~/takes/takeFiles.server");

@@ -73,11 +73,11 @@ describe("teacher sign-up and e-mail verification", () => {
 
   it("answers a taken address exactly as a new one, and mails its owner instead of saying so", async () => {
     const existing = makeUser("ines@tidewater.example", "Ines Marlowe");
-    const taken = await ask(post("/signup", { ...teacherForm, password: "someone-elses-guess" }));
-    const fresh = await ask(post("/signup", { ...teacherForm, email: "felix@tidewater.example" }));
+    const taken = await ask<object>(post("/signup", { ...teacherForm, password: "someone-elses-guess" }));
+    const fresh = await ask<object>(post("/signup", { ...teacherForm, email: "felix@tidewater.example" }));
     expect(taken.status).toBe(fresh.status);
     expect(taken.data).toEqual({ ok: true, email: "ines@tidewater.example" });
-    expect(Object.keys(taken.data as object)).toEqual(Object.keys(fresh.data as object));
+    expect(Object.keys(taken.data)).toEqual(Object.keys(fresh.data));
     expect([...taken.headers.keys()]).toEqual([...fresh.headers.keys()]);
     const notice = mail.latestTo("ines@tidewater.example");
     expect(notice.subject).toBe("You already have a Nearnote account");
@@ -125,9 +125,11 @@ describe("teacher sign-up and e-mail verification", () => {
   });
 
   it("keeps the typed values on a bad form, with an error beside each bad field", async () => {
-    const bad = await ask(post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }));
+    const bad = await ask<{ fieldErrors: Record<string, string>; values: Record<string, string> }>(
+      post("/signup", { name: "", email: "not-an-address", password: "short", studioName: "" }),
+    );
     expect(bad.status).toBe(400);
-    const body = bad.data as { fieldErrors: Record<string, string>; values: Record<string, string> };
+    const body = bad.data;
     expect(Object.keys(body.fieldErrors).sort()).toEqual(["email", "name", "password", "studioName"]);
     expect(body.values.email).toBe("not-an-address");
     expect(body.values).not.toHaveProperty("password");
@@ -168,11 +170,15 @@ describe("sign-in and sign-out", () => {
 
   it("answers a wrong password and an unknown e-mail alike, without a cookie", async () => {
     makeUser("dara@tidewater.example");
-    const wrong = await ask(post("/login", { email: "dara@tidewater.example", password: "not-the-password" }));
-    const unknown = await ask(post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }));
+    const wrong = await ask<{ formError: string }>(
+      post("/login", { email: "dara@tidewater.example", password: "not-the-password" }),
+    );
+    const unknown = await ask<{ formError: string }>(
+      post("/login", { email: "nobody@tidewater.example", password: "not-the-password" }),
+    );
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
-    expect((wrong.data as { formError: string }).formError).toBe((unknown.data as { formError: string }).formError);
+    expect(wrong.data.formError).toBe(unknown.data.formError);
     expect(wrong.headers.getSetCookie()).toHaveLength(0);
   });
 
@@ -245,7 +251,9 @@ describe("sessions and verification links", () => {
 
 describe("throttling failed sign-ins", () => {
   const attempt = (password: string, address = "203.0.113.7") =>
-    ask(post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }));
+    ask<{ formError?: string }>(
+      post("/login", { email: "dara@tidewater.example", password }, undefined, { "X-Forwarded-For": address }),
+    );
 
   it("answers 429 with when to retry after 5 failures in 15 minutes, even for the right password", async () => {
     makeUser("dara@tidewater.example");
@@ -253,9 +261,7 @@ describe("throttling failed sign-ins", () => {
     const blocked = await attempt(PASSWORD);
     expect(blocked.status).toBe(429);
     expect(Number(blocked.headers.get("Retry-After"))).toBeGreaterThan(14 * 60);
-    expect((blocked.data as { formError: string }).formError).toMatch(
-      /Try again in 15 minutes \(after \d\d:\d\d UTC\)/,
-    );
+    expect(blocked.data.formError).toMatch(/Try again in 15 minutes \(after \d\d:\d\d UTC\)/);
     // Another address is not blocked by these failures.
     expect((await attempt(PASSWORD, "198.51.100.4")).status).toBe(302);
   });

@@ -156,19 +156,19 @@ describe("board page", () => {
     // A second click the same week sends nothing more.
     await ask(post("/board", { intent: "remind" }, jars.coTeacher));
     expect(mail.all().length).toBe(4);
-    const page = await ask(get("/board", jars.owner));
-    const quiet = (page.data as { quiet: { name: string; reminded: boolean }[] }).quiet;
+    const page = await ask<{ quiet: { name: string; reminded: boolean }[] }>(get("/board", jars.owner));
+    const quiet = page.data.quiet;
     expect(quiet.map((q) => q.name)).not.toContain("Dara Okafor");
     expect(quiet.every((q) => q.reminded)).toBe(true);
     expect((await ask(post("/board", { intent: "shout" }, jars.owner))).status).toBe(400);
   });
 
   it("keeps the chart's choice from the address and refuses another studio's students", async () => {
-    const page = await ask(get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner));
-    const d = page.data as {
+    const page = await ask<{
       choice: { metric: string; studentIds: string[]; from: string; to: string };
       chart: { weeks: string[]; series: unknown[] };
-    };
+    }>(get(`/board?metric=accuracy&student=${s.slider}&from=2026-10-05&to=2026-11-29`, jars.owner));
+    const d = page.data;
     expect(d.choice).toEqual({ metric: "accuracy", studentIds: [s.slider], from: "2026-10-05", to: "2026-11-29" });
     expect(d.chart.weeks[0]).toBe("2026-W41");
     expect(d.chart.weeks.at(-1)).toBe("2026-W48");
@@ -180,10 +180,12 @@ describe("board page", () => {
   });
 
   it("shows an earlier week on request, against the week before it, without the reminder card", async () => {
-    const current = (await ask(get("/board", jars.owner))).data as {
-      week: { key: string; isCurrent: boolean };
-      weekOptions: { key: string; label: string }[];
-    };
+    const current = (
+      await ask<{
+        week: { key: string; isCurrent: boolean };
+        weekOptions: { key: string; label: string }[];
+      }>(get("/board", jars.owner))
+    ).data;
     expect(current.week.isCurrent).toBe(true);
     expect(current.weekOptions.slice(0, 2).map((o) => o.label)).toEqual(["This week", "Last week"]);
     const lastWeek = current.weekOptions[1].key;
@@ -193,21 +195,23 @@ describe("board page", () => {
       at: new Date(Date.now() - 7 * DAY).toISOString(),
       score: 64,
     });
-    const page = await ask(get(`/board?week=${lastWeek}`, jars.owner));
-    const d = page.data as {
+    const page = await ask<{
       week: { key: string; isCurrent: boolean };
       quiet: unknown[];
       table: { rows: { name: string; thisWeek: { score: number | null } }[] };
-    };
+    }>(get(`/board?week=${lastWeek}`, jars.owner));
+    const d = page.data;
     expect(d.week).toMatchObject({ key: lastWeek, isCurrent: false });
     expect(d.quiet).toEqual([]);
     expect(d.table.rows.find((r) => r.name === "Felix Brandt")!.thisWeek.score).toBe(64);
   });
 
   it("says there are no students yet in an empty studio", async () => {
-    const page = await ask(get("/board", jars.otherTeacher));
-    expect((page.data as { table: { rows: unknown[]; total: number } }).table).toMatchObject({ rows: [], total: 0 });
-    expect((page.data as { chart: unknown }).chart).toBeNull();
+    const page = await ask<{ table: { rows: unknown[]; total: number }; chart: unknown }>(
+      get("/board", jars.otherTeacher),
+    );
+    expect(page.data.table).toMatchObject({ rows: [], total: 0 });
+    expect(page.data.chart).toBeNull();
   });
 });
 
@@ -266,14 +270,14 @@ describe("reports and the student page", () => {
     );
     expect(saved.status).toBe(302);
     const reportId = new URL(saved.location!, "http://x").searchParams.get("report")!;
-    const reopened = await ask(get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher));
-    const d = reopened.data as {
+    const reopened = await ask<{
       from: string;
       to: string;
       saved: { summary: string };
       progress: { total: { score: number; smoothness: number }; gained: string[] };
       savedReports: unknown[];
-    };
+    }>(get(`/reports/${s.climber}?report=${reportId}`, jars.coTeacher));
+    const d = reopened.data;
     expect(d).toMatchObject({
       from: "2026-11-01",
       to: "2026-11-30",
@@ -291,12 +295,12 @@ describe("reports and the student page", () => {
   it("shows one student's weeks, techniques, exercises and takes to their teacher", async () => {
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-18T15:00:00Z", score: 60 });
     insertHandTake({ studentId: s.climber, studioId: s.studio, at: "2026-11-25T15:00:00Z", failed: true });
-    const page = await ask(get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner));
-    const d = page.data as {
+    const page = await ask<{
       weeks: { week: string; takes: number }[];
       takes: unknown[];
       exercises: { title: string; takes: number }[];
-    };
+    }>(get(`/students/${s.climber}?from=2026-11-16&to=2026-11-29`, jars.owner));
+    const d = page.data;
     expect(d.weeks.map((w) => [w.week, w.takes])).toEqual([
       ["2026-W47", 1],
       ["2026-W48", 1],

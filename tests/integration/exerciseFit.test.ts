@@ -162,8 +162,8 @@ describe("a take filed under the wrong exercise", () => {
   it("the take page shows the warning and one click moves the take, which clears it", async () => {
     const s = await setup();
     const { body } = await uploadTake(s.jar, AB_TAKE, { exerciseId: s.smoothing.id });
-    const page = await ask(get(`/takes/${body.id}`, s.jar));
-    const shown = (page.data as { fit: FitNotice | null }).fit;
+    const page = await ask<{ fit: FitNotice | null }>(get(`/takes/${body.id}`, s.jar));
+    const shown = page.data.fit;
     expect(shown?.likely).toMatchObject({ exerciseId: s.ballad.id, key: "Ab", title: "Ballad" });
 
     const moved = await ask(
@@ -172,7 +172,7 @@ describe("a take filed under the wrong exercise", () => {
     expect(moved.status).toBe(302);
     const row = takeRow(body.id);
     expect([row.exerciseId, row.key, row.exerciseFit]).toEqual([s.ballad.id, "Ab", null]);
-    const after = await ask(get(`/takes/${body.id}`, s.jar));
-    expect((after.data as { fit: FitNotice | null }).fit).toBeNull();
+    const after = await ask<{ fit: FitNotice | null }>(get(`/takes/${body.id}`, s.jar));
+    expect(after.data.fit).toBeNull();
   });
 });

@@ -16,13 +16,17 @@ useFreshApp();
 type Listed = { id: string; state: ExerciseState };
 
 async function statesEverywhere(jar: Awaited<ReturnType<typeof signIn>>, id: string) {
-  const h = (await ask(get("/home", jar))).data as { student: { exercises: Listed[] } };
-  const l = (await ask(get("/exercises", jar))).data as {
-    student: { due: Listed[]; done: Listed[] };
-  };
-  const p = (await ask(get(`/exercises/${id}`, jar))).data as {
-    state: ExerciseState;
-  };
+  const h = (await ask<{ student: { exercises: Listed[] } }>(get("/home", jar))).data;
+  const l = (
+    await ask<{
+      student: { due: Listed[]; done: Listed[] };
+    }>(get("/exercises", jar))
+  ).data;
+  const p = (
+    await ask<{
+      state: ExerciseState;
+    }>(get(`/exercises/${id}`, jar))
+  ).data;
   const listed = [...l.student.due, ...l.student.done].find((e) => e.id === id)!;
   return {
     home: h.student.exercises.find((e) => e.id === id)!.state,

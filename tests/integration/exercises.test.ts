@@ -52,10 +52,11 @@ async function createExercise(fields: Record<string, string>, extra: Array<[stri
 }
 
 async function expanded(id: string, jar = ines) {
-  const r = await ask(get(`/exercises/${id}`, jar));
+  const r = await ask<{ expanded: Array<{ key: string; chords: Array<{ symbol: string; roman: string | null }> }> }>(
+    get(`/exercises/${id}`, jar),
+  );
   expect(r.status).toBe(200);
-  return (r.data as { expanded: Array<{ key: string; chords: Array<{ symbol: string; roman: string | null }> }> })
-    .expanded;
+  return r.data.expanded;
 }
 
 const symbols = (e: Awaited<ReturnType<typeof expanded>>, key: string) =>
@@ -102,18 +103,22 @@ describe("setting exercises", () => {
   });
 
   it("refuses a malformed progression, naming the bad token and its position", async () => {
-    const r = await ask(formPost("/exercises/new", { ...base, progression: "I IV Vx7 I" }, ines));
+    const r = await ask<{ fieldErrors: { progression: string } }>(
+      formPost("/exercises/new", { ...base, progression: "I IV Vx7 I" }, ines),
+    );
     expect(r.status).toBe(400);
-    expect((r.data as { fieldErrors: { progression: string } }).fieldErrors.progression).toContain('Token 3 "Vx7"');
+    expect(r.data.fieldErrors.progression).toContain('Token 3 "Vx7"');
     expect(db().select().from(exercises).all()).toHaveLength(0);
   });
 
   it("refuses students, and a bad tempo, with field errors", async () => {
     const asStudent = await ask(formPost("/exercises/new", base, dara));
     expect(asStudent.status).toBe(403);
-    const r = await ask(formPost("/exercises/new", { ...base, tempo: "900" }, ines));
+    const r = await ask<{ fieldErrors: { tempo: string } }>(
+      formPost("/exercises/new", { ...base, tempo: "900" }, ines),
+    );
     expect(r.status).toBe(400);
-    expect((r.data as { fieldErrors: { tempo: string } }).fieldErrors.tempo).toMatch(/20–300/);
+    expect(r.data.fieldErrors.tempo).toMatch(/20–300/);
   });
 
   it("edits and archives; archived exercises leave the students' list", async () => {
@@ -127,13 +132,15 @@ describe("setting exercises", () => {
       progression: "I vi IV V",
     });
     const studentList = async () =>
-      (await ask(get("/exercises", dara))).data as { student: { due: Array<{ id: string }> } };
+      (await ask<{ student: { due: Array<{ id: string }> } }>(get("/exercises", dara))).data;
     expect((await studentList()).student.due.map((e) => e.id)).toEqual([id]);
     expect((await ask(formPost(`/exercises/${id}`, { intent: "archive" }, ines))).status).toBe(302);
     expect((await studentList()).student.due).toEqual([]);
-    const teacherList = (await ask(get("/exercises", ines))).data as {
-      teacher: Array<{ id: string; archived: boolean }>;
-    };
+    const teacherList = (
+      await ask<{
+        teacher: Array<{ id: string; archived: boolean }>;
+      }>(get("/exercises", ines))
+    ).data;
     expect(teacherList.teacher).toEqual([expect.objectContaining({ id, archived: true })]);
   });
 });
@@ -143,7 +150,7 @@ describe("assigned to chosen students", () => {
     const id = await createExercise({ assignedTo: "students" }, [["students", ids.dara]]);
     expect(db().select().from(exerciseAssignees).all()).toEqual([{ exerciseId: id, userId: ids.dara }]);
     const listOf = async (jar: CookieJar) =>
-      ((await ask(get("/exercises", jar))).data as { student: { due: Array<{ id: string }> } }).student.due.map(
+      (await ask<{ student: { due: Array<{ id: string }> } }>(get("/exercises", jar))).data.student.due.map(
         (e) => e.id,
       );
     expect(await listOf(dara)).toEqual([id]);
@@ -162,9 +169,11 @@ describe("assigned to chosen students", () => {
   });
 
   it("refuses an empty choice", async () => {
-    const r = await ask(formPost("/exercises/new", { ...base, assignedTo: "students" }, ines));
+    const r = await ask<{ fieldErrors: { students: string } }>(
+      formPost("/exercises/new", { ...base, assignedTo: "students" }, ines),
+    );
     expect(r.status).toBe(400);
-    expect((r.data as { fieldErrors: { students: string } }).fieldErrors.students).toMatch(/at least one/);
+    expect(r.data.fieldErrors.students).toMatch(/at least one/);
   });
 });
 
@@ -217,9 +226,11 @@ describe("grading takes against the exercise", () => {
       ["missing", "Ab", 1],
       ["missing", "Eb", 1],
     ]);
-    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
-      mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }>;
-    };
+    const page = (
+      await ask<{
+        mine: Array<{ key: string; takes: Array<{ accuracy: number | null }> }>;
+      }>(get(`/exercises/${id}`, dara))
+    ).data;
     expect(page.mine[0].takes.map((t) => t.accuracy)).toEqual([0.75]);
   });
 
@@ -255,17 +266,21 @@ describe("grading takes against the exercise", () => {
     const id = await createExercise({ keys: "D G" });
     const first = await uploadAnalysed(dara, chordsMidi([D, G, Bm, D]), { exerciseId: id, key: "D" });
     const second = await uploadAnalysed(dara, chordsMidi([D, G, A, D]), { exerciseId: id, key: "D" });
-    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
-      mine: Array<{ key: string; takes: Array<{ id: string }>; best: number | null }>;
-    };
+    const page = (
+      await ask<{
+        mine: Array<{ key: string; takes: Array<{ id: string }>; best: number | null }>;
+      }>(get(`/exercises/${id}`, dara))
+    ).data;
     expect(page.mine.map((p) => [p.key, p.takes.length])).toEqual([
       ["D", 2],
       ["G", 0],
     ]);
     expect(page.mine[0].best).toBe(Math.max(first.analysis.summary.score, second.analysis.summary.score));
-    const list = (await ask(get("/exercises", dara))).data as {
-      student: { due: Array<{ id: string }>; done: unknown[] };
-    };
+    const list = (
+      await ask<{
+        student: { due: Array<{ id: string }>; done: unknown[] };
+      }>(get("/exercises", dara))
+    ).data;
     expect(list.student.due.map((e) => e.id)).toEqual([id]); // G has no take yet: still to do
     await uploadAnalysed(
       dara,
@@ -277,13 +292,17 @@ describe("grading takes against the exercise", () => {
       ]),
       { exerciseId: id, key: "G" },
     );
-    const after = (await ask(get("/exercises", dara))).data as {
-      student: { due: unknown[]; done: Array<{ id: string }> };
-    };
+    const after = (
+      await ask<{
+        student: { due: unknown[]; done: Array<{ id: string }> };
+      }>(get("/exercises", dara))
+    ).data;
     expect(after.student.done.map((e) => e.id)).toEqual([id]);
-    const teacher = (await ask(get(`/exercises/${id}`, ines))).data as {
-      students: Array<{ name: string; done: boolean }>;
-    };
+    const teacher = (
+      await ask<{
+        students: Array<{ name: string; done: boolean }>;
+      }>(get(`/exercises/${id}`, ines))
+    ).data;
     expect(teacher.students).toEqual([
       expect.objectContaining({ name: "Dara Okafor", done: true }),
       expect.objectContaining({ name: "Felix Brandt", done: false }),
@@ -328,18 +347,20 @@ describe("editing the target and the model answer", () => {
     };
     expect((await attach(new TextEncoder().encode("not a midi file at all"), "notes.txt")).status).toBe(400);
     expect((await attach(chordsMidi([D, G, A, D]), "model.mid")).status).toBe(302);
-    const page = (await ask(get(`/exercises/${id}`, dara))).data as {
-      modelTake: { name: string; notes: Array<{ midi: number }> };
-    };
+    const page = (
+      await ask<{
+        modelTake: { name: string; notes: Array<{ midi: number }> };
+      }>(get(`/exercises/${id}`, dara))
+    ).data;
     expect(page.modelTake.name).toBe("model.mid");
     expect(page.modelTake.notes.map((n) => n.midi)).toEqual([D, G, A, D].flat());
     expect((await ask(formPost(`/exercises/${id}`, { intent: "remove-model-take" }, ines))).status).toBe(302);
     expect(
       (
-        (await ask(get(`/exercises/${id}`, dara))).data as {
+        await ask<{
           modelTake: unknown;
-        }
-      ).modelTake,
+        }>(get(`/exercises/${id}`, dara))
+      ).data.modelTake,
     ).toBeNull();
   });
 });

@@ -66,8 +66,8 @@ export async function uploadTake(jar: CookieJar, bytes: Uint8Array, fields: Reco
     body: form,
     headers: { Cookie: jar.header(), Origin: ORIGIN },
   });
-  const result = await ask(request);
-  return { status: result.status, body: result.data as UploadAnswer };
+  const result = await ask<UploadAnswer>(request);
+  return { status: result.status, body: result.data };
 }
 
 export async function uploadAnalysed(jar: CookieJar, bytes: Uint8Array, fields: Record<string, string>) {

@@ -111,20 +111,24 @@ describe("comments and replies", () => {
 
   it("the take page carries the threads, marks them read for whoever opens it, and offers review to teachers only", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "0", body: "Keep the top note." });
-    const asStudent = (await ask(get(`/takes/${ids.take}`, dara))).data as {
-      feedback: {
-        threads: Array<{ changeIdx: number | null; unread: boolean }>;
-        asTeacher: boolean;
-        canReply: boolean;
-        review: unknown;
-      };
-    };
+    const asStudent = (
+      await ask<{
+        feedback: {
+          threads: Array<{ changeIdx: number | null; unread: boolean }>;
+          asTeacher: boolean;
+          canReply: boolean;
+          review: unknown;
+        };
+      }>(get(`/takes/${ids.take}`, dara))
+    ).data;
     expect(asStudent.feedback).toMatchObject({ asTeacher: false, canReply: true, review: null });
     expect(asStudent.feedback.threads).toEqual([expect.objectContaining({ changeIdx: 0, unread: true })]);
     expect(unreadFeedback(ids.dara, ids.studio)).toEqual([]);
-    const asTeacher = (await ask(get(`/takes/${ids.take}`, ines))).data as {
-      feedback: { asTeacher: boolean };
-    };
+    const asTeacher = (
+      await ask<{
+        feedback: { asTeacher: boolean };
+      }>(get(`/takes/${ids.take}`, ines))
+    ).data;
     expect(asTeacher.feedback.asTeacher).toBe(true);
     expect(reviewQueueCount(ids.studio)).toBe(1);
   });
@@ -145,11 +149,13 @@ describe("comments and replies", () => {
 
   it("shows the unread feedback on the student's home page, and the review count on the teacher's", async () => {
     await postFeedback(ines, { intent: "comment", changeIdx: "2", body: "Big jump here." });
-    const student = (await ask(get("/home", dara))).data as {
-      student: { unread: Array<{ takeId: string; count: number }> };
-    };
+    const student = (
+      await ask<{
+        student: { unread: Array<{ takeId: string; count: number }> };
+      }>(get("/home", dara))
+    ).data;
     expect(student.student.unread).toEqual([expect.objectContaining({ takeId: ids.take, count: 1 })]);
-    const teacher = (await ask(get("/home", ines))).data as { teacher: { toReview: number } };
+    const teacher = (await ask<{ teacher: { toReview: number } }>(get("/home", ines))).data;
     expect(teacher.teacher.toReview).toBe(1);
   });
 
@@ -203,10 +209,12 @@ describe("intended flags", () => {
     expect(page.score).toBe(byHand(6 / 7));
 
     // The take page shows the score without the intended flag, and the engine's beside it.
-    const shown = (await ask(get(`/takes/${ids.take}`, dara))).data as {
-      windowed: { summary: { score: number; scoreParts: { cleanliness: number } } };
-      feedback: { score: number; engineScore: number };
-    };
+    const shown = (
+      await ask<{
+        windowed: { summary: { score: number; scoreParts: { cleanliness: number } } };
+        feedback: { score: number; engineScore: number };
+      }>(get(`/takes/${ids.take}`, dara))
+    ).data;
     expect(shown.windowed.summary.score).toBe(byHand(6 / 7));
     expect(shown.windowed.summary.scoreParts.cleanliness).toBeCloseTo(6 / 7, 10);
     expect(shown.feedback).toMatchObject({ score: byHand(6 / 7), engineScore: engine.score });
@@ -269,7 +277,7 @@ describe("review queue", () => {
     expect(done.status).toBe(302);
     expect(done.location).toBe(`/review?undo=${ids.take}`);
     expect(reviewQueue(ids.studio).map((t) => t.id)).toEqual([second.id]);
-    const page = (await ask(get(`/review?undo=${ids.take}`, ines))).data as { undo: string[] };
+    const page = (await ask<{ undo: string[] }>(get(`/review?undo=${ids.take}`, ines))).data;
     expect(page.undo).toEqual([ids.take]);
 
     await ask(formPost("/review", { intent: "unreview", takeId: ids.take }, ines));

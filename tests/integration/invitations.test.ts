@@ -55,11 +55,11 @@ describe("invitations", () => {
     const expires = rows[0].expiresAt.getTime() - rows[0].createdAt.getTime();
     expect(Math.round(expires / 3_600_000)).toBe(7 * 24);
 
-    const list = await ask(get("/dev/mail"));
-    const listed = (list.data as { messages: { id: string; subject: string }[] }).messages;
+    const list = await ask<{ messages: { id: string; subject: string }[] }>(get("/dev/mail"));
+    const listed = list.data.messages;
     expect(listed).toHaveLength(3);
-    const shown = await ask(get(`/dev/mail/${listed[0].id}`));
-    expect((shown.data as { message: { text: string } }).message.text).toContain("/invite/");
+    const shown = await ask<{ message: { text: string } }>(get(`/dev/mail/${listed[0].id}`));
+    expect(shown.data.message.text).toContain("/invite/");
   });
 
   it("refuses invalid addresses by name and sends nothing", async () => {
@@ -109,9 +109,9 @@ describe("invitations", () => {
       active: { studioId: studio.id, role: "student" },
     });
 
-    const reused = await ask(get(link));
+    const reused = await ask<{ message: string }>(get(link));
     expect(reused.status).toBe(410);
-    expect((reused.data as { message: string }).message).toMatch(/already used/);
+    expect(reused.data.message).toMatch(/already used/);
     const reusedPost = await ask(
       post(link, { intent: "create", name: "Someone", password: "a-good-password", confirm: "a-good-password" }),
     );
@@ -127,9 +127,9 @@ describe("invitations", () => {
       .update(invitations)
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .run();
-    const page = await ask(get(link));
+    const page = await ask<{ message: string }>(get(link));
     expect(page.status).toBe(410);
-    expect((page.data as { message: string }).message).toMatch(/expired/);
+    expect(page.data.message).toMatch(/expired/);
     const accept = await ask(
       post(link, { intent: "create", name: "Dara", password: "a-good-password", confirm: "a-good-password" }),
     );
@@ -142,16 +142,18 @@ describe("invitations", () => {
     await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example, felix@tidewater.example" }, jar));
     const daraLink = linkIn(mail.latestTo("dara@tidewater.example"));
     const felixLink = linkIn(mail.latestTo("felix@tidewater.example"));
-    const pending = (await ask(get("/students", jar))).data as {
-      pending: { id: string; email: string }[];
-    };
+    const pending = (
+      await ask<{
+        pending: { id: string; email: string }[];
+      }>(get("/students", jar))
+    ).data;
     const dara = pending.pending.find((p) => p.email === "dara@tidewater.example")!;
     const felix = pending.pending.find((p) => p.email === "felix@tidewater.example")!;
 
     expect((await ask(post("/students", { intent: "revoke", invitationId: dara.id }, jar))).status).toBe(200);
-    const revoked = await ask(get(daraLink));
+    const revoked = await ask<{ message: string }>(get(daraLink));
     expect(revoked.status).toBe(410);
-    expect((revoked.data as { message: string }).message).toMatch(/withdrawn/);
+    expect(revoked.data.message).toMatch(/withdrawn/);
 
     expect((await ask(post("/students", { intent: "resend", invitationId: felix.id }, jar))).status).toBe(200);
     const newLink = linkIn(mail.latestTo("felix@tidewater.example"));
@@ -237,11 +239,11 @@ describe("invitations", () => {
     const { jar } = await studioWithOwner();
     await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
     const link = linkIn(mail.latestTo("dara@tidewater.example"));
-    const refused = await ask(
+    const refused = await ask<{ formError: string }>(
       post(link, { intent: "create", name: "Ines", password: "a-good-password", confirm: "a-good-password" }, jar),
     );
     expect(refused.status).toBe(403);
-    expect((refused.data as { formError: string }).formError).toMatch(/This invitation is for dara@tidewater\.example/);
+    expect(refused.data.formError).toMatch(/This invitation is for dara@tidewater\.example/);
     expect((await ask(get(link))).status).toBe(200);
   });
 
@@ -257,10 +259,12 @@ describe("invitations", () => {
     expect(over.status).toBe(429);
     expect(over.data).toMatchObject({ fieldErrors: { emails: expect.stringMatching(/1 left/) } });
     expect((await ask(post("/students", { intent: "invite", emails: "a@tidewater.example" }, jar))).status).toBe(200);
-    const pending = (await ask(get("/students", jar))).data as {
-      pending: { id: string }[];
-      invitesLeftToday: number;
-    };
+    const pending = (
+      await ask<{
+        pending: { id: string }[];
+        invitesLeftToday: number;
+      }>(get("/students", jar))
+    ).data;
     expect(pending.invitesLeftToday).toBe(0);
     const resend = await ask(post("/students", { intent: "resend", invitationId: pending.pending[0].id }, jar));
     expect(resend.status).toBe(429);
@@ -271,8 +275,10 @@ describe("invitations", () => {
     const { studio, jar } = await studioWithOwner();
     const dara = makeUser("dara@tidewater.example");
     join(studio.id, dara.id, "student");
-    const result = await ask(post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar));
-    expect((result.data as { message: string }).message).toMatch(
+    const result = await ask<{ message: string }>(
+      post("/students", { intent: "invite", emails: "dara@tidewater.example" }, jar),
+    );
+    expect(result.data.message).toMatch(
       /0 invitations sent\. Skipped: dara@tidewater\.example \(already in this studio\)/,
     );
     expect(mail.all()).toHaveLength(0);

@@ -220,13 +220,13 @@ describe("CSV export", () => {
   const url = "/api/export/progress.csv?from=2026-11-16&to=2026-11-29";
 
   it("parses back with csv-parse (7.0.3) to the same numbers: names first, headers in words, the id last", async () => {
-    const result = await ask(get(url, jars.teacher));
+    const result = await ask<string>(get(url, jars.teacher));
     expect(result.status).toBe(200);
     expect(result.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(result.headers.get("content-disposition")).toBe(
       'attachment; filename="nearnote-progress-2026-11-16-to-2026-11-29.csv"',
     );
-    const text = result.data as string;
+    const text = result.data;
     expect(text.charCodeAt(0)).not.toBe(0xfeff); // plain UTF-8, no byte-order mark
     // RFC 4180: fields with commas or quotes are quoted, inner quotes doubled, CRLF line ends.
     expect(text).toContain('"Zoë ""Ace"" Åkesson, Jr."');
@@ -287,7 +287,7 @@ describe("CSV export", () => {
     // Ten weeks past today: the range asks for weeks still to come.
     const later = new Date(Date.now() + 70 * 86_400_000).toISOString().slice(0, 10);
     const records: Record<string, string>[] = parse(
-      (await ask(get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher))).data as string,
+      (await ask<string>(get(`/api/export/progress.csv?from=2026-11-16&to=${later}`, jars.teacher))).data,
       { columns: true },
     );
     const weeks = [...new Set(records.map((r) => r["ISO week"]))];
@@ -297,14 +297,14 @@ describe("CSV export", () => {
     expect(records.length).toBe(2 * weeks.length);
     // A range wholly in the future has the header and nothing else.
     const future: string[][] = parse(
-      (await ask(get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher))).data as string,
+      (await ask<string>(get("/api/export/progress.csv?from=2099-01-05&to=2099-02-01", jars.teacher))).data,
     );
     expect(future.length).toBe(1);
   });
 
   it("exports only the chosen students, and refuses a bad or missing range with 400", async () => {
-    const one = await ask(get(`${url}&student=${ids.zoe}`, jars.teacher));
-    expect((parse(one.data as string, { columns: true }) as unknown[]).length).toBe(2);
+    const one = await ask<string>(get(`${url}&student=${ids.zoe}`, jars.teacher));
+    expect((parse(one.data, { columns: true }) as unknown[]).length).toBe(2);
     expect((await ask(get("/api/export/progress.csv", jars.teacher))).status).toBe(400);
     expect((await ask(get("/api/export/progress.csv?from=2026-12-01&to=2026-11-01", jars.teacher))).status).toBe(400);
     expect((await ask(get("/api/export/progress.csv?from=2026-02-30&to=2026-03-01", jars.teacher))).status).toBe(400);
@@ -312,7 +312,7 @@ describe("CSV export", () => {
 
   it("keeps a name that looks like a formula as text", async () => {
     db().update(users).set({ name: "=SUM(A1:A9)" }).where(eq(users.id, ids.bjorn)).run();
-    const records: Record<string, string>[] = parse((await ask(get(url, jars.teacher))).data as string, {
+    const records: Record<string, string>[] = parse((await ask<string>(get(url, jars.teacher))).data, {
       columns: true,
     });
     expect(records[0].Student).toBe("'=SUM(A1:A9)");
@@ -334,18 +334,18 @@ describe("CSV export", () => {
 
 describe("chart API", () => {
   it("returns one series per chosen student with the chosen metric per week", async () => {
-    const result = await ask(
+    const result = await ask<{
+      metric: string;
+      weeks: string[];
+      series: { studentId: string; values: (number | null)[] }[];
+    }>(
       get(
         `/api/progress?metric=smoothness&from=2026-11-16&to=2026-11-29&student=${ids.zoe}&student=${ids.bjorn}`,
         jars.teacher,
       ),
     );
     expect(result.status).toBe(200);
-    const body = result.data as {
-      metric: string;
-      weeks: string[];
-      series: { studentId: string; values: (number | null)[] }[];
-    };
+    const body = result.data;
     expect(body.metric).toBe("smoothness");
     expect(body.weeks).toEqual(["2026-W47", "2026-W48"]);
     const byId = Object.fromEntries(body.series.map((s) => [s.studentId, s.values]));

@@ -233,9 +233,9 @@ describe("a malformed multipart upload", () => {
       body,
       headers: { Cookie: jar.header(), Origin: ORIGIN, "Content-Type": `multipart/form-data; boundary=${boundary}` },
     });
-    const r = await ask(request);
+    const r = await ask<{ error: string }>(request);
     expect(r.status).toBe(400);
-    expect((r.data as { error: string }).error).toMatch(/could not be read/);
+    expect(r.data.error).toMatch(/could not be read/);
     expect(takeRows()).toBe(0);
     expect(storedFiles()).toHaveLength(0);
   });

@@ -55,9 +55,11 @@ async function setup() {
     (await getSessionUser(new Request(ORIGIN, { headers: { Cookie: daraJar.header() } })))!;
   // Make sure Harbour Lane is active for the upload.
   switchActiveStudio((await sessionUser()).sessionId, dara.id, harbour.id);
-  const up = await ask(uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))));
+  const up = await ask<{ id: string }>(
+    uploadRequest(daraJar, multipart("first.mid", sample("clumsy-root-position-d.mid"))),
+  );
   expect(up.status).toBe(201);
-  const takeId = (up.data as { id: string }).id;
+  const takeId = up.data.id;
   return { harbour, cliff, dara, ines, exercise, daraJar, takeId, sessionUser };
 }
 

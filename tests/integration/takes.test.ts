@@ -60,11 +60,11 @@ async function setup() {
 describe("uploading takes", () => {
   it("stores a good take, its file and every analysis row in one go (201)", async () => {
     const s = await setup();
-    const r = await ask(
+    const r = await ask<{ id: string; status: string; analysis: { chords: unknown[]; changes: unknown[] } }>(
       upload(s.dara, multipart([{ name: "../three chords.mid", bytes: sample("three-chord-smoothing-d.mid") }])),
     );
     expect(r.status).toBe(201);
-    const body = r.data as { id: string; status: string; analysis: { chords: unknown[]; changes: unknown[] } };
+    const body = r.data;
     expect(body.status).toBe("analysed");
     const take = db().select().from(takes).where(eq(takes.id, body.id)).get()!;
     expect(take.originalName).toBe("three chords.mid");
@@ -85,11 +85,11 @@ describe("uploading takes", () => {
 
   it("refuses a file that is not MIDI with 415 and keeps nothing", async () => {
     const s = await setup();
-    const r = await ask(
+    const r = await ask<{ error: string }>(
       upload(s.dara, multipart([{ name: "notes.mid", bytes: new TextEncoder().encode("just some text") }])),
     );
     expect(r.status).toBe(415);
-    expect((r.data as { error: string }).error).toMatch(/not a MIDI file/);
+    expect(r.data.error).toMatch(/not a MIDI file/);
     expect(rows(takes)).toBe(0);
     expect(storedFiles()).toHaveLength(0);
   });
@@ -101,9 +101,9 @@ describe("uploading takes", () => {
     const r1 = await ask(upload(s.dara, multipart([{ name: "big.mid", bytes: big }])));
     expect(r1.status).toBe(413);
     const eleven = Array.from({ length: 11 }, (_, i) => ({ name: `t${i}.mid`, bytes: sample("held-bass-d.mid") }));
-    const r2 = await ask(upload(s.dara, multipart(eleven)));
+    const r2 = await ask<{ error: string }>(upload(s.dara, multipart(eleven)));
     expect(r2.status).toBe(413);
-    expect((r2.data as { error: string }).error).toMatch(/at most 10 files/);
+    expect(r2.data.error).toMatch(/at most 10 files/);
     expect(rows(takes)).toBe(0);
     expect(storedFiles()).toHaveLength(0);
   });
@@ -111,9 +111,11 @@ describe("uploading takes", () => {
   it("keeps a truncated MIDI file as a failed take (422) so it can be analysed again later", async () => {
     const s = await setup();
     const whole = sample("sunday-ballad-ab.mid");
-    const r = await ask(upload(s.dara, multipart([{ name: "cut.mid", bytes: whole.slice(0, 40) }])));
+    const r = await ask<{ id: string; status: string; error: string }>(
+      upload(s.dara, multipart([{ name: "cut.mid", bytes: whole.slice(0, 40) }])),
+    );
     expect(r.status).toBe(422);
-    const body = r.data as { id: string; status: string; error: string };
+    const body = r.data;
     expect(body.status).toBe("failed");
     expect(body.error).toMatch(/cut short or damaged/);
     const take = db().select().from(takes).where(eq(takes.id, body.id)).get()!;
@@ -125,10 +127,10 @@ describe("uploading takes", () => {
   it("answers 409 with the existing take when the same student sends the same content again", async () => {
     const s = await setup();
     const bytes = sample("held-bass-d.mid");
-    const first = await ask(upload(s.dara, multipart([{ name: "a.mid", bytes }])));
-    const again = await ask(upload(s.dara, multipart([{ name: "b.mid", bytes }])));
+    const first = await ask<{ id: string }>(upload(s.dara, multipart([{ name: "a.mid", bytes }])));
+    const again = await ask<{ id: string }>(upload(s.dara, multipart([{ name: "b.mid", bytes }])));
     expect(again.status).toBe(409);
-    expect((again.data as { id: string }).id).toBe((first.data as { id: string }).id);
+    expect(again.data.id).toBe(first.data.id);
     expect(storedFiles()).toHaveLength(1);
     // Another student may send the same file: it is their own take.
     const other = await ask(upload(s.felix, multipart([{ name: "a.mid", bytes }])));
@@ -137,7 +139,7 @@ describe("uploading takes", () => {
 
   it("grades a take against its exercise and uses the file's own date", async () => {
     const s = await setup();
-    const r = await ask(
+    const r = await ask<{ id: string; analysis: { summary: { accuracy?: number; key: string } } }>(
       upload(
         s.dara,
         multipart([{ name: "d.mid", bytes: sample("three-chord-smoothing-d.mid") }], {
@@ -148,7 +150,7 @@ describe("uploading takes", () => {
       ),
     );
     expect(r.status).toBe(201);
-    const body = r.data as { id: string; analysis: { summary: { accuracy?: number; key: string } } };
+    const body = r.data;
     expect(body.analysis.summary.accuracy).toBeTypeOf("number");
     expect(body.analysis.summary.key).toBe("D");
     const take = db().select().from(takes).where(eq(takes.id, body.id)).get()!;
@@ -162,26 +164,28 @@ describe("uploading takes", () => {
 describe("reading and managing takes", () => {
   async function uploaded() {
     const s = await setup();
-    const r = await ask(upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])));
-    return { ...s, takeId: (r.data as { id: string }).id };
+    const r = await ask<{ id: string }>(
+      upload(s.dara, multipart([{ name: "d.mid", bytes: sample("clumsy-root-position-d.mid") }])),
+    );
+    return { ...s, takeId: r.data.id };
   }
 
   it("serves the take to its student and their teacher, and 403 to another student", async () => {
     const s = await uploaded();
-    const mine = await ask(get(`/api/takes/${s.takeId}`, s.dara));
-    expect(mine.status).toBe(200);
-    const body = mine.data as {
+    const mine = await ask<{
       id: string;
       originalName: string;
       analysis: { chords: unknown[]; summary: { analysisVersion: number } };
-    };
+    }>(get(`/api/takes/${s.takeId}`, s.dara));
+    expect(mine.status).toBe(200);
+    const body = mine.data;
     expect(body.id).toBe(s.takeId);
     expect(body.analysis.summary.analysisVersion).toBe(ANALYSIS_VERSION);
     expect((await ask(get(`/api/takes/${s.takeId}`, s.ines))).status).toBe(200);
     expect((await ask(get(`/api/takes/${s.takeId}`, s.felix))).status).toBe(403);
     expect((await ask(get(`/api/takes/${s.takeId}/file`, s.felix))).status).toBe(403);
-    const list = await ask(get(`/api/takes?student=${s.ids.dara}`, s.ines));
-    expect((list.data as { takes: { id: string }[] }).takes.map((t) => t.id)).toEqual([s.takeId]);
+    const list = await ask<{ takes: { id: string }[] }>(get(`/api/takes?student=${s.ids.dara}`, s.ines));
+    expect(list.data.takes.map((t) => t.id)).toEqual([s.takeId]);
     expect((await ask(get(`/api/takes?student=${s.ids.dara}`, s.felix))).status).toBe(403);
     expect((await ask(get(`/api/takes`, s.felix))).data).toEqual({ takes: [] });
   });

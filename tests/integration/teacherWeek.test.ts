@@ -172,8 +172,10 @@ describe("teacher home", () => {
     makeExercise(fresh.id);
     expect(steps()).toBeNull(); // all done: the list goes away
     // Through the page: the loader hands the teacher's week to the view.
-    const page = await ask(get("/home", await jarFor(owner.id)));
-    const d = page.data as { teacher: { week: { firstRun: unknown; notPractised: unknown[] } } };
+    const page = await ask<{ teacher: { week: { firstRun: unknown; notPractised: unknown[] } } }>(
+      get("/home", await jarFor(owner.id)),
+    );
+    const d = page.data;
     expect(d.teacher.week.firstRun).toBeNull();
     expect(d.teacher.week.notPractised).toEqual([]);
   });
@@ -296,8 +298,10 @@ describe("takes to listen to", () => {
 
   it("shows the page with the studio's time zone for a teacher and refuses a student", async () => {
     db().update(studios).set({ timeZone: "Asia/Tokyo" }).where(eq(studios.id, s.studio)).run();
-    const page = await ask(get("/review?student=" + s.felix, await jarFor(s.teacher)));
-    const d = page.data as { timeZone: string; list: { total: number } };
+    const page = await ask<{ timeZone: string; list: { total: number } }>(
+      get("/review?student=" + s.felix, await jarFor(s.teacher)),
+    );
+    const d = page.data;
     expect(d.timeZone).toBe("Asia/Tokyo");
     expect(d.list.total).toBe(10);
     expect((await ask(get("/review", await jarFor(s.dara)))).status).toBe(403);
