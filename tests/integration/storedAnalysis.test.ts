@@ -28,7 +28,7 @@ async function storedTake(bytes: Uint8Array) {
   const student = makeUser("mara@tidewater.example", "Mara");
   join(studio.id, student.id, "student");
   const fileKey = newFileKey();
-  await takeStorage().put(fileKey, new File([bytes], "take.mid", { type: "audio/midi" }));
+  await takeStorage().put(fileKey, new File([new Uint8Array(bytes)], "take.mid", { type: "audio/midi" }));
   const id = createTakeRecord({
     studentId: student.id,
     studioId: studio.id,
