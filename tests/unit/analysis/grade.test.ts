@@ -3,6 +3,7 @@
 // Voicings are MIDI note numbers (middle C = 60, the MIDI spec's numbering); the expected
 // values are worked by hand from RULES.md rules 8, 10, 11, 12 and 19, and the low-interval
 // limits are checked against lowInterval.ts's own test (common practice, from memory).
+import { Note } from "tonal";
 import { describe, expect, it } from "vitest";
 import { cleanPrefix, gradeChange, gradeChanges } from "../../../app/analysis/grade";
 import { isMuddyLowInterval } from "../../../app/analysis/lowInterval";
@@ -105,5 +106,41 @@ describe("rule 10: the melody is read in time order whatever order it is given i
     expect(inOrder[0].topLineFrom).toBe(83);
     expect(reversed[0].topLineFrom).toBe(83);
     expect(reversed[0].flags).not.toContain("top-line-leap");
+  });
+});
+
+describe("the suggestions of a change (rule 8): each kind at most once, each moving less than played", () => {
+  it.each([0, 2, -3])("F3 A3 C4 → Bb3 D4 F4 (RULES.md worked example), shifted %i", (t) => {
+    const a = harmony(
+      [53, 57, 60].map((n) => n + t),
+      5 + t,
+      0,
+      0,
+    );
+    const b = harmony(
+      [58, 62, 65].map((n) => n + t),
+      10 + t,
+      0,
+      1,
+    );
+    const c = gradeChange(0, 1, a, b, null);
+    expect(c.motion).toBe(15);
+    // the smoothest moves the top (F4 to D4), so a voicing keeping F4 on top is offered too
+    expect(c.suggestions.map((s) => s.kind).slice(0, 2)).toEqual(["smoothest", "keep-top"]);
+    const [smoothest, keepTop] = c.suggestions;
+    const keepBass = c.suggestions.find((s) => s.kind === "keep-bass");
+    expect(smoothest).toMatchObject({ voicing: [53 + t, 58 + t, 62 + t], motion: 3 });
+    expect(keepTop.voicing[keepTop.voicing.length - 1]).toBe(65 + t);
+    if (keepBass) expect(keepBass.voicing[0]).toBe(58 + t);
+    for (const s of c.suggestions) {
+      expect(s.motion).toBeLessThan(15);
+      expect(s.motion).toBeGreaterThanOrEqual(3);
+      // each names its notes (tonal's Note.midi reads them back)
+      expect(s.noteNames.map((n) => Note.midi(n))).toEqual(s.voicing);
+    }
+    // no two suggestions, and none the voicing as played
+    const seen = new Set(c.suggestions.map((s) => s.voicing.join(",")));
+    expect(seen.size).toBe(c.suggestions.length);
+    expect(seen.has(b.notes.join(","))).toBe(false);
   });
 });
