@@ -13,7 +13,6 @@ import { pc } from "./pitch";
 import { boundaryRules, HELD_FOR, type BoundaryRules } from "./boundaries";
 import { heardEndOf, type Soundings } from "./sounding";
 import type { Strike } from "./strikes";
-import type { NoteEvent } from "./types";
 
 /** Chord templates for segmentation: triads, sevenths and sus chords (no added-tone chords, rule 15). */
 export const TEMPLATES: ReadonlyArray<{ name: string; intervals: readonly number[] }> = [
