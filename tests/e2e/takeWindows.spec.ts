@@ -29,11 +29,20 @@ test("the 10-minute take: jumping to its last change and scrolling the roll to t
 
   // The roll scrolled to its end asks for the last window (the notes and chords drawn there).
   const lastWindow = Math.floor((count - 1) / 40) * 40;
-  const fetched = page.waitForResponse(
-    (r) => r.url().includes(`/api/takes/${id}/window?from=${lastWindow}&`) && r.status() === 200,
-  );
-  await page.getByTestId("roll-scroller").evaluate((el) => el.scrollTo({ left: el.scrollWidth }));
-  await fetched;
+  let fetched = false;
+  page.on("response", (r) => {
+    if (r.url().includes(`/api/takes/${id}/window?from=${lastWindow}&`) && r.status() === 200) fetched = true;
+  });
+  // A scroll made before the page's scripts have hydrated it is not heard: scroll again
+  // (back, then to the end) until the window is asked for.
+  await expect(async () => {
+    await page.getByTestId("roll-scroller").evaluate(async (el) => {
+      el.scrollTo({ left: 0 });
+      await new Promise((r) => requestAnimationFrame(r));
+      el.scrollTo({ left: el.scrollWidth });
+    });
+    await expect.poll(() => fetched, { timeout: 3_000 }).toBe(true);
+  }).toPass({ timeout: 60_000 });
 
   // "Go to change N" shows its window: the row and the drawing of the last change appear.
   await page.getByLabel("Go to change").fill(String(count));
